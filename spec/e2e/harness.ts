@@ -1,0 +1,101 @@
+/**
+ * Browser end-to-end harness: starts the real server (built client, fresh PGlite data folder,
+ * demo seed) as a child process on 127.0.0.1 and drives Debian's Chromium with playwright-core.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { chromium, type Browser, type Page } from 'playwright-core';
+
+export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+export const DEMO_PASSWORD = 'runnel-demo-2026';
+export const demoEmail = (role: string) => `${role}@runnel.test`;
+
+const repoRoot = new URL('../..', import.meta.url).pathname;
+
+export interface RunningApp {
+  baseUrl: string;
+  dataDir: string;
+  stop(): Promise<void>;
+}
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const probe = createServer();
+    probe.once('error', reject);
+    probe.listen(0, '127.0.0.1', () => {
+      const address = probe.address();
+      const port = typeof address === 'object' && address ? address.port : 0;
+      probe.close(() => resolve(port));
+    });
+  });
+}
+
+async function waitForServer(baseUrl: string, child: ChildProcess, log: () => string): Promise<void> {
+  for (let attempt = 0; attempt < 240; attempt++) {
+    if (child.exitCode !== null) throw new Error(`server exited early:\n${log()}`);
+    try {
+      const res = await fetch(`${baseUrl}/api/csrf`);
+      if (res.ok) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`server did not answer within 60 s:\n${log()}`);
+}
+
+/** Starts `tsx server/main.ts` with a throw-away data folder (or the given one, to test restarts). */
+export async function startApp(dataDir?: string): Promise<RunningApp> {
+  if (!existsSync(join(repoRoot, 'dist/client/browser/index.html'))) {
+    throw new Error('dist/client is missing: run `npx ng build` (npm test does it first)');
+  }
+  const dir = dataDir ?? mkdtempSync(join(tmpdir(), 'runnel-e2e-'));
+  const port = await freePort();
+  const baseUrl = `http://127.0.0.1:${port}`;
+  let output = '';
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
+    cwd: repoRoot,
+    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', RUNNEL_DATA_DIR: dir, NODE_ENV: 'test', PUBLIC_URL: baseUrl },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  child.stdout?.on('data', (d) => (output += d));
+  child.stderr?.on('data', (d) => (output += d));
+  await waitForServer(baseUrl, child, () => output);
+  return {
+    baseUrl,
+    dataDir: dir,
+    async stop() {
+      if (child.exitCode === null) {
+        child.kill('SIGTERM');
+        await new Promise((r) => { child.once('exit', r); setTimeout(r, 5000).unref(); });
+      }
+      if (!dataDir) rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
+
+export async function launchBrowser(): Promise<Browser> {
+  // playwright-core gives each launch a fresh, throw-away profile directory.
+  return chromium.launch({
+    executablePath: CHROMIUM_PATH,
+    headless: true,
+    args: [
+      '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update',
+      '--disable-sync', '--no-first-run', '--disable-quic',
+    ],
+  });
+}
+
+export const hasChromium = () => existsSync(CHROMIUM_PATH);
+
+/** Signs in through the real sign-in screen and waits for the projects list. */
+export async function signIn(page: Page, baseUrl: string, role: string): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByTestId('signin-email').fill(demoEmail(role));
+  await page.getByTestId('signin-password').fill(DEMO_PASSWORD);
+  await page.getByTestId('signin-submit').click();
+  await page.waitForURL(/\/projects/);
+}
