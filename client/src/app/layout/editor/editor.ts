@@ -1,0 +1,445 @@
+import type { LinkKind, NetworkDocument, NetworkLink, NetworkNode, NodeKind } from '../../../../../engine/network-document';
+import { isNodeKind, LINK_KINDS, nextId, NODE_KINDS } from '../kinds';
+import { CalibrateTool } from '../tools/calibrate-tool';
+import { LinkTool } from '../tools/link-tool';
+import { PanTool } from '../tools/pan-tool';
+import { PlaceTool } from '../tools/place-tool';
+import { SelectTool } from '../tools/select-tool';
+import type { PointerInput, Tool, ToolId } from '../tools/tool';
+import { DocumentStore, linkPoints } from './document-store';
+import { boundsOf, distance, Point, projectOnPolyline, Rect, rectContains, snapPoint } from './geometry';
+import { Viewport } from './viewport';
+
+/** Transient drawing aids the canvas shows on its overlay layer (never part of the document). */
+export interface Preview {
+  marquee?: Rect;
+  rubberBand?: Point[];
+  ghost?: { kind: NodeKind; at: Point };
+  calibration?: [Point, Point];
+}
+
+export type EditorChange = 'document' | 'selection' | 'view' | 'preview' | 'tool' | 'hover' | 'message';
+
+/** Link hit tolerance, CSS px either side of the line. */
+const LINK_HIT_PX = 6;
+
+/** Keyboard shortcuts, shown by the help dialog and handled by `handleKey`. */
+export const SHORTCUTS: { keys: string; action: string }[] = [
+  { keys: 'V', action: 'Select tool' },
+  { keys: 'H', action: 'Pan tool (or hold Space, or drag with the middle button)' },
+  { keys: 'P', action: 'Draw a pipe' },
+  { keys: 'U', action: 'Draw a pump' },
+  { keys: 'L', action: 'Draw a valve' },
+  { keys: 'F', action: 'Fit the network in view' },
+  { keys: 'G', action: 'Grid snapping on/off' },
+  { keys: 'Delete / Backspace', action: 'Delete the selection' },
+  { keys: 'Ctrl/⌘ C, Ctrl/⌘ V', action: 'Copy, paste (new ids)' },
+  { keys: 'Ctrl/⌘ A', action: 'Select everything' },
+  { keys: 'Ctrl/⌘ Z', action: 'Undo' },
+  { keys: 'Shift Ctrl/⌘ Z, Ctrl Y', action: 'Redo' },
+  { keys: 'Esc', action: 'Cancel the drawing or gesture; clear the selection' },
+  { keys: 'Wheel', action: 'Zoom at the cursor' },
+  { keys: '?', action: 'This help' },
+];
+
+/**
+ * The Layout editor without any browser: the document store, selection, viewport, grid and the
+ * active tool. The canvas view and the Angular screen feed it pointer and key input and listen
+ * for changes; tests drive it the same way.
+ */
+export class Editor {
+  readonly store: DocumentStore;
+  readonly viewport: Viewport;
+  private selected = new Set<string>();
+  private tool: Tool;
+  private panOverride: PanTool | null = null;
+  private listeners = new Set<(what: EditorChange) => void>();
+  private clipboard: { nodes: NetworkNode[]; links: NetworkLink[] } | null = null;
+  private pasteCount = 0;
+  preview: Preview = {};
+  hover: string | null = null;
+  /** Node ids being dragged (the view lifts them to the drag layer). */
+  dragging: string[] = [];
+  grid = { step_m: 1, snap: true };
+  readOnly = false;
+  message = '';
+  spaceHeld = false;
+  /** Called by the calibrate tool with the two clicked points; the screen asks for the distance. */
+  onCalibrationRequest: ((a: Point, b: Point) => void) | null = null;
+
+  constructor(doc?: NetworkDocument, width = 800, height = 600) {
+    this.store = new DocumentStore(doc);
+    this.viewport = new Viewport(width, height);
+    this.tool = new SelectTool(this);
+    this.store.subscribe(() => {
+      this.pruneSelection();
+      this.emit('document');
+    });
+  }
+
+  // ---- change notification ----
+  subscribe(fn: (what: EditorChange) => void): () => void {
+    this.listeners.add(fn);
+    return () => this.listeners.delete(fn);
+  }
+
+  private emit(what: EditorChange): void {
+    for (const fn of this.listeners) fn(what);
+  }
+
+  // ---- tools ----
+  get activeTool(): Tool {
+    return this.panOverride ?? this.tool;
+  }
+
+  setTool(id: ToolId, option?: NodeKind | LinkKind): void {
+    if (this.readOnly && id !== 'select' && id !== 'pan') return;
+    this.tool.exit();
+    this.tool =
+      id === 'place' ? new PlaceTool(this, (option as NodeKind) ?? 'tee')
+      : id === 'link' ? new LinkTool(this, (option as LinkKind) ?? 'pipe')
+      : id === 'pan' ? new PanTool(this)
+      : id === 'calibrate' ? new CalibrateTool(this)
+      : new SelectTool(this);
+    this.tool.enter();
+    this.emit('tool');
+  }
+
+  pointerDown(p: PointerInput): void {
+    if (p.button === 1 || (this.spaceHeld && p.button === 0)) {
+      this.panOverride = new PanTool(this);
+      this.panOverride.down(p);
+      return;
+    }
+    this.tool.down(p);
+  }
+
+  pointerMove(p: PointerInput): void {
+    this.activeTool.move(p);
+  }
+
+  pointerUp(p: PointerInput): void {
+    if (this.panOverride) {
+      this.panOverride.up();
+      this.panOverride = null;
+      return;
+    }
+    this.tool.up(p);
+  }
+
+  /**
+   * Keyboard input (key as in KeyboardEvent.key). Returns true when handled so the caller can
+   * prevent the browser default.
+   */
+  handleKey(key: string, mods: { mod: boolean; shift: boolean }): boolean {
+    const k = key.length === 1 ? key.toLowerCase() : key;
+    if (mods.mod) {
+      if (k === 'z' && !mods.shift) return this.undo(), true;
+      if ((k === 'z' && mods.shift) || k === 'y') return this.redo(), true;
+      if (k === 'c') return this.copy(), true;
+      if (k === 'v') return this.paste(), true;
+      if (k === 'a') return this.select([...this.store.doc.nodes.map((n) => n.id), ...this.store.doc.links.map((l) => l.id)]), true;
+      return false;
+    }
+    if (this.tool.key?.(key)) return true;
+    if (k === 'Escape') {
+      if (!this.activeTool.cancel()) this.select([]);
+      return true;
+    }
+    if (k === 'Delete' || k === 'Backspace') return this.deleteSelection(), true;
+    if (k === 'v') return this.setTool('select'), true;
+    if (k === 'h') return this.setTool('pan'), true;
+    if (k === 'p') return this.setTool('link', 'pipe'), true;
+    if (k === 'u') return this.setTool('link', 'pump'), true;
+    if (k === 'l') return this.setTool('link', 'valve'), true;
+    if (k === 'f') return this.fitToView(), true;
+    if (k === 'g') return this.toggleSnap(), true;
+    return false;
+  }
+
+  // ---- selection ----
+  get selection(): ReadonlySet<string> {
+    return this.selected;
+  }
+
+  isSelected(id: string): boolean {
+    return this.selected.has(id);
+  }
+
+  select(ids: Iterable<string>): void {
+    const next = new Set(ids);
+    if (next.size === this.selected.size && [...next].every((id) => this.selected.has(id))) return;
+    this.selected = next;
+    this.emit('selection');
+  }
+
+  toggleSelected(id: string): void {
+    const next = new Set(this.selected);
+    if (next.has(id)) next.delete(id);
+    else next.add(id);
+    this.selected = next;
+    this.emit('selection');
+  }
+
+  selectedNodeIds(): string[] {
+    return this.store.doc.nodes.filter((n) => this.selected.has(n.id)).map((n) => n.id);
+  }
+
+  private pruneSelection(): void {
+    const doc = this.store.doc;
+    const alive = new Set([...doc.nodes.map((n) => n.id), ...doc.links.map((l) => l.id)]);
+    const kept = [...this.selected].filter((id) => alive.has(id));
+    if (kept.length !== this.selected.size) {
+      this.selected = new Set(kept);
+      this.emit('selection');
+    }
+  }
+
+  // ---- hit testing (pure maths on the document; Konva shapes do not listen) ----
+  /** Topmost element under a screen point: nodes first (their symbol radius), then links. */
+  hitTest(screen: Point): string | null {
+    const doc = this.store.doc;
+    let best: { id: string; d: number } | null = null;
+    for (const n of doc.nodes) {
+      const s = this.viewport.toScreen({ x: n.x_m ?? 0, y: n.y_m ?? 0 });
+      const d = distance(s, screen);
+      if (d <= NODE_KINDS[n.kind].hitRadiusPx && (!best || d < best.d)) best = { id: n.id, d };
+    }
+    if (best) return best.id;
+    const world = this.viewport.toWorld(screen);
+    const tol = this.viewport.metres(LINK_HIT_PX);
+    const byId = new Map(doc.nodes.map((n) => [n.id, n]));
+    for (const l of doc.links) {
+      const d = projectOnPolyline(world, linkPoints(l, byId)).distance;
+      if (d <= tol && (!best || d < best.d)) best = { id: l.id, d };
+    }
+    return best?.id ?? null;
+  }
+
+  /** Nodes inside a world rectangle, and links whose whole line is inside it. */
+  elementsInRect(r: Rect): string[] {
+    const doc = this.store.doc;
+    const byId = new Map(doc.nodes.map((n) => [n.id, n]));
+    const ids = doc.nodes.filter((n) => rectContains(r, { x: n.x_m ?? 0, y: n.y_m ?? 0 })).map((n) => n.id);
+    for (const l of doc.links) if (linkPoints(l, byId).every((p) => rectContains(r, p))) ids.push(l.id);
+    return ids;
+  }
+
+  // ---- view ----
+  snap(p: Point): Point {
+    return this.grid.snap ? snapPoint(p, this.grid.step_m) : p;
+  }
+
+  toggleSnap(): void {
+    this.grid = { ...this.grid, snap: !this.grid.snap };
+    this.emit('view');
+  }
+
+  panBy(dx: number, dy: number): void {
+    this.viewport.panBy(dx, dy);
+    this.emit('view');
+  }
+
+  zoomAt(screen: Point, factor: number): void {
+    this.viewport.zoomAt(screen, factor);
+    this.emit('view');
+  }
+
+  resize(width: number, height: number): void {
+    this.viewport.resize(width, height);
+    this.emit('view');
+  }
+
+  /** Fit every node, bend point and the backdrop into view. */
+  fitToView(): void {
+    const doc = this.store.doc;
+    const pts: Point[] = doc.nodes.map((n) => ({ x: n.x_m ?? 0, y: n.y_m ?? 0 }));
+    for (const l of doc.links) for (const [x, y] of l.vertices ?? []) pts.push({ x, y });
+    const b = this.backdropRect();
+    if (b) pts.push({ x: b.x, y: b.y }, { x: b.x + b.width, y: b.y + b.height });
+    const r = boundsOf(pts) ?? { x: -50, y: -50, width: 100, height: 100 };
+    const pad = Math.max(r.width, r.height) < 20 ? 20 : 0;
+    this.viewport.fit({ x: r.x - pad / 2, y: r.y - pad / 2, width: r.width + pad, height: r.height + pad });
+    this.emit('view');
+  }
+
+  setPreview(p: Preview): void {
+    this.preview = p;
+    this.emit('preview');
+  }
+
+  setHover(id: string | null): void {
+    if (id === this.hover) return;
+    this.hover = id;
+    this.emit('hover');
+  }
+
+  setDragging(ids: string[]): void {
+    this.dragging = ids;
+    this.emit('preview');
+  }
+
+  flash(message: string): void {
+    this.message = message;
+    this.emit('message');
+  }
+
+  // ---- editing ----
+  /** Place a node of `kind` at a world point (snapped); returns its id. One undo step. */
+  placeNode(kind: NodeKind, at: Point): string | null {
+    if (this.readOnly) return null;
+    const def = NODE_KINDS[kind];
+    const doc = this.store.doc;
+    const id = nextId(def.prefix, doc.nodes.map((n) => n.id));
+    const p = this.snap(at);
+    this.store.addNode(def.create(id, p.x, p.y));
+    this.select([id]);
+    return id;
+  }
+
+  /** Add a link between two nodes; returns its id. One undo step. */
+  addLink(kind: LinkKind, from: string, to: string, vertices: [number, number][] = []): string {
+    const def = LINK_KINDS[kind];
+    const id = nextId(def.prefix, this.store.doc.links.map((l) => l.id));
+    this.store.addLink(def.create(id, from, to, vertices));
+    return id;
+  }
+
+  deleteSelection(): void {
+    if (this.readOnly || this.selected.size === 0) return;
+    this.store.remove(this.selected);
+    this.select([]);
+  }
+
+  undo(): void {
+    if (this.readOnly) return;
+    this.activeTool.cancel();
+    this.store.undo();
+  }
+
+  redo(): void {
+    if (this.readOnly) return;
+    this.store.redo();
+  }
+
+  /** Copy the selected nodes and the links among them (links need both ends copied). */
+  copy(): void {
+    const doc = this.store.doc;
+    const nodes = doc.nodes.filter((n) => this.selected.has(n.id));
+    const ids = new Set(nodes.map((n) => n.id));
+    const links = doc.links.filter((l) => ids.has(l.from) && ids.has(l.to));
+    this.clipboard = structuredClone({ nodes, links });
+    this.pasteCount = 0;
+    this.flash(`Copied ${nodes.length + links.length} element(s)`);
+  }
+
+  /** Paste the clipboard offset down-right, with new ids; the pasted elements become the selection. */
+  paste(): void {
+    if (this.readOnly || !this.clipboard) return;
+    this.pasteCount++;
+    const offset = Math.max(this.grid.step_m, this.viewport.metres(24)) * this.pasteCount;
+    const doc = this.store.doc;
+    const nodeIds = doc.nodes.map((n) => n.id);
+    const linkIds = doc.links.map((l) => l.id);
+    const rename = new Map<string, string>();
+    const nodes = this.clipboard.nodes.map((n) => {
+      const id = nextId(NODE_KINDS[n.kind].prefix, nodeIds);
+      nodeIds.push(id);
+      rename.set(n.id, id);
+      const name = n.name && n.name !== n.id ? n.name + ' copy' : id;
+      return { ...structuredClone(n), id, name, x_m: (n.x_m ?? 0) + offset, y_m: (n.y_m ?? 0) - offset } as NetworkNode;
+    });
+    const links = this.clipboard.links.map((l) => {
+      const id = nextId(LINK_KINDS[l.kind].prefix, linkIds);
+      linkIds.push(id);
+      const name = l.name && l.name !== l.id ? l.name + ' copy' : id;
+      return {
+        ...structuredClone(l), id, name, from: rename.get(l.from) ?? l.from, to: rename.get(l.to) ?? l.to,
+        vertices: (l.vertices ?? []).map(([x, y]) => [x + offset, y - offset] as [number, number]),
+      } as NetworkLink;
+    });
+    this.store.addMany(nodes, links);
+    this.select([...nodes.map((n) => n.id), ...links.map((l) => l.id)]);
+  }
+
+  // ---- backdrop and scale ----
+  backdrop(): Backdrop | null {
+    const b = this.store.doc.layout?.['backdrop'];
+    return b && typeof b === 'object' ? (b as Backdrop) : null;
+  }
+
+  backdropRect(): Rect | null {
+    const b = this.backdrop();
+    if (!b) return null;
+    const w = b.width_px * b.m_per_px;
+    const h = b.height_px * b.m_per_px;
+    return { x: b.x_m, y: b.y_m - h, width: w, height: h };
+  }
+
+  requestCalibration(a: Point, b: Point): void {
+    this.onCalibrationRequest?.(a, b);
+  }
+
+  /**
+   * The two points are `distance_m` apart in reality: rescale the whole plan (nodes, bend points,
+   * backdrop) about point a so they are. One undo step; drawn pipe lengths follow.
+   */
+  applyCalibration(a: Point, b: Point, distance_m: number): boolean {
+    const drawn = distance(a, b);
+    if (!(drawn > 0) || !(distance_m > 0) || this.readOnly) return false;
+    const f = distance_m / drawn;
+    const sc = (x: number, y: number): [number, number] => [a.x + (x - a.x) * f, a.y + (y - a.y) * f];
+    this.store.begin('set scale');
+    this.store.update('set scale', (d) => {
+      const nodes = d.nodes.map((n) => {
+        const [x, y] = sc(n.x_m ?? 0, n.y_m ?? 0);
+        return { ...n, x_m: x, y_m: y };
+      });
+      const links = d.links.map((l) => (l.vertices?.length ? { ...l, vertices: l.vertices.map(([x, y]) => sc(x, y)) } : l));
+      const layout = { ...(d.layout ?? {}) };
+      const bd = layout['backdrop'] as Backdrop | undefined;
+      const bb = sc(b.x, b.y);
+      if (bd) {
+        const [x, y] = sc(bd.x_m, bd.y_m);
+        layout['backdrop'] = { ...bd, x_m: x, y_m: y, m_per_px: bd.m_per_px * f, scale: { a: [a.x, a.y], b: bb, distance_m } };
+      }
+      return { ...d, nodes, links, layout };
+    });
+    // Re-measure drawn pipe lengths at the new scale.
+    const ids = this.store.doc.nodes.map((n) => n.id);
+    this.store.moveNodes(ids, 0, 0);
+    this.store.commit();
+    this.setPreview({});
+    this.setTool('select');
+    return true;
+  }
+
+  cancelCalibration(): void {
+    this.setPreview({});
+    this.setTool('select');
+  }
+
+  /** Kind of an element id, or null. */
+  kindOf(id: string): string | null {
+    return this.store.node(id)?.kind ?? this.store.link(id)?.kind ?? null;
+  }
+
+  isNode(id: string): boolean {
+    const k = this.kindOf(id);
+    return k !== null && isNodeKind(k);
+  }
+}
+
+/** The site backdrop image, placed in world metres (stored in doc.layout.backdrop). */
+export interface Backdrop {
+  fileId: string;
+  opacity: number;
+  /** World position of the image's top-left corner, m. */
+  x_m: number;
+  y_m: number;
+  m_per_px: number;
+  width_px: number;
+  height_px: number;
+  /** The two points and the distance typed when calibrating. */
+  scale?: { a: [number, number]; b: [number, number]; distance_m: number };
+}

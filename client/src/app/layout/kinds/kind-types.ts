@@ -1,0 +1,70 @@
+import type { NetworkDocument, NetworkLink, NetworkNode } from '../../../../../engine/network-document';
+import type { Quantity } from '../../../../../engine/units';
+
+/**
+ * A symbol is drawn from these plain shape descriptions (CSS pixels around the element's centre,
+ * screen y down), so kinds stay free of Konva and testable headlessly. The canvas view turns
+ * them into Konva shapes.
+ */
+export type ShapeSpec =
+  | { t: 'circle'; x?: number; y?: number; r: number; fill?: string; stroke?: string; sw?: number }
+  | { t: 'rect'; x: number; y: number; w: number; h: number; fill?: string; stroke?: string; sw?: number; corner?: number }
+  | { t: 'poly'; points: number[]; closed?: boolean; fill?: string; stroke?: string; sw?: number };
+
+/** One row of the properties panel. `key` may be a dotted path ('demand_model.type'). */
+export interface FieldSpec {
+  key: string;
+  label: string;
+  type: 'text' | 'number' | 'select' | 'checkbox' | 'pipe-size' | 'schedule' | 'length';
+  /** Display conversion through engine/units.ts; absent means a plain number. */
+  quantity?: Quantity;
+  /** Plain-number unit label (e.g. "K"). */
+  suffix?: string;
+  options?: { value: string; label: string }[];
+  /** Bounds in SI. */
+  min?: number;
+  max?: number;
+  required?: boolean;
+  /** data-testid of the input: prop-<slug>. */
+  testid: string;
+  hint?: string;
+  when?: (element: NetworkNode | NetworkLink) => boolean;
+}
+
+export interface NodeKindDef<N extends NetworkNode = NetworkNode> {
+  kind: N['kind'];
+  label: string;
+  /** Id prefix: T → T1, T2… */
+  prefix: string;
+  /** Hit radius around the centre, CSS px. */
+  hitRadiusPx: number;
+  create(id: string, x_m: number, y_m: number): N;
+  symbol(node: N): ShapeSpec[];
+  fields: FieldSpec[];
+  /** Messages for combinations of fields that are each valid alone. */
+  check?(node: N, doc: NetworkDocument): string[];
+}
+
+export interface LinkKindDef<L extends NetworkLink = NetworkLink> {
+  kind: L['kind'];
+  label: string;
+  prefix: string;
+  create(id: string, from: string, to: string, vertices: [number, number][]): L;
+  /** Stroke of the line. */
+  stroke: { colour: string; widthPx: number; dash?: number[] };
+  /** Symbol drawn at the middle of the line, rotated along it (pointing from → to); empty for none. */
+  midSymbol(link: L): ShapeSpec[];
+  fields: FieldSpec[];
+  check?(link: L, doc: NetworkDocument): string[];
+}
+
+export const INK = '#24323d';
+export const PAPER = '#ffffff';
+export const WATER = '#cfe6f3';
+
+export const nameField: FieldSpec = { key: 'name', label: 'Name', type: 'text', testid: 'prop-name' };
+export const elevationField: FieldSpec = {
+  key: 'elevation_m', label: 'Elevation', type: 'number', quantity: 'elevation', required: true, min: -500, max: 9000,
+  testid: 'prop-elevation',
+};
+export const notesField: FieldSpec = { key: 'notes', label: 'Notes', type: 'text', testid: 'prop-notes' };

@@ -1,0 +1,30 @@
+import type { PumpLink } from '../../../../../engine/network-document';
+import { INK, LinkKindDef, nameField, notesField, PAPER } from './kind-types';
+
+/**
+ * Hourly availability of a solar pump on a clear day: off at night, ramping up through the
+ * morning, full from 10:00 to 15:00. Our own rounded approximation (common trade practice is to
+ * assume about 5–6 full-sun hours); adjust to the site.
+ */
+export const DAYLIGHT_SCHEDULE: readonly number[] = [
+  0, 0, 0, 0, 0, 0, 0.1, 0.3, 0.6, 0.85, 1, 1, 1, 1, 1, 0.85, 0.6, 0.3, 0.1, 0, 0, 0, 0, 0,
+];
+
+/** Pump: a ring on the line with a solid arrowhead pointing downstream. */
+export const pumpKind: LinkKindDef<PumpLink> = {
+  kind: 'pump',
+  label: 'Pump',
+  prefix: 'Pu',
+  create: (id, from, to, vertices) => ({ id, kind: 'pump', name: id, from, to, vertices, flow_m3s: 0.0002, schedule: [...DAYLIGHT_SCHEDULE] }),
+  stroke: { colour: INK, widthPx: 2.5, dash: [8, 4] },
+  midSymbol: () => [
+    { t: 'circle', r: 11, fill: PAPER, stroke: INK, sw: 2 },
+    { t: 'poly', points: [-5, -6, 7, 0, -5, 6], closed: true, fill: INK },
+  ],
+  fields: [
+    nameField,
+    { key: 'flow_m3s', label: 'Delivered flow', type: 'number', quantity: 'flow', required: true, min: 0, max: 1, testid: 'prop-pump-flow' },
+    { key: 'schedule', label: 'Hourly availability', type: 'schedule', testid: 'prop-schedule' },
+    notesField,
+  ],
+};

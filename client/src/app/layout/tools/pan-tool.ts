@@ -1,0 +1,42 @@
+import type { Editor } from '../editor/editor';
+import type { Point } from '../editor/geometry';
+import type { PointerInput, Tool } from './tool';
+
+/** Pan: drag anywhere to move the view. Also used for space+drag and middle-button drags. */
+export class PanTool implements Tool {
+  readonly id = 'pan' as const;
+  state: 'idle' | 'panning' = 'idle';
+  private last: Point | null = null;
+
+  constructor(private readonly ed: Editor) {}
+
+  enter(): void {
+    this.state = 'idle';
+  }
+
+  exit(): void {
+    this.cancel();
+  }
+
+  down(p: PointerInput): void {
+    this.state = 'panning';
+    this.last = p.screen;
+  }
+
+  move(p: PointerInput): void {
+    if (this.state !== 'panning' || !this.last) return;
+    this.ed.panBy(p.screen.x - this.last.x, p.screen.y - this.last.y);
+    this.last = p.screen;
+  }
+
+  up(): void {
+    this.state = 'idle';
+    this.last = null;
+  }
+
+  cancel(): boolean {
+    const had = this.state === 'panning';
+    this.up();
+    return had;
+  }
+}

@@ -1,0 +1,105 @@
+import type { NetworkDocument } from '../../../../../engine/network-document';
+import type { Editor } from '../editor/editor';
+import { distance, Point, rectFromCorners } from '../editor/geometry';
+import type { PointerInput, Tool } from './tool';
+
+/** Pixels the pointer must travel before a press becomes a drag. */
+const DRAG_THRESHOLD_PX = 3;
+
+/**
+ * Select: click (shift toggles), marquee on empty space, drag selected nodes (with their link
+ * ends) snapping the grabbed node to the grid. States: idle → pressing → dragging, idle → marquee.
+ */
+export class SelectTool implements Tool {
+  readonly id = 'select' as const;
+  state: 'idle' | 'pressing' | 'dragging' | 'marquee' = 'idle';
+  private start: PointerInput | null = null;
+  private grabbed: string | null = null;
+  private dragFrom: NetworkDocument | null = null;
+  private baseSelection: string[] = [];
+
+  constructor(private readonly ed: Editor) {}
+
+  enter(): void {
+    this.state = 'idle';
+  }
+
+  exit(): void {
+    this.cancel();
+  }
+
+  down(p: PointerInput): void {
+    if (p.button !== 0) return;
+    const hit = this.ed.hitTest(p.screen);
+    this.start = p;
+    if (hit) {
+      if (p.shift) this.ed.toggleSelected(hit);
+      else if (!this.ed.isSelected(hit)) this.ed.select([hit]);
+      this.grabbed = this.ed.store.node(hit) ? hit : null;
+      this.state = 'pressing';
+    } else {
+      this.baseSelection = p.shift ? [...this.ed.selection] : [];
+      if (!p.shift) this.ed.select([]);
+      this.state = 'marquee';
+      this.ed.setPreview({ marquee: rectFromCorners(p.world, p.world) });
+    }
+  }
+
+  move(p: PointerInput): void {
+    const start = this.start;
+    if (!start) {
+      this.ed.setHover(this.ed.hitTest(p.screen));
+      return;
+    }
+    if (this.state === 'pressing') {
+      if (distance(p.screen, start.screen) < DRAG_THRESHOLD_PX) return;
+      if (this.ed.readOnly || !this.grabbed || !this.ed.isSelected(this.grabbed)) return;
+      this.state = 'dragging';
+      this.dragFrom = this.ed.store.doc;
+      this.ed.store.begin('move');
+      this.ed.setDragging(this.ed.selectedNodeIds());
+    }
+    if (this.state === 'dragging' && this.dragFrom && this.grabbed) {
+      const anchor = this.dragFrom.nodes.find((n) => n.id === this.grabbed);
+      const ax = anchor?.x_m ?? 0;
+      const ay = anchor?.y_m ?? 0;
+      const target: Point = this.ed.snap({ x: ax + p.world.x - start.world.x, y: ay + p.world.y - start.world.y });
+      this.ed.store.moveNodes(this.ed.selectedNodeIds(), target.x - ax, target.y - ay, this.dragFrom);
+    } else if (this.state === 'marquee') {
+      const rect = rectFromCorners(start.world, p.world);
+      this.ed.setPreview({ marquee: rect });
+      this.ed.select([...new Set([...this.baseSelection, ...this.ed.elementsInRect(rect)])]);
+    }
+  }
+
+  up(_p: PointerInput): void {
+    if (this.state === 'dragging') {
+      this.ed.store.commit();
+      this.ed.setDragging([]);
+    }
+    if (this.state === 'marquee') this.ed.setPreview({});
+    this.reset();
+  }
+
+  cancel(): boolean {
+    const had = this.state !== 'idle';
+    if (this.state === 'dragging') {
+      this.ed.store.rollback();
+      this.ed.setDragging([]);
+    }
+    if (this.state === 'marquee') {
+      this.ed.setPreview({});
+      this.ed.select(this.baseSelection);
+    }
+    this.reset();
+    return had;
+  }
+
+  private reset(): void {
+    this.state = 'idle';
+    this.start = null;
+    this.grabbed = null;
+    this.dragFrom = null;
+    this.baseSelection = [];
+  }
+}

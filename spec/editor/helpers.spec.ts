@@ -1,0 +1,98 @@
+/** Pure helpers of the Layout editor: colour scale, survey maths, GeoJSON export, kinds. */
+import { expect } from 'chai';
+import { legendStops, luminance, marginColour, rampColour } from '../../client/src/app/layout/editor/colour-scale';
+import { Editor } from '../../client/src/app/layout/editor/editor';
+import { toGeoJson } from '../../client/src/app/layout/editor/geojson-export';
+import { niceStep, projectOnPolyline } from '../../client/src/app/layout/editor/geometry';
+import { nearestSurveyPoint, profileAlong, toLocalPoints } from '../../client/src/app/layout/editor/survey';
+import { LINK_KINDS, NODE_KINDS, nextId, patchForPath, readPath } from '../../client/src/app/layout/kinds';
+
+describe('Layout editor: colour scale', () => {
+  it('lightness rises monotonically along the ramp (readable in greyscale and for colour-vision deficiency)', () => {
+    // The design rule of perceptually ordered maps such as cividis (Nuñez et al. 2018): monotonic luminance.
+    let prev = -1;
+    for (let i = 0; i <= 50; i++) {
+      const l = luminance(rampColour(i / 50));
+      expect(l).to.be.greaterThan(prev);
+      prev = l;
+    }
+  });
+
+  it('clamps outside the range and gives a legend from low to high margin', () => {
+    expect(marginColour(-100)).to.equal(rampColour(0));
+    expect(marginColour(1000)).to.equal(rampColour(1));
+    const stops = legendStops(4);
+    expect(stops.map((s) => s.margin_m)).to.deep.equal([-5, 5, 15, 25]);
+  });
+});
+
+describe('Layout editor: geometry and survey', () => {
+  it('nice steps are 1, 2 or 5 times a power of ten', () => {
+    expect([niceStep(73), niceStep(0.31), niceStep(1), niceStep(999)]).to.deep.equal([50, 0.2, 1, 500]);
+  });
+
+  it('projects onto a polyline with its chainage', () => {
+    const r = projectOnPolyline({ x: 12, y: 3 }, [{ x: 0, y: 0 }, { x: 10, y: 0 }, { x: 10, y: 10 }]);
+    expect(r.distance).to.be.closeTo(2, 1e-12);
+    expect(r.chainage).to.be.closeTo(13, 1e-12);
+  });
+
+  it('local projection of lat/lon: 0.001° of latitude is about 111.2 m (mean Earth radius 6 371 008.8 m, IUGG)', () => {
+    const pts = toLocalPoints([{ lat: 45, lon: 10, elevation_m: 100 }, { lat: 45.001, lon: 10, elevation_m: 101 }, { lat: 45, lon: 10.001, elevation_m: 99 }]);
+    expect(pts[1].y_m).to.be.closeTo(111.195, 0.001);
+    // East-west: the same angle shrinks by cos(45°).
+    expect(pts[2].x_m).to.be.closeTo(111.195 * Math.SQRT1_2, 0.001);
+  });
+
+  it('nearest survey point and a ground profile along a pipe (3-4-5 slope gives the sloped length)', () => {
+    const ed = new Editor();
+    ed.placeNode('tank', { x: 0, y: 0 });
+    ed.placeNode('outlet', { x: 80, y: 0 });
+    ed.store.patchElement('T1', { elevation_m: 30 });
+    ed.store.patchElement('O1', { elevation_m: 0 });
+    ed.addLink('pipe', 'T1', 'O1');
+    const survey = [{ x_m: 40, y_m: 3, elevation_m: 15 }, { x_m: 40, y_m: 50, elevation_m: 99 }];
+    expect(nearestSurveyPoint(survey, { x: 39, y: 0 })?.point.elevation_m).to.equal(15);
+    const prof = profileAlong(ed.store.doc, 'P1', survey, 10);
+    expect(prof?.profile).to.deep.equal([[0, 30], [40, 15], [80, 0]]);
+    expect(prof?.used).to.equal(1);
+    // Each half: 40 m run, 15 m drop → √(40² + 15²) = 42.72 m.
+    expect(prof?.groundLength_m).to.be.closeTo(2 * Math.hypot(40, 15), 0.01);
+  });
+});
+
+describe('Layout editor: export and kinds', () => {
+  it('GeoJSON: nodes as Points, links as LineStrings through their bend points, fields as properties', () => {
+    const ed = new Editor();
+    ed.placeNode('tank', { x: 0, y: 0 });
+    ed.placeNode('tee', { x: 10, y: 10 });
+    ed.addLink('pipe', 'T1', 'J1', [[10, 0]]);
+    const g = toGeoJson(ed.store.doc);
+    expect(g.type).to.equal('FeatureCollection');
+    expect(g.features[0].geometry).to.deep.equal({ type: 'Point', coordinates: [0, 0] });
+    expect(g.features[2].geometry).to.deep.equal({ type: 'LineString', coordinates: [[0, 0], [10, 0], [10, 10]] });
+    expect(g.features[2].properties).to.include({ kind: 'pipe', from: 'T1', to: 'J1', length_m: 20 });
+  });
+
+  it('every kind creates a record of its kind, draws a symbol and has a name field with a test id', () => {
+    for (const def of Object.values(NODE_KINDS)) {
+      const n = def.create('X1', 1, 2);
+      expect(n.kind).to.equal(def.kind);
+      expect(def.symbol(n).length).to.be.greaterThan(0);
+      expect(def.fields.some((f) => f.testid === 'prop-name')).to.equal(true);
+    }
+    for (const def of Object.values(LINK_KINDS)) {
+      expect(def.create('Y1', 'A', 'B', []).kind).to.equal(def.kind);
+      expect(def.fields.every((f) => f.testid.startsWith('prop-'))).to.equal(true);
+    }
+  });
+
+  it('ids, dotted paths and nested patches', () => {
+    expect(nextId('P', ['P1', 'P7', 'Pu3'])).to.equal('P8');
+    expect(nextId('Pu', ['P1', 'P7', 'Pu3'])).to.equal('Pu4');
+    const o = { demand_model: { type: 'emitter', k: 1, exponent: 0.5 } };
+    expect(readPath(o, 'demand_model.k')).to.equal(1);
+    expect(patchForPath(o, 'demand_model.k', 2)).to.deep.equal({ demand_model: { type: 'emitter', k: 2, exponent: 0.5 } });
+    expect(o.demand_model.k).to.equal(1);
+  });
+});
