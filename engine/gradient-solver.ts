@@ -1,0 +1,538 @@
+import { WATER_KINEMATIC_VISCOSITY_M2S, GRAVITY_MS2 } from './constants';
+import { darcyFactorAndSlope, LAMINAR_REYNOLDS } from './darcy-weisbach';
+import { HW_FLOW_EXPONENT } from './hazen-williams';
+import {
+  DEMAND_EMITTER, DEMAND_FIXED, DEMAND_PRESSURE, LINK_CHECK, LINK_PIPE, LINK_PRV, LINK_PUMP_CURVE, LINK_PUMP_FLOW,
+  NODE_JUNCTION, type NetworkModel,
+} from './network-model';
+import { SparseLdl } from './sparse-ldl';
+
+/**
+ * Global gradient algorithm for steady flow in looped and branched networks: Newton's method on
+ * the link headloss equations and node continuity equations, with the flows eliminated so that
+ * each iteration solves one symmetric positive-definite system A·H = F for the unknown heads
+ * (Todini, E. & Pilati, S. (1988), "A gradient algorithm for the analysis of pipe networks", in
+ * Computer Applications in Water Supply, vol. 1, Research Studies Press, 1–20).
+ *
+ * - Fixed heads: sources and tanks (head = floor elevation + level).
+ * - Zero and tiny flows: the headloss gradient g = dh/dQ is floored at GRADIENT_FLOOR so p = 1/g
+ *   stays finite; the iteration still converges to h(Q) = ΔH because y = h/g uses the true h.
+ * - Pressure-dependent outlets and emitters are virtual links to a virtual reservoir with the
+ *   inverse law as their headloss (the formulation of EPANET 2.2's pressure-driven analysis,
+ *   Rossman et al. 2020, documented in the public US EPA manual) with barrier slopes keeping the
+ *   delivered flow within [0, full demand].
+ * - Check valves, no-reverse pumps and tank-empty blocks open and close by status checks between
+ *   iterations; pressure-reducing valves switch between active, open and closed.
+ * - Parts of the network with no open path to a fixed head are set aside (head = ground,
+ *   no flow) instead of making the matrix singular.
+ * The sparse factorisation's symbolic phase is computed once per network (./sparse-ldl).
+ *
+ * @example
+ * const solver = new GradientSolver(compileNetwork(doc));
+ * const state = solver.createState();
+ * const outcome = solver.solve(state);       // then read solver.head, solver.flow, solver.demand
+ */
+
+/** Link status codes reported by the solver. */
+export const STATUS_OPEN = 0;
+export const STATUS_CLOSED = 1;
+export const STATUS_CHECK_CLOSED = 2;
+export const STATUS_ACTIVE = 3;
+export const STATUS_NAMES = ['open', 'closed', 'check-closed', 'active'] as const;
+
+/** Smallest headloss gradient dh/dQ used, m per m³/s (keeps 1/g finite at zero flow). */
+export const GRADIENT_FLOOR = 1e-6;
+/** Barrier slope for virtual demand links outside [0, full demand], m per m³/s. */
+export const DEMAND_BARRIER_SLOPE = 1e8;
+/** Regularisation of the pressure-driven law near zero flow (fraction of full demand). */
+const VIRTUAL_FLOW_FLOOR = 1e-3;
+/** Diagonal weight that pins the downstream node of an active pressure-reducing valve. */
+const PIN_WEIGHT = 1e10;
+/** Head tolerance of status checks, m. */
+const STATUS_HEAD_TOL = 1e-6;
+/** Flow tolerance of status checks, m³/s. */
+const STATUS_FLOW_TOL = 1e-10;
+/** Required pressure used for outlets and tees in pressure-driven (simulation) mode without a minimum, m. */
+export const DEFAULT_REQUIRED_PRESSURE_M = 0.5;
+
+export interface SolverState {
+  /** Head of sources and tanks, m (others ignored). */
+  fixedHead: Float64Array;
+  /** Demand multiplier per node (hourly pattern), default 1. */
+  demandFactor: Float64Array;
+  /** Link closed by a control or by the document (1 = closed). */
+  linkClosed: Uint8Array;
+  /** Allowed flow direction per link: 0 either, +1 only from→to, −1 only to→from (empty tanks). */
+  linkDirection: Int8Array;
+  /** Pump availability (0..1): constant-flow pumps scale their flow, curve pumps their speed. */
+  pumpFactor: Float64Array;
+  /** Treat fixed demands as pressure-driven (full at min pressure, zero at 0 m): used by simulate. */
+  pressureDriven: boolean;
+}
+
+export interface SolveOptions {
+  /** Convergence: sum |ΔQ| / sum |Q| below this (default 1e-9). */
+  accuracy?: number;
+  /** Iteration cap (default 100). */
+  maxIterations?: number;
+  /** Start from the last solution (default false: fresh start). */
+  warmStart?: boolean;
+}
+
+export interface SolveOutcome {
+  converged: boolean;
+  iterations: number;
+  singular: boolean;
+}
+
+export class GradientSolver {
+  readonly model: NetworkModel;
+  /** Head per node, m. */
+  readonly head: Float64Array;
+  /** Flow per link, m³/s (positive from → to). */
+  readonly flow: Float64Array;
+  /** Delivered demand per node, m³/s. */
+  readonly demand: Float64Array;
+  /** Requested demand per node at the current factors, m³/s. */
+  readonly requested: Float64Array;
+  /** Status per link (STATUS_*). */
+  readonly status: Uint8Array;
+  /** 1 when the node has an open path to a fixed head. */
+  readonly active: Uint8Array;
+  private readonly unknown: Int32Array;
+  private readonly unknownNode: Int32Array;
+  private readonly ldl: SparseLdl;
+  private readonly posFF: Int32Array;
+  private readonly posTT: Int32Array;
+  private readonly posFT: Int32Array;
+  private readonly posTF: Int32Array;
+  private readonly posDiag: Int32Array;
+  private readonly rhs: Float64Array;
+  private readonly x: Float64Array;
+  private readonly p: Float64Array;
+  private readonly y: Float64Array;
+  private readonly virtualFlow: Float64Array;
+  private readonly virtualFull: Float64Array;
+  private readonly pinned: Float64Array;
+  private readonly netOut: Float64Array;
+  private readonly changes: Int32Array;
+  private readonly queue: Int32Array;
+  private readonly adjPtr: Int32Array;
+  private readonly adjLink: Int32Array;
+  private readonly scratch = new Float64Array(2);
+  private initialised = false;
+
+  constructor(model: NetworkModel) {
+    this.model = model;
+    const n = model.nodeCount;
+    const m = model.linkCount;
+    this.unknown = new Int32Array(n).fill(-1);
+    let nu = 0;
+    for (let i = 0; i < n; i++) if (model.nodeKind[i] === NODE_JUNCTION) this.unknown[i] = nu++;
+    this.unknownNode = new Int32Array(nu);
+    for (let i = 0; i < n; i++) if (this.unknown[i] >= 0) this.unknownNode[this.unknown[i]] = i;
+    const pi: number[] = [];
+    const pj: number[] = [];
+    for (let k = 0; k < m; k++) {
+      const a = this.unknown[model.from[k]];
+      const b = this.unknown[model.to[k]];
+      if (a >= 0 && b >= 0 && a !== b) { pi.push(a); pj.push(b); }
+    }
+    this.ldl = new SparseLdl(nu, { i: Int32Array.from(pi), j: Int32Array.from(pj) });
+    this.posFF = new Int32Array(m).fill(-1);
+    this.posTT = new Int32Array(m).fill(-1);
+    this.posFT = new Int32Array(m).fill(-1);
+    this.posTF = new Int32Array(m).fill(-1);
+    for (let k = 0; k < m; k++) {
+      const a = this.unknown[model.from[k]];
+      const b = this.unknown[model.to[k]];
+      if (a >= 0) this.posFF[k] = this.ldl.position(a, a);
+      if (b >= 0) this.posTT[k] = this.ldl.position(b, b);
+      if (a >= 0 && b >= 0 && a !== b) { this.posFT[k] = this.ldl.position(a, b); this.posTF[k] = this.ldl.position(b, a); }
+    }
+    this.posDiag = new Int32Array(nu);
+    for (let u = 0; u < nu; u++) this.posDiag[u] = this.ldl.position(u, u);
+    this.rhs = new Float64Array(nu);
+    this.x = new Float64Array(nu);
+    this.head = new Float64Array(n);
+    this.flow = new Float64Array(m);
+    this.demand = new Float64Array(n);
+    this.requested = new Float64Array(n);
+    this.status = new Uint8Array(m);
+    this.active = new Uint8Array(n);
+    this.p = new Float64Array(m);
+    this.y = new Float64Array(m);
+    this.virtualFlow = new Float64Array(n);
+    this.virtualFull = new Float64Array(n);
+    this.pinned = new Float64Array(n).fill(Number.NaN);
+    this.netOut = new Float64Array(n);
+    this.changes = new Int32Array(m);
+    this.queue = new Int32Array(n);
+    // node → incident links (CSR)
+    this.adjPtr = new Int32Array(n + 1);
+    for (let k = 0; k < m; k++) { this.adjPtr[model.from[k] + 1]++; this.adjPtr[model.to[k] + 1]++; }
+    for (let i = 0; i < n; i++) this.adjPtr[i + 1] += this.adjPtr[i];
+    this.adjLink = new Int32Array(this.adjPtr[n]);
+    const fill = this.adjPtr.slice(0, n);
+    for (let k = 0; k < m; k++) { this.adjLink[fill[model.from[k]]++] = k; this.adjLink[fill[model.to[k]]++] = k; }
+  }
+
+  /** A state with the document's tank levels and source heads, factors 1, nothing closed. */
+  createState(): SolverState {
+    const { model } = this;
+    const state: SolverState = {
+      fixedHead: Float64Array.from(model.baseHead),
+      demandFactor: new Float64Array(model.nodeCount).fill(1),
+      linkClosed: Uint8Array.from(model.closedInDocument),
+      linkDirection: new Int8Array(model.linkCount),
+      pumpFactor: new Float64Array(model.linkCount).fill(1),
+      pressureDriven: false,
+    };
+    model.doc.nodes.forEach((node, i) => { if (node.kind === 'tank') state.fixedHead[i] = node.elevation_m + node.level_m; });
+    return state;
+  }
+
+  /** Headloss h and gradient g of link k at flow q (pipes and valves). Writes scratch[0..1]. */
+  private linkLaw(k: number, q: number, speed: number): void {
+    const model = this.model;
+    const kind = model.linkKind[k];
+    const a = Math.abs(q);
+    const out = this.scratch;
+    if (kind === LINK_PUMP_CURVE) {
+      // head gain s²·h0(Q/s), piecewise linear, extrapolated from the end segments
+      const s = speed > 0 ? speed : 1e-6;
+      const x = q / s;
+      const c0 = model.curveStart[k];
+      const c1 = model.curveEnd[k];
+      let seg = c0;
+      while (seg < c1 - 2 && x > model.curveQ[seg + 1]) seg++;
+      const q0 = model.curveQ[seg];
+      const q1 = model.curveQ[seg + 1];
+      const h0 = model.curveH[seg];
+      const h1 = model.curveH[seg + 1];
+      const slope = (h1 - h0) / (q1 - q0);
+      const head = s * s * (h0 + slope * (x - q0));
+      out[0] = -head;
+      out[1] = -s * slope;
+      return;
+    }
+    let h = model.minor[k] * a * q;
+    let g = 2 * model.minor[k] * a;
+    if (kind === LINK_PIPE) {
+      if (model.headloss === 'darcy-weisbach') {
+        const d = model.diameter[k];
+        const area = model.area[k];
+        const re = (a / area) * d / WATER_KINEMATIC_VISCOSITY_M2S;
+        if (re < LAMINAR_REYNOLDS) {
+          const c = (32 * WATER_KINEMATIC_VISCOSITY_M2S * model.length[k]) / (GRAVITY_MS2 * d * d * area);
+          h += c * q;
+          g += c;
+        } else {
+          darcyFactorAndSlope(re, model.roughnessRelative[k], this.scratch);
+          const f = this.scratch[0];
+          const slope = this.scratch[1];
+          const hf = (f * model.length[k]) / (2 * GRAVITY_MS2 * d * area * area) * a * q;
+          h += hf;
+          g += (hf / q) * (2 + slope);
+        }
+      } else {
+        const r = model.resistance[k] * Math.pow(a, HW_FLOW_EXPONENT - 1);
+        h += r * q;
+        g += HW_FLOW_EXPONENT * r;
+      }
+    }
+    out[0] = h;
+    out[1] = g;
+  }
+
+  /** Virtual demand link of node i at virtual flow q: inverse pressure law as headloss. */
+  private virtualLaw(i: number, q: number, full: number, state: SolverState): void {
+    const model = this.model;
+    const out = this.scratch;
+    const type = model.demandType[i];
+    if (type === DEMAND_EMITTER) {
+      const k = model.emitterK[i] * state.demandFactor[i];
+      const invX = 1 / model.emitterExponent[i];
+      const qf = Math.max(k * 1e-3, 1e-12);
+      if (q < 0) { out[0] = DEMAND_BARRIER_SLOPE * q; out[1] = DEMAND_BARRIER_SLOPE; return; }
+      const qq = Math.max(q, qf);
+      const h = Math.pow(qq / k, invX);
+      const g = (invX * h) / qq;
+      out[0] = q < qf ? (h / qf) * q : h; // linear below the floor
+      out[1] = q < qf ? h / qf : g;
+      return;
+    }
+    const span = this.requiredPressure(i, state) - this.zeroPressure(i, state);
+    // h = span·(q/full)² for 0 ≤ q ≤ full (inverse of q = full·√s), barriers outside
+    if (q < 0) { out[0] = DEMAND_BARRIER_SLOPE * q; out[1] = DEMAND_BARRIER_SLOPE; return; }
+    if (q > full) { out[0] = span + DEMAND_BARRIER_SLOPE * (q - full); out[1] = DEMAND_BARRIER_SLOPE; return; }
+    const s = q / full;
+    out[0] = span * s * s;
+    out[1] = (2 * span * Math.max(s, VIRTUAL_FLOW_FLOOR)) / full;
+  }
+
+  private requiredPressure(i: number, state: SolverState): number {
+    const model = this.model;
+    if (model.demandType[i] === DEMAND_PRESSURE) return model.pressureRequired[i];
+    const mp = model.minPressure[i];
+    return state.pressureDriven && mp > DEFAULT_REQUIRED_PRESSURE_M ? mp : DEFAULT_REQUIRED_PRESSURE_M;
+  }
+
+  private zeroPressure(i: number, _state: SolverState): number {
+    return this.model.demandType[i] === DEMAND_PRESSURE ? this.model.pressureZero[i] : 0;
+  }
+
+  /** Mark nodes with an open path to a fixed head (sources, tanks, active PRV outlets). */
+  private connect(): void {
+    const model = this.model;
+    const { active, queue, status, adjPtr, adjLink } = this;
+    active.fill(0);
+    let tail = 0;
+    for (let i = 0; i < model.nodeCount; i++) if (model.nodeKind[i] !== NODE_JUNCTION) { active[i] = 1; queue[tail++] = i; }
+    let head = 0;
+    while (head < tail) {
+      const v = queue[head++];
+      for (let a = adjPtr[v]; a < adjPtr[v + 1]; a++) {
+        const k = adjLink[a];
+        const st = status[k];
+        if (st === STATUS_CLOSED || st === STATUS_CHECK_CLOSED || model.linkKind[k] === LINK_PUMP_FLOW) continue;
+        const u = model.from[k] === v ? model.to[k] : model.from[k];
+        if (!active[u]) { active[u] = 1; queue[tail++] = u; }
+      }
+    }
+  }
+
+  private initialise(state: SolverState): void {
+    const model = this.model;
+    let hmax = -Infinity;
+    for (let i = 0; i < model.nodeCount; i++) if (model.nodeKind[i] !== NODE_JUNCTION) hmax = Math.max(hmax, state.fixedHead[i]);
+    for (let i = 0; i < model.nodeCount; i++) {
+      this.head[i] = model.nodeKind[i] === NODE_JUNCTION ? (Number.isFinite(hmax) ? hmax : model.elevation[i]) : state.fixedHead[i];
+      this.virtualFlow[i] = 0;
+    }
+    for (let k = 0; k < model.linkCount; k++) {
+      const kind = model.linkKind[k];
+      this.status[k] = kind === LINK_PRV ? STATUS_ACTIVE : STATUS_OPEN;
+      if (kind === LINK_PUMP_FLOW) this.flow[k] = model.pumpFlow[k];
+      else if (kind === LINK_PUMP_CURVE) this.flow[k] = model.curveQ[model.curveStart[k] + 1];
+      else this.flow[k] = 0.3 * model.area[k]; // 0.3 m/s forward
+    }
+    this.initialised = true;
+  }
+
+  /**
+   * Solve the steady state for `state`. Results are left in head, flow, demand, status.
+   * @param state fixed heads, factors and closures
+   * @param options accuracy (default 1e-9), maxIterations (default 100), warmStart
+   */
+  solve(state: SolverState, options: SolveOptions = {}): SolveOutcome {
+    const model = this.model;
+    const accuracy = options.accuracy ?? 1e-9;
+    const maxIterations = options.maxIterations ?? 100;
+    const n = model.nodeCount;
+    const m = model.linkCount;
+    const { head, flow, status, p, y, unknown, ldl, rhs, x, virtualFlow, virtualFull, pinned, netOut, changes, active } = this;
+    const values = ldl.values;
+    if (!options.warmStart || !this.initialised) this.initialise(state);
+    changes.fill(0);
+    // structural statuses from the state
+    for (let k = 0; k < m; k++) {
+      const kind = model.linkKind[k];
+      const off = state.linkClosed[k] === 1 || ((kind === LINK_PUMP_FLOW || kind === LINK_PUMP_CURVE) && !(state.pumpFactor[k] > 0));
+      if (off) { status[k] = STATUS_CLOSED; flow[k] = 0; } else if (status[k] === STATUS_CLOSED) {
+        status[k] = kind === LINK_PRV ? STATUS_ACTIVE : STATUS_OPEN;
+        flow[k] = kind === LINK_PUMP_FLOW ? model.pumpFlow[k] : kind === LINK_PUMP_CURVE ? model.curveQ[model.curveStart[k] + 1] * state.pumpFactor[k] : 0.1 * model.area[k];
+      }
+      // a PRV feeding a fixed head cannot regulate: it behaves as an open valve
+      if (kind === LINK_PRV && status[k] === STATUS_ACTIVE && unknown[model.to[k]] < 0) status[k] = STATUS_OPEN;
+    }
+    for (let i = 0; i < n; i++) {
+      if (model.nodeKind[i] !== NODE_JUNCTION) { head[i] = state.fixedHead[i]; continue; }
+      const base = model.demandBase[i] * state.demandFactor[i];
+      this.requested[i] = model.demandType[i] === DEMAND_EMITTER ? Number.NaN : base;
+      const isVirtual = model.demandType[i] !== DEMAND_FIXED || (state.pressureDriven && base > 0);
+      virtualFull[i] = isVirtual ? (model.demandType[i] === DEMAND_EMITTER ? Infinity : base) : 0;
+      if (isVirtual && !(model.demandType[i] === DEMAND_EMITTER ? model.emitterK[i] * state.demandFactor[i] > 0 : base > 0)) virtualFull[i] = 0;
+    }
+    this.connect();
+
+    let iterations = 0;
+    let converged = false;
+    let singular = false;
+    while (iterations < maxIterations) {
+      iterations++;
+      values.fill(0);
+      rhs.fill(0);
+      pinned.fill(Number.NaN);
+      for (let k = 0; k < m; k++) {
+        const f = model.from[k];
+        const t = model.to[k];
+        const st = status[k];
+        if (st === STATUS_CLOSED || st === STATUS_CHECK_CLOSED || !active[f] || !active[t]) { flow[k] = 0; p[k] = 0; y[k] = 0; continue; }
+        const uf = unknown[f];
+        const ut = unknown[t];
+        const kind = model.linkKind[k];
+        if (kind === LINK_PUMP_FLOW) {
+          const q = model.pumpFlow[k] * state.pumpFactor[k];
+          flow[k] = q; p[k] = 0; y[k] = 0;
+          if (uf >= 0) rhs[uf] -= q;
+          if (ut >= 0) rhs[ut] += q;
+          continue;
+        }
+        if (kind === LINK_PRV && st === STATUS_ACTIVE) {
+          p[k] = 0; y[k] = 0;
+          if (uf >= 0) rhs[uf] -= flow[k];
+          pinned[t] = model.elevation[t] + model.prvSetting[k];
+          continue;
+        }
+        this.linkLaw(k, flow[k], state.pumpFactor[k]);
+        const g = this.scratch[1] > GRADIENT_FLOOR ? this.scratch[1] : GRADIENT_FLOOR;
+        const pk = 1 / g;
+        const yk = this.scratch[0] * pk;
+        p[k] = pk; y[k] = yk;
+        const qy = flow[k] - yk;
+        if (uf >= 0) { values[this.posFF[k]] += pk; rhs[uf] -= qy; } else if (ut >= 0) rhs[ut] += pk * head[f];
+        if (ut >= 0) { values[this.posTT[k]] += pk; rhs[ut] += qy; } else if (uf >= 0) rhs[uf] += pk * head[t];
+        if (uf >= 0 && ut >= 0) { values[this.posFT[k]] -= pk; values[this.posTF[k]] -= pk; }
+      }
+      for (let u = 0; u < unknown.length && u < this.unknownNode.length; u++) {
+        const i = this.unknownNode[u];
+        const pd = this.posDiag[u];
+        if (!active[i]) { values[pd] = 1; rhs[u] = model.elevation[i]; continue; }
+        if (virtualFull[i] > 0) {
+          this.virtualLaw(i, virtualFlow[i], virtualFull[i], state);
+          const g = this.scratch[1] > GRADIENT_FLOOR ? this.scratch[1] : GRADIENT_FLOOR;
+          const pv = 1 / g;
+          const yv = this.scratch[0] * pv;
+          values[pd] += pv;
+          rhs[u] += -(virtualFlow[i] - yv) + pv * (model.elevation[i] + this.zeroPressure(i, state));
+          this.demand[i] = yv; // stash y of the virtual link
+          this.netOut[i] = pv; // stash p of the virtual link
+        } else {
+          rhs[u] -= this.requested[i] > 0 || this.requested[i] < 0 ? this.requested[i] : 0;
+        }
+        if (!Number.isNaN(pinned[i])) { values[pd] += PIN_WEIGHT; rhs[u] += PIN_WEIGHT * pinned[i]; }
+      }
+      if (ldl.factor() !== ldl.n) { singular = true; break; }
+      ldl.solve(rhs, x);
+      for (let u = 0; u < this.unknownNode.length; u++) head[this.unknownNode[u]] = x[u];
+
+      // flow update
+      let sumQ = 0;
+      let sumDQ = 0;
+      for (let i = 0; i < n; i++) {
+        if (unknown[i] < 0 || !active[i]) { if (unknown[i] >= 0) { virtualFlow[i] = 0; } continue; }
+        if (virtualFull[i] > 0) {
+          const qv = virtualFlow[i] - this.demand[i] + this.netOut[i] * (head[i] - model.elevation[i] - this.zeroPressure(i, state));
+          sumDQ += Math.abs(qv - virtualFlow[i]);
+          sumQ += Math.abs(qv);
+          virtualFlow[i] = qv;
+        }
+      }
+      for (let k = 0; k < m; k++) {
+        if (p[k] === 0) continue;
+        const q = flow[k] - y[k] + p[k] * (head[model.from[k]] - head[model.to[k]]);
+        sumDQ += Math.abs(q - flow[k]);
+        sumQ += Math.abs(q);
+        flow[k] = q;
+      }
+      // delivered demands and flows through active PRVs from continuity at their outlets
+      netOut.fill(0);
+      for (let i = 0; i < n; i++) {
+        if (unknown[i] < 0) { this.demand[i] = 0; continue; }
+        if (!active[i]) { this.demand[i] = 0; continue; }
+        const d = virtualFull[i] > 0 ? virtualFlow[i] : this.requested[i] || 0;
+        this.demand[i] = d;
+      }
+      let anyPrv = false;
+      for (let k = 0; k < m; k++) {
+        if (model.linkKind[k] === LINK_PRV && status[k] === STATUS_ACTIVE && active[model.from[k]] && active[model.to[k]]) { anyPrv = true; continue; }
+        netOut[model.from[k]] += flow[k];
+        netOut[model.to[k]] -= flow[k];
+      }
+      if (anyPrv) {
+        for (let k = 0; k < m; k++) {
+          if (!(model.linkKind[k] === LINK_PRV && status[k] === STATUS_ACTIVE && active[model.from[k]] && active[model.to[k]])) continue;
+          const t = model.to[k];
+          const q = netOut[t] + this.demand[t];
+          sumDQ += Math.abs(q - flow[k]);
+          sumQ += Math.abs(q);
+          flow[k] = q;
+          netOut[t] -= q;
+        }
+      }
+      const relative = sumQ > 0 ? sumDQ / sumQ : sumDQ;
+      let changed = false;
+      if (relative < 1e-2 || iterations >= 10) changed = this.checkStatuses(state);
+      if (changed) { this.connect(); continue; }
+      if (relative < accuracy || (sumQ === 0 && sumDQ < 1e-14)) { converged = true; break; }
+    }
+    // final delivered demand (clamped to the physical range of each law)
+    for (let i = 0; i < n; i++) {
+      if (unknown[i] < 0 || !active[i]) {
+        if (unknown[i] >= 0) head[i] = model.elevation[i];
+        if (unknown[i] >= 0) this.demand[i] = 0;
+        continue;
+      }
+      if (virtualFull[i] > 0) this.demand[i] = Math.min(Math.max(virtualFlow[i], 0), virtualFull[i]);
+    }
+    return { converged: converged && !singular, iterations, singular };
+  }
+
+  /** Status changes of check valves, no-reverse pumps, empty-tank blocks and PRVs; true if any. */
+  private checkStatuses(state: SolverState): boolean {
+    const model = this.model;
+    const { status, flow, head, active, changes } = this;
+    let changed = false;
+    for (let k = 0; k < model.linkCount; k++) {
+      const st = status[k];
+      if (st === STATUS_CLOSED || changes[k] > 8) continue;
+      const kind = model.linkKind[k];
+      const f = model.from[k];
+      const t = model.to[k];
+      let next = st;
+      if (kind === LINK_PRV) {
+        const hset = model.elevation[t] + model.prvSetting[k];
+        if (!active[f]) continue;
+        const hf = head[f];
+        const ht = active[t] ? head[t] : model.elevation[t];
+        if (st === STATUS_ACTIVE) {
+          if (flow[k] < -STATUS_FLOW_TOL) next = STATUS_CHECK_CLOSED;
+          else if (hf < hset - STATUS_HEAD_TOL) next = STATUS_OPEN;
+        } else if (st === STATUS_OPEN) {
+          if (flow[k] < -STATUS_FLOW_TOL) next = STATUS_CHECK_CLOSED;
+          else if (ht > hset + STATUS_HEAD_TOL && this.unknown[t] >= 0) next = STATUS_ACTIVE;
+        } else if (hf > hset + STATUS_HEAD_TOL && ht < hset - STATUS_HEAD_TOL && this.unknown[t] >= 0) next = STATUS_ACTIVE;
+        else if (hf > ht + STATUS_HEAD_TOL) next = STATUS_OPEN;
+      } else {
+        let allowed = state.linkDirection[k];
+        if (kind === LINK_CHECK || kind === LINK_PUMP_CURVE || kind === LINK_PUMP_FLOW) allowed = allowed < 0 ? 2 : 1;
+        if (allowed === 0 || kind === LINK_PUMP_FLOW) continue;
+        if (allowed === 2) { next = STATUS_CHECK_CLOSED; } else if (st === STATUS_OPEN) {
+          if (allowed * flow[k] < -STATUS_FLOW_TOL) next = STATUS_CHECK_CLOSED;
+        } else {
+          // reopen when the head difference pushes flow the allowed way; a part without a fixed
+          // head can receive water but not give it
+          const up = allowed > 0 ? f : t;
+          const down = allowed > 0 ? t : f;
+          if (active[up]) {
+            let drive = head[up] - (active[down] ? head[down] : model.elevation[down]);
+            if (kind === LINK_PUMP_CURVE) {
+              const s = state.pumpFactor[k];
+              drive += s * s * model.curveH[model.curveStart[k]];
+            }
+            if (drive > STATUS_HEAD_TOL) next = STATUS_OPEN;
+          }
+        }
+      }
+      if (next !== st) {
+        status[k] = next;
+        changes[k]++;
+        changed = true;
+        if (next === STATUS_CHECK_CLOSED) flow[k] = 0;
+        else if (st === STATUS_CHECK_CLOSED) flow[k] = (model.linkKind[k] === LINK_PRV || state.linkDirection[k] >= 0 ? 1 : -1) * 1e-3 * Math.max(model.area[k], 1e-4);
+      }
+    }
+    return changed;
+  }
+}

@@ -1,0 +1,140 @@
+import { steadyChecks, type CheckOptions } from './checks';
+import { GradientSolver, STATUS_CLOSED, STATUS_NAMES, type SolverState } from './gradient-solver';
+import type { NetworkDocument } from './network-document';
+import { compileNetwork, LINK_FLOAT, LINK_PUMP_CURVE, LINK_PUMP_FLOW, NODE_JUNCTION, type NetworkModel } from './network-model';
+import { validateDocument } from './validate';
+import type { Warning } from './warnings';
+
+/**
+ * Steady-state solve of a network document: validate, compile, run the global gradient method
+ * (./gradient-solver), then the design checks (./checks).
+ * Design condition: tanks at their document levels; pumps run at full availability unless their
+ * control tank is at or above its stop level, or their low-water cut-off tank at or below its cut-off;
+ * float valves are shut when the tank they feed is at max_level_m. Units: SI.
+ *
+ * @example
+ * const result = solve(hillSmallholding);
+ * result.nodes['TR4'].pressure_m // m of water
+ */
+
+export interface SteadyOptions extends CheckOptions {
+  /** Hazen-Williams SI coefficient ω (default 10.67). */
+  omega?: number;
+  /** Convergence: relative flow change (default 1e-9). */
+  accuracy?: number;
+  /** Iteration cap (default 100). */
+  maxIterations?: number;
+  /** Fixed demands fall off below the outlet's minimum pressure (default false: demand-driven). */
+  pressureDriven?: boolean;
+}
+
+export interface NodeResult { head_m: number; pressure_m: number; demand_m3s: number }
+export interface LinkResult { flow_m3s: number; velocity_ms: number; headloss_m: number; status: string }
+
+export interface SteadyResult {
+  converged: boolean;
+  iterations: number;
+  /** Per node: head (m), pressure = head − elevation (m of water), delivered demand (m³/s;
+   * for sources and tanks the net flow into them from the network, negative when supplying). */
+  nodes: Record<string, NodeResult>;
+  /** Per link: flow (m³/s, + from → to), velocity (m/s; 0 for pumps), headloss = head(from) − head(to)
+   * (m; negative across a pump), status open | closed | check-closed | active. */
+  links: Record<string, LinkResult>;
+  warnings: Warning[];
+}
+
+/** Documents from JSON may omit schema/headloss; fill the defaults. */
+export function normaliseDocument(doc: NetworkDocument): NetworkDocument {
+  return { ...doc, schema: 'runnel.network/1', headloss: doc.headloss ?? 'hazen-williams' };
+}
+
+/** The design-condition state of a compiled model (see module doc). */
+export function steadyState(solver: GradientSolver, options: SteadyOptions = {}): SolverState {
+  const model = solver.model;
+  const state = solver.createState();
+  state.pressureDriven = options.pressureDriven ?? false;
+  const level = (id: string): number => {
+    const node = model.doc.nodes[model.nodeIndex.get(id) ?? -1];
+    return node && node.kind === 'tank' ? node.level_m : Number.NaN;
+  };
+  model.doc.links.forEach((link, k) => {
+    if (link.kind === 'pump') {
+      if (link.control && level(link.control.tank) >= link.control.stop_level_m) state.linkClosed[k] = 1;
+      if (link.low_cutoff && level(link.low_cutoff.tank) <= link.low_cutoff.level_m) state.linkClosed[k] = 1;
+    } else if (link.kind === 'valve' && model.linkKind[k] === LINK_FLOAT && link.tank) {
+      const tank = model.doc.nodes[model.nodeIndex.get(link.tank) ?? -1];
+      if (tank && tank.kind === 'tank' && tank.level_m >= tank.max_level_m) state.linkClosed[k] = 1;
+    }
+  });
+  return state;
+}
+
+/** Result records from the solver's arrays. */
+export function collectResult(model: NetworkModel, solver: GradientSolver): Pick<SteadyResult, 'nodes' | 'links'> {
+  const nodes: Record<string, NodeResult> = {};
+  const links: Record<string, LinkResult> = {};
+  const netIn = new Float64Array(model.nodeCount);
+  for (let k = 0; k < model.linkCount; k++) {
+    netIn[model.to[k]] += solver.flow[k];
+    netIn[model.from[k]] -= solver.flow[k];
+  }
+  for (let i = 0; i < model.nodeCount; i++) {
+    const h = solver.head[i];
+    nodes[model.nodeIds[i]] = {
+      head_m: h,
+      pressure_m: h - model.elevation[i],
+      demand_m3s: model.nodeKind[i] === NODE_JUNCTION ? solver.demand[i] : netIn[i],
+    };
+  }
+  for (let k = 0; k < model.linkCount; k++) {
+    const kind = model.linkKind[k];
+    const q = solver.flow[k];
+    const isPump = kind === LINK_PUMP_FLOW || kind === LINK_PUMP_CURVE;
+    links[model.linkIds[k]] = {
+      flow_m3s: q,
+      velocity_ms: isPump || model.area[k] === 0 ? 0 : q / model.area[k],
+      headloss_m: solver.head[model.from[k]] - solver.head[model.to[k]],
+      status: STATUS_NAMES[solver.status[k]],
+    };
+  }
+  return { nodes, links };
+}
+
+/**
+ * Solve the steady state of an untrusted document. Never throws: invalid input gives
+ * converged:false with `invalid` warnings; no source or tank gives `no-fixed-head`.
+ * @param doc a network document (validated here)
+ * @param options ω, accuracy, velocity limit (1.5 m/s), pressureDriven (false)
+ */
+export function solve(doc: unknown, options: SteadyOptions = {}): SteadyResult {
+  const invalid = validateDocument(doc);
+  if (invalid.length > 0) return { converged: false, iterations: 0, nodes: {}, links: {}, warnings: invalid };
+  const network = normaliseDocument(doc as NetworkDocument);
+  if (!network.nodes.some((node) => node.kind === 'source' || node.kind === 'tank')) {
+    return {
+      converged: false, iterations: 0, nodes: {}, links: {},
+      warnings: [{ code: 'no-fixed-head', element: null, message: 'network: needs at least one source or tank to fix the head' }],
+    };
+  }
+  try {
+    const model = compileNetwork(network, { omega: options.omega });
+    const solver = new GradientSolver(model);
+    const state = steadyState(solver, options);
+    const outcome = solver.solve(state, { accuracy: options.accuracy, maxIterations: options.maxIterations });
+    const { nodes, links } = collectResult(model, solver);
+    const warnings: Warning[] = [];
+    if (!outcome.converged) {
+      warnings.push({ code: 'not-converged', element: null, message: `network: the solution did not converge in ${outcome.iterations} iterations${outcome.singular ? ' (singular system)' : ''}` });
+    }
+    const level = new Float64Array(model.nodeCount);
+    const closed = new Uint8Array(model.linkCount);
+    for (let k = 0; k < model.linkCount; k++) closed[k] = solver.status[k] === STATUS_CLOSED ? 1 : 0;
+    warnings.push(...steadyChecks(model, { head: solver.head, flow: solver.flow, demand: solver.demand, requested: solver.requested, active: solver.active, level, closed }, options));
+    return { converged: outcome.converged, iterations: outcome.iterations, nodes, links, warnings };
+  } catch (error) {
+    return {
+      converged: false, iterations: 0, nodes: {}, links: {},
+      warnings: [{ code: 'not-converged', element: null, message: `network: the solver failed (${error instanceof Error ? error.message : String(error)})` }],
+    };
+  }
+}
