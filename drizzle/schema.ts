@@ -1,0 +1,120 @@
+/**
+ * The Drizzle schema: the single source of truth for Runnel's database.
+ * Migrations in drizzle/migrations are generated from this file with `npx drizzle-kit generate`.
+ */
+import { sql } from 'drizzle-orm';
+import {
+  bigserial, boolean, customType, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
+} from 'drizzle-orm/pg-core';
+
+/** Raw bytes (PostgreSQL bytea) as a Node Buffer. */
+const bytea = customType<{ data: Buffer; driverData: Buffer | Uint8Array }>({
+  dataType: () => 'bytea',
+  fromDriver: (value) => Buffer.from(value),
+});
+
+const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
+
+export const users = pgTable('users', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  /** Stored lower-cased. */
+  email: text('email').notNull(),
+  name: text('name').notNull(),
+  passwordHash: text('password_hash').notNull(),
+  createdAt: createdAt(),
+}, (t) => [uniqueIndex('users_email_idx').on(t.email)]);
+
+export const teams = pgTable('teams', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  name: text('name').notNull(),
+  createdAt: createdAt(),
+});
+
+export const memberships = pgTable('memberships', {
+  teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+  userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  /** Role names (server/permissions.ts ROLES); at least one. */
+  roles: text('roles').array().notNull(),
+  createdAt: createdAt(),
+}, (t) => [primaryKey({ columns: [t.teamId, t.userId] }), index('memberships_user_idx').on(t.userId)]);
+
+export const projects = pgTable('projects', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+  name: text('name').notNull(),
+  siteName: text('site_name').notNull().default(''),
+  notes: text('notes').notNull().default(''),
+  units: text('units', { enum: ['us', 'si'] }).notNull().default('us'),
+  archived: boolean('archived').notNull().default(false),
+  createdAt: createdAt(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [index('projects_team_idx').on(t.teamId)]);
+
+/** express-session rows (server/auth/session-store.ts). */
+export const sessions = pgTable('sessions', {
+  sid: text('sid').primaryKey(),
+  data: jsonb('data').notNull(),
+  expires: timestamp('expires', { withTimezone: true }).notNull(),
+}, (t) => [index('sessions_expires_idx').on(t.expires)]);
+
+export const invitations = pgTable('invitations', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+  email: text('email').notNull(),
+  roles: text('roles').array().notNull(),
+  /** SHA-256 of the token mailed in the link; the token itself is never stored. */
+  tokenHash: text('token_hash').notNull(),
+  invitedBy: uuid('invited_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  acceptedAt: timestamp('accepted_at', { withTimezone: true }),
+  acceptedBy: uuid('accepted_by').references(() => users.id, { onDelete: 'set null' }),
+}, (t) => [uniqueIndex('invitations_token_idx').on(t.tokenHash), index('invitations_team_idx').on(t.teamId)]);
+
+export const auditLog = pgTable('audit_log', {
+  id: bigserial('id', { mode: 'number' }).primaryKey(),
+  at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+  teamId: uuid('team_id').references(() => teams.id, { onDelete: 'cascade' }),
+  userId: uuid('user_id').references(() => users.id, { onDelete: 'set null' }),
+  /** Copied so the entry stays readable after the user is gone. */
+  userEmail: text('user_email'),
+  action: text('action').notNull(),
+  target: text('target').notNull().default(''),
+  detail: jsonb('detail').notNull().default(sql`'{}'::jsonb`),
+}, (t) => [index('audit_team_at_idx').on(t.teamId, t.at)]);
+
+/** Mail captured by the development/test SMTP sink (server/mail/sink.ts). */
+export const outbox = pgTable('outbox', {
+  id: bigserial('id', { mode: 'number' }).primaryKey(),
+  /** From the X-Runnel-Team header, so a team's admin sees only that team's mail. */
+  teamId: uuid('team_id').references(() => teams.id, { onDelete: 'cascade' }),
+  from: text('from').notNull().default(''),
+  to: text('to').notNull(),
+  subject: text('subject').notNull().default(''),
+  text: text('text').notNull().default(''),
+  raw: text('raw').notNull(),
+  sentAt: timestamp('sent_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+export const networks = pgTable('networks', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  /** Incremented on every save; a save must name the version it started from. */
+  version: integer('version').notNull(),
+  document: jsonb('document').notNull(),
+  results: jsonb('results'),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+}, (t) => [uniqueIndex('networks_project_idx').on(t.projectId)]);
+
+export const files = pgTable('files', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  kind: text('kind', { enum: ['backdrop', 'survey'] }).notNull(),
+  filename: text('filename').notNull(),
+  mime: text('mime').notNull(),
+  size: integer('size').notNull(),
+  bytes: bytea('bytes').notNull(),
+  createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+}, (t) => [index('files_project_idx').on(t.projectId)]);

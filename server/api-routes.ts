@@ -1,0 +1,26 @@
+/**
+ * Registering an /api route always names its access (a permission, 'signed-in' or 'public'),
+ * and every route lands in `table` so tests can check that each one is covered.
+ */
+import { Router, type RequestHandler } from 'express';
+import { guard, type Access } from './permissions';
+
+export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
+export interface RouteSpec { method: Method; path: string; access: Access }
+
+export class ApiRoutes {
+  readonly router = Router();
+  readonly table: RouteSpec[] = [];
+
+  get(path: string, access: Access, ...handlers: RequestHandler[]) { return this.add('get', path, access, handlers); }
+  post(path: string, access: Access, ...handlers: RequestHandler[]) { return this.add('post', path, access, handlers); }
+  put(path: string, access: Access, ...handlers: RequestHandler[]) { return this.add('put', path, access, handlers); }
+  patch(path: string, access: Access, ...handlers: RequestHandler[]) { return this.add('patch', path, access, handlers); }
+  delete(path: string, access: Access, ...handlers: RequestHandler[]) { return this.add('delete', path, access, handlers); }
+
+  private add(method: Method, path: string, access: Access, handlers: RequestHandler[]): this {
+    this.table.push({ method, path, access });
+    this.router[method](path, guard(access), ...handlers);
+    return this;
+  }
+}

@@ -1,0 +1,160 @@
+/**
+ * Building the Express app (without listening): database, mail, sessions, CSRF, the /api routes,
+ * the built client and the central error handler. server/main.ts listens; tests call createApp.
+ */
+import { existsSync } from 'node:fs';
+import { extname, join, resolve } from 'node:path';
+import cookieParser from 'cookie-parser';
+import express, { type Express } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import { ApiRoutes, type RouteSpec } from './api-routes';
+import { createCsrf } from './auth/csrf';
+import { createPassport, currentMember } from './auth/passport';
+import { DEFAULT_BCRYPT_COST } from './auth/passwords';
+import { DrizzleSessionStore } from './auth/session-store';
+import type { Config } from './config';
+import type { AppContext } from './context';
+import { openDatabase, pgliteDir, type Database, type Db } from './db';
+import { apiNotFound, errorHandler } from './errors';
+import { createMailer } from './mail/mailer';
+import { startMailSink, type MailSink } from './mail/sink';
+import { authRoutes, type SigninLimit } from './routes/auth';
+import { fileRoutes } from './routes/files';
+import { networkRoutes } from './routes/network';
+import { projectRoutes } from './routes/projects';
+import { teamRoutes } from './routes/team';
+import { seed as seedDemo, type SeedResult } from './seed';
+import './types';
+
+export interface AppOptions {
+  config: Config;
+  /** An open database (the caller closes it); default: opened from config (DATABASE_URL or PGlite in dataDir/pg). */
+  database?: Database;
+  /** bcrypt cost for new hashes; default 10. Tests use 4. */
+  bcryptCost?: number;
+  /** Failed sign-ins allowed per IP and e-mail per window; default 10 per 15 minutes. */
+  signinLimit?: SigninLimit;
+  /** Insert the demo data when missing (server/seed.ts); default true. */
+  seed?: boolean;
+  /** Where request and error lines go; false for silence. Default console.log. */
+  log?: ((line: string) => void) | false;
+  /** The built Angular app; default dist/client/browser. Its index.html answers client routes when it exists. */
+  clientDir?: string;
+}
+
+export interface RunnelApp {
+  app: Express;
+  db: Db;
+  /** Every /api route with its access (method, path relative to /api). */
+  routes: RouteSpec[];
+  /** Port of the local SMTP sink when no SMTP server is configured. */
+  mailSinkPort: number | null;
+  seeded: SeedResult | null;
+  close(): Promise<void>;
+}
+
+export const JSON_BODY_LIMIT = '5mb';
+/** Angular's build loads its stylesheet with onload="this.media='all'"; this allows exactly that handler. */
+const ANGULAR_STYLESHEET_ONLOAD = "'sha256-MhtPZXr7+LpJUY5qtMutB+qWfQtMaPccfe7QXtCcEYc='";
+
+export async function createApp(options: AppOptions): Promise<RunnelApp> {
+  const { config } = options;
+  const log = options.log === false ? () => undefined : options.log ?? ((line: string) => console.log(line));
+  const bcryptCost = options.bcryptCost ?? DEFAULT_BCRYPT_COST;
+
+  const database = options.database ?? await openDatabase(
+    config.databaseUrl ? { kind: 'postgres', url: config.databaseUrl } : { kind: 'pglite', dir: pgliteDir(config.dataDir) });
+  const db = database.db;
+
+  let sink: MailSink | null = null;
+  if (!config.smtp) sink = await startMailSink(db);
+  const mailer = createMailer(config.smtp ?? { host: '127.0.0.1', port: sink!.port }, config.mailFrom);
+
+  const seeded = options.seed === false ? null : await seedDemo(db, { bcryptCost });
+  const ctx: AppContext = { db, config, mailer, bcryptCost, log };
+
+  const store = new DrizzleSessionStore(db);
+  const passport = createPassport(db, bcryptCost);
+  const csrf = createCsrf(config.sessionSecret, config.cookieSecure);
+
+  const app = express();
+  app.disable('x-powered-by');
+  app.use(helmet({
+    contentSecurityPolicy: {
+      directives: {
+        defaultSrc: ["'self'"],
+        scriptSrc: ["'self'"],
+        scriptSrcAttr: ["'unsafe-hashes'", ANGULAR_STYLESHEET_ONLOAD],
+        styleSrc: ["'self'", "'unsafe-inline'"],
+        imgSrc: ["'self'", 'data:', 'blob:'],
+        fontSrc: ["'self'", 'data:'],
+        workerSrc: ["'self'", 'blob:'],
+        connectSrc: ["'self'"],
+        objectSrc: ["'none'"],
+        frameAncestors: ["'none'"],
+        baseUri: ["'self'"],
+        formAction: ["'self'"],
+        upgradeInsecureRequests: config.cookieSecure ? [] : null,
+      },
+    },
+  }));
+  app.use((req, res, next) => {
+    const started = process.hrtime.bigint();
+    res.on('finish', () => {
+      const ms = Number(process.hrtime.bigint() - started) / 1e6;
+      log(`${req.method} ${req.originalUrl.split('?')[0]} ${res.statusCode} ${ms.toFixed(1)}ms`);
+    });
+    next();
+  });
+
+  const api = new ApiRoutes();
+  api.get('/csrf', 'public', csrf.issue);
+  authRoutes(api, ctx, passport, options.signinLimit ?? { max: 10, windowMs: 15 * 60 * 1000 });
+  teamRoutes(api, ctx);
+  projectRoutes(api, ctx);
+  networkRoutes(api, ctx);
+  fileRoutes(api, ctx);
+
+  app.use('/api',
+    express.json({ limit: JSON_BODY_LIMIT }),
+    cookieParser(),
+    session({
+      name: 'runnel.sid',
+      secret: config.sessionSecret,
+      store,
+      resave: false,
+      saveUninitialized: false,
+      cookie: { httpOnly: true, sameSite: 'lax', secure: config.cookieSecure, maxAge: 14 * 24 * 60 * 60 * 1000 },
+    }),
+    passport.initialize(),
+    passport.session(),
+    currentMember(db),
+    csrf.protect,
+    api.router,
+    apiNotFound,
+  );
+
+  const clientDir = options.clientDir ?? resolve(import.meta.dirname, '../dist/client/browser');
+  const indexHtml = join(clientDir, 'index.html');
+  // Checked per request: the client may be (re)built while the server runs.
+  app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+  app.use((req, res, next) => {
+    // Client routes (/projects/…, /join/…) get the app; a missing asset (has an extension) stays 404.
+    if ((req.method !== 'GET' && req.method !== 'HEAD') || extname(req.path) || !existsSync(indexHtml)) return next();
+    res.setHeader('Cache-Control', 'no-cache');
+    res.sendFile(indexHtml);
+  });
+  app.use(apiNotFound);
+  app.use(errorHandler(log));
+
+  return {
+    app, db, routes: api.table.map((r) => ({ ...r })), mailSinkPort: sink?.port ?? null, seeded,
+    async close() {
+      store.stop();
+      mailer.close();
+      await sink?.close();
+      if (!options.database) await database.close();
+    },
+  };
+}

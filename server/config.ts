@@ -1,0 +1,75 @@
+/**
+ * Environment variables, validated once. Everything else reads the `Config` object.
+ */
+import { randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { z } from 'zod';
+
+const envSchema = z.object({
+  NODE_ENV: z.string().optional(),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  HOST: z.string().default('127.0.0.1'),
+  RUNNEL_DATA_DIR: z.string().default('./.data'),
+  DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'must start with postgres://').optional(),
+  SESSION_SECRET: z.string().min(16, 'must be at least 16 characters').optional(),
+  SMTP_HOST: z.string().optional(),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(587),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASS: z.string().optional(),
+  MAIL_FROM: z.string().default('Runnel <no-reply@runnel.test>'),
+  PUBLIC_URL: z.url().optional(),
+  COOKIE_SECURE: z.enum(['true', 'false']).optional(),
+});
+
+export interface SmtpConfig { host: string; port: number; user?: string; pass?: string }
+
+export interface Config {
+  production: boolean;
+  port: number;
+  host: string;
+  /** Absolute path; holds the PGlite database (pg/) and the generated session secret. */
+  dataDir: string;
+  databaseUrl?: string;
+  sessionSecret: string;
+  /** Outgoing SMTP server; absent → the app starts its own capture sink (server/mail/sink.ts). */
+  smtp?: SmtpConfig;
+  mailFrom: string;
+  /** Base of links in e-mails (no trailing slash). */
+  publicUrl: string;
+  cookieSecure: boolean;
+}
+
+/** Reads the session secret from the data dir, creating it on first start. */
+function persistedSecret(dataDir: string): string {
+  const file = join(dataDir, 'session-secret');
+  if (existsSync(file)) return readFileSync(file, 'utf8').trim();
+  mkdirSync(dataDir, { recursive: true });
+  const secret = randomBytes(32).toString('base64url');
+  writeFileSync(file, secret + '\n', { mode: 0o600 });
+  return secret;
+}
+
+/** Validates `env` (default process.env); throws one readable error listing every bad variable. */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+  const parsed = envSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Invalid environment:\n${lines.join('\n')}`);
+  }
+  const e = parsed.data;
+  const production = e.NODE_ENV === 'production';
+  const dataDir = resolve(e.RUNNEL_DATA_DIR);
+  return {
+    production,
+    port: e.PORT,
+    host: e.HOST,
+    dataDir,
+    databaseUrl: e.DATABASE_URL,
+    sessionSecret: e.SESSION_SECRET ?? persistedSecret(dataDir),
+    smtp: e.SMTP_HOST ? { host: e.SMTP_HOST, port: e.SMTP_PORT, user: e.SMTP_USER, pass: e.SMTP_PASS } : undefined,
+    mailFrom: e.MAIL_FROM,
+    publicUrl: (e.PUBLIC_URL ?? `http://localhost:${e.PORT}`).replace(/\/+$/, ''),
+    cookieSecure: e.COOKIE_SECURE ? e.COOKIE_SECURE === 'true' : production,
+  };
+}

@@ -1,0 +1,71 @@
+/**
+ * Errors as the API reports them (server/API.md "Errors"), and the one central error handler.
+ */
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { z } from 'zod';
+
+export type ErrorCode =
+  | 'validation' | 'unauthenticated' | 'forbidden' | 'csrf' | 'not-found' | 'conflict'
+  | 'too-large' | 'unsupported-type' | 'rate-limited' | 'internal';
+
+const STATUS: Record<ErrorCode, number> = {
+  validation: 400, unauthenticated: 401, forbidden: 403, csrf: 403, 'not-found': 404, conflict: 409,
+  'too-large': 413, 'unsupported-type': 415, 'rate-limited': 429, internal: 500,
+};
+
+export interface FieldError { path: string; message: string; element?: string }
+
+/** Thrown by handlers; `extra` is merged into the `error` object (e.g. `line`), `body` beside it (e.g. `current`). */
+export class ApiError extends Error {
+  readonly status: number;
+  constructor(
+    readonly code: ErrorCode,
+    message: string,
+    readonly extra: { fields?: FieldError[]; line?: number; point?: number } = {},
+    readonly body: Record<string, unknown> = {},
+  ) {
+    super(message);
+    this.status = STATUS[code];
+  }
+}
+
+export const notFound = (what = 'Not found') => new ApiError('not-found', what);
+
+/** "document.nodes.3.elevation_m" style path for a zod issue. */
+export function issuePath(path: readonly PropertyKey[]): string {
+  return path.map(String).join('.');
+}
+
+/** Parses `value` with `schema` or throws a 400 listing every field path. */
+export function parseBody<T extends z.ZodType>(schema: T, value: unknown, message = 'Invalid request body'): z.output<T> {
+  const parsed = schema.safeParse(value ?? {});
+  if (parsed.success) return parsed.data;
+  throw new ApiError('validation', message, {
+    fields: parsed.error.issues.map((i) => ({ path: issuePath(i.path) || '(body)', message: i.message })),
+  });
+}
+
+/** Unknown /api routes. */
+export const apiNotFound: RequestHandler = (req, _res, next) => {
+  next(new ApiError('not-found', `No API route ${req.method} ${req.path}`));
+};
+
+/** Maps any error to the API's error shape; logs unexpected ones with their stack, never sends it. */
+export function errorHandler(log: (line: string) => void): ErrorRequestHandler {
+  return (err, req, res, _next) => {
+    let apiError: ApiError;
+    if (err instanceof ApiError) apiError = err;
+    else if (isBodyParserError(err, 'entity.too.large')) apiError = new ApiError('too-large', 'Request body is too large');
+    else if (isBodyParserError(err, 'entity.parse.failed')) apiError = new ApiError('validation', 'Request body is not valid JSON');
+    else {
+      log(`error ${req.method} ${req.originalUrl}: ${err instanceof Error ? err.stack ?? err.message : String(err)}`);
+      apiError = new ApiError('internal', 'Something went wrong on the server; it has been logged.');
+    }
+    if (res.headersSent) return;
+    res.status(apiError.status).json({ ...apiError.body, error: { code: apiError.code, message: apiError.message, ...apiError.extra } });
+  };
+}
+
+function isBodyParserError(err: unknown, type: string): boolean {
+  return typeof err === 'object' && err !== null && 'type' in err && err.type === type;
+}

@@ -1,0 +1,75 @@
+/**
+ * Who may do what: the ONE permission table (server/API.md "Permission names") and the guards
+ * every /api route goes through. Roles come from the membership of the session's current team.
+ */
+import type { RequestHandler } from 'express';
+import { ApiError } from './errors';
+
+export const ROLES = ['admin', 'designer', 'reviewer', 'estimator', 'owner'] as const;
+export type Role = (typeof ROLES)[number];
+
+const EVERY_MEMBER: readonly Role[] = ROLES;
+
+/** Permission → roles holding it. */
+export const PERMISSION_TABLE = {
+  'project.read': EVERY_MEMBER,
+  'project.create': ['admin', 'designer'],
+  'project.update': ['admin', 'designer'],
+  'project.delete': ['admin', 'designer'],
+  'network.read': EVERY_MEMBER,
+  'network.write': ['designer'],
+  'files.read': EVERY_MEMBER,
+  'files.write': ['designer'],
+  'team.read': EVERY_MEMBER,
+  'team.manage': ['admin'],
+  'outbox.read': ['admin'],
+  'audit.read': ['admin'],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Permission = keyof typeof PERMISSION_TABLE;
+export const PERMISSIONS = Object.keys(PERMISSION_TABLE) as Permission[];
+
+export function hasPermission(roles: readonly Role[], permission: Permission): boolean {
+  const allowed: readonly Role[] = PERMISSION_TABLE[permission];
+  return roles.some((r) => allowed.includes(r));
+}
+
+/** The permissions a set of roles grants, in table order. */
+export function permissionsFor(roles: readonly Role[]): Permission[] {
+  return PERMISSIONS.filter((p) => hasPermission(roles, p));
+}
+
+/** How a route is reached: a permission in the current team, any signed-in user, or anyone. */
+export type Access = Permission | 'signed-in' | 'public';
+
+/** Open to anyone (sign-in, CSRF token, invitation look-up). */
+export const publicRoute: RequestHandler = (_req, _res, next) => next();
+
+/** A signed-in user, whatever their team roles. */
+export const requireSignedIn: RequestHandler = (req, _res, next) => {
+  if (!req.user) return next(new ApiError('unauthenticated', 'Sign in first'));
+  next();
+};
+
+/** A signed-in member of the current team holding `permission`; sets req.membership. */
+export function requirePermission(permission: Permission): RequestHandler {
+  return (req, _res, next) => {
+    if (!req.user) return next(new ApiError('unauthenticated', 'Sign in first'));
+    const membership = req.membership;
+    if (!membership) return next(new ApiError('forbidden', 'You are not a member of a team; accept an invitation or create a team'));
+    if (!hasPermission(membership.roles, permission)) {
+      return next(new ApiError('forbidden', `Your roles (${membership.roles.join(', ')}) do not include permission ${permission}`));
+    }
+    next();
+  };
+}
+
+export function guard(access: Access): RequestHandler {
+  if (access === 'public') return publicRoute;
+  if (access === 'signed-in') return requireSignedIn;
+  return requirePermission(access);
+}
+
+export function isRole(value: string): value is Role {
+  return (ROLES as readonly string[]).includes(value);
+}

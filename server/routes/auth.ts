@@ -1,0 +1,99 @@
+/** /api/auth/*: sign-up, sign-in (rate-limited), sign-out, me, switching team. */
+import type { Request, RequestHandler } from 'express';
+import { eq } from 'drizzle-orm';
+import rateLimit, { ipKeyGenerator } from 'express-rate-limit';
+import type passport from 'passport';
+import { z } from 'zod';
+import { memberships, teams, users } from '../../drizzle/schema';
+import type { ApiRoutes } from '../api-routes';
+import { audit } from '../audit';
+import { loadMe, teamsOf } from '../auth/me';
+import { normaliseEmail } from '../auth/passport';
+import { hashPassword } from '../auth/passwords';
+import type { AppContext } from '../context';
+import { ApiError, parseBody } from '../errors';
+import type { SessionUser } from '../types';
+
+export const PASSWORD_MIN = 10;
+export const emailField = z.email('must be an e-mail address').max(254);
+export const passwordField = z.string().min(PASSWORD_MIN, `must be at least ${PASSWORD_MIN} characters`).max(200);
+export const nameField = z.string().trim().min(1, 'is required').max(120);
+
+const signupBody = z.object({ email: emailField, name: nameField, password: passwordField, teamName: nameField });
+const signinBody = z.object({ email: z.string().min(1, 'is required'), password: z.string().min(1, 'is required') });
+const currentTeamBody = z.object({ teamId: z.uuid('must be a team id') });
+
+export interface SigninLimit { max: number; windowMs: number }
+
+/** Signs `user` in (passport regenerates the session) and makes `teamId` current. */
+export async function signIn(req: Request, user: SessionUser, teamId?: string): Promise<void> {
+  await new Promise<void>((done, fail) => req.login(user, (err) => (err ? fail(err) : done())));
+  if (teamId) req.session.teamId = teamId;
+}
+
+export function authRoutes(api: ApiRoutes, ctx: AppContext, auth: passport.Authenticator, limit: SigninLimit): void {
+  const { db } = ctx;
+
+  const signinLimiter = rateLimit({
+    windowMs: limit.windowMs,
+    limit: limit.max,
+    skipSuccessfulRequests: true,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${normaliseEmail(String(req.body?.email ?? ''))}`,
+    handler: (_req, res, _next, options) => {
+      const minutes = Math.ceil(options.windowMs / 60000);
+      res.status(429).json({ error: { code: 'rate-limited', message: `Too many sign-in attempts for this e-mail; try again in ${minutes} minutes.` } });
+    },
+  });
+
+  const sendMe: RequestHandler = async (req, res) => {
+    res.json(await loadMe(db, req.user!, req.session.teamId));
+  };
+
+  api.post('/auth/signup', 'public', async (req, res) => {
+    const body = parseBody(signupBody, req.body);
+    const email = normaliseEmail(body.email);
+    const passwordHash = await hashPassword(body.password, ctx.bcryptCost);
+    const created = await db.transaction(async (tx) => {
+      const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, email));
+      if (existing) throw new ApiError('conflict', 'An account with this e-mail already exists; sign in instead',
+        { fields: [{ path: 'email', message: 'is already registered' }] });
+      const [user] = await tx.insert(users).values({ email, name: body.name, passwordHash })
+        .returning({ id: users.id, email: users.email, name: users.name });
+      const [team] = await tx.insert(teams).values({ name: body.teamName }).returning({ id: teams.id });
+      await tx.insert(memberships).values({ teamId: team.id, userId: user.id, roles: ['admin'] });
+      await audit(tx, { teamId: team.id, user, action: 'team.create', target: body.teamName });
+      return { user, teamId: team.id };
+    });
+    await signIn(req, created.user, created.teamId);
+    res.status(201).json(await loadMe(db, created.user, created.teamId));
+  });
+
+  api.post('/auth/signin', 'public', signinLimiter, (req, res, next) => {
+    parseBody(signinBody, req.body);
+    auth.authenticate('local', { session: false }, (err: unknown, user: SessionUser | false) => {
+      if (err) return next(err);
+      if (!user) return next(new ApiError('unauthenticated', 'E-mail or password is wrong'));
+      signIn(req, user).then(async () => {
+        const list = await teamsOf(db, user.id);
+        req.session.teamId = list[0]?.id;
+        res.json(await loadMe(db, user, req.session.teamId));
+      }, next);
+    })(req, res, next);
+  });
+
+  api.post('/auth/signout', 'public', (req, res, next) => {
+    req.logout((err) => (err ? next(err) : res.status(204).end()));
+  });
+
+  api.get('/auth/me', 'signed-in', sendMe);
+
+  api.post('/auth/current-team', 'signed-in', async (req, res, next) => {
+    const { teamId } = parseBody(currentTeamBody, req.body);
+    const list = await teamsOf(db, req.user!.id);
+    if (!list.some((t) => t.id === teamId)) throw new ApiError('not-found', 'No such team among yours');
+    req.session.teamId = teamId;
+    sendMe(req, res, next);
+  });
+}

@@ -1,0 +1,131 @@
+/** /api/projects/:id/files and the survey parse endpoint. Bytes live in the `files` table. */
+import type { RequestHandler } from 'express';
+import { and, desc, eq } from 'drizzle-orm';
+import multer from 'multer';
+import { z } from 'zod';
+import { files, users } from '../../drizzle/schema';
+import type { ApiRoutes } from '../api-routes';
+import { audit } from '../audit';
+import type { AppContext } from '../context';
+import { ApiError, parseBody } from '../errors';
+import { detectSurveyFormat, parseSurvey, SurveyError } from '../survey';
+import { isUuid, projectOfTeam } from './projects';
+
+const MB = 1024 * 1024;
+export const BACKDROP_MAX_BYTES = 8 * MB;
+export const SURVEY_MAX_BYTES = 2 * MB;
+
+const uploadBody = z.object({ kind: z.enum(['backdrop', 'survey'], { error: 'must be backdrop or survey' }) });
+
+/** PNG and JPEG by their magic bytes (PNG spec §5.2; JPEG SOI marker FF D8 FF). */
+export function imageType(bytes: Buffer): 'image/png' | 'image/jpeg' | null {
+  if (bytes.length >= 8 && bytes.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]))) return 'image/png';
+  if (bytes.length >= 3 && bytes[0] === 0xff && bytes[1] === 0xd8 && bytes[2] === 0xff) return 'image/jpeg';
+  return null;
+}
+
+/** One file in field `file`, at most `maxBytes`, kept in memory; 413 above the limit. */
+function singleFile(maxBytes: number): RequestHandler {
+  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 10 } }).single('file');
+  return (req, res, next) => {
+    upload(req, res, (err: unknown) => {
+      if (!err) return next();
+      if (err instanceof multer.MulterError) {
+        if (err.code === 'LIMIT_FILE_SIZE') return next(new ApiError('too-large', `The file is larger than ${maxBytes / MB} MB`));
+        return next(new ApiError('validation', `Upload rejected: ${err.message}`, { fields: [{ path: err.field ?? 'file', message: err.message }] }));
+      }
+      next(err);
+    });
+  };
+}
+
+function requireFile(file: Express.Multer.File | undefined): Express.Multer.File {
+  if (!file) throw new ApiError('validation', 'No file uploaded', { fields: [{ path: 'file', message: 'is required (multipart field "file")' }] });
+  return file;
+}
+
+function fileJson(row: { id: string; kind: string; filename: string; mime: string; size: number; createdAt: Date; createdById: string | null; createdByName: string | null }) {
+  return {
+    id: row.id, kind: row.kind, filename: row.filename, mime: row.mime, size: row.size, createdAt: row.createdAt.toISOString(),
+    createdBy: row.createdById && row.createdByName ? { id: row.createdById, name: row.createdByName } : null,
+  };
+}
+
+const listColumns = {
+  id: files.id, kind: files.kind, filename: files.filename, mime: files.mime, size: files.size,
+  createdAt: files.createdAt, createdById: users.id, createdByName: users.name,
+};
+
+export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
+  const { db } = ctx;
+
+  api.get('/projects/:id/files', 'files.read', async (req, res) => {
+    const project = await projectOfTeam(db, req);
+    const rows = await db.select(listColumns).from(files).leftJoin(users, eq(users.id, files.createdBy))
+      .where(eq(files.projectId, project.id)).orderBy(desc(files.createdAt));
+    res.json(rows.map(fileJson));
+  });
+
+  api.post('/projects/:id/files', 'files.write', singleFile(BACKDROP_MAX_BYTES), async (req, res) => {
+    const project = await projectOfTeam(db, req);
+    const { kind } = parseBody(uploadBody, req.body);
+    const file = requireFile(req.file);
+    let mime: string;
+    if (kind === 'backdrop') {
+      const type = imageType(file.buffer);
+      if (!type) throw new ApiError('unsupported-type', `A backdrop must be a PNG or JPEG image; "${file.originalname}" is neither`);
+      mime = type;
+    } else {
+      if (file.size > SURVEY_MAX_BYTES) throw new ApiError('too-large', `A survey file must be at most ${SURVEY_MAX_BYTES / MB} MB`);
+      const format = detectSurveyFormat(file.buffer);
+      if (!format) throw new ApiError('unsupported-type', `A survey must be a CSV or GPX text file; "${file.originalname}" is binary`);
+      mime = format === 'gpx' ? 'application/gpx+xml' : 'text/csv';
+    }
+    const filename = file.originalname.replace(/[\\/\r\n"]/g, '_').slice(0, 200) || 'upload';
+    const row = await db.transaction(async (tx) => {
+      const [created] = await tx.insert(files).values({
+        projectId: project.id, kind, filename, mime, size: file.size, bytes: file.buffer, createdBy: req.user!.id,
+      }).returning({ id: files.id, kind: files.kind, filename: files.filename, mime: files.mime, size: files.size, createdAt: files.createdAt });
+      await audit(tx, { teamId: project.teamId, user: req.user!, action: 'file.upload', target: filename, detail: { projectId: project.id, kind, size: file.size } });
+      return created;
+    });
+    res.status(201).json(fileJson({ ...row, createdById: req.user!.id, createdByName: req.user!.name }));
+  });
+
+  api.get('/projects/:id/files/:fileId', 'files.read', async (req, res) => {
+    const project = await projectOfTeam(db, req);
+    const fileId = String(req.params.fileId);
+    if (!isUuid(fileId)) throw new ApiError('not-found', 'No such file');
+    const [row] = await db.select().from(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
+    if (!row) throw new ApiError('not-found', 'No such file');
+    res.setHeader('Content-Type', row.mime);
+    res.setHeader('Content-Disposition', `inline; filename="${row.filename}"`);
+    res.setHeader('X-Content-Type-Options', 'nosniff');
+    res.send(row.bytes);
+  });
+
+  api.delete('/projects/:id/files/:fileId', 'files.write', async (req, res) => {
+    const project = await projectOfTeam(db, req);
+    const fileId = String(req.params.fileId);
+    if (!isUuid(fileId)) throw new ApiError('not-found', 'No such file');
+    await db.transaction(async (tx) => {
+      const [row] = await tx.delete(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id))).returning({ filename: files.filename });
+      if (!row) throw new ApiError('not-found', 'No such file');
+      await audit(tx, { teamId: project.teamId, user: req.user!, action: 'file.delete', target: row.filename, detail: { projectId: project.id } });
+    });
+    res.status(204).end();
+  });
+
+  api.post('/projects/:id/survey/parse', 'files.read', singleFile(SURVEY_MAX_BYTES), async (req, res) => {
+    await projectOfTeam(db, req);
+    const file = requireFile(req.file);
+    const format = detectSurveyFormat(file.buffer);
+    if (!format) throw new ApiError('unsupported-type', `A survey must be a CSV or GPX text file; "${file.originalname}" is binary`);
+    try {
+      res.json(parseSurvey(file.buffer.toString('utf8'), format));
+    } catch (err) {
+      if (err instanceof SurveyError) throw new ApiError('validation', err.message, err.where);
+      throw err;
+    }
+  });
+}

@@ -1,0 +1,98 @@
+/** /api/projects: the current team's projects. Another team's project is 404, never 403. */
+import type { Request } from 'express';
+import { and, asc, eq } from 'drizzle-orm';
+import { z } from 'zod';
+import { projects } from '../../drizzle/schema';
+import type { ApiRoutes } from '../api-routes';
+import { audit } from '../audit';
+import type { AppContext } from '../context';
+import type { DbOrTx } from '../db';
+import { ApiError, parseBody } from '../errors';
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+const units = z.enum(['us', 'si']);
+const createBody = z.object({
+  name: z.string().trim().min(1, 'is required').max(200),
+  siteName: z.string().trim().max(200).optional(),
+  notes: z.string().max(20000).optional(),
+  units: units.optional(),
+});
+const updateBody = z.object({
+  name: z.string().trim().min(1, 'is required').max(200).optional(),
+  siteName: z.string().trim().max(200).optional(),
+  notes: z.string().max(20000).optional(),
+  units: units.optional(),
+  archived: z.boolean().optional(),
+});
+const listQuery = z.object({ archived: z.enum(['true', 'false']).optional() });
+
+export type ProjectRow = typeof projects.$inferSelect;
+
+export function projectJson(row: ProjectRow) {
+  return {
+    id: row.id, teamId: row.teamId, name: row.name, siteName: row.siteName, notes: row.notes,
+    units: row.units, archived: row.archived, createdAt: row.createdAt.toISOString(), updatedAt: row.updatedAt.toISOString(),
+  };
+}
+
+/** The project `:id` of the caller's current team, or 404. */
+export async function projectOfTeam(db: DbOrTx, req: Request): Promise<ProjectRow> {
+  const id = String(req.params.id);
+  if (!UUID.test(id)) throw new ApiError('not-found', 'No such project');
+  const [row] = await db.select().from(projects)
+    .where(and(eq(projects.id, id), eq(projects.teamId, req.membership!.teamId)));
+  if (!row) throw new ApiError('not-found', 'No such project');
+  return row;
+}
+
+export function isUuid(value: string): boolean {
+  return UUID.test(value);
+}
+
+export function projectRoutes(api: ApiRoutes, ctx: AppContext): void {
+  const { db } = ctx;
+
+  api.get('/projects', 'project.read', async (req, res) => {
+    const query = parseBody(listQuery, req.query, 'Invalid query');
+    const teamId = req.membership!.teamId;
+    const where = query.archived === 'true' ? eq(projects.teamId, teamId) : and(eq(projects.teamId, teamId), eq(projects.archived, false));
+    const rows = await db.select().from(projects).where(where).orderBy(asc(projects.name));
+    res.json(rows.map(projectJson));
+  });
+
+  api.post('/projects', 'project.create', async (req, res) => {
+    const body = parseBody(createBody, req.body);
+    const teamId = req.membership!.teamId;
+    const row = await db.transaction(async (tx) => {
+      const [created] = await tx.insert(projects).values({ teamId, ...body }).returning();
+      await audit(tx, { teamId, user: req.user!, action: 'project.create', target: created.name, detail: { projectId: created.id } });
+      return created;
+    });
+    res.status(201).json(projectJson(row));
+  });
+
+  api.get('/projects/:id', 'project.read', async (req, res) => {
+    res.json(projectJson(await projectOfTeam(db, req)));
+  });
+
+  api.patch('/projects/:id', 'project.update', async (req, res) => {
+    const body = parseBody(updateBody, req.body);
+    const row = await db.transaction(async (tx) => {
+      const before = await projectOfTeam(tx, req);
+      const [updated] = await tx.update(projects).set({ ...body, updatedAt: new Date() }).where(eq(projects.id, before.id)).returning();
+      await audit(tx, { teamId: before.teamId, user: req.user!, action: 'project.update', target: updated.name, detail: { projectId: before.id, changed: Object.keys(body) } });
+      return updated;
+    });
+    res.json(projectJson(row));
+  });
+
+  api.delete('/projects/:id', 'project.delete', async (req, res) => {
+    await db.transaction(async (tx) => {
+      const row = await projectOfTeam(tx, req);
+      await tx.delete(projects).where(eq(projects.id, row.id));
+      await audit(tx, { teamId: row.teamId, user: req.user!, action: 'project.delete', target: row.name, detail: { projectId: row.id } });
+    });
+    res.status(204).end();
+  });
+}

@@ -1,0 +1,26 @@
+/** Type augmentations for Express, passport and express-session. */
+import type { Role } from './permissions';
+
+export interface SessionUser { id: string; email: string; name: string }
+export interface CurrentMembership { teamId: string; teamName: string; roles: Role[] }
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    // Passport's req.user
+    interface User extends SessionUser {}
+    interface Request {
+      /** Membership of the session's current team (server/auth/current-member.ts). */
+      membership?: CurrentMembership;
+    }
+  }
+}
+
+declare module 'express-session' {
+  interface SessionData {
+    /** Current team of the signed-in user. */
+    teamId?: string;
+    /** Set when a CSRF token is issued so an anonymous session is persisted and its id stays stable. */
+    csrf?: true;
+  }
+}

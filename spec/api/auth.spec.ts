@@ -1,0 +1,133 @@
+import { expect } from 'chai';
+import supertest from 'supertest';
+import { DEMO_PASSWORD } from '../../server/seed';
+import { startTestApp, type TestApp } from './test-app';
+
+describe('API: auth, CSRF, errors', () => {
+  let t: TestApp;
+  before(async () => { t = await startTestApp({ signinLimit: { max: 3, windowMs: 60_000 } }); });
+  after(async () => { await t.close(); });
+
+  it('signs up: creates the user and a team where they are admin, and signs them in', async () => {
+    const a = await t.anonymous();
+    const res = await a.post('/api/auth/signup', { email: 'Newcomer@Example.test', name: 'New Comer', password: 'long-enough-pw', teamName: 'Fresh Spring Team' });
+    expect(res.status, JSON.stringify(res.body)).to.equal(201);
+    expect(res.body.user.email).to.equal('newcomer@example.test');
+    expect(res.body.teams).to.have.length(1);
+    expect(res.body.teams[0]).to.include({ name: 'Fresh Spring Team' });
+    expect(res.body.roles).to.deep.equal(['admin']);
+    expect(res.body.permissions).to.include('team.manage');
+    const me = await a.get('/api/auth/me').expect(200);
+    expect(me.body.user.email).to.equal('newcomer@example.test');
+  });
+
+  it('refuses a second sign-up with the same e-mail (409, names the field)', async () => {
+    const a = await t.anonymous();
+    const res = await a.post('/api/auth/signup', { email: 'admin@runnel.test', name: 'X', password: 'long-enough-pw', teamName: 'Y' });
+    expect(res.status).to.equal(409);
+    expect(res.body.error.fields[0].path).to.equal('email');
+  });
+
+  it('signs in, reports me with permissions of the current team, and signs out', async () => {
+    const a = await t.signInAs('reviewer');
+    const me = await a.get('/api/auth/me').expect(200);
+    expect(me.body.roles).to.deep.equal(['reviewer']);
+    expect(me.body.permissions).to.deep.equal(['project.read', 'network.read', 'files.read', 'team.read']);
+    await a.post('/api/auth/signout').expect(204);
+    await a.get('/api/auth/me').expect(401);
+  });
+
+  it('regenerates the session on sign-in (new session id; cookie HttpOnly, SameSite=Lax)', async () => {
+    const agent = supertest.agent(t.app);
+    const first = await agent.get('/api/csrf').expect(200);
+    const sidBefore = String(first.headers['set-cookie']).match(/runnel\.sid=([^;]+)/)?.[1];
+    const res = await agent.post('/api/auth/signin').set('x-csrf-token', first.body.token)
+      .send({ email: 'owner@runnel.test', password: DEMO_PASSWORD }).expect(200);
+    const sidAfter = String(res.headers['set-cookie']).match(/runnel\.sid=([^;]+)/)?.[1];
+    expect(sidBefore).to.be.a('string');
+    expect(sidAfter).to.be.a('string').and.not.equal(sidBefore);
+    expect(String(res.headers['set-cookie'])).to.match(/HttpOnly/i).and.match(/SameSite=Lax/i);
+  });
+
+  it('wrong password → 401 with a message, no session', async () => {
+    const a = await t.anonymous();
+    const res = await a.post('/api/auth/signin', { email: 'designer@runnel.test', password: 'not-the-password' });
+    expect(res.status).to.equal(401);
+    expect(res.body.error).to.deep.equal({ code: 'unauthenticated', message: 'E-mail or password is wrong' });
+    await a.get('/api/auth/me').expect(401);
+  });
+
+  it('rate-limits failed sign-ins per address and e-mail → 429 with a clear message', async () => {
+    const a = await t.anonymous();
+    for (let i = 0; i < 3; i++) await a.post('/api/auth/signin', { email: 'estimator@runnel.test', password: 'guess-' + i }).expect(401);
+    const res = await a.post('/api/auth/signin', { email: 'estimator@runnel.test', password: DEMO_PASSWORD });
+    expect(res.status).to.equal(429);
+    expect(res.body.error.code).to.equal('rate-limited');
+    expect(res.body.error.message).to.match(/Too many sign-in attempts.*try again in 1 minutes?/);
+    // Another e-mail from the same address is not blocked.
+    await a.post('/api/auth/signin', { email: 'designer@runnel.test', password: DEMO_PASSWORD }).expect(200);
+  });
+
+  it('CSRF: a POST without the token → 403 code csrf, also for sign-in', async () => {
+    const res = await supertest(t.app).post('/api/auth/signin').send({ email: 'admin@runnel.test', password: DEMO_PASSWORD });
+    expect(res.status).to.equal(403);
+    expect(res.body.error.code).to.equal('csrf');
+    const a = await t.signInAs('designer');
+    const bad = await a.agent.post('/api/projects').set('x-csrf-token', 'forged.token').send({ name: 'X' });
+    expect(bad.status).to.equal(403);
+    expect(bad.body.error.code).to.equal('csrf');
+  });
+
+  it('CSRF: a token from another session is refused', async () => {
+    const a = await t.signInAs('designer');
+    const b = await t.signInAs('admin');
+    const res = await a.agent.post('/api/projects').set('x-csrf-token', b.token).send({ name: 'X' });
+    expect(res.status).to.equal(403);
+  });
+
+  it('validation → 400 listing the field paths', async () => {
+    const a = await t.anonymous();
+    const res = await a.post('/api/auth/signup', { email: 'not-an-email', name: '', password: 'short', teamName: 'T' });
+    expect(res.status).to.equal(400);
+    expect(res.body.error.code).to.equal('validation');
+    const paths = res.body.error.fields.map((f: { path: string }) => f.path);
+    expect(paths).to.include.members(['email', 'name', 'password']);
+    expect(res.body.error.fields.find((f: { path: string }) => f.path === 'password').message).to.match(/at least 10/);
+  });
+
+  it('malformed JSON → 400 validation, not a stack trace', async () => {
+    const a = await t.signInAs('designer');
+    const res = await a.agent.post('/api/projects').set('x-csrf-token', a.token).set('content-type', 'application/json').send('{"name": ');
+    expect(res.status).to.equal(400);
+    expect(JSON.stringify(res.body)).to.not.match(/at \w+ \(|node_modules|\.ts:\d+/);
+  });
+
+  it('unknown /api route → 404 JSON', async () => {
+    const res = await supertest(t.app).get('/api/no/such/route');
+    expect(res.status).to.equal(404);
+    expect(res.type).to.equal('application/json');
+    expect(res.body.error.code).to.equal('not-found');
+  });
+
+  it('an unexpected error → 500 with a generic message and no stack trace', async () => {
+    const a = await t.signInAs('designer');
+    // PostgreSQL refuses a NUL character in text, so this insert fails inside the database.
+    const res = await a.post('/api/projects', { name: 'bad\u0000name' });
+    expect(res.status).to.equal(500);
+    expect(res.body).to.deep.equal({ error: { code: 'internal', message: 'Something went wrong on the server; it has been logged.' } });
+  });
+
+  it('switches current team only to a team the user belongs to (404 otherwise)', async () => {
+    const a = await t.signInAs('admin');
+    await a.post('/api/auth/current-team', { teamId: t.seeded!.otherTeamId }).expect(404);
+    const ok = await a.post('/api/auth/current-team', { teamId: t.seeded!.demoTeamId }).expect(200);
+    expect(ok.body.currentTeamId).to.equal(t.seeded!.demoTeamId);
+  });
+
+  it('sends security headers with a CSP that allows the app (self scripts, blob workers, data/blob images)', async () => {
+    const res = await supertest(t.app).get('/api/csrf');
+    const csp = String(res.headers['content-security-policy']);
+    expect(csp).to.include("script-src 'self'").and.include('worker-src \'self\' blob:').and.include("img-src 'self' data: blob:");
+    expect(res.headers['x-powered-by']).to.equal(undefined);
+  });
+});

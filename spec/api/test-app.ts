@@ -1,0 +1,112 @@
+/**
+ * Shared helpers for the API tests: an app on a throw-away PGlite with the real migrations applied
+ * and the demo data seeded, and agents that carry the session cookie and the CSRF token.
+ */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { expect } from 'chai';
+import supertest from 'supertest';
+import { createApp, type AppOptions, type RunnelApp } from '../../server/app';
+import type { Config } from '../../server/config';
+import { openDatabase } from '../../server/db';
+import type { Role } from '../../server/permissions';
+import { DEMO_PASSWORD, DEMO_USERS, OTHER_USER } from '../../server/seed';
+
+/** bcrypt cost in tests: 4 is the minimum bcryptjs accepts, keeping sign-ins fast. */
+export const TEST_BCRYPT_COST = 4;
+
+export function testConfig(dataDir: string): Config {
+  return {
+    production: false, port: 0, host: '127.0.0.1', dataDir, sessionSecret: 'test-secret-0123456789abcdef',
+    mailFrom: 'Runnel test <no-reply@runnel.test>', publicUrl: 'http://runnel.test', cookieSecure: false,
+  };
+}
+
+export interface TestApp extends RunnelApp {
+  /** A fresh agent with a CSRF token (not signed in). */
+  anonymous(): Promise<ApiAgent>;
+  /** An agent signed in as the demo user holding `role`, or as the second team's user ('other'). */
+  signInAs(who: Role | 'other'): Promise<ApiAgent>;
+  /** An agent signed in with any e-mail and password. */
+  signIn(email: string, password: string): Promise<ApiAgent>;
+}
+
+/**
+ * Builds the app on an in-memory PGlite (or a PGlite in `dataDir`, which survives close() so a
+ * test can reopen it), applies migrations and seeds. Call close() in after().
+ */
+export async function startTestApp(options: Partial<AppOptions> & { dataDir?: string } = {}): Promise<TestApp> {
+  const { dataDir, ...rest } = options;
+  const database = rest.database ?? await openDatabase(dataDir ? { kind: 'pglite', dir: join(dataDir, 'pg') } : { kind: 'pglite' });
+  const runnel = await createApp({
+    config: testConfig(dataDir ?? '/nonexistent-test-data'), bcryptCost: TEST_BCRYPT_COST, log: false, ...rest, database,
+  });
+  const close = async () => {
+    await runnel.close();
+    if (!rest.database) await database.close();
+  };
+  const t: TestApp = {
+    ...runnel,
+    close,
+    anonymous: () => ApiAgent.start(runnel),
+    signIn: async (email, password) => {
+      const agent = await ApiAgent.start(runnel);
+      await agent.signIn(email, password);
+      return agent;
+    },
+    signInAs: (who) => t.signIn(who === 'other' ? OTHER_USER.email : demoEmail(who), DEMO_PASSWORD),
+  };
+  return t;
+}
+
+export function demoEmail(role: Role): string {
+  return DEMO_USERS.find((u) => u.role === role)!.email;
+}
+
+/** A temp directory under the OS temp dir; remove it with removeTempDir. */
+export function makeTempDir(prefix = 'runnel-api-'): string {
+  return mkdtempSync(join(tmpdir(), prefix));
+}
+
+export function removeTempDir(dir: string): void {
+  rmSync(dir, { recursive: true, force: true });
+}
+
+/** A supertest agent (cookie jar) that sends the CSRF token on every request. */
+export class ApiAgent {
+  token = '';
+
+  private constructor(readonly agent: ReturnType<typeof supertest.agent>) {}
+
+  static async start(runnel: RunnelApp): Promise<ApiAgent> {
+    const a = new ApiAgent(supertest.agent(runnel.app));
+    await a.refreshCsrf();
+    return a;
+  }
+
+  /** GET /api/csrf; needed again after sign-in or sign-out (the session is regenerated). */
+  async refreshCsrf(): Promise<string> {
+    const res = await this.agent.get('/api/csrf').expect(200);
+    this.token = res.body.token;
+    return this.token;
+  }
+
+  async signIn(email: string, password: string): Promise<void> {
+    const res = await this.post('/api/auth/signin', { email, password });
+    expect(res.status, `sign-in as ${email}: ${JSON.stringify(res.body)}`).to.equal(200);
+    await this.refreshCsrf();
+  }
+
+  get(path: string) { return this.agent.get(path); }
+  post(path: string, body?: object) { return this.agent.post(path).set('x-csrf-token', this.token).send(body ?? {}); }
+  put(path: string, body?: object) { return this.agent.put(path).set('x-csrf-token', this.token).send(body ?? {}); }
+  patch(path: string, body?: object) { return this.agent.patch(path).set('x-csrf-token', this.token).send(body ?? {}); }
+  delete(path: string) { return this.agent.delete(path).set('x-csrf-token', this.token); }
+  /** A multipart POST with one file in field `file` and text fields. */
+  upload(path: string, file: { bytes: Buffer; filename: string; contentType?: string }, fields: Record<string, string> = {}) {
+    let req = this.agent.post(path).set('x-csrf-token', this.token);
+    for (const [k, v] of Object.entries(fields)) req = req.field(k, v);
+    return req.attach('file', file.bytes, { filename: file.filename, contentType: file.contentType ?? 'application/octet-stream' });
+  }
+}
