@@ -1,0 +1,144 @@
+import type { HeadlossModel } from './network-document';
+import { PSI_PER_METRE_OF_WATER } from './units';
+
+/**
+ * Plastic pipe catalogue: dimensions and pressure ratings of the common farm-water series.
+ * Sources (marks as in REFERENCES.md):
+ * - PVC Schedule 40, ASTM D1785: OD, minimum wall, nominal ID and rating at 73 °F for 1/2"–2" (V2);
+ *   2-1/2", 3", 4" (M, from memory of the same table).
+ * - PVC SDR 21 / SDR 26, ASTM D2241: same ODs as Schedule 40 (V2), wall = OD/SDR with a 0.060 in
+ *   minimum (C/M), ratings 200 / 160 psi (V2).
+ * - PE SIDR 7 / 9 / 11.5 / 15, ASTM D2239 (PE3608): inside diameter controlled, equal to the
+ *   Schedule 40 IDs (M), wall = ID/SIDR (C), rating P = 2S/(SIDR + 1) (V2, NRCS National Engineering Handbook).
+ * - PE DR 11, ASTM D3035 (PE4710 and PE3608): iron-pipe-size OD (V2), wall = OD/DR (C),
+ *   rating P = 2S/(DR − 1) (V2) = 200 / 160 psi (V, Plastics Pipe Institute).
+ * Hydrostatic design stresses S (HDS at 73 °F): PVC 1120 2000 psi (V, Moser, Buried Pipe Design);
+ * PE4710 1000 psi, PE3608 800 psi (V, Plastics Pipe Institute). Ratings are for 73 °F water;
+ * warmer water derates plastic pipe (common practice) — defer to the maker's tables and local code.
+ *
+ * @example
+ * pipeSizes('pe-dr11-pe4710').find((s) => s.nominal === '1"')?.id_m // 0.02631 m
+ * findPipeSize('pvc-sch40', '1"')?.rating_psi // 450
+ * defaultRoughness('pvc', 'hazen-williams') // 150
+ */
+
+export type PipeMaterial = 'pvc' | 'pe';
+
+export interface PipeSeries {
+  id: string;
+  label: string;
+  material: PipeMaterial;
+  standard: string;
+  /** Which diameter the standard holds fixed. */
+  control: 'OD' | 'ID';
+  /** Dimension ratio (OD/wall for OD-controlled, ID/wall for ID-controlled); absent for Schedule 40. */
+  ratio?: number;
+  /** Hydrostatic design stress at 73 °F, psi. */
+  hds_psi: number;
+}
+
+export interface PipeSize {
+  nominal: string;
+  od_m: number;
+  wall_m: number;
+  id_m: number;
+  od_in: number;
+  wall_in: number;
+  id_in: number;
+  rating_psi: number;
+  rating_m: number;
+}
+
+const INCH = 0.0254;
+
+/** Iron-pipe-size outside diameters, in (ASTM D1785/D2241/D3035 share them). */
+export const IPS_OD_IN: Record<string, number> = {
+  '1/2"': 0.84, '3/4"': 1.05, '1"': 1.315, '1-1/4"': 1.66, '1-1/2"': 1.9, '2"': 2.375, '2-1/2"': 2.875, '3"': 3.5, '4"': 4.5,
+};
+
+/** ASTM D1785 Schedule 40: [minimum wall in, nominal ID in, rating psi]. */
+const SCH40: Record<string, [number, number, number]> = {
+  '1/2"': [0.109, 0.622, 600], '3/4"': [0.113, 0.824, 480], '1"': [0.133, 1.049, 450], '1-1/4"': [0.14, 1.38, 370],
+  '1-1/2"': [0.145, 1.61, 330], '2"': [0.154, 2.067, 280], '2-1/2"': [0.203, 2.469, 300], '3"': [0.216, 3.068, 260], '4"': [0.237, 4.026, 220],
+};
+
+export const pipeSeries: readonly PipeSeries[] = [
+  { id: 'pvc-sch40', label: 'PVC Schedule 40', material: 'pvc', standard: 'ASTM D1785', control: 'OD', hds_psi: 2000 },
+  { id: 'pvc-sdr21', label: 'PVC SDR 21 (200 psi)', material: 'pvc', standard: 'ASTM D2241', control: 'OD', ratio: 21, hds_psi: 2000 },
+  { id: 'pvc-sdr26', label: 'PVC SDR 26 (160 psi)', material: 'pvc', standard: 'ASTM D2241', control: 'OD', ratio: 26, hds_psi: 2000 },
+  { id: 'pe-sidr7', label: 'PE3608 SIDR 7', material: 'pe', standard: 'ASTM D2239', control: 'ID', ratio: 7, hds_psi: 800 },
+  { id: 'pe-sidr9', label: 'PE3608 SIDR 9', material: 'pe', standard: 'ASTM D2239', control: 'ID', ratio: 9, hds_psi: 800 },
+  { id: 'pe-sidr11.5', label: 'PE3608 SIDR 11.5', material: 'pe', standard: 'ASTM D2239', control: 'ID', ratio: 11.5, hds_psi: 800 },
+  { id: 'pe-sidr15', label: 'PE3608 SIDR 15', material: 'pe', standard: 'ASTM D2239', control: 'ID', ratio: 15, hds_psi: 800 },
+  { id: 'pe-dr11-pe4710', label: 'PE4710 DR 11 (IPS)', material: 'pe', standard: 'ASTM D3035', control: 'OD', ratio: 11, hds_psi: 1000 },
+  { id: 'pe-dr11-pe3608', label: 'PE3608 DR 11 (IPS)', material: 'pe', standard: 'ASTM D3035', control: 'OD', ratio: 11, hds_psi: 800 },
+];
+
+/** Minimum wall of ASTM D2241 pipe, in (M). */
+const D2241_MIN_WALL_IN = 0.06;
+
+/** Pressure rating, psi: 2S/(DR − 1) for OD-controlled, 2S/(SIDR + 1) for ID-controlled pipe. */
+export function pressureRatingPsi(hds_psi: number, ratio: number, control: 'OD' | 'ID'): number {
+  return (2 * hds_psi) / (control === 'OD' ? ratio - 1 : ratio + 1);
+}
+
+const SERIES_SIZES: Record<string, string[]> = {
+  'pvc-sch40': Object.keys(SCH40),
+  'pvc-sdr21': ['3/4"', '1"', '1-1/4"', '1-1/2"', '2"', '2-1/2"', '3"', '4"'],
+  'pvc-sdr26': ['1"', '1-1/4"', '1-1/2"', '2"', '2-1/2"', '3"', '4"'],
+  'pe-sidr7': ['1/2"', '3/4"', '1"', '1-1/4"', '1-1/2"', '2"', '3"', '4"'],
+  'pe-sidr9': ['1/2"', '3/4"', '1"', '1-1/4"', '1-1/2"', '2"', '3"', '4"'],
+  'pe-sidr11.5': ['1/2"', '3/4"', '1"', '1-1/4"', '1-1/2"', '2"', '3"', '4"'],
+  'pe-sidr15': ['1/2"', '3/4"', '1"', '1-1/4"', '1-1/2"', '2"', '3"', '4"'],
+  'pe-dr11-pe4710': ['1/2"', '3/4"', '1"', '1-1/4"', '1-1/2"', '2"', '3"', '4"'],
+  'pe-dr11-pe3608': ['1/2"', '3/4"', '1"', '1-1/4"', '1-1/2"', '2"', '3"', '4"'],
+};
+
+function size(nominal: string, odIn: number, wallIn: number, idIn: number, psi: number): PipeSize {
+  return {
+    nominal, od_in: odIn, wall_in: wallIn, id_in: idIn, od_m: odIn * INCH, wall_m: wallIn * INCH, id_m: idIn * INCH,
+    rating_psi: psi, rating_m: psi / PSI_PER_METRE_OF_WATER,
+  };
+}
+
+/**
+ * Sizes of a series, smallest first ([] for an unknown series id).
+ * @example pipeSizes('pvc-sch40').map((s) => s.nominal) // ['1/2"', …, '4"']
+ */
+export function pipeSizes(seriesId: string): PipeSize[] {
+  const series = pipeSeries.find((s) => s.id === seriesId);
+  if (!series) return [];
+  return (SERIES_SIZES[seriesId] ?? []).map((nominal) => {
+    if (seriesId === 'pvc-sch40') {
+      const [wall, id, psi] = SCH40[nominal];
+      return size(nominal, IPS_OD_IN[nominal], wall, id, psi);
+    }
+    const ratio = series.ratio ?? 1;
+    const psi = Math.round(pressureRatingPsi(series.hds_psi, ratio, series.control));
+    if (series.control === 'ID') {
+      const id = SCH40[nominal][1];
+      const wall = id / ratio;
+      return size(nominal, id + 2 * wall, wall, id, psi);
+    }
+    const od = IPS_OD_IN[nominal];
+    const wall = series.standard === 'ASTM D2241' ? Math.max(od / ratio, D2241_MIN_WALL_IN) : od / ratio;
+    return size(nominal, od, wall, od - 2 * wall, psi);
+  });
+}
+
+/** One size of a series, or undefined. @example findPipeSize('pe-sidr9', '1"')?.id_m // 0.02664 */
+export function findPipeSize(seriesId: string, nominal: string): PipeSize | undefined {
+  return pipeSizes(seriesId).find((s) => s.nominal === nominal);
+}
+
+/**
+ * Default roughness for a material under a headloss model: Hazen-Williams C (PVC 150, V2 Uni-Bell;
+ * PE 140, Engineering ToolBox — PPI quotes up to 150), or Darcy-Weisbach ε in mm (PVC 0.0015,
+ * PE 0.007; M, common handbook values for smooth plastic).
+ * @example defaultRoughness('pe', 'darcy-weisbach') // 0.007
+ */
+export function defaultRoughness(material: PipeMaterial | string, headloss: HeadlossModel): number {
+  const pe = material === 'pe' || material.startsWith('pe');
+  if (headloss === 'darcy-weisbach') return pe ? 0.007 : 0.0015;
+  return pe ? 140 : 150;
+}
