@@ -27,3 +27,34 @@ export interface Project {
 export interface ApiErrorBody {
   error: { code: string; message: string; fields?: { path: string; message: string }[]; line?: number };
 }
+
+export interface Team { id: string; name: string }
+
+export interface Member { userId: string; email: string; name: string; roles: Role[] }
+
+export interface Invitation {
+  id: string;
+  email: string;
+  roles: Role[];
+  createdAt: string;
+  acceptedAt: string | null;
+  expiresAt: string;
+}
+
+/** What anyone holding an invitation link may see (GET /api/invitations/:token). */
+export interface InvitationPreview { teamName: string; email: string; roles: Role[]; expired: boolean; accepted: boolean }
+
+export interface OutboxMail { id: string; to: string; subject: string; text: string; sentAt: string }
+
+export interface AuditEntry { id: string; at: string; userEmail: string; action: string; target: string; detail: string }
+
+export interface SignUpRequest { email: string; name: string; password: string; teamName: string }
+
+export interface ProjectCreate { name: string; siteName?: string; notes?: string; units?: UnitSystem }
+
+export type ProjectPatch = Partial<Pick<Project, 'name' | 'siteName' | 'notes' | 'units' | 'archived'>>;
+
+export const ROLES: readonly Role[] = ['admin', 'designer', 'reviewer', 'estimator', 'owner'];
+
+/** Label shown for each unit system. */
+export const UNIT_SYSTEM_LABELS: Record<UnitSystem, string> = { us: 'US customary', si: 'SI (metric)' };

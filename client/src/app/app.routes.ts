@@ -1,0 +1,78 @@
+import { Routes } from '@angular/router';
+import { permissionGuard, signedInGuard, signedOutGuard } from './core/guards';
+
+/** Placeholder tabs: `screenTitle` and `purpose` reach PlaceholderScreen as inputs. */
+function placeholder(path: string, screenTitle: string, purpose: string) {
+  return {
+    path,
+    title: `${screenTitle} · Runnel`,
+    data: { screenTitle, purpose },
+    loadComponent: () => import('./screens/placeholder/placeholder-screen').then((m) => m.PlaceholderScreen),
+  };
+}
+
+export const routes: Routes = [
+  { path: '', pathMatch: 'full', redirectTo: 'projects' },
+  {
+    path: 'sign-in',
+    title: 'Sign in · Runnel',
+    canActivate: [signedOutGuard],
+    loadComponent: () => import('./screens/sign-in/sign-in-screen').then((m) => m.SignInScreen),
+  },
+  {
+    path: 'sign-up',
+    title: 'Create an account · Runnel',
+    canActivate: [signedOutGuard],
+    loadComponent: () => import('./screens/sign-up/sign-up-screen').then((m) => m.SignUpScreen),
+  },
+  {
+    path: 'join/:token',
+    title: 'Join a team · Runnel',
+    loadComponent: () => import('./screens/join/join-screen').then((m) => m.JoinScreen),
+  },
+  {
+    path: 'projects',
+    title: 'Projects · Runnel',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./screens/projects/projects-screen').then((m) => m.ProjectsScreen),
+  },
+  {
+    path: 'projects/:projectId',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./screens/project-shell/project-shell').then((m) => m.ProjectShell),
+    children: [
+      { path: '', pathMatch: 'full', redirectTo: 'layout' },
+      {
+        path: 'layout',
+        title: 'Layout · Runnel',
+        loadComponent: () => import('./layout/layout-screen').then((m) => m.LayoutScreen),
+      },
+      placeholder('budget', 'Water budget', 'Adds up each use’s daily and peak need and checks that storage and fill keep the tanks from running dry overnight or through cloudy days.'),
+      placeholder('profile', 'Profile', 'Draws the ground, the pipe and the hydraulic grade line along a chosen route so high points and low-point pressures stand out.'),
+      placeholder('timeline', 'Timeline', 'Plays tank levels over a simulated day or week of pumping and use.'),
+      placeholder('review', 'Review', 'Lets a second person check every outlet and pipe, then approve the design or return it with comments.'),
+      placeholder('options', 'Options', 'Compares pipe-size choices side by side on pressure, velocity and cost.'),
+      placeholder('takeoff', 'Takeoff', 'Lists the materials with quantities and prices from the team price list, ready to export as a spreadsheet.'),
+      placeholder('files', 'Files', 'Holds uploaded backdrops and survey files (CSV, GPX) for the project.'),
+    ],
+  },
+  {
+    path: 'team',
+    title: 'Team · Runnel',
+    canActivate: [signedInGuard, permissionGuard('team.manage')],
+    loadComponent: () => import('./screens/team/team-screen').then((m) => m.TeamScreen),
+  },
+  {
+    path: 'outbox',
+    title: 'Outbox · Runnel',
+    canActivate: [signedInGuard, permissionGuard('outbox.read')],
+    loadComponent: () => import('./screens/outbox/outbox-screen').then((m) => m.OutboxScreen),
+  },
+  {
+    path: 'audit',
+    title: 'Audit log · Runnel',
+    canActivate: [signedInGuard, permissionGuard('audit.read')],
+    loadComponent: () => import('./screens/audit/audit-screen').then((m) => m.AuditScreen),
+  },
+  { path: '**', redirectTo: 'projects' },
+];

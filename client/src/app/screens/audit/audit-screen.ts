@@ -1,0 +1,58 @@
+import { DatePipe } from '@angular/common';
+import { Component, inject } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatTableModule } from '@angular/material/table';
+import { AuditService } from '../../core/audit.service';
+
+/** Admin: the latest 200 things people did in the team. */
+@Component({
+  selector: 'rn-audit-screen',
+  imports: [DatePipe, MatTableModule, MatProgressBarModule],
+  template: `
+    <div class="rn-page">
+      <header class="rn-page-header"><h1>Audit log</h1></header>
+      <p class="rn-muted">The latest 200 actions in this team, newest first.</p>
+      @if (entries.isLoading()) { <mat-progress-bar mode="indeterminate" aria-label="Loading audit log" /> }
+      <div class="rn-audit-card">
+        <table mat-table [dataSource]="entries.value() ?? []" aria-label="Audit log" data-testid="audit-table">
+          <ng-container matColumnDef="at">
+            <th mat-header-cell *matHeaderCellDef>When</th>
+            <td mat-cell *matCellDef="let e"><time [attr.datetime]="e.at">{{ e.at | date: 'd MMM y, HH:mm:ss' }}</time></td>
+          </ng-container>
+          <ng-container matColumnDef="userEmail">
+            <th mat-header-cell *matHeaderCellDef>Who</th>
+            <td mat-cell *matCellDef="let e">{{ e.userEmail }}</td>
+          </ng-container>
+          <ng-container matColumnDef="action">
+            <th mat-header-cell *matHeaderCellDef>Action</th>
+            <td mat-cell *matCellDef="let e"><code>{{ e.action }}</code></td>
+          </ng-container>
+          <ng-container matColumnDef="target">
+            <th mat-header-cell *matHeaderCellDef>Target</th>
+            <td mat-cell *matCellDef="let e">{{ e.target }}</td>
+          </ng-container>
+          <ng-container matColumnDef="detail">
+            <th mat-header-cell *matHeaderCellDef>Detail</th>
+            <td mat-cell *matCellDef="let e" class="rn-detail">{{ e.detail }}</td>
+          </ng-container>
+          <tr mat-header-row *matHeaderRowDef="columns"></tr>
+          <tr mat-row *matRowDef="let e; columns: columns"></tr>
+          <tr class="mat-row" *matNoDataRow><td class="mat-cell rn-empty" [attr.colspan]="columns.length">Nothing recorded yet.</td></tr>
+        </table>
+      </div>
+    </div>
+  `,
+  styles: `
+    .rn-audit-card { border: 1px solid var(--mat-sys-outline-variant); border-radius: 12px; overflow-x: auto; }
+    table { width: 100%; }
+    code { font-size: 13px; }
+    .rn-detail { color: var(--mat-sys-on-surface-variant); max-width: 360px; overflow-wrap: anywhere; }
+    .rn-empty { padding: 24px 16px; color: var(--mat-sys-on-surface-variant); }
+  `,
+})
+export class AuditScreen {
+  private readonly audit = inject(AuditService);
+  protected readonly columns = ['at', 'userEmail', 'action', 'target', 'detail'];
+  protected readonly entries = rxResource({ stream: () => this.audit.entries() });
+}

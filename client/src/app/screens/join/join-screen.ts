@@ -1,0 +1,89 @@
+import { HttpErrorResponse } from '@angular/common/http';
+import { Component, DestroyRef, computed, inject, input, signal } from '@angular/core';
+import { rxResource, takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCardModule } from '@angular/material/card';
+import { MatChipsModule } from '@angular/material/chips';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { Router, RouterLink } from '@angular/router';
+import { Observable } from 'rxjs';
+import { apiErrorMessage } from '../../core/api-errors';
+import { Me } from '../../core/api-types';
+import { SessionService } from '../../core/session.service';
+import { TeamService } from '../../core/team.service';
+import { MIN_PASSWORD_LENGTH } from '../sign-up/sign-up-screen';
+
+/** Accepting an invitation link (/join/:token): a new user picks a name and password; a signed-in user just joins. */
+@Component({
+  selector: 'rn-join-screen',
+  imports: [
+    ReactiveFormsModule, RouterLink, MatCardModule, MatChipsModule, MatFormFieldModule, MatInputModule, MatButtonModule,
+    MatProgressBarModule,
+  ],
+  templateUrl: './join-screen.html',
+  styleUrl: './join-screen.scss',
+})
+export class JoinScreen {
+  private readonly team = inject(TeamService);
+  protected readonly session = inject(SessionService);
+  private readonly router = inject(Router);
+  private readonly destroyRef = inject(DestroyRef);
+
+  readonly token = input.required<string>();
+
+  protected readonly minPassword = MIN_PASSWORD_LENGTH;
+  protected readonly invitation = rxResource({
+    params: () => this.token(),
+    stream: ({ params }) => this.team.previewInvitation(params),
+  });
+  /** The session probe runs alongside, so the screen knows whether to offer "Join" or the account form. */
+  private readonly sessionProbe = rxResource({ stream: () => this.session.load() });
+  protected readonly ready = computed(() => !this.invitation.isLoading() && !this.sessionProbe.isLoading());
+  protected readonly loadError = computed(() => {
+    const err = this.invitation.error();
+    if (!err) return null;
+    const cause = (err as { cause?: unknown }).cause ?? err;
+    return cause instanceof HttpErrorResponse && cause.status === 404
+      ? 'This invitation link is not valid. Ask your team admin for a new one.'
+      : apiErrorMessage(cause);
+  });
+  protected readonly returnUrl = computed(() => `/join/${this.token()}`);
+
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    name: ['', [Validators.required, Validators.maxLength(120)]],
+    password: ['', [Validators.required, Validators.minLength(MIN_PASSWORD_LENGTH)]],
+  });
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+
+  protected joinAsNewUser(): void {
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const { name, password } = this.form.getRawValue();
+    this.accept(this.team.acceptInvitation(this.token(), { name: name.trim(), password }));
+  }
+
+  protected joinSignedIn(): void {
+    this.accept(this.team.acceptInvitation(this.token()));
+  }
+
+  private accept(request: Observable<Me>): void {
+    this.busy.set(true);
+    this.error.set(null);
+    request.pipe(takeUntilDestroyed(this.destroyRef)).subscribe({
+      next: (me) => {
+        this.session.adopt(me);
+        void this.router.navigate(['/projects']);
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        this.error.set(apiErrorMessage(err));
+      },
+    });
+  }
+}

@@ -1,0 +1,60 @@
+import { HttpErrorResponse } from '@angular/common/http';
+import { Component, DestroyRef, inject, signal } from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCardModule } from '@angular/material/card';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { Router, RouterLink } from '@angular/router';
+import { apiErrorMessage } from '../../core/api-errors';
+import { SessionService } from '../../core/session.service';
+
+/** Minimum password length, as the server enforces it (server/API.md). */
+export const MIN_PASSWORD_LENGTH = 10;
+
+@Component({
+  selector: 'rn-sign-up-screen',
+  imports: [ReactiveFormsModule, RouterLink, MatCardModule, MatFormFieldModule, MatInputModule, MatButtonModule, MatProgressBarModule],
+  templateUrl: './sign-up-screen.html',
+})
+export class SignUpScreen {
+  private readonly session = inject(SessionService);
+  private readonly router = inject(Router);
+  private readonly destroyRef = inject(DestroyRef);
+
+  protected readonly minPassword = MIN_PASSWORD_LENGTH;
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    name: ['', [Validators.required, Validators.maxLength(120)]],
+    email: ['', [Validators.required, Validators.email]],
+    password: ['', [Validators.required, Validators.minLength(MIN_PASSWORD_LENGTH)]],
+    teamName: ['', [Validators.required, Validators.maxLength(120)]],
+  });
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+
+  protected submit(): void {
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const value = this.form.getRawValue();
+    this.busy.set(true);
+    this.error.set(null);
+    this.session
+      .signUp({ ...value, email: value.email.trim(), name: value.name.trim(), teamName: value.teamName.trim() })
+      .pipe(takeUntilDestroyed(this.destroyRef))
+      .subscribe({
+        next: () => void this.router.navigate(['/projects']),
+        error: (err: unknown) => {
+          this.busy.set(false);
+          this.error.set(
+            err instanceof HttpErrorResponse && err.status === 429
+              ? 'Too many attempts. Wait a few minutes, then try again.'
+              : apiErrorMessage(err),
+          );
+        },
+      });
+  }
+}

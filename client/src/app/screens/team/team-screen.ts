@@ -1,0 +1,138 @@
+import { DatePipe } from '@angular/common';
+import { Component, computed, inject, signal } from '@angular/core';
+import { rxResource } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { MatTableModule } from '@angular/material/table';
+import { MatTooltipModule } from '@angular/material/tooltip';
+import { filter, switchMap } from 'rxjs';
+import { Invitation, Member, ROLES, Role } from '../../core/api-types';
+import { SessionService } from '../../core/session.service';
+import { TeamService } from '../../core/team.service';
+import { confirmAction } from '../../shared/confirm-dialog';
+
+export const ROLE_DESCRIPTIONS: Record<Role, string> = {
+  admin: 'manages the team, members and roles',
+  designer: 'lays out and edits designs',
+  reviewer: 'checks designs and approves or returns them',
+  estimator: 'keeps prices, takeoffs and estimates',
+  owner: 'views designs, compares options, comments',
+};
+
+/** Admin: members and their roles, invitations. */
+@Component({
+  selector: 'rn-team-screen',
+  imports: [
+    DatePipe, ReactiveFormsModule, MatTableModule, MatSelectModule, MatFormFieldModule, MatInputModule,
+    MatButtonModule, MatIconModule, MatProgressBarModule, MatTooltipModule,
+  ],
+  templateUrl: './team-screen.html',
+  styleUrl: './team-screen.scss',
+})
+export class TeamScreen {
+  private readonly teamApi = inject(TeamService);
+  protected readonly session = inject(SessionService);
+  private readonly dialog = inject(MatDialog);
+  private readonly snackBar = inject(MatSnackBar);
+
+  protected readonly roles = ROLES;
+  protected readonly roleDescriptions = ROLE_DESCRIPTIONS;
+  protected readonly memberColumns = ['name', 'email', 'roles', 'actions'];
+
+  protected readonly members = rxResource({
+    params: () => this.session.me()?.currentTeamId ?? undefined,
+    stream: () => this.teamApi.members(),
+  });
+  protected readonly invitations = rxResource({
+    params: () => this.session.me()?.currentTeamId ?? undefined,
+    stream: () => this.teamApi.invitations(),
+  });
+  protected readonly pending = computed(() =>
+    (this.invitations.hasValue() ? this.invitations.value() : []).filter((invitation) => !invitation.acceptedAt),
+  );
+  /** Members whose role change is on its way to the server. */
+  protected readonly saving = signal<ReadonlySet<string>>(new Set());
+
+  protected readonly inviteForm = inject(NonNullableFormBuilder).group({
+    email: ['', [Validators.required, Validators.email]],
+    roles: [['designer'] as Role[], Validators.required],
+  });
+  protected readonly inviting = signal(false);
+
+  protected isSelf(member: Member): boolean {
+    return member.userId === this.session.me()?.user.id;
+  }
+
+  protected setRoles(member: Member, roles: Role[]): void {
+    const sorted = ROLES.filter((role) => roles.includes(role));
+    if (sorted.length === 0) {
+      this.snackBar.open('A member needs at least one role. Remove the member instead.', 'Close', { duration: 5000 });
+      this.members.reload();
+      return;
+    }
+    if (sorted.join() === ROLES.filter((role) => member.roles.includes(role)).join()) return;
+    this.mark(member.userId, true);
+    this.teamApi.setRoles(member.userId, sorted).subscribe({
+      next: (saved) => {
+        this.mark(member.userId, false);
+        this.members.update((list) => list?.map((m) => (m.userId === saved.userId ? saved : m)));
+        this.snackBar.open(`${saved.name}: ${saved.roles.join(', ')}.`, undefined, { duration: 3000 });
+      },
+      error: () => {
+        this.mark(member.userId, false);
+        this.members.reload();
+      },
+    });
+  }
+
+  protected remove(member: Member): void {
+    confirmAction(this.dialog, {
+      title: 'Remove member?',
+      message: `${member.name} (${member.email}) will lose access to this team’s projects. Their account stays.`,
+      confirmLabel: 'Remove',
+      destructive: true,
+    })
+      .pipe(
+        filter(Boolean),
+        switchMap(() => this.teamApi.removeMember(member.userId)),
+      )
+      .subscribe(() => {
+        this.members.update((list) => list?.filter((m) => m.userId !== member.userId));
+        this.snackBar.open(`${member.name} removed from the team.`, undefined, { duration: 4000 });
+      });
+  }
+
+  protected invite(): void {
+    if (this.inviteForm.invalid) {
+      this.inviteForm.markAllAsTouched();
+      return;
+    }
+    const { email, roles } = this.inviteForm.getRawValue();
+    this.inviting.set(true);
+    this.teamApi.invite(email.trim(), roles).subscribe({
+      next: (invitation: Invitation) => {
+        this.inviting.set(false);
+        this.invitations.update((list) => [invitation, ...(list ?? [])]);
+        this.inviteForm.reset({ email: '', roles: ['designer'] });
+        this.snackBar.open(`Invitation sent to ${invitation.email}.`, undefined, { duration: 4000 });
+      },
+      error: () => this.inviting.set(false),
+    });
+  }
+
+  private mark(userId: string, busy: boolean): void {
+    this.saving.update((set) => {
+      const next = new Set(set);
+      if (busy) next.add(userId);
+      else next.delete(userId);
+      return next;
+    });
+  }
+}
