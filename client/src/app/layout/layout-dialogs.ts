@@ -1,0 +1,114 @@
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
+import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { fromDisplay, unitLabel, UnitSystem } from '../../../../engine/units';
+import { SHORTCUTS } from './editor/editor';
+
+/** 409 on save: the user decides; nothing is overwritten or dropped silently. */
+@Component({
+  selector: 'rn-save-conflict-dialog',
+  imports: [MatDialogModule, MatButtonModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <h2 mat-dialog-title>Someone else saved this network</h2>
+    <mat-dialog-content>
+      <p>
+        Version {{ data.version }} was saved{{ data.updatedBy ? ' by ' + data.updatedBy : '' }}{{ data.updatedAt ? ' at ' + when() : '' }}
+        while you were editing. Your changes are still here, unsaved.
+      </p>
+      <p><strong>Load theirs</strong> replaces your changes with the saved version.
+        <strong>Keep mine</strong> saves your version over theirs.</p>
+    </mat-dialog-content>
+    <mat-dialog-actions align="end">
+      <button mat-button [mat-dialog-close]="'theirs'" data-testid="conflict-load-theirs">Load theirs</button>
+      <button mat-flat-button [mat-dialog-close]="'mine'" data-testid="conflict-keep-mine">Keep mine</button>
+    </mat-dialog-actions>
+  `,
+})
+export class SaveConflictDialog {
+  readonly data = inject<{ version: number; updatedAt?: string; updatedBy?: string | null }>(MAT_DIALOG_DATA);
+  when(): string {
+    return this.data.updatedAt ? new Date(this.data.updatedAt).toLocaleTimeString() : '';
+  }
+}
+
+@Component({
+  selector: 'rn-shortcuts-dialog',
+  imports: [MatDialogModule, MatButtonModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <h2 mat-dialog-title>Keyboard shortcuts</h2>
+    <mat-dialog-content>
+      <table class="keys" data-testid="shortcuts-table">
+        @for (s of shortcuts; track s.keys) {
+          <tr><th><kbd>{{ s.keys }}</kbd></th><td>{{ s.action }}</td></tr>
+        }
+      </table>
+      <p class="tip">Drawing a line: choose Pipe, Pump or Valve, click the start element, click empty ground for bends, click the end element.</p>
+    </mat-dialog-content>
+    <mat-dialog-actions align="end"><button mat-button mat-dialog-close>Close</button></mat-dialog-actions>
+  `,
+  styles: `
+    .keys { border-collapse: collapse; font-size: 14px; }
+    th { text-align: left; padding: 4px 16px 4px 0; font-weight: 500; white-space: nowrap; }
+    kbd { font-family: inherit; background: #eef1f4; border: 1px solid #c5ccd2; border-radius: 4px; padding: 1px 6px; }
+    .tip { color: #5b6770; font-size: 13px; }
+  `,
+})
+export class ShortcutsDialog {
+  readonly shortcuts = SHORTCUTS;
+}
+
+/** Asks the real distance between the two points clicked with the scale tool; returns metres. */
+@Component({
+  selector: 'rn-calibrate-dialog',
+  imports: [MatDialogModule, MatButtonModule, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <h2 mat-dialog-title>Set the scale</h2>
+    <mat-dialog-content>
+      <p>How far apart are the two points you clicked, on the ground?</p>
+      <mat-form-field>
+        <mat-label>Distance</mat-label>
+        <input matInput [formControl]="distance" inputmode="decimal" data-testid="calibrate-distance" (keydown.enter)="ok()" />
+        <span matTextSuffix>{{ label }}</span>
+        @if (distance.invalid && distance.touched) { <mat-error>Enter a distance greater than zero</mat-error> }
+      </mat-form-field>
+    </mat-dialog-content>
+    <mat-dialog-actions align="end">
+      <button mat-button mat-dialog-close>Cancel</button>
+      <button mat-flat-button (click)="ok()" data-testid="calibrate-ok">Set scale</button>
+    </mat-dialog-actions>
+  `,
+})
+export class CalibrateDialog {
+  private readonly ref = inject(MatDialogRef<CalibrateDialog, number>);
+  private readonly units = inject<UnitSystem>(MAT_DIALOG_DATA);
+  readonly label = unitLabel('length', this.units);
+  readonly distance = new FormControl<string>('', [Validators.required, Validators.pattern(/^\s*\d*\.?\d+\s*$/), (c) => (Number(c.value) > 0 ? null : { positive: true })]);
+
+  ok(): void {
+    this.distance.markAsTouched();
+    if (this.distance.valid) this.ref.close(fromDisplay('length', Number(this.distance.value), this.units));
+  }
+}
+
+/** Messages from a rejected import, each naming the element and field. */
+@Component({
+  selector: 'rn-messages-dialog',
+  imports: [MatDialogModule, MatButtonModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <h2 mat-dialog-title>{{ data.title }}</h2>
+    <mat-dialog-content>
+      <ul data-testid="messages-list">@for (m of data.messages; track $index) { <li>{{ m }}</li> }</ul>
+    </mat-dialog-content>
+    <mat-dialog-actions align="end"><button mat-button mat-dialog-close>Close</button></mat-dialog-actions>
+  `,
+})
+export class MessagesDialog {
+  readonly data = inject<{ title: string; messages: string[] }>(MAT_DIALOG_DATA);
+}
