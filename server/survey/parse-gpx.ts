@@ -33,10 +33,15 @@ function collectPoints(node: Node, out: Element[]): void {
 
 export function parseSurveyGpx(text: string): SurveyParse {
   let failure: string | undefined;
-  const doc = new DOMParser({
-    onError: (level, message) => { if (level !== 'warning' && !failure) failure = message; },
-  }).parseFromString(text.replace(/^\uFEFF/, ''), 'text/xml');
-  const root = doc.documentElement;
+  let root: Element | null = null;
+  try {
+    root = new DOMParser({
+      onError: (level, message) => { if (level !== 'warning' && !failure) failure = message; },
+    }).parseFromString(text.replace(/^\uFEFF/, ''), 'text/xml').documentElement;
+  } catch (err) {
+    // xmldom throws on fatal errors (unclosed tags) after reporting them.
+    failure ??= err instanceof Error ? err.message : String(err);
+  }
   if (failure || !root || localName(root) !== 'gpx') {
     throw new SurveyError(`point 0: not a GPX file${failure ? ` (${failure.split('\n')[0]})` : ''}`, { point: 0 });
   }

@@ -76,6 +76,8 @@ export function removeTempDir(dir: string): void {
 /** A supertest agent (cookie jar) that sends the CSRF token on every request. */
 export class ApiAgent {
   token = '';
+  /** `runnel.sid=…` as set at the last sign-in, to replay the session from another client. */
+  sessionCookie = '';
 
   private constructor(readonly agent: ReturnType<typeof supertest.agent>) {}
 
@@ -95,6 +97,7 @@ export class ApiAgent {
   async signIn(email: string, password: string): Promise<void> {
     const res = await this.post('/api/auth/signin', { email, password });
     expect(res.status, `sign-in as ${email}: ${JSON.stringify(res.body)}`).to.equal(200);
+    this.sessionCookie = /runnel\.sid=[^;]+/.exec(String(res.headers['set-cookie']))?.[0] ?? '';
     await this.refreshCsrf();
   }
 

@@ -1,0 +1,54 @@
+/** Rows inserted straight into the test database, so a test can act on a fresh target. */
+import { randomBytes, randomUUID } from 'node:crypto';
+import { files, invitations, memberships, projects, teams, users } from '../../drizzle/schema';
+import type { Db } from '../../server/db';
+import type { Role } from '../../server/permissions';
+import { hashToken } from '../../server/routes/team';
+import type { NetworkDocument } from '../../engine';
+
+/** The smallest PNG signature plus an IHDR start: enough for the magic-byte check. */
+export const PNG_BYTES = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.from('0000000dIHDR', 'latin1'), Buffer.alloc(32)]);
+export const JPEG_BYTES = Buffer.concat([Buffer.from([0xff, 0xd8, 0xff, 0xe0]), Buffer.alloc(64)]);
+export const SURVEY_CSV = 'label,easting,northing,elevation\nSpring,0,0,12.5\nTank site,40,310,41\n';
+
+/** A tank feeding one outlet through 120 m of pipe: small, valid, solvable. */
+export const SMALL_NETWORK: NetworkDocument = {
+  schema: 'runnel.network/1',
+  headloss: 'hazen-williams',
+  nodes: [
+    { id: 'T1', kind: 'tank', elevation_m: 41, diameter_m: 1.6, level_m: 1.2, min_level_m: 0.1, max_level_m: 1.5 },
+    { id: 'O1', kind: 'outlet', elevation_m: 18, demand_m3s: 0.0003, min_pressure_m: 7 },
+  ],
+  links: [{ id: 'P1', kind: 'pipe', from: 'T1', to: 'O1', length_m: 120, diameter_m: 0.0266, roughness: 150 }],
+};
+
+export async function insertProject(db: Db, teamId: string, name = `Fixture ${randomUUID().slice(0, 8)}`): Promise<string> {
+  const [row] = await db.insert(projects).values({ teamId, name }).returning({ id: projects.id });
+  return row.id;
+}
+
+export async function insertMember(db: Db, teamId: string, roles: Role[]): Promise<string> {
+  const [user] = await db.insert(users).values({ email: `m-${randomUUID()}@example.test`, name: 'Fixture Member', passwordHash: 'x' })
+    .returning({ id: users.id });
+  await db.insert(memberships).values({ teamId, userId: user.id, roles });
+  return user.id;
+}
+
+export async function insertTeam(db: Db, name = `Fixture team ${randomUUID().slice(0, 8)}`): Promise<string> {
+  const [team] = await db.insert(teams).values({ name }).returning({ id: teams.id });
+  return team.id;
+}
+
+/** An open invitation; returns the token (only its hash is stored). */
+export async function insertInvitation(db: Db, teamId: string, roles: Role[], email = `i-${randomUUID()}@example.test`): Promise<string> {
+  const token = randomBytes(24).toString('base64url');
+  await db.insert(invitations).values({ teamId, email, roles, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + 86400_000) });
+  return token;
+}
+
+export async function insertFile(db: Db, projectId: string): Promise<string> {
+  const [row] = await db.insert(files).values({
+    projectId, kind: 'backdrop', filename: 'site.png', mime: 'image/png', size: PNG_BYTES.length, bytes: PNG_BYTES,
+  }).returning({ id: files.id });
+  return row.id;
+}

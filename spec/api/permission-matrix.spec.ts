@@ -1,0 +1,124 @@
+/**
+ * ROLE × ROUTE: every /api route, called by every role (and by nobody), must answer exactly what
+ * the permission table in server/permissions.ts decides: success for a role holding the route's
+ * permission, 403 otherwise, 401 when signed out. The expectation is derived from PERMISSION_TABLE,
+ * and the route list is checked against the routes the app registered, so a new route without a
+ * case here fails this test.
+ */
+import { randomUUID } from 'node:crypto';
+import { expect } from 'chai';
+import type { Test } from 'supertest';
+import { PERMISSION_TABLE, ROLES, type Access, type Role } from '../../server/permissions';
+import { DEMO_PASSWORD } from '../../server/seed';
+import { insertFile, insertInvitation, insertMember, insertProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
+import { demoEmail, startTestApp, type ApiAgent, type TestApp } from './test-app';
+
+interface Case {
+  method: 'get' | 'post' | 'put' | 'patch' | 'delete';
+  /** Path relative to /api, as registered. */
+  path: string;
+  /** The access API.md documents for this route. */
+  access: Access;
+  success: 200 | 201 | 204;
+  /** Sends the request; may create the target first. `who` is the signed-in role (null: signed out). */
+  call(a: ApiAgent, t: TestApp, who: Role | null): Promise<Test> | Test;
+}
+
+const p = (t: TestApp) => `/api/projects/${t.seeded!.demoProjectId}`;
+
+const CASES: Case[] = [
+  { method: 'get', path: '/csrf', access: 'public', success: 200, call: (a) => a.get('/api/csrf') },
+  { method: 'post', path: '/auth/signup', access: 'public', success: 201,
+    call: (a) => a.post('/api/auth/signup', { email: `s-${randomUUID()}@example.test`, name: 'S', password: 'long-enough-pw', teamName: 'T' }) },
+  { method: 'post', path: '/auth/signin', access: 'public', success: 200,
+    call: (a, _t, who) => a.post('/api/auth/signin', { email: demoEmail(who ?? 'owner'), password: DEMO_PASSWORD }) },
+  { method: 'post', path: '/auth/signout', access: 'public', success: 204, call: (a) => a.post('/api/auth/signout') },
+  { method: 'get', path: '/auth/me', access: 'signed-in', success: 200, call: (a) => a.get('/api/auth/me') },
+  { method: 'post', path: '/auth/current-team', access: 'signed-in', success: 200,
+    call: (a, t) => a.post('/api/auth/current-team', { teamId: t.seeded!.demoTeamId }) },
+  { method: 'get', path: '/team', access: 'team.read', success: 200, call: (a) => a.get('/api/team') },
+  { method: 'get', path: '/team/members', access: 'team.manage', success: 200, call: (a) => a.get('/api/team/members') },
+  { method: 'patch', path: '/team/members/:userId', access: 'team.manage', success: 200,
+    call: async (a, t) => a.patch(`/api/team/members/${await insertMember(t.db, t.seeded!.demoTeamId, ['owner'])}`, { roles: ['owner', 'estimator'] }) },
+  { method: 'delete', path: '/team/members/:userId', access: 'team.manage', success: 204,
+    call: async (a, t) => a.delete(`/api/team/members/${await insertMember(t.db, t.seeded!.demoTeamId, ['owner'])}`) },
+  { method: 'get', path: '/team/invitations', access: 'team.manage', success: 200, call: (a) => a.get('/api/team/invitations') },
+  { method: 'post', path: '/team/invitations', access: 'team.manage', success: 201,
+    call: (a) => a.post('/api/team/invitations', { email: `inv-${randomUUID()}@example.test`, roles: ['owner'] }) },
+  { method: 'get', path: '/invitations/:token', access: 'public', success: 200,
+    call: async (a, t) => a.get(`/api/invitations/${await insertInvitation(t.db, t.seeded!.demoTeamId, ['owner'])}`) },
+  { method: 'post', path: '/invitations/:token/accept', access: 'public', success: 200,
+    call: async (a, t, who) => a.post(`/api/invitations/${await insertInvitation(t.db, await insertTeam(t.db), ['owner'])}/accept`,
+      who ? {} : { name: 'Newly Invited', password: 'long-enough-pw' }) },
+  { method: 'get', path: '/team/outbox', access: 'outbox.read', success: 200, call: (a) => a.get('/api/team/outbox') },
+  { method: 'get', path: '/team/audit', access: 'audit.read', success: 200, call: (a) => a.get('/api/team/audit') },
+  { method: 'get', path: '/projects', access: 'project.read', success: 200, call: (a) => a.get('/api/projects') },
+  { method: 'post', path: '/projects', access: 'project.create', success: 201, call: (a) => a.post('/api/projects', { name: 'Matrix project' }) },
+  { method: 'get', path: '/projects/:id', access: 'project.read', success: 200, call: (a, t) => a.get(p(t)) },
+  { method: 'patch', path: '/projects/:id', access: 'project.update', success: 200,
+    call: async (a, t) => a.patch(`/api/projects/${await insertProject(t.db, t.seeded!.demoTeamId)}`, { notes: 'changed' }) },
+  { method: 'delete', path: '/projects/:id', access: 'project.delete', success: 204,
+    call: async (a, t) => a.delete(`/api/projects/${await insertProject(t.db, t.seeded!.demoTeamId)}`) },
+  { method: 'get', path: '/projects/:id/network', access: 'network.read', success: 200, call: (a, t) => a.get(`${p(t)}/network`) },
+  { method: 'put', path: '/projects/:id/network', access: 'network.write', success: 200,
+    call: async (a, t) => a.put(`/api/projects/${await insertProject(t.db, t.seeded!.demoTeamId)}/network`, { version: 0, document: SMALL_NETWORK }) },
+  { method: 'get', path: '/projects/:id/files', access: 'files.read', success: 200, call: (a, t) => a.get(`${p(t)}/files`) },
+  { method: 'post', path: '/projects/:id/files', access: 'files.write', success: 201,
+    call: (a, t) => a.upload(`${p(t)}/files`, { bytes: PNG_BYTES, filename: 'plan.png' }, { kind: 'backdrop' }) },
+  { method: 'get', path: '/projects/:id/files/:fileId', access: 'files.read', success: 200,
+    call: async (a, t) => a.get(`${p(t)}/files/${await insertFile(t.db, t.seeded!.demoProjectId)}`) },
+  { method: 'delete', path: '/projects/:id/files/:fileId', access: 'files.write', success: 204,
+    call: async (a, t) => a.delete(`${p(t)}/files/${await insertFile(t.db, t.seeded!.demoProjectId)}`) },
+  { method: 'post', path: '/projects/:id/survey/parse', access: 'files.read', success: 200,
+    call: (a, t) => a.upload(`${p(t)}/survey/parse`, { bytes: Buffer.from(SURVEY_CSV), filename: 'pegs.csv' }) },
+];
+
+function expectedStatus(c: Case, who: Role | null): number {
+  if (c.access === 'public') return c.success;
+  if (who === null) return 401;
+  if (c.access === 'signed-in') return c.success;
+  const allowed: readonly Role[] = PERMISSION_TABLE[c.access];
+  return allowed.includes(who) ? c.success : 403;
+}
+
+describe('API: role × route permission matrix', () => {
+  let t: TestApp;
+  before(async () => { t = await startTestApp(); });
+  after(async () => { await t.close(); });
+
+  it('covers every registered /api route, with the access API.md documents', () => {
+    const registered = t.routes.map((r) => `${r.method} ${r.path} ${r.access}`).sort();
+    const covered = CASES.map((c) => `${c.method} ${c.path} ${c.access}`).sort();
+    expect(covered).to.deep.equal(registered);
+  });
+
+  for (const who of [...ROLES, null] as (Role | null)[]) {
+    it(`${who ?? 'signed out'}: every route answers as the permission table says`, async () => {
+      const outcomes: string[] = [];
+      const mismatches: string[] = [];
+      for (const c of CASES) {
+        // A fresh agent per call: sign-out, sign-in and accept change the session.
+        const agent = who ? await t.signInAs(who) : await t.anonymous();
+        const res = await c.call(agent, t, who);
+        const want = expectedStatus(c, who);
+        outcomes.push(`${c.method.toUpperCase()} ${c.path} → ${res.status}`);
+        if (res.status !== want) mismatches.push(`${c.method.toUpperCase()} ${c.path}: expected ${want}, got ${res.status} ${JSON.stringify(res.body)}`);
+        if (res.status === 403) expect(res.body.error.code).to.equal('forbidden');
+      }
+      expect(mismatches, mismatches.join('\n')).to.deep.equal([]);
+      expect(outcomes).to.have.length(CASES.length);
+    });
+  }
+
+  it('the table itself matches API.md: reads for all, writes for the roles named there', () => {
+    for (const role of ROLES) {
+      for (const read of ['project.read', 'network.read', 'files.read', 'team.read'] as const) expect(PERMISSION_TABLE[read]).to.include(role);
+    }
+    expect(PERMISSION_TABLE['project.create']).to.have.members(['admin', 'designer']);
+    expect(PERMISSION_TABLE['project.update']).to.have.members(['admin', 'designer']);
+    expect(PERMISSION_TABLE['project.delete']).to.have.members(['admin', 'designer']);
+    expect(PERMISSION_TABLE['network.write']).to.have.members(['designer']);
+    expect(PERMISSION_TABLE['files.write']).to.have.members(['designer']);
+    for (const admin of ['team.manage', 'outbox.read', 'audit.read'] as const) expect(PERMISSION_TABLE[admin]).to.have.members(['admin']);
+  });
+});
