@@ -2,8 +2,8 @@ import { WATER_KINEMATIC_VISCOSITY_M2S, GRAVITY_MS2 } from './constants';
 import { darcyFactorAndSlope, LAMINAR_REYNOLDS } from './darcy-weisbach';
 import { HW_FLOW_EXPONENT } from './hazen-williams';
 import {
-  DEMAND_EMITTER, DEMAND_FIXED, DEMAND_PRESSURE, LINK_CHECK, LINK_PIPE, LINK_PRV, LINK_PUMP_CURVE, LINK_PUMP_FLOW,
-  NODE_JUNCTION, type NetworkModel,
+  DEMAND_EMITTER, DEMAND_FIXED, DEMAND_PRESSURE, LINK_CHECK, LINK_FLOAT, LINK_PIPE, LINK_PRV, LINK_PUMP_CURVE, LINK_PUMP_FLOW, LINK_SHUTOFF,
+  NODE_JUNCTION, NODE_SOURCE, NODE_TANK, type NetworkModel,
 } from './network-model';
 import { SparseLdl } from './sparse-ldl';
 
@@ -14,7 +14,9 @@ import { SparseLdl } from './sparse-ldl';
  * (Todini, E. & Pilati, S. (1988), "A gradient algorithm for the analysis of pipe networks", in
  * Computer Applications in Water Supply, vol. 1, Research Studies Press, 1–20).
  *
- * - Fixed heads: sources and tanks (head = floor elevation + level).
+ * - Fixed heads: sources, and tanks (head = floor elevation + level) unless a tank is given a
+ *   storage coefficient A/Δt, which makes it an unknown of a backward-Euler time step (stable for
+ *   tanks joined by short headers, whose levels equalise in seconds).
  * - Zero and tiny flows: the headloss gradient g = dh/dQ is floored at GRADIENT_FLOOR so p = 1/g
  *   stays finite; the iteration still converges to h(Q) = ΔH because y = h/g uses the true h.
  * - Pressure-dependent outlets and emitters are virtual links to a virtual reservoir with the
@@ -43,7 +45,7 @@ export const STATUS_NAMES = ['open', 'closed', 'check-closed', 'active'] as cons
 /** Smallest headloss gradient dh/dQ used, m per m³/s (keeps 1/g finite at zero flow). */
 export const GRADIENT_FLOOR = 1e-6;
 /** Barrier slope for virtual demand links outside [0, full demand], m per m³/s. */
-export const DEMAND_BARRIER_SLOPE = 1e8;
+export const DEMAND_BARRIER_SLOPE = 1e11;
 /** Regularisation of the pressure-driven law near zero flow (fraction of full demand). */
 const VIRTUAL_FLOW_FLOOR = 1e-3;
 /** Diagonal weight that pins the downstream node of an active pressure-reducing valve. */
@@ -52,6 +54,10 @@ const PIN_WEIGHT = 1e10;
 const STATUS_HEAD_TOL = 1e-6;
 /** Flow tolerance of status checks, m³/s. */
 const STATUS_FLOW_TOL = 1e-10;
+/** Flow scale below which the relative-change test becomes absolute, m³/s. */
+const FLOW_SCALE_FLOOR = 1e-4;
+/** Largest energy-equation residual |h(Q) − ΔH| accepted as converged, m. */
+export const ENERGY_TOLERANCE_M = 1e-6;
 /** Required pressure used for outlets and tees in pressure-driven (simulation) mode without a minimum, m. */
 export const DEFAULT_REQUIRED_PRESSURE_M = 0.5;
 
@@ -68,6 +74,11 @@ export interface SolverState {
   pumpFactor: Float64Array;
   /** Treat fixed demands as pressure-driven (full at min pressure, zero at 0 m): used by simulate. */
   pressureDriven: boolean;
+  /**
+   * Per tank: 0 = head held at fixedHead; c > 0 = storage A/Δt (m²/s) for an implicit (backward
+   * Euler) time step from the head fixedHead, so the solved head is the head at the end of the step.
+   */
+  tankStorage: Float64Array;
 }
 
 export interface SolveOptions {
@@ -128,7 +139,7 @@ export class GradientSolver {
     const m = model.linkCount;
     this.unknown = new Int32Array(n).fill(-1);
     let nu = 0;
-    for (let i = 0; i < n; i++) if (model.nodeKind[i] === NODE_JUNCTION) this.unknown[i] = nu++;
+    for (let i = 0; i < n; i++) if (model.nodeKind[i] !== NODE_SOURCE) this.unknown[i] = nu++;
     this.unknownNode = new Int32Array(nu);
     for (let i = 0; i < n; i++) if (this.unknown[i] >= 0) this.unknownNode[this.unknown[i]] = i;
     const pi: number[] = [];
@@ -187,6 +198,7 @@ export class GradientSolver {
       linkDirection: new Int8Array(model.linkCount),
       pumpFactor: new Float64Array(model.linkCount).fill(1),
       pressureDriven: false,
+      tankStorage: new Float64Array(model.nodeCount),
     };
     model.doc.nodes.forEach((node, i) => { if (node.kind === 'tank') state.fixedHead[i] = node.elevation_m + node.level_m; });
     return state;
@@ -308,7 +320,11 @@ export class GradientSolver {
     for (let i = 0; i < model.nodeCount; i++) if (model.nodeKind[i] !== NODE_JUNCTION) hmax = Math.max(hmax, state.fixedHead[i]);
     for (let i = 0; i < model.nodeCount; i++) {
       this.head[i] = model.nodeKind[i] === NODE_JUNCTION ? (Number.isFinite(hmax) ? hmax : model.elevation[i]) : state.fixedHead[i];
-      this.virtualFlow[i] = 0;
+      // virtual demand links start at the flow they would take at the highest fixed head
+      const lift = Math.max((Number.isFinite(hmax) ? hmax : 0) - model.elevation[i], 0);
+      this.virtualFlow[i] = model.demandType[i] === DEMAND_EMITTER
+        ? model.emitterK[i] * state.demandFactor[i] * Math.pow(lift, model.emitterExponent[i])
+        : model.demandBase[i] * state.demandFactor[i];
     }
     for (let k = 0; k < model.linkCount; k++) {
       const kind = model.linkKind[k];
@@ -344,10 +360,15 @@ export class GradientSolver {
         flow[k] = kind === LINK_PUMP_FLOW ? model.pumpFlow[k] : kind === LINK_PUMP_CURVE ? model.curveQ[model.curveStart[k] + 1] * state.pumpFactor[k] : 0.1 * model.area[k];
       }
       // a PRV feeding a fixed head cannot regulate: it behaves as an open valve
-      if (kind === LINK_PRV && status[k] === STATUS_ACTIVE && unknown[model.to[k]] < 0) status[k] = STATUS_OPEN;
+      if (kind === LINK_PRV && status[k] === STATUS_ACTIVE && model.nodeKind[model.to[k]] !== NODE_JUNCTION) status[k] = STATUS_OPEN;
+      // a plain link closed by a direction block that has been lifted opens again
+      if (status[k] === STATUS_CHECK_CLOSED && state.linkDirection[k] === 0 && (kind === LINK_PIPE || kind === LINK_SHUTOFF || kind === LINK_FLOAT)) {
+        status[k] = STATUS_OPEN;
+        flow[k] = 0;
+      }
     }
     for (let i = 0; i < n; i++) {
-      if (model.nodeKind[i] !== NODE_JUNCTION) { head[i] = state.fixedHead[i]; continue; }
+      if (model.nodeKind[i] !== NODE_JUNCTION) { head[i] = state.fixedHead[i]; this.requested[i] = 0; virtualFull[i] = 0; continue; }
       const base = model.demandBase[i] * state.demandFactor[i];
       this.requested[i] = model.demandType[i] === DEMAND_EMITTER ? Number.NaN : base;
       const isVirtual = model.demandType[i] !== DEMAND_FIXED || (state.pressureDriven && base > 0);
@@ -398,6 +419,13 @@ export class GradientSolver {
       for (let u = 0; u < unknown.length && u < this.unknownNode.length; u++) {
         const i = this.unknownNode[u];
         const pd = this.posDiag[u];
+        if (model.nodeKind[i] === NODE_TANK) {
+          const c = state.tankStorage[i];
+          const w = c > 0 ? c : PIN_WEIGHT;
+          values[pd] += w;
+          rhs[u] += w * state.fixedHead[i];
+          continue;
+        }
         if (!active[i]) { values[pd] = 1; rhs[u] = model.elevation[i]; continue; }
         if (virtualFull[i] > 0) {
           this.virtualLaw(i, virtualFlow[i], virtualFull[i], state);
@@ -421,7 +449,7 @@ export class GradientSolver {
       let sumQ = 0;
       let sumDQ = 0;
       for (let i = 0; i < n; i++) {
-        if (unknown[i] < 0 || !active[i]) { if (unknown[i] >= 0) { virtualFlow[i] = 0; } continue; }
+        if (model.nodeKind[i] !== NODE_JUNCTION || !active[i]) { virtualFlow[i] = 0; continue; }
         if (virtualFull[i] > 0) {
           const qv = virtualFlow[i] - this.demand[i] + this.netOut[i] * (head[i] - model.elevation[i] - this.zeroPressure(i, state));
           sumDQ += Math.abs(qv - virtualFlow[i]);
@@ -439,8 +467,7 @@ export class GradientSolver {
       // delivered demands and flows through active PRVs from continuity at their outlets
       netOut.fill(0);
       for (let i = 0; i < n; i++) {
-        if (unknown[i] < 0) { this.demand[i] = 0; continue; }
-        if (!active[i]) { this.demand[i] = 0; continue; }
+        if (model.nodeKind[i] !== NODE_JUNCTION || !active[i]) { this.demand[i] = 0; continue; }
         const d = virtualFull[i] > 0 ? virtualFlow[i] : this.requested[i] || 0;
         this.demand[i] = d;
       }
@@ -461,22 +488,42 @@ export class GradientSolver {
           netOut[t] -= q;
         }
       }
-      const relative = sumQ > 0 ? sumDQ / sumQ : sumDQ;
+      const relative = sumDQ / Math.max(sumQ, FLOW_SCALE_FLOOR);
       let changed = false;
       if (relative < 1e-2 || iterations >= 10) changed = this.checkStatuses(state);
       if (changed) { this.connect(); continue; }
-      if (relative < accuracy || (sumQ === 0 && sumDQ < 1e-14)) { converged = true; break; }
+      // converged when flows stop changing, or when they only creep (a power law approaching zero
+      // flow converges linearly under Newton) while every link's energy equation already holds
+      if (relative < accuracy || (relative < 1e-2 && this.energyResidual(state) < ENERGY_TOLERANCE_M)) { converged = true; break; }
     }
     // final delivered demand (clamped to the physical range of each law)
     for (let i = 0; i < n; i++) {
-      if (unknown[i] < 0 || !active[i]) {
-        if (unknown[i] >= 0) head[i] = model.elevation[i];
-        if (unknown[i] >= 0) this.demand[i] = 0;
-        continue;
-      }
+      if (model.nodeKind[i] !== NODE_JUNCTION) continue;
+      if (!active[i]) { head[i] = model.elevation[i]; this.demand[i] = 0; continue; }
       if (virtualFull[i] > 0) this.demand[i] = Math.min(Math.max(virtualFlow[i], 0), virtualFull[i]);
     }
     return { converged: converged && !singular, iterations, singular };
+  }
+
+  /** Largest |h(Q) − (H_from − H_to)| over open links and virtual demand links, m. */
+  private energyResidual(state: SolverState): number {
+    const model = this.model;
+    const { status, flow, head, active, p } = this;
+    let worst = 0;
+    for (let k = 0; k < model.linkCount; k++) {
+      if (p[k] === 0 || status[k] !== STATUS_OPEN) continue;
+      this.linkLaw(k, flow[k], state.pumpFactor[k]);
+      const r = Math.abs(this.scratch[0] - (head[model.from[k]] - head[model.to[k]]));
+      if (r > worst) worst = r;
+    }
+    for (let i = 0; i < model.nodeCount; i++) {
+      const full = this.virtualFull[i];
+      if (!(full > 0) || !active[i]) continue;
+      this.virtualLaw(i, this.virtualFlow[i], full, state);
+      const r = Math.abs(this.scratch[0] - (head[i] - model.elevation[i] - this.zeroPressure(i, state)));
+      if (r > worst) worst = r;
+    }
+    return worst;
   }
 
   /** Status changes of check valves, no-reverse pumps, empty-tank blocks and PRVs; true if any. */
@@ -501,8 +548,8 @@ export class GradientSolver {
           else if (hf < hset - STATUS_HEAD_TOL) next = STATUS_OPEN;
         } else if (st === STATUS_OPEN) {
           if (flow[k] < -STATUS_FLOW_TOL) next = STATUS_CHECK_CLOSED;
-          else if (ht > hset + STATUS_HEAD_TOL && this.unknown[t] >= 0) next = STATUS_ACTIVE;
-        } else if (hf > hset + STATUS_HEAD_TOL && ht < hset - STATUS_HEAD_TOL && this.unknown[t] >= 0) next = STATUS_ACTIVE;
+          else if (ht > hset + STATUS_HEAD_TOL && model.nodeKind[t] === NODE_JUNCTION) next = STATUS_ACTIVE;
+        } else if (hf > hset + STATUS_HEAD_TOL && ht < hset - STATUS_HEAD_TOL && model.nodeKind[t] === NODE_JUNCTION) next = STATUS_ACTIVE;
         else if (hf > ht + STATUS_HEAD_TOL) next = STATUS_OPEN;
       } else {
         let allowed = state.linkDirection[k];

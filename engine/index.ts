@@ -1,26 +1,26 @@
 /**
- * Public entry of the Runnel hydraulic engine (pure TypeScript: no DOM, no Node APIs).
- * STUB — replaced by the engine implementation.
+ * Public entry of the Runnel hydraulic engine: pure TypeScript (no DOM, no Node APIs), shared by
+ * the server and the browser Web Worker. See engine/README.md for scenarios and file map.
+ *
+ * @example
+ * import { solve, simulate, equalisationTime, validateDocument, hillSmallholding } from '../engine';
+ * const result = solve(hillSmallholding);
  */
 export * from './network-document';
 export * from './units';
-
-export interface Warning { code: string; element: string | null; message: string }
-
-export interface SteadyResult {
-  converged: boolean;
-  iterations: number;
-  nodes: Record<string, { head_m: number; pressure_m: number; demand_m3s: number }>;
-  links: Record<string, { flow_m3s: number; velocity_ms: number; headloss_m: number; status: string }>;
-  warnings: Warning[];
-}
-
-/** Structural validation of an untrusted document: one `invalid` warning per problem, naming element and field. */
-export function validateDocument(doc: unknown): Warning[] {
-  if (!doc || typeof doc !== 'object') return [{ code: 'invalid', element: null, message: 'document: must be an object' }];
-  return [];
-}
-
-export function solve(_doc: unknown): SteadyResult {
-  return { converged: false, iterations: 0, nodes: {}, links: {}, warnings: [] };
-}
+export type { Warning, WarningCode } from './warnings';
+export { validateDocument } from './validate';
+export { solve, type SteadyResult, type SteadyOptions, type NodeResult, type LinkResult } from './steady';
+export { simulate, type SimulateOptions, type TimeSeriesResult, type SimulationSummary } from './simulate';
+export { equalisationTime, type EqualiseOptions, type EqualiseResult } from './equalise';
+export { staticHeads, DEFAULT_VELOCITY_LIMIT_MS, DEFAULT_COVER_M } from './checks';
+export {
+  pipeSeries, pipeSizes, findPipeSize, defaultRoughness, pressureRatingPsi, IPS_OD_IN,
+  type PipeSeries, type PipeSize, type PipeMaterial,
+} from './pipe-catalogue';
+export { hazenWilliamsHeadloss, hazenWilliamsResistance, HW_OMEGA_SI, HW_OMEGA_ALTERNATIVES } from './hazen-williams';
+export { darcyWeisbachHeadloss, darcyFactor } from './darcy-weisbach';
+export { colebrookFactor } from './colebrook';
+export { swameeJainFactor } from './swamee-jain';
+export { GRAVITY_MS2, WATER_KINEMATIC_VISCOSITY_M2S } from './constants';
+export { hillSmallholding, twoTankBank } from './examples/hill-smallholding';

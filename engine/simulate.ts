@@ -6,11 +6,11 @@ import { validateDocument } from './validate';
 import type { Warning } from './warnings';
 
 /**
- * Extended-period simulation: a sequence of steady solves with tank levels integrated between
- * them (the usual extended-period method, e.g. Rossman, EPANET 2 Users Manual, US EPA 2000, ch. 3).
- * Between two solves the flows are held constant and the step is cut at every event — a tank
- * reaching its max, min or a control level, an hour boundary of a pattern or pump schedule — so the
- * integrated volumes are exact for piecewise-constant flows. Behaviour:
+ * Extended-period simulation: each time step is one implicit (backward Euler) solve in which the
+ * tanks are unknowns with storage A/Δt (./gradient-solver), so tanks joined by short headers stay
+ * stable at any step. Steps end at report times and hour boundaries (patterns, pump schedules) and
+ * are cut where a tank reaches its max, min or a control level, so controls act on time; volumes
+ * are the end-of-step flows times the step (exact for flows constant within a step). Behaviour:
  * - demands follow their hourly patterns and are pressure-driven (an outlet cut off from water
  *   delivers nothing; the shortfall is counted as unmet);
  * - pumps follow their 24-hour schedule (a solar pump's daylight factors scale its flow), stop when
@@ -61,8 +61,8 @@ export const EMPTY_TANK_HYSTERESIS_M = 0.01;
 export const FLOAT_VALVE_DEADBAND_M = 0.02;
 /** Low-water cut-offs release this far above their level, m. */
 export const LOW_CUTOFF_RELEASE_M = 0.1;
-/** Cap on event sub-steps within one report interval. */
-const MAX_SUBSTEPS = 200;
+/** Levels this close to an event level count as having reached it, m. */
+const SNAP_M = 1e-4;
 const LEVEL_EPS = 1e-9;
 
 const TANK_NORMAL = 0;
@@ -153,10 +153,13 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
   const everEmpty = new Float64Array(n).fill(-1);
   let failedSolves = 0;
   const netIn = new Float64Array(n);
-  const rate = new Float64Array(n);
 
-  const applyState = (t: number): void => {
-    for (const i of tanks) state.fixedHead[i] = model.elevation[i] + level[i];
+  const applyState = (t: number, dt: number): void => {
+    for (const i of tanks) {
+      const pinned = dt <= 0 || tankState[i] !== TANK_NORMAL;
+      state.tankStorage[i] = pinned ? 0 : model.tankArea[i] / dt;
+      state.fixedHead[i] = model.elevation[i] + level[i];
+    }
     for (let i = 0; i < n; i++) if (model.nodeKind[i] === NODE_JUNCTION) state.demandFactor[i] = patternFactor(model, model.nodePattern[i], t);
     const hour = Math.floor(t / 3600 + 1e-9) % 24;
     for (let k = 0; k < m; k++) {
@@ -188,67 +191,64 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
     pumpLinks.forEach((k, j) => onSeries[j].push(solver.status[k] !== STATUS_CLOSED && solver.flow[k] > 0));
   };
 
-  let t = 0;
-  let nextReport = 0;
-  let warm = false;
-  let substeps = 0;
   const duration = options.duration_s;
-  for (;;) {
-    applyState(t);
-    const outcome = solver.solve(state, { warmStart: warm, accuracy: 1e-8 });
-    warm = true;
-    if (!outcome.converged) failedSolves++;
-    // net inflow of tanks
-    netIn.fill(0);
-    for (let k = 0; k < m; k++) { netIn[model.to[k]] += solver.flow[k]; netIn[model.from[k]] -= solver.flow[k]; }
-    for (const i of tanks) {
-      const q = netIn[i] + inflow[i];
-      if (tankState[i] === TANK_FULL && q < 0) tankState[i] = TANK_NORMAL;
-      if (tankState[i] === TANK_EMPTY && q < 0) rate[i] = 0; // nothing left to give
-      else rate[i] = tankState[i] === TANK_FULL ? 0 : q / model.tankArea[i];
-    }
-    if (t >= nextReport - 1e-6) {
-      record(t);
-      nextReport += options.step_s;
-      substeps = 0;
-      if (t >= duration - 1e-6) break;
-    }
-    // next event
+  const oldLevel = new Float64Array(n);
+  // the state at t = 0: tanks at their levels
+  applyState(0, 0);
+  if (!solver.solve(state, { accuracy: 1e-8 }).converged) failedSolves++;
+  record(0);
+  let t = 0;
+  let nextReport = options.step_s;
+  while (t < duration - 1e-6) {
     const nextHour = (Math.floor(t / 3600 + 1e-9) + 1) * 3600;
     let dt = Math.min(nextReport, duration, nextHour) - t;
-    const limitTo = (target: number, i: number): void => {
-      const r = rate[i];
-      if (r > 0 && target > level[i] + LEVEL_EPS) dt = Math.min(dt, (target - level[i]) / r);
-      else if (r < 0 && target < level[i] - LEVEL_EPS) dt = Math.min(dt, (target - level[i]) / r);
-    };
+    oldLevel.set(level);
+    // implicit step; cut it at the first tank event (max, min, control levels) and redo
+    for (let attempt = 0; attempt < 4; attempt++) {
+      applyState(t, dt);
+      if (!solver.solve(state, { warmStart: true, accuracy: 1e-8 }).converged) failedSolves++;
+      netIn.fill(0);
+      for (let k = 0; k < m; k++) { netIn[model.to[k]] += solver.flow[k]; netIn[model.from[k]] -= solver.flow[k]; }
+      let fraction = 1;
+      for (const i of tanks) {
+        if (tankState[i] !== TANK_NORMAL) continue;
+        const after = solver.head[i] - model.elevation[i];
+        const before = oldLevel[i];
+        const cross = (target: number): void => {
+          if ((before < target - LEVEL_EPS && after > target + LEVEL_EPS) || (before > target + LEVEL_EPS && after < target - LEVEL_EPS)) {
+            fraction = Math.min(fraction, (target - before) / (after - before));
+          }
+        };
+        cross(maxLevel[i]);
+        cross(minLevel[i]);
+        for (const k of pumpLinks) {
+          if (controlTank[k] === i) { cross(stopLevel[k]); cross(startLevel[k]); }
+          if (cutoffTank[k] === i) { cross(cutoffLevel[k]); cross(cutoffLevel[k] + LOW_CUTOFF_RELEASE_M); }
+        }
+        for (let k = 0; k < m; k++) if (floatTank[k] === i) cross(maxLevel[i] - FLOAT_VALVE_DEADBAND_M);
+      }
+      if (fraction >= 1 - 1e-9 || attempt === 3 || dt * fraction < 1e-3) break;
+      dt *= fraction;
+    }
+    // accept the step: levels, volumes
     for (const i of tanks) {
-      limitTo(maxLevel[i], i);
-      limitTo(minLevel[i], i);
-      if (tankState[i] === TANK_EMPTY) limitTo(minLevel[i] + EMPTY_TANK_HYSTERESIS_M, i);
+      const q = netIn[i] + inflow[i];
+      if (tankState[i] === TANK_NORMAL) level[i] = solver.head[i] - model.elevation[i] + (inflow[i] * dt) / model.tankArea[i];
+      else if (tankState[i] === TANK_FULL) { if (q > 0) overflow[i] += q * dt; else level[i] += (q * dt) / model.tankArea[i]; }
+      else if (q > 0) level[i] += (q * dt) / model.tankArea[i];
     }
-    for (const k of pumpLinks) {
-      if (controlTank[k] >= 0) { limitTo(stopLevel[k], controlTank[k]); limitTo(startLevel[k], controlTank[k]); }
-      if (cutoffTank[k] >= 0) { limitTo(cutoffLevel[k], cutoffTank[k]); limitTo(cutoffLevel[k] + LOW_CUTOFF_RELEASE_M, cutoffTank[k]); }
-    }
-    for (let k = 0; k < m; k++) if (floatTank[k] >= 0) limitTo(maxLevel[floatTank[k]] - FLOAT_VALVE_DEADBAND_M, floatTank[k]);
-    if (++substeps > MAX_SUBSTEPS) dt = Math.min(nextReport, duration) - t;
-    if (dt < 0) dt = 0;
-    // integrate volumes over dt with the flows held constant
     for (const i of demandNodes) {
       delivered[i] += solver.demand[i] * dt;
       const req = solver.requested[i];
       if (req > 0) unmet[i] += Math.max(req - solver.demand[i], 0) * dt;
     }
     for (const k of pumpLinks) pumped[k] += Math.max(solver.flow[k], 0) * dt;
-    for (const i of tanks) {
-      if (tankState[i] === TANK_FULL) { overflow[i] += Math.max(netIn[i] + inflow[i], 0) * dt; continue; }
-      level[i] += rate[i] * dt;
-    }
     t += dt;
-    // state transitions at t
+    // state transitions at t (levels within a millimetre of a target snap to it)
     for (const i of tanks) {
-      if (level[i] >= maxLevel[i] - LEVEL_EPS && tankState[i] !== TANK_FULL && rate[i] > 0) { level[i] = maxLevel[i]; tankState[i] = TANK_FULL; }
-      if (level[i] <= minLevel[i] + LEVEL_EPS && tankState[i] !== TANK_EMPTY) {
+      if (level[i] >= maxLevel[i] - SNAP_M && tankState[i] === TANK_NORMAL && level[i] > oldLevel[i]) { level[i] = maxLevel[i]; tankState[i] = TANK_FULL; }
+      else if (tankState[i] === TANK_FULL && level[i] < maxLevel[i] - LEVEL_EPS) tankState[i] = TANK_NORMAL;
+      if (level[i] <= minLevel[i] + SNAP_M && tankState[i] === TANK_NORMAL && level[i] < oldLevel[i]) {
         level[i] = minLevel[i]; tankState[i] = TANK_EMPTY;
         if (everEmpty[i] < 0) everEmpty[i] = t;
       }
@@ -258,20 +258,24 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
     for (const k of pumpLinks) {
       const c = controlTank[k];
       if (c >= 0) {
-        if (controlOn[k] && level[c] >= stopLevel[k] - 1e-7) controlOn[k] = 0;
-        else if (!controlOn[k] && level[c] <= startLevel[k] + 1e-7) controlOn[k] = 1;
+        if (controlOn[k] && level[c] >= stopLevel[k] - SNAP_M) controlOn[k] = 0;
+        else if (!controlOn[k] && level[c] <= startLevel[k] + SNAP_M) controlOn[k] = 1;
       }
       const w = cutoffTank[k];
       if (w >= 0) {
-        if (cutoffOk[k] && level[w] <= cutoffLevel[k] + 1e-7) cutoffOk[k] = 0;
-        else if (!cutoffOk[k] && level[w] >= cutoffLevel[k] + LOW_CUTOFF_RELEASE_M - 1e-7) cutoffOk[k] = 1;
+        if (cutoffOk[k] && level[w] <= cutoffLevel[k] + SNAP_M) cutoffOk[k] = 0;
+        else if (!cutoffOk[k] && level[w] >= cutoffLevel[k] + LOW_CUTOFF_RELEASE_M - SNAP_M) cutoffOk[k] = 1;
       }
     }
     for (let k = 0; k < m; k++) {
       const f = floatTank[k];
       if (f < 0) continue;
-      if (floatOpen[k] && level[f] >= maxLevel[f] - 1e-7) floatOpen[k] = 0;
-      else if (!floatOpen[k] && level[f] <= maxLevel[f] - FLOAT_VALVE_DEADBAND_M + 1e-7) floatOpen[k] = 1;
+      if (floatOpen[k] && level[f] >= maxLevel[f] - SNAP_M) floatOpen[k] = 0;
+      else if (!floatOpen[k] && level[f] <= maxLevel[f] - FLOAT_VALVE_DEADBAND_M + SNAP_M) floatOpen[k] = 1;
+    }
+    if (t >= nextReport - 1e-6 || t >= duration - 1e-6) {
+      record(t);
+      nextReport += options.step_s;
     }
   }
 
