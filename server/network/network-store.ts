@@ -18,18 +18,19 @@ export interface StoredNetwork {
   document: unknown;
   results: unknown;
   updatedAt: string | null;
-  updatedBy: { id: string; name: string } | null;
+  /** Name of the user who saved last. */
+  updatedBy: string | null;
 }
 
 export async function loadNetwork(db: DbOrTx, projectId: string): Promise<StoredNetwork> {
   const [row] = await db.select({
     version: networks.version, document: networks.document, results: networks.results,
-    updatedAt: networks.updatedAt, userId: users.id, userName: users.name,
+    updatedAt: networks.updatedAt, userName: users.name,
   }).from(networks).leftJoin(users, eq(users.id, networks.updatedBy)).where(eq(networks.projectId, projectId));
   if (!row) return { version: 0, document: EMPTY_DOCUMENT, results: null, updatedAt: null, updatedBy: null };
   return {
     version: row.version, document: row.document, results: row.results, updatedAt: row.updatedAt.toISOString(),
-    updatedBy: row.userId && row.userName ? { id: row.userId, name: row.userName } : null,
+    updatedBy: row.userName ?? null,
   };
 }
 
@@ -75,7 +76,7 @@ export async function saveNetwork(db: Db, request: SaveRequest): Promise<SaveRes
   if (saved === null) {
     const current = await loadNetwork(db, request.projectId);
     throw new ApiError('conflict',
-      `The network was saved by ${current.updatedBy?.name ?? 'someone else'} since you loaded version ${request.expectedVersion} (now version ${current.version}); your changes were not saved`,
+      `The network was saved by ${current.updatedBy ?? 'someone else'} since you loaded version ${request.expectedVersion} (now version ${current.version}); your changes were not saved`,
       {}, { current });
   }
   return { version: saved, results, updatedAt: now.toISOString() };

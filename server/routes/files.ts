@@ -44,16 +44,16 @@ function requireFile(file: Express.Multer.File | undefined): Express.Multer.File
   return file;
 }
 
-function fileJson(row: { id: string; kind: string; filename: string; mime: string; size: number; createdAt: Date; createdById: string | null; createdByName: string | null }) {
+function fileJson(row: { id: string; kind: string; filename: string; mime: string; size: number; createdAt: Date; createdByName: string | null }) {
   return {
     id: row.id, kind: row.kind, filename: row.filename, mime: row.mime, size: row.size, createdAt: row.createdAt.toISOString(),
-    createdBy: row.createdById && row.createdByName ? { id: row.createdById, name: row.createdByName } : null,
+    createdBy: row.createdByName ?? null,
   };
 }
 
 const listColumns = {
   id: files.id, kind: files.kind, filename: files.filename, mime: files.mime, size: files.size,
-  createdAt: files.createdAt, createdById: users.id, createdByName: users.name,
+  createdAt: files.createdAt, createdByName: users.name,
 };
 
 export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
@@ -89,7 +89,7 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
       await audit(tx, { teamId: project.teamId, user: req.user!, action: 'file.upload', target: filename, detail: { projectId: project.id, kind, size: file.size } });
       return created;
     });
-    res.status(201).json(fileJson({ ...row, createdById: req.user!.id, createdByName: req.user!.name }));
+    res.status(201).json(fileJson({ ...row, createdByName: req.user!.name }));
   });
 
   api.get('/projects/:id/files/:fileId', 'files.read', async (req, res) => {

@@ -179,7 +179,7 @@ export function teamRoutes(api: ApiRoutes, ctx: AppContext): void {
   api.get('/team/outbox', 'outbox.read', async (req, res) => {
     const rows = await db.select({ id: outbox.id, to: outbox.to, subject: outbox.subject, text: outbox.text, sentAt: outbox.sentAt })
       .from(outbox).where(eq(outbox.teamId, req.membership!.teamId)).orderBy(desc(outbox.id)).limit(200);
-    res.json(rows);
+    res.json(rows.map((m) => ({ ...m, id: String(m.id) })));
   });
 
   api.get('/team/audit', 'audit.read', async (req, res) => {
@@ -187,8 +187,14 @@ export function teamRoutes(api: ApiRoutes, ctx: AppContext): void {
       id: auditLog.id, at: auditLog.at, userEmail: auditLog.userEmail, action: auditLog.action,
       target: auditLog.target, detail: auditLog.detail,
     }).from(auditLog).where(eq(auditLog.teamId, req.membership!.teamId)).orderBy(desc(auditLog.id)).limit(200);
-    res.json(rows);
+    res.json(rows.map((e) => ({ ...e, id: String(e.id), detail: describeDetail(e.detail) })));
   });
+}
+
+/** An audit detail object as one readable line: `roles: estimator, owner; version: 3`. */
+export function describeDetail(detail: unknown): string {
+  if (!detail || typeof detail !== 'object') return '';
+  return Object.entries(detail).map(([k, v]) => `${k}: ${Array.isArray(v) ? v.join(', ') : String(v)}`).join('; ');
 }
 
 function invitationJson(row: typeof invitations.$inferSelect) {

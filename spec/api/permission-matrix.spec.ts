@@ -7,7 +7,7 @@
  */
 import { randomUUID } from 'node:crypto';
 import { expect } from 'chai';
-import type { Test } from 'supertest';
+import type { Response } from 'supertest';
 import { PERMISSION_TABLE, ROLES, type Access, type Role } from '../../server/permissions';
 import { DEMO_PASSWORD } from '../../server/seed';
 import { insertFile, insertInvitation, insertMember, insertProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
@@ -21,7 +21,7 @@ interface Case {
   access: Access;
   success: 200 | 201 | 204;
   /** Sends the request; may create the target first. `who` is the signed-in role (null: signed out). */
-  call(a: ApiAgent, t: TestApp, who: Role | null): Promise<Test> | Test;
+  call(a: ApiAgent, t: TestApp, who: Role | null): PromiseLike<Response>;
 }
 
 const p = (t: TestApp) => `/api/projects/${t.seeded!.demoProjectId}`;
