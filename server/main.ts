@@ -5,7 +5,12 @@ import { loadConfig } from './config';
 async function main(): Promise<void> {
   const config = loadConfig();
   const runnel = await createApp({ config });
-  const server = runnel.app.listen(config.port, config.host, () => {
+  const server = runnel.app.listen(config.port, config.host, (error?: Error) => {
+    if (error) {
+      console.error(`Cannot listen on ${config.host}:${config.port}: ${error.message}`);
+      void runnel.close().finally(() => process.exit(1));
+      return;
+    }
     const store = config.databaseUrl ? 'PostgreSQL (DATABASE_URL)' : `PGlite in ${config.dataDir}/pg`;
     console.log(`Runnel listening on http://${config.host}:${config.port} (data: ${store})`);
     if (runnel.mailSinkPort) console.log(`Mail is captured by the local SMTP sink on 127.0.0.1:${runnel.mailSinkPort}; admins see it under Outbox`);
