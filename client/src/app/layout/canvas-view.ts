@@ -43,16 +43,20 @@ export function drawShapes(specs: ShapeSpec[]): Konva.Shape[] {
  */
 export class CanvasView {
   readonly stage: Konva.Stage;
-  private readonly backdropLayer = new Konva.Layer({ listening: false });
-  private readonly gridLayer = new Konva.Layer({ listening: false });
-  private readonly linkLayer = new Konva.Layer({ listening: false });
-  private readonly nodeLayer = new Konva.Layer({ listening: false });
+  /** Backdrop image and grid. */
+  private readonly baseLayer = new Konva.Layer({ listening: false });
+  /** Links (under) and nodes (over), as two groups of one layer. */
+  private readonly contentLayer = new Konva.Layer({ listening: false });
+  private readonly linkLayer = new Konva.Group({ listening: false });
+  private readonly nodeLayer = new Konva.Group({ listening: false });
   private readonly overlayLayer = new Konva.Layer({ listening: false });
   private readonly dragLayer = new Konva.Layer({ listening: false });
   private readonly uiLayer = new Konva.Layer({ listening: false });
   private readonly nodes = new Map<string, NodeView>();
   private readonly links = new Map<string, LinkView>();
   private readonly headers = new Konva.Group({ listening: false });
+  private readonly backdropGroup = new Konva.Group({ listening: false });
+  private headerKey = '';
   private backdropImage: Konva.Image | null = null;
   private backdropUrl = '';
   private shownBackdrop: Backdrop | null = null;
@@ -68,9 +72,11 @@ export class CanvasView {
 
   constructor(container: HTMLDivElement, private readonly editor: Editor, private readonly backdropSrc: (fileId: string) => string) {
     this.stage = new Konva.Stage({ container, width: container.clientWidth || 800, height: container.clientHeight || 600, listening: false });
-    for (const l of [this.backdropLayer, this.gridLayer, this.linkLayer, this.nodeLayer, this.overlayLayer, this.dragLayer, this.uiLayer]) this.stage.add(l);
+    for (const l of [this.baseLayer, this.contentLayer, this.overlayLayer, this.dragLayer, this.uiLayer]) this.stage.add(l);
+    this.contentLayer.add(this.linkLayer, this.nodeLayer);
     this.linkLayer.add(this.headers);
-    this.gridLayer.add(new Konva.Shape({ listening: false, perfectDrawEnabled: false, sceneFunc: (ctx) => this.drawGrid(ctx) }));
+    this.baseLayer.add(this.backdropGroup);
+    this.baseLayer.add(new Konva.Shape({ listening: false, perfectDrawEnabled: false, sceneFunc: (ctx) => this.drawGrid(ctx) }));
     editor.resize(this.stage.width(), this.stage.height());
     this.unsubscribe = editor.subscribe((what) => this.changed(what));
   }
@@ -144,7 +150,7 @@ export class CanvasView {
       v.halo.visible(selected);
       this.place(v.group, v.overlay, n.id, dragging.has(n.id), this.nodeLayer, dirty);
     }
-    for (const [id, v] of this.nodes) if (!seen.has(id)) { v.group.destroy(); v.overlay.destroy(); this.nodes.delete(id); dirty.add(this.nodeLayer); }
+    for (const [id, v] of this.nodes) if (!seen.has(id)) { v.group.destroy(); v.overlay.destroy(); this.nodes.delete(id); dirty.add(this.contentLayer); }
 
     // Links
     const seenLinks = new Set<string>();
@@ -177,15 +183,15 @@ export class CanvasView {
       v.overlay.position(mid.point);
       this.place(v.group, v.overlay, l.id, moving, this.linkLayer, dirty);
     }
-    for (const [id, v] of this.links) if (!seenLinks.has(id)) { v.group.destroy(); v.overlay.destroy(); this.links.delete(id); dirty.add(this.linkLayer); }
+    for (const [id, v] of this.links) if (!seenLinks.has(id)) { v.group.destroy(); v.overlay.destroy(); this.links.delete(id); dirty.add(this.contentLayer); }
 
     this.selectionShown = new Set(selection);
-    if (dirty.has(this.linkLayer) || dirty.has(this.nodeLayer) || dirty.has(this.dragLayer)) this.drawHeaders(doc.nodes, dirty);
+    this.drawHeaders(doc.nodes, viewChanged, dirty);
     if (this.overlayDirty || viewChanged) this.drawOverlay(doc.nodes, doc.links);
     if (this.overlayDirty) dirty.add(this.overlayLayer);
     this.overlayDirty = false;
     if (viewChanged) {
-      dirty.add(this.gridLayer);
+      dirty.add(this.baseLayer);
       dirty.add(this.overlayLayer);
     }
     this.drawBackdrop(ed.backdrop(), viewChanged, dirty);
@@ -196,13 +202,13 @@ export class CanvasView {
   }
 
   /** Put an element's shapes on the drag layer while dragged, back on its own layer after. */
-  private place(group: Konva.Group, overlay: Konva.Group, id: string, drag: boolean, home: Konva.Layer, dirty: Set<Konva.Layer>): void {
+  private place(group: Konva.Group, overlay: Konva.Group, id: string, drag: boolean, home: Konva.Group, dirty: Set<Konva.Layer>): void {
     if (drag) {
       if (!this.lifted.has(id)) {
         group.moveTo(this.dragLayer);
         overlay.moveTo(this.dragLayer);
         this.lifted.add(id);
-        dirty.add(home);
+        dirty.add(this.contentLayer);
         dirty.add(this.overlayLayer);
       }
       dirty.add(this.dragLayer);
@@ -215,7 +221,7 @@ export class CanvasView {
       dirty.add(this.dragLayer);
       dirty.add(this.overlayLayer);
     }
-    dirty.add(home);
+    dirty.add(this.contentLayer);
   }
 
   private createNode(n: NetworkNode): NodeView {
@@ -254,10 +260,13 @@ export class CanvasView {
   }
 
   /** Tank banks: a header pipe along the tanks' bases joins tanks sharing a bank id. */
-  private drawHeaders(nodes: NetworkNode[], dirty: Set<Konva.Layer>): void {
-    this.headers.destroyChildren();
+  private drawHeaders(nodes: NetworkNode[], viewChanged: boolean, dirty: Set<Konva.Layer>): void {
     const banks = new Map<string, TankNode[]>();
     for (const n of nodes) if (n.kind === 'tank' && n.bank) banks.set(n.bank, [...(banks.get(n.bank) ?? []), n]);
+    const key = [...banks].map(([b, ts]) => b + ':' + ts.map((t) => `${t.x_m},${t.y_m}`).join(';')).join('|');
+    if (key === this.headerKey && !viewChanged) return;
+    this.headerKey = key;
+    this.headers.destroyChildren();
     for (const [bank, tanks] of banks) {
       if (tanks.length < 2) continue;
       const pts = tanks.map((t) => this.editor.viewport.toScreen({ x: t.x_m ?? 0, y: t.y_m ?? 0 })).sort((p, q) => p.x - q.x || p.y - q.y);
@@ -268,7 +277,7 @@ export class CanvasView {
       const first = pts[0];
       this.headers.add(new Konva.Text({ text: 'bank ' + bank, x: first.x - 70, y: first.y + 11, width: 50, align: 'right', fontFamily: FONT, fontSize: 10, fill: LABEL, listening: false }));
     }
-    dirty.add(this.linkLayer);
+    dirty.add(this.contentLayer);
   }
 
   private drawOverlay(nodes: NetworkNode[], links: NetworkLink[]): void {
@@ -322,7 +331,7 @@ export class CanvasView {
         this.backdropImage.destroy();
         this.backdropImage = null;
         this.backdropUrl = '';
-        dirty.add(this.backdropLayer);
+        dirty.add(this.baseLayer);
       }
       return;
     }
@@ -333,7 +342,7 @@ export class CanvasView {
       const img = new Image();
       const node = new Konva.Image({ image: undefined, listening: false });
       this.backdropImage = node;
-      this.backdropLayer.add(node);
+      this.backdropGroup.add(node);
       img.onload = () => {
         node.image(img);
         this.viewVersion++;
@@ -348,7 +357,7 @@ export class CanvasView {
     node.position(p);
     node.size({ width: b.width_px * k, height: b.height_px * k });
     node.opacity(b.opacity);
-    if (viewChanged || b !== this.shownBackdrop) dirty.add(this.backdropLayer);
+    if (viewChanged || b !== this.shownBackdrop) dirty.add(this.baseLayer);
     this.shownBackdrop = b;
   }
 

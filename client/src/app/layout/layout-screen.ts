@@ -39,6 +39,8 @@ export interface RunnelEditorHook {
   getSelection(): string[];
   lastSolveMs(): number;
   frameTimes(): number[];
+  /** Page (client) coordinates of a site point, for driving the canvas with a real mouse. */
+  worldToClient(x_m: number, y_m: number): { x: number; y: number };
 }
 
 declare global {
@@ -208,6 +210,12 @@ export class LayoutScreen {
       getSelection: () => [...ed.selection],
       lastSolveMs: () => this.solver.lastMs(),
       frameTimes: () => [...this.frameLog],
+      ...({ _ed: ed } as object),
+      worldToClient: (x_m, y_m) => {
+        const r = this.canvasRef().nativeElement.getBoundingClientRect();
+        const p = ed.viewport.toScreen({ x: x_m, y: y_m });
+        return { x: r.left + p.x, y: r.top + p.y };
+      },
     };
 
     this.destroyRef.onDestroy(() => {
@@ -267,7 +275,7 @@ export class LayoutScreen {
       return { screen, world: this.editor.viewport.toWorld(screen), button: e.button, shift: e.shiftKey, mod: e.ctrlKey || e.metaKey };
     };
     const down = (e: PointerEvent) => {
-      el.focus();
+      el.focus({ preventScroll: true });
       el.setPointerCapture(e.pointerId);
       if (e.button === 1) e.preventDefault();
       this.pointerActive = true;

@@ -6,7 +6,7 @@ import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import type { NetworkDocument, NetworkLink, NetworkNode, OutletNode, PipeLink } from '../../../../engine/network-document';
+import type { NetworkDocument, NetworkLink, NetworkNode, OutletNode } from '../../../../engine/network-document';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel, UnitSystem } from '../../../../engine/units';
 import { lengthSource } from './editor/document-store';
 import { FieldSpec, fieldsFor, isNodeKind, LINK_KINDS, NODE_KINDS, patchForPath, readPath } from './kinds';
@@ -88,7 +88,7 @@ export class PropertiesPanel {
         this.formFor = key;
         this.buildForm(el, fields, units, ro);
       } else if (el) {
-        for (const f of fields) this.form.controls[f.key]?.setValue(this.shown(el, f, units), { emitEvent: false });
+        for (const f of fields) this.form.controls[controlName(f)]?.setValue(this.shown(el, f, units), { emitEvent: false });
       }
     });
   }
@@ -98,7 +98,7 @@ export class PropertiesPanel {
   }
 
   errorText(f: FieldSpec): string {
-    const c = this.form.controls[f.key];
+    const c = this.form.controls[controlName(f)];
     if (!c?.errors) return '';
     if (c.errors['required']) return `${f.label} is required`;
     if (c.errors['number']) return 'Enter a number';
@@ -117,7 +117,7 @@ export class PropertiesPanel {
       return Number(d.toPrecision(6));
     }
     if (f.type === 'schedule') return Array.isArray(v) ? v.join(', ') : '';
-    return v ?? '';
+    return v ?? f.fallback ?? '';
   }
 
   private buildForm(el: NetworkNode | NetworkLink | null, fields: FieldSpec[], units: UnitSystem, ro: boolean): void {
@@ -131,7 +131,7 @@ export class PropertiesPanel {
           { validators: [this.validator(f, units)], updateOn: text ? 'blur' : 'change' },
         );
         c.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe((v) => this.commit(f, c, v));
-        controls[f.key] = c;
+        controls[controlName(f)] = c;
       }
     }
     this.form = new FormGroup<Record<string, FormControl<unknown>>>(controls);
@@ -176,8 +176,15 @@ export class PropertiesPanel {
   chooseSeries(seriesId: string): void {
     const el = this.element();
     if (el?.kind !== 'pipe') return;
-    const s = this.series()?.find((x) => x.id === seriesId);
-    this.patch.emit({ id: el.id, patch: { series: seriesId, material: s?.material, nominal: undefined } });
+    const s = this.series().find((x) => x.id === seriesId);
+    // Keep the nominal size when the new series has it, so switching class is one step.
+    const same = el.nominal ? catalogueSizes(seriesId, this.doc().headloss).find((z) => z.nominal === el.nominal) : undefined;
+    this.patch.emit({
+      id: el.id,
+      patch: same
+        ? { series: seriesId, material: s?.material, nominal: same.nominal, diameter_m: same.diameter_m, roughness: same.roughness, rating_m: same.rating_m }
+        : { series: seriesId, material: s?.material, nominal: undefined },
+    });
   }
 
   chooseSize(nominal: string): void {
@@ -187,7 +194,7 @@ export class PropertiesPanel {
     if (!size) return;
     this.patch.emit({
       id: el.id,
-      patch: { nominal, diameter_m: size.diameter_m, roughness: size.roughness ?? (el as PipeLink).roughness, rating_m: size.rating_m },
+      patch: { nominal, diameter_m: size.diameter_m, roughness: size.roughness, rating_m: size.rating_m },
     });
   }
 
@@ -201,8 +208,17 @@ export class PropertiesPanel {
     if (el) this.patch.emit({ id: el.id, patch: { schedule: [...values] } });
   }
 
+  control(f: FieldSpec): string {
+    return controlName(f);
+  }
+
   readonly daylight = DAYLIGHT_SCHEDULE;
   readonly alwaysOn: readonly number[] = Array.from({ length: 24 }, () => 1);
+}
+
+/** Form control name of a field (FormGroup keys may not contain dots). */
+function controlName(f: FieldSpec): string {
+  return f.key.replace(/\./g, '__');
 }
 
 function scheduleError(text: string): ValidationErrors | null {

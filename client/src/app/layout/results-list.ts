@@ -3,6 +3,7 @@ import type { NetworkDocument } from '../../../../engine/network-document';
 import type { SteadyResult } from '../../../../engine/index';
 import { formatQuantity, UnitSystem } from '../../../../engine/units';
 import { marginColour } from './editor/colour-scale';
+import { documentWarnings } from './editor/result-checks';
 
 interface Row { id: string; name: string; kind: string; value: string; colour: string | null; warnings: string[] }
 
@@ -15,6 +16,7 @@ interface Row { id: string; name: string; kind: string; value: string; colour: s
     @if (!results()) {
       <p class="empty">Results appear here as you draw.</p>
     } @else {
+      @for (m of general(); track $index) { <p class="warn" data-testid="results-general-warning">{{ m }}</p> }
       @if (!results()!.converged && rows().length) { <p class="warn">The solver did not converge; values are provisional.</p> }
       <ul data-testid="results-list">
         @for (r of rows(); track r.id) {
@@ -56,6 +58,8 @@ export class ResultsList {
   readonly selected = input<string[]>([]);
   readonly solveMs = input(0);
   readonly pick = output<string>();
+
+  readonly general = computed(() => documentWarnings(this.results()));
 
   readonly rows = computed<Row[]>(() => {
     const res = this.results();

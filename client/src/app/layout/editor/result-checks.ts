@@ -3,42 +3,38 @@ import type { SteadyResult } from '../../../../../engine/index';
 import { formatQuantity, UnitSystem } from '../../../../../engine/units';
 
 /**
- * Velocity above which a pipe is flagged, m/s. About 5 ft/s: a common trade guideline for
- * plastic water lines (limits surge and wear); not a code requirement.
- */
-export const VELOCITY_LIMIT_MS = 1.5;
-
-/**
- * Warning messages by element id for the canvas badges and the results list: the engine's own
- * warnings plus the limits the Layout screen points out (below minimum pressure, negative
- * pressure, pipe over its rating, high velocity), worded in the project's units.
+ * Warning messages by element id for the canvas badges and the results list. The engine decides
+ * what is wrong (its warning codes); this only rewords the common ones in the project's units,
+ * adding the usual caution where a fault can hurt someone. Other codes keep the engine's words.
  */
 export function resultWarnings(doc: NetworkDocument, res: SteadyResult | null, units: UnitSystem): Map<string, string[]> {
   const out = new Map<string, string[]>();
   if (!res) return out;
-  const add = (id: string, m: string) => out.set(id, [...(out.get(id) ?? []), m]);
-  for (const w of res.warnings) if (w.element) add(w.element, w.message);
-  for (const n of doc.nodes) {
-    const r = res.nodes[n.id];
-    if (!r) continue;
-    if (r.pressure_m < -0.01 && n.kind !== 'source' && n.kind !== 'tank') {
-      add(n.id, `Negative pressure (${formatQuantity('pressure', r.pressure_m, units)}): the line may draw air or not fill`);
-    } else if (n.kind === 'outlet' && n.min_pressure_m !== undefined && r.pressure_m < n.min_pressure_m) {
-      add(n.id, `Below minimum: ${formatQuantity('pressure', r.pressure_m, units)} < ${formatQuantity('pressure', n.min_pressure_m, units)}`);
+  const nodes = new Map(doc.nodes.map((n) => [n.id, n]));
+  const links = new Map(doc.links.map((l) => [l.id, l]));
+  const p = (m: number) => formatQuantity('pressure', m, units);
+  for (const w of res.warnings) {
+    if (!w.element) continue;
+    const nr = res.nodes[w.element];
+    const lr = res.links[w.element];
+    const node = nodes.get(w.element);
+    const link = links.get(w.element);
+    let text = w.message;
+    if (w.code === 'below-minimum' && nr && node?.kind === 'outlet' && node.min_pressure_m !== undefined) {
+      text = `Below minimum pressure: ${p(nr.pressure_m)} < ${p(node.min_pressure_m)}`;
+    } else if (w.code === 'negative-pressure' && nr) {
+      text = `Negative pressure (${p(nr.pressure_m)}): the line may draw air, siphon or not fill`;
+    } else if (w.code === 'velocity-high' && lr) {
+      text = `High velocity ${formatQuantity('velocity', Math.abs(lr.velocity_ms), units)}: surge and wear risk`;
+    } else if (w.code === 'over-rating' && link?.kind === 'pipe' && link.rating_m !== undefined) {
+      text = `Over the pipe's pressure rating (${p(link.rating_m)}): risk of bursting — use a higher class and follow local codes`;
     }
-  }
-  for (const l of doc.links) {
-    const r = res.links[l.id];
-    if (!r || l.kind !== 'pipe') continue;
-    if (Math.abs(r.velocity_ms) > VELOCITY_LIMIT_MS) {
-      add(l.id, `Velocity ${formatQuantity('velocity', Math.abs(r.velocity_ms), units)} is above ${formatQuantity('velocity', VELOCITY_LIMIT_MS, units)}`);
-    }
-    if (l.rating_m !== undefined) {
-      const p = Math.max(res.nodes[l.from]?.pressure_m ?? -Infinity, res.nodes[l.to]?.pressure_m ?? -Infinity);
-      if (p > l.rating_m) {
-        add(l.id, `Pressure ${formatQuantity('pressure', p, units)} exceeds the pipe rating ${formatQuantity('pressure', l.rating_m, units)}: risk of bursting — use a higher class and follow local codes`);
-      }
-    }
+    out.set(w.element, [...(out.get(w.element) ?? []), text]);
   }
   return out;
+}
+
+/** Warnings about the whole document (not converged, no fixed head…). */
+export function documentWarnings(res: SteadyResult | null): string[] {
+  return res ? res.warnings.filter((w) => !w.element).map((w) => w.message) : [];
 }

@@ -21,6 +21,8 @@ export interface FieldSpec {
   /** Plain-number unit label (e.g. "K"). */
   suffix?: string;
   options?: { value: string; label: string }[];
+  /** Shown for a select when the record lacks the field (the engine's default). */
+  fallback?: string;
   /** Bounds in SI. */
   min?: number;
   max?: number;

@@ -56,11 +56,11 @@ export const outletKind: NodeKindDef<OutletNode> = {
   fields: [
     nameField,
     elevationField,
-    { key: 'outlet_type', label: 'Outlet type', type: 'select', options: OUTLET_TYPES, testid: 'prop-outlet-type' },
+    { key: 'outlet_type', label: 'Outlet type', type: 'select', options: OUTLET_TYPES, fallback: 'other', testid: 'prop-outlet-type' },
     { key: 'demand_m3s', label: 'Design flow', type: 'number', quantity: 'flow', required: true, min: 0, max: 1, testid: 'prop-demand' },
     { key: 'min_pressure_m', label: 'Minimum pressure', type: 'number', quantity: 'pressure', min: 0, max: 200, testid: 'prop-min-pressure' },
     {
-      key: 'demand_model.type', label: 'Demand model', type: 'select', testid: 'prop-demand-model',
+      key: 'demand_model.type', label: 'Demand model', type: 'select', testid: 'prop-demand-model', fallback: 'fixed',
       options: [
         { value: 'fixed', label: 'Fixed flow' },
         { value: 'pressure-dependent', label: 'Falls off with pressure' },

@@ -1,5 +1,9 @@
 import type { PipeLink } from '../../../../../engine/network-document';
+import { catalogueFields } from '../pipe-catalogue';
 import { INK, LinkKindDef, nameField, notesField } from './kind-types';
+
+/** A new pipe starts as 1" PE SIDR 9 (a common farm-line choice; trade practice), changed in the panel. */
+export const DEFAULT_PIPE = { series: 'pe-sidr9', nominal: '1"' };
 
 /** Pipe: a plain polyline; no mid symbol (flow arrows come from the results overlay). */
 export const pipeKind: LinkKindDef<PipeLink> = {
@@ -7,7 +11,8 @@ export const pipeKind: LinkKindDef<PipeLink> = {
   label: 'Pipe',
   prefix: 'P',
   create: (id, from, to, vertices) => ({
-    id, kind: 'pipe', name: id, from, to, vertices, length_m: 1, diameter_m: 0.0266, roughness: 150, minor_loss: 0,
+    id, kind: 'pipe', name: id, from, to, vertices, length_m: 1, diameter_m: 0.0266, roughness: 140, minor_loss: 0,
+    ...catalogueFields(DEFAULT_PIPE.series, DEFAULT_PIPE.nominal, 'hazen-williams'),
   }),
   stroke: { colour: INK, widthPx: 2.5 },
   midSymbol: () => [],
