@@ -43,7 +43,7 @@ export const STATUS_ACTIVE = 3;
 export const STATUS_NAMES = ['open', 'closed', 'check-closed', 'active'] as const;
 
 /** Smallest headloss gradient dh/dQ used, m per m³/s (keeps 1/g finite at zero flow). */
-export const GRADIENT_FLOOR = 1e-6;
+export const GRADIENT_FLOOR = 1e-2;
 /** Barrier slope for virtual demand links outside [0, full demand], m per m³/s. */
 export const DEMAND_BARRIER_SLOPE = 1e11;
 /** Regularisation of the pressure-driven law near zero flow (fraction of full demand). */
