@@ -15,7 +15,6 @@ const ICONS: Record<string, string> = {
   add: `<path d="M12 5v14M5 12h14"/>`,
   more: `<circle cx="12" cy="5.5" r="1.2"/><circle cx="12" cy="12" r="1.2"/><circle cx="12" cy="18.5" r="1.2"/>`,
   'sign-out': `<path d="M10 4H5v16h5"/><path d="M14 8l4 4-4 4M18 12H9"/>`,
-  account: `<circle cx="12" cy="12" r="9"/><circle cx="12" cy="10" r="3"/><path d="M6.5 18.2c1.4-2 3.3-3 5.5-3s4.1 1 5.5 3"/>`,
   team: `<circle cx="9" cy="8.5" r="3"/><path d="M3.5 19c.8-3 2.8-4.5 5.5-4.5s4.7 1.5 5.5 4.5"/><circle cx="16.5" cy="9.5" r="2.5"/><path d="M16 14.5c2.3 0 3.8 1.3 4.5 4"/>`,
   mail: `<rect x="3" y="5.5" width="18" height="13" rx="2"/><path d="M3.5 7l8.5 6.5L20.5 7"/>`,
   projects: `<path d="M3 7a2 2 0 0 1 2-2h4l2 2h8a2 2 0 0 1 2 2v8a2 2 0 0 1-2 2H5a2 2 0 0 1-2-2z"/>`,
@@ -25,11 +24,9 @@ const ICONS: Record<string, string> = {
   unarchive: `<rect x="3" y="4" width="18" height="4" rx="1"/><path d="M5 8v11h14V8M12 17v-6M9.5 13.5L12 11l2.5 2.5"/>`,
   delete: `<path d="M4 7h16M9 7V4h6v3M6 7l1 13h10l1-13M10 11v6M14 11v6"/>`,
   search: `<circle cx="10.5" cy="10.5" r="6"/><path d="M15 15l5 5"/>`,
-  swap: `<path d="M7 4L3 8l4 4M3 8h14M17 12l4 4-4 4M21 16H7"/>`,
-  close: `<path d="M6 6l12 12M18 6L6 18"/>`,
+  expand: `<path d="M6 9l6 6 6-6"/>`,
   back: `<path d="M19 12H5M11 6l-6 6 6 6"/>`,
   check: `<path d="M5 12.5l4.5 4.5L19 7"/>`,
-  link: `<path d="M10 14a4 4 0 0 0 5.7 0l3-3a4 4 0 0 0-5.7-5.7l-1 1"/><path d="M14 10a4 4 0 0 0-5.7 0l-3 3a4 4 0 0 0 5.7 5.7l1-1"/>`,
 };
 
 /** Registers the `rn:` icon namespace at start-up. */
