@@ -45,7 +45,7 @@ export const STATUS_NAMES = ['open', 'closed', 'check-closed', 'active'] as cons
 /** Smallest headloss gradient dh/dQ used, m per m³/s (keeps 1/g finite at zero flow). */
 export const GRADIENT_FLOOR = 1e-2;
 /** Barrier slope for virtual demand links outside [0, full demand], m per m³/s. */
-export const DEMAND_BARRIER_SLOPE = 1e11;
+export const DEMAND_BARRIER_SLOPE = 1e14;
 /** Regularisation of the pressure-driven law near zero flow (fraction of full demand). */
 const VIRTUAL_FLOW_FLOOR = 1e-3;
 /** Diagonal weight that pins the downstream node of an active pressure-reducing valve. */
@@ -79,6 +79,8 @@ export interface SolverState {
    * Euler) time step from the head fixedHead, so the solved head is the head at the end of the step.
    */
   tankStorage: Float64Array;
+  /** Steady inflow from outside the network into each tank during a storage step, m³/s. */
+  tankInflow: Float64Array;
 }
 
 export interface SolveOptions {
@@ -199,6 +201,7 @@ export class GradientSolver {
       pumpFactor: new Float64Array(model.linkCount).fill(1),
       pressureDriven: false,
       tankStorage: new Float64Array(model.nodeCount),
+      tankInflow: new Float64Array(model.nodeCount),
     };
     model.doc.nodes.forEach((node, i) => { if (node.kind === 'tank') state.fixedHead[i] = node.elevation_m + node.level_m; });
     return state;
@@ -423,7 +426,7 @@ export class GradientSolver {
           const c = state.tankStorage[i];
           const w = c > 0 ? c : PIN_WEIGHT;
           values[pd] += w;
-          rhs[u] += w * state.fixedHead[i];
+          rhs[u] += w * state.fixedHead[i] + (c > 0 ? state.tankInflow[i] : 0);
           continue;
         }
         if (!active[i]) { values[pd] = 1; rhs[u] = model.elevation[i]; continue; }

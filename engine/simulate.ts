@@ -61,8 +61,8 @@ export const EMPTY_TANK_HYSTERESIS_M = 0.01;
 export const FLOAT_VALVE_DEADBAND_M = 0.02;
 /** Low-water cut-offs release this far above their level, m. */
 export const LOW_CUTOFF_RELEASE_M = 0.1;
-/** Levels this close to an event level count as having reached it, m. */
-const SNAP_M = 1e-4;
+/** Levels this close to an event level count as having reached it, m (steps are cut at events). */
+const SNAP_M = 1e-7;
 const LEVEL_EPS = 1e-9;
 
 const TANK_NORMAL = 0;
@@ -158,6 +158,7 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
     for (const i of tanks) {
       const pinned = dt <= 0 || tankState[i] !== TANK_NORMAL;
       state.tankStorage[i] = pinned ? 0 : model.tankArea[i] / dt;
+      state.tankInflow[i] = inflow[i];
       state.fixedHead[i] = model.elevation[i] + level[i];
     }
     for (let i = 0; i < n; i++) if (model.nodeKind[i] === NODE_JUNCTION) state.demandFactor[i] = patternFactor(model, model.nodePattern[i], t);
@@ -233,7 +234,7 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
     // accept the step: levels, volumes
     for (const i of tanks) {
       const q = netIn[i] + inflow[i];
-      if (tankState[i] === TANK_NORMAL) level[i] = solver.head[i] - model.elevation[i] + (inflow[i] * dt) / model.tankArea[i];
+      if (tankState[i] === TANK_NORMAL) level[i] = solver.head[i] - model.elevation[i];
       else if (tankState[i] === TANK_FULL) { if (q > 0) overflow[i] += q * dt; else level[i] += (q * dt) / model.tankArea[i]; }
       else if (q > 0) level[i] += (q * dt) / model.tankArea[i];
     }
