@@ -57,6 +57,8 @@ export class CanvasView {
   private readonly headers = new Konva.Group({ listening: false });
   private readonly backdropGroup = new Konva.Group({ listening: false });
   private headerKey = '';
+  /** What each element's overlay shows now, to skip unchanged ones. */
+  private readonly overlayKeys = new Map<string, string>();
   private backdropImage: Konva.Image | null = null;
   private backdropUrl = '';
   private shownBackdrop: Backdrop | null = null;
@@ -150,7 +152,7 @@ export class CanvasView {
       v.halo.visible(selected);
       this.place(v.group, v.overlay, n.id, dragging.has(n.id), this.nodeLayer, dirty);
     }
-    for (const [id, v] of this.nodes) if (!seen.has(id)) { v.group.destroy(); v.overlay.destroy(); this.nodes.delete(id); dirty.add(this.contentLayer); }
+    for (const [id, v] of this.nodes) if (!seen.has(id)) { v.group.destroy(); v.overlay.destroy(); this.nodes.delete(id); this.overlayKeys.delete(id); dirty.add(this.contentLayer); }
 
     // Links
     const seenLinks = new Set<string>();
@@ -183,12 +185,11 @@ export class CanvasView {
       v.overlay.position(mid.point);
       this.place(v.group, v.overlay, l.id, moving, this.linkLayer, dirty);
     }
-    for (const [id, v] of this.links) if (!seenLinks.has(id)) { v.group.destroy(); v.overlay.destroy(); this.links.delete(id); dirty.add(this.contentLayer); }
+    for (const [id, v] of this.links) if (!seenLinks.has(id)) { v.group.destroy(); v.overlay.destroy(); this.links.delete(id); this.overlayKeys.delete(id); dirty.add(this.contentLayer); }
 
     this.selectionShown = new Set(selection);
     this.drawHeaders(doc.nodes, viewChanged, dirty);
-    if (this.overlayDirty || viewChanged) this.drawOverlay(doc.nodes, doc.links);
-    if (this.overlayDirty) dirty.add(this.overlayLayer);
+    if (this.overlayDirty && this.drawOverlay(doc.nodes, doc.links)) dirty.add(this.overlayLayer);
     this.overlayDirty = false;
     if (viewChanged) {
       dirty.add(this.baseLayer);
@@ -280,33 +281,48 @@ export class CanvasView {
     dirty.add(this.contentLayer);
   }
 
-  private drawOverlay(nodes: NetworkNode[], links: NetworkLink[]): void {
+  /** Refresh result labels, arrows and badges; returns whether any element's overlay changed. */
+  private drawOverlay(nodes: NetworkNode[], links: NetworkLink[]): boolean {
     const { results, units, warnings, show } = this.overlay;
+    let changed = false;
     for (const n of nodes) {
       const v = this.nodes.get(n.id);
       if (!v) continue;
-      v.overlay.destroyChildren();
       const r = results?.nodes[n.id];
-      if (show && r && (n.kind === 'outlet' || n.kind === 'tee')) {
-        const min = n.kind === 'outlet' ? (n.min_pressure_m ?? 0) : 0;
-        const colour = marginColour(r.pressure_m - min);
+      const w = warnings.get(n.id);
+      const hasPressure = show && r && (n.kind === 'outlet' || n.kind === 'tee');
+      const min = n.kind === 'outlet' ? (n.min_pressure_m ?? 0) : 0;
+      const text = hasPressure ? formatQuantity('pressure', r.pressure_m, units) : '';
+      const colour = hasPressure ? marginColour(r.pressure_m - min) : '';
+      // Rebuild only what changed: most solves move few labels.
+      const key = `${text}|${colour}|${show && !!w?.length}`;
+      if (this.overlayKeys.get(n.id) === key) continue;
+      this.overlayKeys.set(n.id, key);
+      changed ||= !this.lifted.has(n.id);
+      v.overlay.destroyChildren();
+      if (hasPressure) {
         v.overlay.add(new Konva.Circle({ radius: 17, stroke: colour, strokeWidth: 5, listening: false, perfectDrawEnabled: false }));
-        const text = formatQuantity('pressure', r.pressure_m, units);
         v.overlay.add(new Konva.Label({ x: 19, y: -22, listening: false }).add(
           new Konva.Tag({ fill: '#ffffff', stroke: colour, strokeWidth: 1.5, cornerRadius: 3, listening: false }),
           new Konva.Text({ text, padding: 3, fontFamily: FONT, fontSize: 11, fontStyle: 'bold', fill: LABEL, listening: false }),
         ));
       }
-      const w = warnings.get(n.id);
       if (show && w?.length) v.overlay.add(...badge(-15, -17));
     }
     for (const l of links) {
       const v = this.links.get(l.id);
       if (!v) continue;
-      v.overlay.destroyChildren();
       const r = results?.links[l.id];
-      if (show && r && Math.abs(r.flow_m3s) > 1e-9) {
-        const angle = v.mid.rotation() + (r.flow_m3s < 0 ? 180 : 0);
+      const w = warnings.get(l.id);
+      const flows = show && r && Math.abs(r.flow_m3s) > 1e-9;
+      const angle = flows ? v.mid.rotation() + (r.flow_m3s < 0 ? 180 : 0) : 0;
+      const speed = flows && l.kind === 'pipe' ? formatQuantity('velocity', Math.abs(r.velocity_ms), units) : '';
+      const key = `${flows}|${angle.toFixed(1)}|${speed}|${show && !!w?.length}`;
+      if (this.overlayKeys.get(l.id) === key) continue;
+      this.overlayKeys.set(l.id, key);
+      changed ||= !this.lifted.has(l.id);
+      v.overlay.destroyChildren();
+      if (flows) {
         const offset = l.kind === 'pipe' ? 0 : 18;
         const rad = (angle * Math.PI) / 180;
         const arrow = new Konva.Line({
@@ -314,15 +330,11 @@ export class CanvasView {
           x: Math.cos(rad) * offset, y: Math.sin(rad) * offset, rotation: angle,
         });
         v.overlay.add(arrow);
-        if (l.kind === 'pipe') {
-          v.overlay.add(new Konva.Text({
-            text: formatQuantity('velocity', Math.abs(r.velocity_ms), units), x: 8, y: 6, fontFamily: FONT, fontSize: 10, fill: SELECT, listening: false,
-          }));
-        }
+        if (speed) v.overlay.add(new Konva.Text({ text: speed, x: 8, y: 6, fontFamily: FONT, fontSize: 10, fill: SELECT, listening: false }));
       }
-      const w = warnings.get(l.id);
       if (show && w?.length) v.overlay.add(...badge(10, -20));
     }
+    return changed;
   }
 
   private drawBackdrop(b: Backdrop | null, viewChanged: boolean, dirty: Set<Konva.Layer>): void {

@@ -164,11 +164,9 @@ export class LayoutScreen {
     const off = ed.subscribe((what) => {
       if (what === 'document') {
         const d = ed.store.doc;
-        this.doc.set(d);
-        this.canUndo.set(ed.store.canUndo());
-        this.canRedo.set(ed.store.canRedo());
         this.solver.request(d);
-        this.noteEdit();
+        // During a drag only the canvas follows every frame; panels catch up when it ends.
+        if (!ed.store.inGesture) this.publishDocument();
       } else if (what === 'selection') this.selection.set([...ed.selection]);
       else if (what === 'tool') {
         const t = ed.activeTool;
@@ -229,6 +227,16 @@ export class LayoutScreen {
     });
   }
 
+  /** Hand the committed document to the panels and autosave. */
+  private publishDocument(): void {
+    const store = this.editor.store;
+    if (store.inGesture) return;
+    this.doc.set(store.doc);
+    this.canUndo.set(store.canUndo());
+    this.canRedo.set(store.canRedo());
+    this.noteEdit();
+  }
+
   /** Tell autosave about committed edits only: a drag saves once, when it ends. */
   private noteEdit(): void {
     const store = this.editor.store;
@@ -287,7 +295,7 @@ export class LayoutScreen {
       this.pointerActive = false;
       if (el.hasPointerCapture(e.pointerId)) el.releasePointerCapture(e.pointerId);
       this.editor.pointerUp(toInput(e));
-      this.noteEdit();
+      this.publishDocument();
     };
     const wheel = (e: WheelEvent) => {
       e.preventDefault();
