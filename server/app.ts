@@ -80,6 +80,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
 
   const app = express();
   app.disable('x-powered-by');
+  if (config.trustProxy !== undefined) app.set('trust proxy', config.trustProxy);
   app.use(helmet({
     contentSecurityPolicy: {
       directives: {

@@ -20,6 +20,8 @@ const envSchema = z.object({
   MAIL_FROM: z.string().default('Runnel <no-reply@runnel.test>'),
   PUBLIC_URL: z.url().optional(),
   COOKIE_SECURE: z.enum(['true', 'false']).optional(),
+  /** Express 'trust proxy': true, a hop count or addresses; set it behind a TLS-terminating proxy. */
+  TRUST_PROXY: z.string().optional(),
 });
 
 export interface SmtpConfig { host: string; port: number; user?: string; pass?: string }
@@ -38,6 +40,8 @@ export interface Config {
   /** Base of links in e-mails (no trailing slash). */
   publicUrl: string;
   cookieSecure: boolean;
+  /** Express 'trust proxy' setting (absent: do not trust X-Forwarded-*). */
+  trustProxy?: boolean | number | string;
 }
 
 /** Reads the session secret from the data dir, creating it on first start. */
@@ -71,5 +75,12 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     mailFrom: e.MAIL_FROM,
     publicUrl: (e.PUBLIC_URL ?? `http://localhost:${e.PORT}`).replace(/\/+$/, ''),
     cookieSecure: e.COOKIE_SECURE ? e.COOKIE_SECURE === 'true' : production,
+    trustProxy: parseTrustProxy(e.TRUST_PROXY),
   };
+}
+
+function parseTrustProxy(value: string | undefined): boolean | number | string | undefined {
+  if (value === undefined || value === '') return undefined;
+  if (value === 'true' || value === 'false') return value === 'true';
+  return /^\d+$/.test(value) ? Number(value) : value;
 }

@@ -1,6 +1,7 @@
 /** /api/projects: the current team's projects. Another team's project is 404, never 403. */
 import type { Request } from 'express';
 import { and, asc, eq } from 'drizzle-orm';
+import { createInsertSchema, createUpdateSchema } from 'drizzle-zod';
 import { z } from 'zod';
 import { projects } from '../../drizzle/schema';
 import type { ApiRoutes } from '../api-routes';
@@ -11,20 +12,15 @@ import { ApiError, parseBody } from '../errors';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
-const units = z.enum(['us', 'si']);
-const createBody = z.object({
-  name: z.string().trim().min(1, 'is required').max(200),
-  siteName: z.string().trim().max(200).optional(),
-  notes: z.string().max(20000).optional(),
-  units: units.optional(),
-});
-const updateBody = z.object({
-  name: z.string().trim().min(1, 'is required').max(200).optional(),
-  siteName: z.string().trim().max(200).optional(),
-  notes: z.string().max(20000).optional(),
-  units: units.optional(),
-  archived: z.boolean().optional(),
-});
+/** Request bodies derived from the table (drizzle-zod), with the limits the API adds. */
+const columnRules = {
+  name: (s: z.ZodString) => s.trim().min(1, 'is required').max(200),
+  siteName: (s: z.ZodString) => s.trim().max(200),
+  notes: (s: z.ZodString) => s.max(20000),
+};
+const editable = { name: true, siteName: true, notes: true, units: true } as const;
+const createBody = createInsertSchema(projects, columnRules).pick(editable);
+const updateBody = createUpdateSchema(projects, columnRules).pick({ ...editable, archived: true });
 const listQuery = z.object({ archived: z.enum(['true', 'false']).optional() });
 
 export type ProjectRow = typeof projects.$inferSelect;

@@ -78,6 +78,21 @@ describe('API: auth, CSRF, errors', () => {
     expect(bad.body.error.code).to.equal('csrf');
   });
 
+  it('CSRF: PUT, PATCH and DELETE without the token are refused too, and change nothing', async () => {
+    const a = await t.signInAs('designer');
+    const project = `/api/projects/${t.seeded!.demoProjectId}`;
+    for (const res of [
+      await a.agent.patch(project).send({ name: 'Renamed' }),
+      await a.agent.put(`${project}/network`).send({ version: 1, document: {} }),
+      await a.agent.delete(project),
+    ]) {
+      expect(res.status).to.equal(403);
+      expect(res.body.error.code).to.equal('csrf');
+    }
+    const still = await a.get(project).expect(200);
+    expect(still.body.name).to.equal('Hillside smallholding');
+  });
+
   it('CSRF: a token from another session is refused', async () => {
     const a = await t.signInAs('designer');
     const b = await t.signInAs('admin');
