@@ -10,7 +10,8 @@ import type { Warning } from './warnings';
  * the network with pumps stopped and demands and tank inflows off, from their document levels,
  * until the spread of their water surfaces is within tolerance_m. The level ODE
  * A_i·dh_i/dt = Σ flows into tank i is integrated by the classical fourth-order Runge-Kutta method
- * with a step of 2 % of the current spread's time scale, each right-hand side a steady solve
+ * with a step of 2 % of the current spread's time scale (the last step bisected to land on the
+ * tolerance), each right-hand side a steady solve
  * (./gradient-solver). For two tanks joined by an orifice (Q = K·√Δh) the closed form is
  * T = 2·(√H − √tol)/(K·(1/A1 + 1/A2)) (fluid-mechanics texts; REFERENCES.md, V).
  *
@@ -102,17 +103,25 @@ export function equalisationTime(doc: unknown, options: EqualiseOptions): Equali
       for (const i of tanks) tmp[i] = Math.max(from[i] + h * k[i], minLevel[i]);
       return tmp;
     };
-    rates(stage(level, k1, dt / 2), k2);
-    rates(stage(level, k2, dt / 2), k3);
-    rates(stage(level, k3, dt), k4);
-    for (const i of tanks) next[i] = Math.max(level[i] + (dt / 6) * (k1[i] + 2 * k2[i] + 2 * k3[i] + k4[i]), minLevel[i]);
-    const s2 = spread(next);
+    const rk4 = (h: number): number => {
+      rates(stage(level, k1, h / 2), k2);
+      rates(stage(level, k2, h / 2), k3);
+      rates(stage(level, k3, h), k4);
+      for (const i of tanks) next[i] = Math.max(level[i] + (h / 6) * (k1[i] + 2 * k2[i] + 2 * k3[i] + k4[i]), minLevel[i]);
+      return spread(next);
+    };
+    const s2 = rk4(dt);
     if (s2 <= tol) {
-      // spread ∝ (a − b·t)^2 near the end for a square-root law: interpolate √spread linearly
-      const f = (Math.sqrt(s) - Math.sqrt(tol)) / (Math.sqrt(s) - Math.sqrt(s2));
-      dt *= Math.min(Math.max(f, 0), 1);
-      for (const i of tanks) level[i] = level[i] + (next[i] - level[i]) * Math.min(Math.max(f, 0), 1);
-      return { time_s: t + dt, levels_m: levelsOf(level), equalises: true, warnings };
+      // bisect the last step so the spread lands on the tolerance
+      let lo = 0;
+      let hi = dt;
+      for (let b = 0; b < 40 && hi - lo > 1e-9 * Math.max(1, t); b++) {
+        const mid = (lo + hi) / 2;
+        if (rk4(mid) > tol) lo = mid; else hi = mid;
+      }
+      rk4(hi);
+      level.set(next);
+      return { time_s: t + hi, levels_m: levelsOf(level), equalises: true, warnings };
     }
     if (s2 >= s) return { ...fail('the level spread stopped falling (a tank is empty or the bank is held apart)'), time_s: t, levels_m: levelsOf(level) };
     level.set(next);

@@ -48,6 +48,8 @@ export const GRADIENT_FLOOR = 1e-2;
 export const DEMAND_BARRIER_SLOPE = 1e14;
 /** Regularisation of the pressure-driven law near zero flow (fraction of full demand). */
 const VIRTUAL_FLOW_FLOOR = 1e-3;
+/** Metres of residual per m³/s of flow error on a virtual demand link (1e-12 m³/s ↔ 1e-6 m). */
+const VIRTUAL_RESIDUAL_SCALE = 1e6;
 /** Diagonal weight that pins the downstream node of an active pressure-reducing valve. */
 const PIN_WEIGHT = 1e10;
 /** Head tolerance of status checks, m. */
@@ -508,7 +510,7 @@ export class GradientSolver {
     return { converged: converged && !singular, iterations, singular };
   }
 
-  /** Largest |h(Q) − (H_from − H_to)| over open links and virtual demand links, m. */
+  /** Largest |h(Q) − (H_from − H_to)| over open links (m), and flow residuals of virtual demand links (scaled). */
   private energyResidual(state: SolverState): number {
     const model = this.model;
     const { status, flow, head, active, p } = this;
@@ -523,7 +525,8 @@ export class GradientSolver {
       const full = this.virtualFull[i];
       if (!(full > 0) || !active[i]) continue;
       this.virtualLaw(i, this.virtualFlow[i], full, state);
-      const r = Math.abs(this.scratch[0] - (head[i] - model.elevation[i] - this.zeroPressure(i, state)));
+      // measured in flow (|Δh|/g) and scaled to metres: the barriers are too steep for a head test
+      const r = (Math.abs(this.scratch[0] - (head[i] - model.elevation[i] - this.zeroPressure(i, state))) / this.scratch[1]) * VIRTUAL_RESIDUAL_SCALE;
       if (r > worst) worst = r;
     }
     return worst;
