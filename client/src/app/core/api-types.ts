@@ -46,7 +46,15 @@ export interface InvitationPreview { teamName: string; email: string; roles: Rol
 
 export interface OutboxMail { id: string; to: string; subject: string; text: string; sentAt: string }
 
-export interface AuditEntry { id: string; at: string; userEmail: string; action: string; target: string; detail: string }
+/** `detail` is free-form: the server records a small object (e.g. `{ roles: [...] }`) or a sentence. */
+export interface AuditEntry {
+  id: string | number;
+  at: string;
+  userEmail: string;
+  action: string;
+  target: string;
+  detail: string | Record<string, unknown> | null;
+}
 
 export interface SignUpRequest { email: string; name: string; password: string; teamName: string }
 

@@ -3,6 +3,7 @@ import { Component, inject } from '@angular/core';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
+import { AuditEntry } from '../../core/api-types';
 import { AuditService } from '../../core/audit.service';
 
 /** Admin: the latest 200 things people did in the team. */
@@ -34,7 +35,7 @@ import { AuditService } from '../../core/audit.service';
           </ng-container>
           <ng-container matColumnDef="detail">
             <th mat-header-cell *matHeaderCellDef>Detail</th>
-            <td mat-cell *matCellDef="let e" class="rn-detail">{{ e.detail }}</td>
+            <td mat-cell *matCellDef="let e" class="rn-detail">{{ describe(e.detail) }}</td>
           </ng-container>
           <tr mat-header-row *matHeaderRowDef="columns"></tr>
           <tr mat-row *matRowDef="let e; columns: columns"></tr>
@@ -47,6 +48,7 @@ import { AuditService } from '../../core/audit.service';
     .rn-audit-card { border: 1px solid var(--mat-sys-outline-variant); border-radius: 12px; overflow-x: auto; }
     table { width: 100%; }
     code { font-size: 13px; }
+    .mat-column-at { white-space: nowrap; }
     .rn-detail { color: var(--mat-sys-on-surface-variant); max-width: 360px; overflow-wrap: anywhere; }
     .rn-empty { padding: 24px 16px; color: var(--mat-sys-on-surface-variant); }
   `,
@@ -55,4 +57,13 @@ export class AuditScreen {
   private readonly audit = inject(AuditService);
   protected readonly columns = ['at', 'userEmail', 'action', 'target', 'detail'];
   protected readonly entries = rxResource({ stream: () => this.audit.entries() });
+
+  /** `{ roles: ['reviewer', 'owner'] }` → "roles: reviewer, owner". */
+  protected describe(detail: AuditEntry['detail']): string {
+    if (detail === null || detail === undefined) return '';
+    if (typeof detail !== 'object') return String(detail);
+    return Object.entries(detail)
+      .map(([key, value]) => `${key}: ${Array.isArray(value) ? value.join(', ') : typeof value === 'object' ? JSON.stringify(value) : String(value)}`)
+      .join('; ');
+  }
 }

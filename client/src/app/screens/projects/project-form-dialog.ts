@@ -7,7 +7,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatRadioModule } from '@angular/material/radio';
 import { Observable } from 'rxjs';
-import { Project, UNIT_SYSTEM_LABELS, UnitSystem } from '../../core/api-types';
+import { Project, ProjectPatch, UNIT_SYSTEM_LABELS, UnitSystem } from '../../core/api-types';
 import { ProjectsService } from '../../core/projects.service';
 
 export interface ProjectFormData {
@@ -44,9 +44,25 @@ export class ProjectFormDialog {
     }
     const value = this.form.getRawValue();
     const body = { ...value, name: value.name.trim(), siteName: value.siteName.trim(), notes: value.notes.trim() };
-    const request: Observable<Project> = this.data.project
-      ? this.projects.update(this.data.project.id, body)
-      : this.projects.create(body);
+    const original = this.data.project;
+    if (original) {
+      // Send only what changed, so the audit log and other readers see the real edit.
+      const patch: ProjectPatch = {};
+      if (body.name !== original.name) patch.name = body.name;
+      if (body.siteName !== original.siteName) patch.siteName = body.siteName;
+      if (body.notes !== original.notes) patch.notes = body.notes;
+      if (body.units !== original.units) patch.units = body.units;
+      if (Object.keys(patch).length === 0) {
+        this.dialogRef.close(original);
+        return;
+      }
+      this.send(this.projects.update(original.id, patch));
+    } else {
+      this.send(this.projects.create(body));
+    }
+  }
+
+  private send(request: Observable<Project>): void {
     this.busy.set(true);
     request.subscribe({
       next: (project) => this.dialogRef.close(project),
