@@ -57,6 +57,13 @@ export const sessions = pgTable('sessions', {
   expires: timestamp('expires', { withTimezone: true }).notNull(),
 }, (t) => [index('sessions_expires_idx').on(t.expires)]);
 
+/** Sign-in attempt counters (server/auth/rate-limit-store.ts), shared by every server instance. */
+export const rateLimits = pgTable('rate_limits', {
+  key: text('key').primaryKey(),
+  hits: integer('hits').notNull(),
+  resetAt: timestamp('reset_at', { withTimezone: true }).notNull(),
+});
+
 export const invitations = pgTable('invitations', {
   id: uuid('id').primaryKey().defaultRandom(),
   teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),

@@ -9,6 +9,7 @@ import type { ApiRoutes } from '../api-routes';
 import { audit } from '../audit';
 import { loadMe, teamsOf } from '../auth/me';
 import { normaliseEmail } from '../auth/passport';
+import { DrizzleRateLimitStore } from '../auth/rate-limit-store';
 import { hashPassword } from '../auth/passwords';
 import type { AppContext } from '../context';
 import { ApiError, parseBody } from '../errors';
@@ -40,6 +41,7 @@ export function authRoutes(api: ApiRoutes, ctx: AppContext, auth: passport.Authe
     skipSuccessfulRequests: true,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
+    store: new DrizzleRateLimitStore(db),
     keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${normaliseEmail(String(req.body?.email ?? ''))}`,
     handler: (_req, res, _next, options) => {
       const minutes = Math.ceil(options.windowMs / 60000);

@@ -67,6 +67,22 @@ describe('API: network document (optimistic version, validation, server solve)',
     await b.put(url(id), { version: 0, document: fromB }).expect(409);
   });
 
+  it('two saves racing from the same version: exactly one wins, the other gets 409', async () => {
+    const id = await insertProject(t.db, t.seeded!.demoTeamId);
+    const a = await t.signInAs('designer');
+    const b = await t.signInAs('designer');
+    await a.put(url(id), { version: 0, document: SMALL_NETWORK }).expect(200);
+    const [ra, rb] = await Promise.all([
+      a.put(url(id), { version: 1, document: { ...SMALL_NETWORK, title: 'from A' } }),
+      b.put(url(id), { version: 1, document: { ...SMALL_NETWORK, title: 'from B' } }),
+    ]);
+    expect([ra.status, rb.status].sort()).to.deep.equal([200, 409]);
+    const winner = ra.status === 200 ? 'from A' : 'from B';
+    const stored = await a.get(url(id)).expect(200);
+    expect(stored.body).to.deep.include({ version: 2 });
+    expect(stored.body.document.title).to.equal(winner);
+  });
+
   it('a reviewer may read but PUT is 403 and nothing changes', async () => {
     const r = await t.signInAs('reviewer');
     const before = await r.get(url(t.seeded!.demoProjectId)).expect(200);

@@ -46,8 +46,13 @@ describe('API on PostgreSQL (DATABASE_URL)', function () {
     const project = await a.post('/api/projects', { name: 'On PostgreSQL' }).expect(201);
     await a.put(`/api/projects/${project.body.id}/network`, { version: 0, document: SMALL_NETWORK }).expect(200);
     await a.put(`/api/projects/${project.body.id}/network`, { version: 0, document: SMALL_NETWORK }).expect(409);
+    // Real concurrency on a connection pool: of five saves from version 1, exactly one wins.
+    const racers = await Promise.all([1, 2, 3, 4, 5].map((n) =>
+      a.put(`/api/projects/${project.body.id}/network`, { version: 1, document: { ...SMALL_NETWORK, title: `racer ${n}` } })));
+    expect(racers.map((r) => r.status).sort()).to.deep.equal([200, 409, 409, 409, 409]);
     const saved = await a.get(`/api/projects/${project.body.id}/network`).expect(200);
-    expect(saved.body.document).to.deep.equal(SMALL_NETWORK);
+    expect(saved.body.version).to.equal(2);
+    expect(saved.body.document.title).to.match(/^racer [1-5]$/);
     await a.delete(`/api/projects/${project.body.id}`).expect(204);
   });
 });
