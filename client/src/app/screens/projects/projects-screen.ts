@@ -46,6 +46,10 @@ export class ProjectsScreen {
   protected readonly loading = signal(true);
   private readonly reloads = signal(0);
 
+  protected readonly noTeam = computed(() => {
+    const me = this.session.me();
+    return me !== null && !me.currentTeamId;
+  });
   protected readonly canCreate = computed(() => this.session.me() !== null && this.session.can('project.create'));
   protected readonly canUpdate = computed(() => this.session.me() !== null && this.session.can('project.update'));
   protected readonly canDelete = computed(() => this.session.me() !== null && this.session.can('project.delete'));
@@ -75,6 +79,9 @@ export class ProjectsScreen {
       toObservable(this.reloads),
     ])
       .pipe(
+        tap(([teamId]) => {
+          if (teamId === null) this.loading.set(false);
+        }),
         filter(([teamId]) => teamId !== null),
         tap(() => this.loading.set(true)),
         switchMap(([, archived]) => this.projectsApi.list({ archived }).pipe(catchError(() => of(null)))),
