@@ -1,0 +1,24 @@
+/**
+ * Engine benchmarks: `npm run bench` prints a table of medians (and minima) for each case in
+ * bench/ (one script per case; each also runs alone with `npx tsx bench/<case>.ts`).
+ */
+import { demoSteady } from './demo-steady';
+import { farmWeek } from './farm-week';
+import { grid10k } from './grid-10k';
+import { grid1k } from './grid-1k';
+import { grid20k } from './grid-20k';
+import { gridSquare10k } from './grid-square-10k';
+import { gridSquare20k } from './grid-square-20k';
+import { measure, printTable, type BenchResult } from './harness';
+
+const results: BenchResult[] = [];
+for (const c of [demoSteady, grid1k, grid10k, grid20k, gridSquare10k, gridSquare20k, farmWeek]) {
+  results.push(measure(c));
+}
+printTable(results);
+const ratio = (a: string, b: string): string => {
+  const x = results.find((r) => r.name.includes(a));
+  const y = results.find((r) => r.name.includes(b));
+  return x && y ? (y.median_ms / x.median_ms).toFixed(2) : '?';
+};
+console.log(`\nratio 20k/10k, long grids: ${ratio('10,000 tees (40', '20,000 tees (40')} (target ≤ 2.5); square grids: ${ratio('10,000 tees (100', '20,022 tees')}`);
