@@ -16,7 +16,7 @@ import { DrizzleSessionStore } from './auth/session-store';
 import type { Config } from './config';
 import type { AppContext } from './context';
 import { openDatabase, pgliteDir, type Database, type Db } from './db';
-import { apiNotFound, errorHandler } from './errors';
+import { apiNotFound, errorHandler, notFoundHandler } from './errors';
 import { createMailer } from './mail/mailer';
 import { startMailSink, type MailSink } from './mail/sink';
 import { authRoutes, type SigninLimit } from './routes/auth';
@@ -99,6 +99,8 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
         upgradeInsecureRequests: config.cookieSecure ? [] : null,
       },
     },
+    // HSTS only where the site is served over HTTPS (the same switch as Secure cookies).
+    strictTransportSecurity: config.cookieSecure,
   }));
   app.use((req, res, next) => {
     const started = process.hrtime.bigint();
@@ -146,7 +148,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
     res.setHeader('Cache-Control', 'no-cache');
     res.sendFile(indexHtml);
   });
-  app.use(apiNotFound);
+  app.use(notFoundHandler);
   app.use(errorHandler(log));
 
   return {

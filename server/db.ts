@@ -35,13 +35,13 @@ export async function openDatabase(target: DatabaseTarget): Promise<Database> {
     const pool = new pg.Pool({ connectionString: target.url, max: 10 });
     const db = drizzlePg(pool, { schema });
     await migratePg(db, { migrationsFolder: MIGRATIONS_DIR });
-    return { db: db as unknown as Db, target, close: () => pool.end() };
+    return { db, target, close: () => pool.end() };
   }
   if (target.dir) mkdirSync(target.dir, { recursive: true });
   const client = target.dir ? new PGlite(target.dir) : new PGlite();
   const db = drizzlePglite(client, { schema });
   await migratePglite(db, { migrationsFolder: MIGRATIONS_DIR });
-  return { db: db as unknown as Db, target, close: () => client.close() };
+  return { db, target, close: () => client.close() };
 }
 
 /** The default store for a data dir: RUNNEL_DATA_DIR/pg. */

@@ -29,8 +29,6 @@ export class ApiError extends Error {
   }
 }
 
-export const notFound = (what = 'Not found') => new ApiError('not-found', what);
-
 /** "document.nodes.3.elevation_m" style path for a zod issue. */
 export function issuePath(path: readonly PropertyKey[]): string {
   return path.map(String).join('.');
@@ -50,6 +48,11 @@ export const apiNotFound: RequestHandler = (req, _res, next) => {
   next(new ApiError('not-found', `No API route ${req.method} ${req.path}`));
 };
 
+/** Anything else nobody answered (a missing asset, a POST outside /api). */
+export const notFoundHandler: RequestHandler = (req, _res, next) => {
+  next(new ApiError('not-found', `Not found: ${req.method} ${req.path}`));
+};
+
 /** Maps any error to the API's error shape; logs unexpected ones with their stack, never sends it. */
 export function errorHandler(log: (line: string) => void): ErrorRequestHandler {
   return (err, req, res, _next) => {
@@ -57,13 +60,21 @@ export function errorHandler(log: (line: string) => void): ErrorRequestHandler {
     if (err instanceof ApiError) apiError = err;
     else if (isBodyParserError(err, 'entity.too.large')) apiError = new ApiError('too-large', 'Request body is too large');
     else if (isBodyParserError(err, 'entity.parse.failed')) apiError = new ApiError('validation', 'Request body is not valid JSON');
-    else {
+    else if (isClientError(err)) {
+      apiError = new ApiError(err.status === 415 ? 'unsupported-type' : err.status === 413 ? 'too-large' : 'validation', err.message);
+    } else {
       log(`error ${req.method} ${req.originalUrl}: ${err instanceof Error ? err.stack ?? err.message : String(err)}`);
       apiError = new ApiError('internal', 'Something went wrong on the server; it has been logged.');
     }
     if (res.headersSent) return;
     res.status(apiError.status).json({ ...apiError.body, error: { code: apiError.code, message: apiError.message, ...apiError.extra } });
   };
+}
+
+/** An http-errors style 4xx meant for the client (body-parser's charset or encoding errors). */
+function isClientError(err: unknown): err is { status: number; message: string } {
+  if (typeof err !== 'object' || err === null || !('status' in err) || !('expose' in err)) return false;
+  return err.expose === true && typeof err.status === 'number' && err.status >= 400 && err.status < 500 && 'message' in err;
 }
 
 function isBodyParserError(err: unknown, type: string): boolean {

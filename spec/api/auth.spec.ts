@@ -124,6 +124,17 @@ describe('API: auth, CSRF, errors', () => {
     expect(res.body.error.code).to.equal('not-found');
   });
 
+  it('a missing asset outside /api is 404 JSON too; an unsupported charset is 415', async () => {
+    const res = await supertest(t.app).get('/no-such-asset.js');
+    expect(res.status).to.equal(404);
+    expect(res.body.error.message).to.equal('Not found: GET /no-such-asset.js');
+    const a = await t.anonymous();
+    const charset = await a.agent.post('/api/auth/signin').set('x-csrf-token', a.token)
+      .set('content-type', 'application/json; charset=klingon').send('{}');
+    expect(charset.status).to.equal(415);
+    expect(charset.body.error.code).to.equal('unsupported-type');
+  });
+
   it('an unexpected error → 500 with a generic message and no stack trace', async () => {
     const a = await t.signInAs('designer');
     // PostgreSQL refuses a NUL character in text, so this insert fails inside the database.
