@@ -238,3 +238,14 @@ describe('Layout editor: view and scale', () => {
     expect(ed.store.node('J1')?.x_m).to.equal(10);
   });
 });
+
+describe('Layout editor: change notification', () => {
+  it('listeners already see an edit as undoable when they are told about it', () => {
+    const ed = editor();
+    const seen: boolean[] = [];
+    ed.store.subscribe(() => seen.push(ed.store.canUndo()));
+    ed.placeNode('tee', { x: 0, y: 0 });
+    ed.undo();
+    expect(seen).to.deep.equal([true, false]);
+  });
+});

@@ -57,6 +57,7 @@ export class CanvasView {
   private readonly headers = new Konva.Group({ listening: false });
   private readonly backdropGroup = new Konva.Group({ listening: false });
   private headerKey = '';
+  private detail = true;
   /** What each element's overlay shows now, to skip unchanged ones. */
   private readonly overlayKeys = new Map<string, string>();
   private backdropImage: Konva.Image | null = null;
@@ -129,6 +130,16 @@ export class CanvasView {
     const vp = ed.viewport;
     const selection = ed.selection;
     const dragging = new Set(ed.dragging);
+    // Level of detail: when elements are packed tighter than about 56 px apart, names and
+    // numbers are hidden (rings, arrows and badges stay) until the designer zooms in.
+    const visible = vp.visibleWorld();
+    const inView = doc.nodes.filter((n) => (n.x_m ?? 0) >= visible.x && (n.x_m ?? 0) <= visible.x + visible.width && (n.y_m ?? 0) >= visible.y && (n.y_m ?? 0) <= visible.y + visible.height).length;
+    const detail = inView * 56 * 56 < vp.width * vp.height;
+    const detailChanged = detail !== this.detail;
+    if (detailChanged) {
+      this.detail = detail;
+      this.overlayDirty = true;
+    }
 
     // Nodes
     const seen = new Set<string>();
@@ -145,7 +156,8 @@ export class CanvasView {
         if (symbolChanged(v.rec, n)) this.rebuildSymbol(v, n);
         v.label.text(n.name || n.id);
         v.rec = n;
-      } else if (!viewChanged && this.selectionShown.has(n.id) === selected && !dragging.has(n.id) && !this.lifted.has(n.id)) continue;
+      } else if (!viewChanged && !detailChanged && this.selectionShown.has(n.id) === selected && !dragging.has(n.id) && !this.lifted.has(n.id)) continue;
+      v.label.visible(detail || selected);
       const s = vp.toScreen({ x: n.x_m ?? 0, y: n.y_m ?? 0 });
       v.group.position(s);
       v.overlay.position(s);
@@ -295,14 +307,14 @@ export class CanvasView {
       const text = hasPressure ? formatQuantity('pressure', r.pressure_m, units) : '';
       const colour = hasPressure ? marginColour(r.pressure_m - min) : '';
       // Rebuild only what changed: most solves move few labels.
-      const key = `${text}|${colour}|${show && !!w?.length}`;
+      const key = `${text}|${colour}|${show && !!w?.length}|${this.detail}`;
       if (this.overlayKeys.get(n.id) === key) continue;
       this.overlayKeys.set(n.id, key);
       changed ||= !this.lifted.has(n.id);
       v.overlay.destroyChildren();
       if (hasPressure) {
         v.overlay.add(new Konva.Circle({ radius: 17, stroke: colour, strokeWidth: 5, listening: false, perfectDrawEnabled: false }));
-        v.overlay.add(new Konva.Label({ x: 19, y: -22, listening: false }).add(
+        if (this.detail) v.overlay.add(new Konva.Label({ x: 19, y: -22, listening: false }).add(
           new Konva.Tag({ fill: '#ffffff', stroke: colour, strokeWidth: 1.5, cornerRadius: 3, listening: false }),
           new Konva.Text({ text, padding: 3, fontFamily: FONT, fontSize: 11, fontStyle: 'bold', fill: LABEL, listening: false }),
         ));
@@ -317,7 +329,7 @@ export class CanvasView {
       const flows = show && r && Math.abs(r.flow_m3s) > 1e-9;
       const angle = flows ? v.mid.rotation() + (r.flow_m3s < 0 ? 180 : 0) : 0;
       const speed = flows && l.kind === 'pipe' ? formatQuantity('velocity', Math.abs(r.velocity_ms), units) : '';
-      const key = `${flows}|${angle.toFixed(1)}|${speed}|${show && !!w?.length}`;
+      const key = `${flows}|${angle.toFixed(1)}|${speed}|${show && !!w?.length}|${this.detail}`;
       if (this.overlayKeys.get(l.id) === key) continue;
       this.overlayKeys.set(l.id, key);
       changed ||= !this.lifted.has(l.id);
@@ -330,7 +342,7 @@ export class CanvasView {
           x: Math.cos(rad) * offset, y: Math.sin(rad) * offset, rotation: angle,
         });
         v.overlay.add(arrow);
-        if (speed) v.overlay.add(new Konva.Text({ text: speed, x: 8, y: 6, fontFamily: FONT, fontSize: 10, fill: SELECT, listening: false }));
+        if (speed && this.detail) v.overlay.add(new Konva.Text({ text: speed, x: 8, y: 6, fontFamily: FONT, fontSize: 10, fill: SELECT, listening: false }));
       }
       if (show && w?.length) v.overlay.add(...badge(10, -20));
     }

@@ -16,7 +16,7 @@ import { SHORTCUTS } from './editor/editor';
     <h2 mat-dialog-title>Someone else saved this network</h2>
     <mat-dialog-content>
       <p>
-        Version {{ data.version }} was saved{{ data.updatedBy ? ' by ' + data.updatedBy : '' }}{{ data.updatedAt ? ' at ' + when() : '' }}
+        Version {{ data.version }} was saved{{ who() ? ' by ' + who() : '' }}{{ data.updatedAt ? ' at ' + when() : '' }}
         while you were editing. Your changes are still here, unsaved.
       </p>
       <p><strong>Load theirs</strong> replaces your changes with the saved version.
@@ -29,7 +29,17 @@ import { SHORTCUTS } from './editor/editor';
   `,
 })
 export class SaveConflictDialog {
-  readonly data = inject<{ version: number; updatedAt?: string; updatedBy?: string | null }>(MAT_DIALOG_DATA);
+  readonly data = inject<{ version: number; updatedAt?: string; updatedBy?: unknown }>(MAT_DIALOG_DATA);
+  /** The server sends a name; older shapes sent a user record. */
+  who(): string {
+    const u = this.data.updatedBy;
+    if (typeof u === 'string') return u;
+    if (u && typeof u === 'object') {
+      const r = u as { name?: unknown; email?: unknown };
+      return typeof r.name === 'string' ? r.name : typeof r.email === 'string' ? r.email : '';
+    }
+    return '';
+  }
   when(): string {
     return this.data.updatedAt ? new Date(this.data.updatedAt).toLocaleTimeString() : '';
   }

@@ -208,7 +208,6 @@ export class LayoutScreen {
       getSelection: () => [...ed.selection],
       lastSolveMs: () => this.solver.lastMs(),
       frameTimes: () => [...this.frameLog],
-      ...({ _ed: ed } as object),
       worldToClient: (x_m, y_m) => {
         const r = this.canvasRef().nativeElement.getBoundingClientRect();
         const p = ed.viewport.toScreen({ x: x_m, y: y_m });

@@ -113,8 +113,10 @@ export class PropertiesPanel {
     if (f.type === 'checkbox') return f.key === 'open' ? v !== false : v === true;
     if (f.type === 'number' || f.type === 'length') {
       if (typeof v !== 'number') return '';
-      const d = f.quantity ? toDisplay(f.quantity, v, units) : v;
-      return Number(d.toPrecision(6));
+      if (!f.quantity) return Number(v.toPrecision(6));
+      // One decimal more than the unit's usual display precision (engine/units.ts decides it).
+      const usual = formatQuantity(f.quantity, v, units).split(' ')[0].split('.')[1]?.length ?? 0;
+      return Number(toDisplay(f.quantity, v, units).toFixed(usual + 1));
     }
     if (f.type === 'schedule') return Array.isArray(v) ? v.join(', ') : '';
     return v ?? f.fallback ?? '';

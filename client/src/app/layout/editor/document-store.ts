@@ -111,9 +111,9 @@ export class DocumentStore {
     if (this.mark) {
       this.set(next);
     } else {
-      const before = this.current;
+      // Record the step first so listeners already see it as undoable.
+      this.push({ before: this.current, after: next, label });
       this.set(next);
-      this.push({ before, after: next, label });
     }
   }
 
