@@ -42,6 +42,13 @@ export class SessionService {
     }));
   }
 
+  /** Ask the server again (e.g. after changing one's own roles). */
+  refresh(): Observable<Me | null> {
+    this.loadedState.set(false);
+    this.probe = null;
+    return this.load();
+  }
+
   /** Errors (401 bad credentials, 429 rate-limited) are left to the caller to show. */
   signIn(email: string, password: string): Observable<Me> {
     this.csrf.reset();
@@ -57,7 +64,8 @@ export class SessionService {
   }
 
   signOut(): Observable<void> {
-    return this.http.post<void>('/api/auth/signout', {}).pipe(
+    // Already signed out on the server (401) is fine: no redirect, no message.
+    return this.http.post<void>('/api/auth/signout', {}, { context: new HttpContext().set(SKIP_AUTH_REDIRECT, true) }).pipe(
       catchError((err: unknown) => (err instanceof HttpErrorResponse && err.status === 401 ? of(undefined) : throwError(() => err))),
       map(() => undefined),
       tap(() => {

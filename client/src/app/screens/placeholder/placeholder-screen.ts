@@ -17,7 +17,6 @@ import { Component, input } from '@angular/core';
   `,
 })
 export class PlaceholderScreen {
-  readonly projectId = input<string>();
   readonly screenTitle = input('This screen');
   readonly purpose = input('');
 }

@@ -12,6 +12,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
+import { Router } from '@angular/router';
 import { filter, switchMap } from 'rxjs';
 import { Invitation, Member, ROLES, Role } from '../../core/api-types';
 import { SessionService } from '../../core/session.service';
@@ -41,6 +42,7 @@ export class TeamScreen {
   protected readonly session = inject(SessionService);
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
+  private readonly router = inject(Router);
 
   protected readonly roles = ROLES;
   protected readonly roleDescriptions = ROLE_DESCRIPTIONS;
@@ -84,6 +86,12 @@ export class TeamScreen {
         this.mark(member.userId, false);
         this.members.update((list) => list?.map((m) => (m.userId === saved.userId ? saved : m)));
         this.snackBar.open(`${saved.name}: ${saved.roles.join(', ')}.`, undefined, { duration: 3000 });
+        // One's own roles decide what the app shows: reload the session's permissions.
+        if (this.isSelf(member)) {
+          this.session.refresh().subscribe(() => {
+            if (!this.session.can('team.manage')) void this.router.navigate(['/projects']);
+          });
+        }
       },
       error: () => {
         this.mark(member.userId, false);
