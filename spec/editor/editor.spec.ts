@@ -249,3 +249,19 @@ describe('Layout editor: change notification', () => {
     expect(seen).to.deep.equal([true, false]);
   });
 });
+
+describe('Layout editor: lengths from elsewhere', () => {
+  it('marks a loaded pipe whose length differs from its drawing as typed, and leaves matching ones alone', async () => {
+    const { markTypedLengths } = await import('../../client/src/app/layout/editor/document-store');
+    const ed = editor();
+    ed.placeNode('tank', { x: 0, y: 0 });
+    ed.placeNode('tee', { x: 30, y: 40 });
+    ed.addLink('pipe', 'T1', 'J1');
+    ed.addLink('pipe', 'J1', 'T1');
+    ed.store.patchElement('P2', { length_m: 80, length_source: undefined });
+    const raw = { ...ed.store.doc, links: ed.store.doc.links.map((l) => (l.id === 'P2' ? { ...l, length_m: 80 } : l)) };
+    const marked = markTypedLengths(raw);
+    expect((marked.links[0] as { length_source?: string }).length_source).to.equal(undefined); // drawn 50 m = stored 50 m
+    expect((marked.links[1] as { length_source?: string }).length_source).to.equal('typed');
+  });
+});

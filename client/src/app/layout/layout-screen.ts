@@ -18,7 +18,7 @@ import { formatQuantity, UnitSystem } from '../../../../engine/units';
 import { SessionService } from '../core/session.service';
 import { CanvasView, scaleBar } from './canvas-view';
 import { legendStops } from './editor/colour-scale';
-import { emptyDocument } from './editor/document-store';
+import { emptyDocument, markTypedLengths } from './editor/document-store';
 import { Backdrop, Editor } from './editor/editor';
 import { toGeoJson } from './editor/geojson-export';
 import { resultWarnings } from './editor/result-checks';
@@ -256,7 +256,7 @@ export class LayoutScreen {
     });
     this.api.network(projectId).subscribe({
       next: (rec) => {
-        const doc = rec.document && Array.isArray(rec.document.nodes) ? rec.document : emptyDocument();
+        const doc = rec.document && Array.isArray(rec.document.nodes) ? markTypedLengths(rec.document) : emptyDocument();
         this.editor.store.replace(doc);
         this.notifiedRevision = this.editor.store.revision;
         this.serverResults.set(rec.results ?? null);
@@ -451,7 +451,7 @@ export class LayoutScreen {
       this.conflictOpen = false;
       if (choice === 'theirs') {
         const theirs = this.saver.conflict;
-        if (theirs) this.editor.store.replace(theirs.document);
+        if (theirs) this.editor.store.replace(markTypedLengths(theirs.document));
         this.saver.takeTheirs();
       } else this.saver.keepMine();
     });
@@ -551,7 +551,7 @@ export class LayoutScreen {
       this.dialog.open(MessagesDialog, { data: { title: 'Import failed', messages: problems.map((p) => p.message) } });
       return;
     }
-    this.editor.store.update('import', () => doc);
+    this.editor.store.update('import', () => markTypedLengths(doc));
     this.editor.fitToView();
     this.snack.open(`Imported ${doc.nodes.length} nodes and ${doc.links.length} links. Undo restores the previous network.`, 'OK', { duration: 6000 });
   }

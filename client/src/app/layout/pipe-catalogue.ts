@@ -1,5 +1,6 @@
 import { defaultRoughness, findPipeSize, pipeSeries, pipeSizes } from '../../../../engine/index';
 import type { HeadlossModel, PipeLink } from '../../../../engine/network-document';
+import { formatQuantity, UnitSystem } from '../../../../engine/units';
 
 /** A pipe series as the Properties panel lists it. */
 export interface SeriesOption { id: string; label: string; material: string }
@@ -14,12 +15,12 @@ export function catalogueSeries(): SeriesOption[] {
   return pipeSeries.map((s) => ({ id: s.id, label: s.label, material: s.material }));
 }
 
-export function catalogueSizes(seriesId: string, headloss: HeadlossModel): SizeOption[] {
+export function catalogueSizes(seriesId: string, headloss: HeadlossModel, units: UnitSystem = 'us'): SizeOption[] {
   const series = pipeSeries.find((s) => s.id === seriesId);
   if (!series) return [];
   const roughness = defaultRoughness(series.material, headloss);
   return pipeSizes(seriesId).map((s) => ({
-    nominal: s.nominal, label: `${s.nominal} (ID ${s.id_in.toFixed(3)} in, ${s.rating_psi} psi)`, diameter_m: s.id_m, roughness, rating_m: s.rating_m,
+    nominal: s.nominal, label: `${s.nominal} · ID ${formatQuantity('diameter', s.id_m, units)} · ${formatQuantity('pressure', s.rating_m, units, 0)}`, diameter_m: s.id_m, roughness, rating_m: s.rating_m,
   }));
 }
 

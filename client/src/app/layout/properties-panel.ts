@@ -63,7 +63,7 @@ export class PropertiesPanel {
   readonly series = computed(() => catalogueSeries());
   readonly sizes = computed(() => {
     const el = this.element();
-    return el?.kind === 'pipe' && el.series ? catalogueSizes(el.series, this.doc().headloss) : [];
+    return el?.kind === 'pipe' && el.series ? catalogueSizes(el.series, this.doc().headloss, this.units()) : [];
   });
   readonly isPipe = computed(() => this.element()?.kind === 'pipe');
   readonly lengthFrom = computed(() => {

@@ -264,3 +264,22 @@ function refreshLengths(doc: NetworkDocument, moved: Set<string>): NetworkDocume
   });
   return changed ? { ...doc, links } : doc;
 }
+
+/**
+ * Documents from elsewhere (the server, an import) carry pipe lengths that may not follow the
+ * drawing (a surveyed or paced length). A pipe without a length flag whose length differs from
+ * its drawn length by more than 1 % (and 0.5 m) is marked typed, so moving its ends never
+ * silently changes it.
+ */
+export function markTypedLengths(doc: NetworkDocument): NetworkDocument {
+  const byId = new Map(doc.nodes.map((n) => [n.id, n]));
+  let changed = false;
+  const links = doc.links.map((l) => {
+    if (l.kind !== 'pipe' || (l as { length_source?: unknown }).length_source !== undefined) return l;
+    const drawn = polylineLength(linkPoints(l, byId));
+    if (Math.abs(drawn - l.length_m) <= Math.max(0.5, 0.01 * l.length_m)) return l;
+    changed = true;
+    return { ...l, length_source: 'typed' } as NetworkLink;
+  });
+  return changed ? { ...doc, links } : doc;
+}
