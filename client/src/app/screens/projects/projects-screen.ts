@@ -102,6 +102,10 @@ export class ProjectsScreen {
     });
   }
 
+  protected onFilter(event: Event): void {
+    this.filterText.set((event.target as HTMLInputElement).value);
+  }
+
   protected unitsOf(project: Project): string {
     return this.unitLabels[project.units] ?? project.units;
   }
