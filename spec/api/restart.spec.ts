@@ -8,7 +8,8 @@ describe('API: data survives a restart on the same PGlite data dir', () => {
   before(() => { dir = makeTempDir(); });
   after(() => { removeTempDir(dir); });
 
-  it('keeps projects, networks, sessions and users; seeding again changes nothing', async () => {
+  it('keeps projects, networks, sessions and users; seeding again changes nothing', async function () {
+    this.timeout(120_000); // two PGlite databases created and opened on disk: slow on a busy machine
     const first = await startTestApp({ dataDir: dir });
     expect(first.seeded!.seeded).to.equal(true);
     const designer = await first.signInAs('designer');
