@@ -6,6 +6,7 @@ import {
   NODE_JUNCTION, NODE_SOURCE, NODE_TANK, type NetworkModel,
 } from './network-model';
 import { SparseLdl } from './sparse-ldl';
+import { SupernodalCholesky } from './supernodal-cholesky';
 
 /**
  * Global gradient algorithm for steady flow in looped and branched networks: Newton's method on
@@ -27,7 +28,8 @@ import { SparseLdl } from './sparse-ldl';
  *   iterations; pressure-reducing valves switch between active, open and closed.
  * - Parts of the network with no open path to a fixed head are set aside (head = ground,
  *   no flow) instead of making the matrix singular.
- * The sparse factorisation's symbolic phase is computed once per network (./sparse-ldl).
+ * The sparse factorisation's symbolic phase is computed once per network (./sparse-ldl; large
+ * networks factorise with ./supernodal-cholesky).
  *
  * @example
  * const solver = new GradientSolver(compileNetwork(doc));
@@ -60,6 +62,8 @@ const STATUS_FLOW_TOL = 1e-10;
 const FLOW_SCALE_FLOOR = 1e-4;
 /** Largest energy-equation residual |h(Q) − ΔH| accepted as converged, m. */
 export const ENERGY_TOLERANCE_M = 1e-6;
+/** Networks with at least this many unknown heads use the supernodal factorisation. */
+export const SUPERNODAL_MIN_ORDER = 1000;
 /** Required pressure used for outlets and tees in pressure-driven (simulation) mode without a minimum, m. */
 export const DEFAULT_REQUIRED_PRESSURE_M = 0.5;
 
@@ -117,6 +121,8 @@ export class GradientSolver {
   private readonly unknown: Int32Array;
   private readonly unknownNode: Int32Array;
   private readonly ldl: SparseLdl;
+  /** Supernodal factorisation used instead of the simplicial one for large networks. */
+  private readonly chol: SupernodalCholesky | null;
   private readonly posFF: Int32Array;
   private readonly posTT: Int32Array;
   private readonly posFT: Int32Array;
@@ -154,6 +160,7 @@ export class GradientSolver {
       if (a >= 0 && b >= 0 && a !== b) { pi.push(a); pj.push(b); }
     }
     this.ldl = new SparseLdl(nu, { i: Int32Array.from(pi), j: Int32Array.from(pj) });
+    this.chol = nu >= SUPERNODAL_MIN_ORDER ? new SupernodalCholesky(this.ldl) : null;
     this.posFF = new Int32Array(m).fill(-1);
     this.posTT = new Int32Array(m).fill(-1);
     this.posFT = new Int32Array(m).fill(-1);
@@ -446,8 +453,9 @@ export class GradientSolver {
         }
         if (!Number.isNaN(pinned[i])) { values[pd] += PIN_WEIGHT; rhs[u] += PIN_WEIGHT * pinned[i]; }
       }
-      if (ldl.factor() !== ldl.n) { singular = true; break; }
-      ldl.solve(rhs, x);
+      const factorisation = this.chol ?? ldl;
+      if (factorisation.factor() !== ldl.n) { singular = true; break; }
+      factorisation.solve(rhs, x);
       for (let u = 0; u < this.unknownNode.length; u++) head[this.unknownNode[u]] = x[u];
 
       // flow update

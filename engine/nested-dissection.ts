@@ -1,7 +1,7 @@
 import { minimumDegreeOrder } from './minimum-degree';
 
 /** Sub-graphs at or below this size are ordered by minimum degree instead of being split further. */
-export const DISSECTION_LEAF_SIZE = 200;
+export const DISSECTION_LEAF_SIZE = 64;
 
 /**
  * Fill-reducing ordering for large sparse symmetric matrices: nested dissection with level-set
@@ -10,6 +10,7 @@ export const DISSECTION_LEAF_SIZE = 200;
  * pseudo-peripheral vertex (Gibbs, Poole & Stockmeyer 1976), the middle level becomes the
  * separator and is ordered last, and both halves are dissected recursively down to sub-graphs of
  * DISSECTION_LEAF_SIZE vertices, which are ordered by minimum degree (./minimum-degree).
+ * Separator vertices keep their level order (they fill in completely either way).
  * Cost O(n log n); for planar meshes the factor has O(n log n) fill.
  *
  * @param n number of vertices
@@ -47,6 +48,8 @@ export function nestedDissectionOrder(n: number, adjPtr: Int32Array, adjIdx: Int
   };
 
   const orderLeaf = (vertices: Int32Array): void => {
+    if (vertices.length === 0) return;
+    if (vertices.length <= 3) { for (let q = 0; q < vertices.length; q++) { perm[next++] = vertices[q]; part[vertices[q]] = -1; } return; }
     const m = vertices.length;
     for (let q = 0; q < m; q++) local[vertices[q]] = q;
     const label = part[vertices[0]];
@@ -64,6 +67,11 @@ export function nestedDissectionOrder(n: number, adjPtr: Int32Array, adjIdx: Int
     }
     const order = minimumDegreeOrder(m, ptr, idx);
     for (let q = 0; q < m; q++) { const v = vertices[order[q]]; perm[next++] = v; part[v] = -1; }
+  };
+
+  /** Separators become dense cliques once both halves are eliminated: any order will do. */
+  const orderSeparator = (vertices: Int32Array): void => {
+    for (let q = 0; q < vertices.length; q++) { perm[next++] = vertices[q]; part[vertices[q]] = -1; }
   };
 
   const dissect = (vertices: Int32Array): void => {
@@ -115,7 +123,7 @@ export function nestedDissectionOrder(n: number, adjPtr: Int32Array, adjIdx: Int
     }
     dissect(a);
     dissect(b);
-    orderLeaf(sep);
+    orderSeparator(sep);
   };
 
   const all = new Int32Array(n);

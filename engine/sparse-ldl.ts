@@ -32,8 +32,10 @@ export class SparseLdl {
   /** Fill-reducing permutation: perm[k] = original index of pivot k; pinv is its inverse. */
   readonly perm: Int32Array;
   readonly pinv: Int32Array;
-  private readonly parent: Int32Array;
-  private readonly lp: Int32Array;
+  /** Elimination tree (parent of each pivot, −1 at roots), in permuted order. */
+  readonly parent: Int32Array;
+  /** Column pointers of L: column j holds lp[j+1] − lp[j] entries below the diagonal. */
+  readonly lp: Int32Array;
   private readonly lnz: Int32Array;
   private readonly li: Int32Array;
   private readonly lx: Float64Array;
@@ -81,35 +83,46 @@ export class SparseLdl {
       this.colPtr[v + 1] = p;
     }
     this.values = new Float64Array(p);
-    this.perm = n > MINIMUM_DEGREE_MAX_ORDER ? nestedDissectionOrder(n, adjPtr, adjIdx) : minimumDegreeOrder(n, adjPtr, adjIdx);
-    this.pinv = new Int32Array(n);
-    for (let k = 0; k < n; k++) this.pinv[this.perm[k]] = k;
-    // symbolic: elimination tree and column counts of L (ldl_symbolic)
+    const order = n > MINIMUM_DEGREE_MAX_ORDER ? nestedDissectionOrder(n, adjPtr, adjIdx) : minimumDegreeOrder(n, adjPtr, adjIdx);
     this.parent = new Int32Array(n);
     this.lnz = new Int32Array(n);
     this.flag = new Int32Array(n);
     this.lp = new Int32Array(n + 1);
-    for (let k = 0; k < n; k++) {
-      this.parent[k] = -1; this.flag[k] = k; this.lnz[k] = 0;
-      const kk = this.perm[k];
-      for (let q = this.colPtr[kk]; q < this.colPtr[kk + 1]; q++) {
-        let i = this.pinv[this.rowIdx[q]];
-        if (i < k) {
-          for (; this.flag[i] !== k; i = this.parent[i]) {
-            if (this.parent[i] === -1) this.parent[i] = k;
-            this.lnz[i]++;
-            this.flag[i] = k;
-          }
-        }
-      }
-    }
-    for (let k = 0; k < n; k++) this.lp[k + 1] = this.lp[k] + this.lnz[k];
+    this.pinv = new Int32Array(n);
+    // postorder the elimination tree (same fill, but chains become consecutive: supernodes)
+    this.perm = order;
+    this.symbolic();
+    const post = postorder(this.parent);
+    this.perm = new Int32Array(n);
+    for (let k = 0; k < n; k++) this.perm[k] = order[post[k]];
+    this.symbolic();
     this.li = new Int32Array(this.lp[n]);
     this.lx = new Float64Array(this.lp[n]);
     this.d = new Float64Array(n);
     this.y = new Float64Array(n);
     this.pattern = new Int32Array(n);
     this.work = new Float64Array(n);
+  }
+
+  /** Elimination tree and column counts of L for the current permutation (ldl_symbolic). */
+  private symbolic(): void {
+    const { n, perm, pinv, parent, lnz, flag, colPtr, rowIdx, lp } = this;
+    for (let k = 0; k < n; k++) pinv[perm[k]] = k;
+    for (let k = 0; k < n; k++) {
+      parent[k] = -1; flag[k] = k; lnz[k] = 0;
+      const kk = perm[k];
+      for (let q = colPtr[kk]; q < colPtr[kk + 1]; q++) {
+        let i = pinv[rowIdx[q]];
+        if (i < k) {
+          for (; flag[i] !== k; i = parent[i]) {
+            if (parent[i] === -1) parent[i] = k;
+            lnz[i]++;
+            flag[i] = k;
+          }
+        }
+      }
+    }
+    for (let k = 0; k < n; k++) lp[k + 1] = lp[k] + lnz[k];
   }
 
   /** Number of non-zeros below the diagonal of L (fill included). */
@@ -185,4 +198,29 @@ export class SparseLdl {
     }
     for (let k = 0; k < n; k++) x[perm[k]] = work[k];
   }
+}
+
+/** Postorder of a forest given by parent pointers (children visited in increasing order). */
+function postorder(parent: Int32Array): Int32Array {
+  const n = parent.length;
+  const head = new Int32Array(n).fill(-1);
+  const next = new Int32Array(n);
+  for (let j = n - 1; j >= 0; j--) {
+    const p = parent[j];
+    if (p >= 0) { next[j] = head[p]; head[p] = j; }
+  }
+  const post = new Int32Array(n);
+  const stack = new Int32Array(n);
+  let k = 0;
+  for (let root = 0; root < n; root++) {
+    if (parent[root] !== -1) continue;
+    let top = 0;
+    stack[0] = root;
+    while (top >= 0) {
+      const v = stack[top];
+      const child = head[v];
+      if (child === -1) { top--; post[k++] = v; } else { head[v] = next[child]; stack[++top] = child; }
+    }
+  }
+  return post;
 }

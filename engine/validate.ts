@@ -14,9 +14,7 @@ import type { Warning } from './warnings';
  */
 export function validateDocument(doc: unknown): Warning[] {
   const out: Warning[] = [];
-  const bad = (element: string | null, field: string, message: string): void => {
-    out.push({ code: 'invalid', element, message: `${element ?? 'document'}${field ? '.' + field : ''}: ${message}` });
-  };
+  const bad = (element: string | null, field: string, message: string): void => report(out, element, field, message);
   if (!isObject(doc)) { bad(null, '', 'must be a JSON object'); return out; }
   if (doc['schema'] !== undefined && doc['schema'] !== 'runnel.network/1') bad(null, 'schema', `must be "runnel.network/1" (got ${show(doc['schema'])})`);
   if (doc['headloss'] !== undefined && doc['headloss'] !== 'hazen-williams' && doc['headloss'] !== 'darcy-weisbach') {
@@ -47,11 +45,7 @@ export function validateDocument(doc: unknown): Warning[] {
     if (nodeKinds.has(id)) { bad(id, 'id', 'is used by another node'); return; }
     const kind = node['kind'];
     nodeKinds.set(id, typeof kind === 'string' ? kind : '');
-    const num = (field: string, rule: 'finite' | 'positive' | 'non-negative', optional = false): void => {
-      const v = node[field];
-      if (v === undefined && optional) return;
-      checkNumber(v, rule, (msg) => bad(id, field, msg));
-    };
+    const num = (field: string, rule: Rule, optional = false): void => field_(out, id, node, field, rule, optional);
     num('elevation_m', 'finite');
     switch (kind) {
       case 'source':
@@ -104,11 +98,7 @@ export function validateDocument(doc: unknown): Warning[] {
     if (typeof id !== 'string' || id.trim() === '') { bad(null, `links[${index}].id`, `must be a non-empty string (got ${show(id)})`); return; }
     if (linkIds.has(id)) { bad(id, 'id', 'is used by another link'); return; }
     linkIds.add(id);
-    const num = (field: string, rule: 'finite' | 'positive' | 'non-negative', optional = false): void => {
-      const v = link[field];
-      if (v === undefined && optional) return;
-      checkNumber(v, rule, (msg) => bad(id, field, msg));
-    };
+    const num = (field: string, rule: Rule, optional = false): void => field_(out, id, link, field, rule, optional);
     for (const end of ['from', 'to'] as const) {
       const ref = link[end];
       if (typeof ref !== 'string' || !nodeKinds.has(ref)) bad(id, end, `must name an existing node (got ${show(ref)})`);
@@ -191,6 +181,23 @@ export function validateDocument(doc: unknown): Warning[] {
   return out;
 }
 
+type Rule = 'finite' | 'positive' | 'non-negative';
+
+function report(out: Warning[], element: string | null, field: string, message: string): void {
+  out.push({ code: 'invalid', element, message: `${element ?? 'document'}${field ? '.' + field : ''}: ${message}` });
+}
+
+/** Check element[field] against a rule; record a warning naming element and field. */
+function field_(out: Warning[], id: string, element: Record<string, unknown>, field: string, rule: Rule, optional: boolean): void {
+  const v = element[field];
+  if (v === undefined && optional) return;
+  if (!isFiniteNumber(v) || (rule === 'positive' && v <= 0) || (rule === 'non-negative' && v < 0)) report(out, id, field, `must be ${describeRule(rule)} (got ${show(v)})`);
+}
+
+function describeRule(rule: Rule): string {
+  return rule === 'finite' ? 'a number' : rule === 'positive' ? 'a positive number' : 'a number ≥ 0';
+}
+
 function isObject(v: unknown): v is Record<string, unknown> {
   return typeof v === 'object' && v !== null && !Array.isArray(v);
 }
@@ -199,9 +206,8 @@ function isFiniteNumber(v: unknown): v is number {
   return typeof v === 'number' && Number.isFinite(v);
 }
 
-function checkNumber(v: unknown, rule: 'finite' | 'positive' | 'non-negative', report: (msg: string) => void): void {
-  const what = rule === 'finite' ? 'a number' : rule === 'positive' ? 'a positive number' : 'a number ≥ 0';
-  if (!isFiniteNumber(v) || (rule === 'positive' && v <= 0) || (rule === 'non-negative' && v < 0)) report(`must be ${what} (got ${show(v)})`);
+function checkNumber(v: unknown, rule: Rule, onBad: (msg: string) => void): void {
+  if (!isFiniteNumber(v) || (rule === 'positive' && v <= 0) || (rule === 'non-negative' && v < 0)) onBad(`must be ${describeRule(rule)} (got ${show(v)})`);
 }
 
 function show(v: unknown): string {
