@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { minimumDegreeOrder } from '../../engine/minimum-degree';
 import { nestedDissectionOrder } from '../../engine/nested-dissection';
 import { SparseLdl } from '../../engine/sparse-ldl';
+import { SupernodalCholesky } from '../../engine/supernodal-cholesky';
 
 /** Random sparse symmetric positive-definite matrix: a weighted graph Laplacian plus a positive diagonal. */
 function randomSpd(n: number, edges: [number, number, number][], shift: number[]): { ldl: SparseLdl; dense: Float64Array[] } {
@@ -97,5 +98,53 @@ describe('sparse LDLᵀ (sparse-ldl.ts, after Davis 2005, ACM TOMS Algorithm 849
     // George (1973): nested dissection of an n-node grid has O(n log n) fill; a banded order has n^1.5
     expect(ldl.factorNonZeros).to.be.below(4 * g.n * Math.log2(g.n));
     expect(ldl.factorNonZeros).to.be.below(g.n ** 1.5);
+  });
+
+  it('the supernodal Cholesky gives the same solution on random SPD matrices and grids (Ng & Peyton 1993)', () => {
+    fc.assert(fc.property(
+      fc.integer({ min: 1, max: 80 }).chain((n) => fc.tuple(
+        fc.constant(n),
+        fc.array(fc.tuple(fc.nat(), fc.nat(), fc.double({ min: 1e-3, max: 1e3, noNaN: true })), { maxLength: 5 * n }),
+        fc.array(fc.double({ min: 1e-6, max: 10, noNaN: true }), { minLength: n, maxLength: n }),
+      )),
+      ([n, edges, shift]) => {
+        const { ldl, dense } = randomSpd(n, edges, shift);
+        const chol = new SupernodalCholesky(ldl);
+        expect(chol.factor()).to.equal(n);
+        const b = Float64Array.from({ length: n }, (_, i) => Math.sin(i + 1));
+        const x = new Float64Array(n);
+        chol.solve(b, x);
+        const scale = Math.max(1, ...dense.map((row) => row.reduce((s, v) => s + Math.abs(v), 0))) * Math.max(1, ...Array.from(x, Math.abs));
+        for (let i = 0; i < n; i++) {
+          let s = 0;
+          for (let j = 0; j < n; j++) s += dense[i][j] * x[j];
+          expect(Math.abs(s - b[i])).to.be.below(1e-9 * scale);
+        }
+      },
+    ), { numRuns: 150 });
+    const g = grid(30, 40);
+    const pairs: [number, number][] = [];
+    for (let v = 0; v < g.n; v++) for (let a = g.ptr[v]; a < g.ptr[v + 1]; a++) if (g.idx[a] > v) pairs.push([v, g.idx[a]]);
+    const ldl = new SparseLdl(g.n, pairs);
+    for (const [i, j] of pairs) { ldl.values[ldl.position(i, j)] = -1; ldl.values[ldl.position(j, i)] = -1; }
+    for (let v = 0; v < g.n; v++) ldl.values[ldl.position(v, v)] = 4.001;
+    const chol = new SupernodalCholesky(ldl);
+    expect(chol.supernodes).to.be.below(g.n);
+    expect(chol.factor()).to.equal(g.n);
+    expect(ldl.factor()).to.equal(g.n);
+    const b = Float64Array.from({ length: g.n }, (_, i) => Math.cos(i));
+    const x1 = new Float64Array(g.n);
+    const x2 = new Float64Array(g.n);
+    chol.solve(b, x1);
+    ldl.solve(b, x2);
+    for (let i = 0; i < g.n; i++) expect(x1[i]).to.be.closeTo(x2[i], 1e-10 * (1 + Math.abs(x2[i])));
+  });
+
+  it('the supernodal Cholesky reports a singular matrix', () => {
+    const ldl = new SparseLdl(3, [[0, 1], [1, 2]]);
+    const set = (i: number, j: number, v: number): void => { ldl.values[ldl.position(i, j)] = v; };
+    set(0, 0, 1); set(1, 1, 2); set(2, 2, 1);
+    set(0, 1, -1); set(1, 0, -1); set(1, 2, -1); set(2, 1, -1);
+    expect(new SupernodalCholesky(ldl).factor()).to.be.below(3);
   });
 });
