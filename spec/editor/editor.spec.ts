@@ -265,3 +265,15 @@ describe('Layout editor: lengths from elsewhere', () => {
     expect((marked.links[1] as { length_source?: string }).length_source).to.equal('typed');
   });
 });
+
+describe('Layout editor: scaling the backdrop only', () => {
+  it('with network: false only the backdrop changes scale (about the first point)', () => {
+    const ed = editor();
+    ed.placeNode('tee', { x: 10, y: 0 });
+    ed.store.patchLayout({ backdrop: { fileId: 'f', opacity: 0.5, x_m: 0, y_m: 0, m_per_px: 0.1, width_px: 100, height_px: 100 } });
+    ed.applyCalibration({ x: 0, y: 0 }, { x: 10, y: 0 }, 20, { network: false });
+    expect(ed.store.node('J1')?.x_m).to.equal(10);
+    expect(ed.backdrop()?.m_per_px).to.be.closeTo(0.2, 1e-12);
+    expect(ed.backdrop()?.scale?.distance_m).to.equal(20);
+  });
+});

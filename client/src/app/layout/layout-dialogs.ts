@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
@@ -75,7 +76,7 @@ export class ShortcutsDialog {
 /** Asks the real distance between the two points clicked with the scale tool; returns metres. */
 @Component({
   selector: 'rn-calibrate-dialog',
-  imports: [MatDialogModule, MatButtonModule, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
+  imports: [MatDialogModule, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <h2 mat-dialog-title>Set the scale</h2>
@@ -87,6 +88,11 @@ export class ShortcutsDialog {
         <span matTextSuffix>{{ label }}</span>
         @if (distance.invalid && distance.touched) { <mat-error>Enter a distance greater than zero</mat-error> }
       </mat-form-field>
+      @if (data.hasBackdrop && data.hasNetwork) {
+        <mat-checkbox [formControl]="network" data-testid="calibrate-network">
+          Rescale the drawn network too (it was drawn over this backdrop before the scale was set)
+        </mat-checkbox>
+      }
     </mat-dialog-content>
     <mat-dialog-actions align="end">
       <button mat-button mat-dialog-close>Cancel</button>
@@ -95,14 +101,18 @@ export class ShortcutsDialog {
   `,
 })
 export class CalibrateDialog {
-  private readonly ref = inject(MatDialogRef<CalibrateDialog, number>);
-  private readonly units = inject<UnitSystem>(MAT_DIALOG_DATA);
-  readonly label = unitLabel('length', this.units);
+  private readonly ref = inject(MatDialogRef<CalibrateDialog, { metres: number; network: boolean }>);
+  readonly data = inject<{ units: UnitSystem; hasBackdrop: boolean; hasNetwork: boolean; backdropScaled: boolean }>(MAT_DIALOG_DATA);
+  readonly label = unitLabel('length', this.data.units);
+  /** Without a backdrop the scale applies to the network; a never-scaled backdrop suggests both. */
+  readonly network = new FormControl(!this.data.hasBackdrop || !this.data.backdropScaled, { nonNullable: true });
   readonly distance = new FormControl<string>('', [Validators.required, Validators.pattern(/^\s*\d*\.?\d+\s*$/), (c) => (Number(c.value) > 0 ? null : { positive: true })]);
 
   ok(): void {
     this.distance.markAsTouched();
-    if (this.distance.valid) this.ref.close(fromDisplay('length', Number(this.distance.value), this.units));
+    if (this.distance.valid) {
+      this.ref.close({ metres: fromDisplay('length', Number(this.distance.value), this.data.units), network: this.network.value || !this.data.hasBackdrop });
+    }
   }
 }
 

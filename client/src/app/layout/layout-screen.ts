@@ -493,11 +493,14 @@ export class LayoutScreen {
 
   private askCalibration(a: { x: number; y: number }, b: { x: number; y: number }): void {
     this.dialog
-      .open(CalibrateDialog, { data: this.units(), width: '380px' })
+      .open(CalibrateDialog, {
+        width: '420px',
+        data: { units: this.units(), hasBackdrop: !!this.backdrop(), hasNetwork: this.doc().nodes.length > 0, backdropScaled: !!this.backdrop()?.scale },
+      })
       .afterClosed()
-      .subscribe((metres: number | undefined) => {
-        if (metres && metres > 0) {
-          this.editor.applyCalibration(a, b, metres);
+      .subscribe((answer: { metres: number; network: boolean } | undefined) => {
+        if (answer && answer.metres > 0) {
+          this.editor.applyCalibration(a, b, answer.metres, { network: answer.network });
           this.editor.fitToView();
         } else this.editor.cancelCalibration();
       });

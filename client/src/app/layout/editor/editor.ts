@@ -381,21 +381,22 @@ export class Editor {
   }
 
   /**
-   * The two points are `distance_m` apart in reality: rescale the whole plan (nodes, bend points,
-   * backdrop) about point a so they are. One undo step; drawn pipe lengths follow.
+   * The two points are `distance_m` apart in reality: rescale the backdrop about point a so they
+   * are, and with `network: true` the drawn network too (when it was drawn over the unscaled
+   * backdrop). One undo step; drawn pipe lengths follow.
    */
-  applyCalibration(a: Point, b: Point, distance_m: number): boolean {
+  applyCalibration(a: Point, b: Point, distance_m: number, options: { network: boolean } = { network: true }): boolean {
     const drawn = distance(a, b);
     if (!(drawn > 0) || !(distance_m > 0) || this.readOnly) return false;
     const f = distance_m / drawn;
     const sc = (x: number, y: number): [number, number] => [a.x + (x - a.x) * f, a.y + (y - a.y) * f];
     this.store.begin('set scale');
     this.store.update('set scale', (d) => {
-      const nodes = d.nodes.map((n) => {
+      const nodes = !options.network ? d.nodes : d.nodes.map((n) => {
         const [x, y] = sc(n.x_m ?? 0, n.y_m ?? 0);
         return { ...n, x_m: x, y_m: y };
       });
-      const links = d.links.map((l) => (l.vertices?.length ? { ...l, vertices: l.vertices.map(([x, y]) => sc(x, y)) } : l));
+      const links = !options.network ? d.links : d.links.map((l) => (l.vertices?.length ? { ...l, vertices: l.vertices.map(([x, y]) => sc(x, y)) } : l));
       const layout = { ...(d.layout ?? {}) };
       const bd = layout['backdrop'] as Backdrop | undefined;
       const bb = sc(b.x, b.y);
