@@ -41,7 +41,7 @@ export interface TankNode extends NodeBase {
   level_m: number;
   min_level_m: number;
   max_level_m: number;
-  /** Steady inflow from outside the network (a spring trickling into a cistern), m³/s. */
+  /** Steady inflow from outside the network (a spring trickling into a cistern), m³/s; used by simulate. */
   inflow_m3s?: number;
   /** Tanks sharing a bank id are drawn joined by a header (display grouping only). */
   bank?: string;
@@ -77,7 +77,10 @@ export interface OutletNode extends NodeBase {
   outlet_type?: OutletType;
   demand_model?: DemandModel;
   pattern?: string;
-  /** Trough with a float valve: stops drawing when full (volume tracked when trough_volume_m3 given). */
+  /**
+   * Trough with a float valve. The valve passes what the stock drink, so the outlet draws its
+   * (patterned) demand_m3s like any outlet; the flag is descriptive (takeoff, review).
+   */
   float_valve?: boolean;
 }
 
@@ -101,7 +104,7 @@ export interface PipeLink extends LinkBase {
   diameter_m: number;
   /** Hazen-Williams C, or absolute roughness in mm under Darcy-Weisbach. */
   roughness: number;
-  /** Sum of minor-loss coefficients K. */
+  /** Sum of minor-loss coefficients K (dimensionless, default 0). */
   minor_loss?: number;
   /** Catalogue reference (engine/pipe-catalogue.ts): material/series id and nominal size. */
   material?: string;
@@ -128,11 +131,15 @@ export interface PumpControl {
 
 export interface PumpLink extends LinkBase {
   kind: 'pump';
-  /** Constant delivered flow (positive-displacement or fill pump), m³/s. */
+  /** Constant delivered flow (positive-displacement or fill pump), m³/s; used when no curve is given. */
   flow_m3s?: number;
   /** Head–flow curve [[flow_m3s, head_m], …] with head falling as flow rises. */
   curve?: [number, number][];
-  /** 24 hourly availability factors 0..1 (a solar pump's daylight profile). */
+  /**
+   * 24 hourly availability factors 0..1 (a solar pump's daylight profile), used by simulate: they
+   * scale a constant-flow pump's flow, or a curve pump's speed (affinity laws). Steady solves run
+   * pumps at full availability.
+   */
   schedule?: number[];
   control?: PumpControl;
   /** Low-water cut-off on the tank the pump draws from: stop below this level, m. */
@@ -149,7 +156,7 @@ export interface ValveLink extends LinkBase {
   open?: boolean;
   /** Pressure-reducing valve: downstream pressure setting, m of water. */
   setting_m?: number;
-  /** Float valve: tank it feeds; closes when that tank reaches max_level_m. */
+  /** Float valve: tank it feeds; closes when that tank reaches max_level_m (reopens 2 cm below). */
   tank?: string;
   minor_loss?: number;
 }
