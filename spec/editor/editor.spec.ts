@@ -277,3 +277,19 @@ describe('Layout editor: scaling the backdrop only', () => {
     expect(ed.backdrop()?.scale?.distance_m).to.equal(20);
   });
 });
+
+describe('Layout editor: elevation of new elements', () => {
+  it('takes the nearest survey point, else the nearest node, else the kind default', () => {
+    const ed = editor();
+    ed.placeNode('tank', { x: 0, y: 0 });
+    expect(ed.store.node('T1')?.elevation_m).to.equal(0);
+    ed.store.patchElement('T1', { elevation_m: 41 });
+    ed.placeNode('tee', { x: 20, y: 0 });
+    expect(ed.store.node('J1')?.elevation_m).to.equal(41);
+    ed.store.patchLayout({ survey: { points: [{ x_m: 100, y_m: 0, elevation_m: 18 }] } });
+    ed.placeNode('source', { x: 90, y: 0 });
+    const s = ed.store.node('S1');
+    expect(s?.elevation_m).to.equal(18);
+    expect(s?.kind === 'source' && s.head_m).to.be.closeTo(18.3, 1e-9); // water surface keeps its 0.3 m over the box
+  });
+});

@@ -8,6 +8,7 @@ import { SelectTool } from '../tools/select-tool';
 import type { PointerInput, Tool, ToolId } from '../tools/tool';
 import { DocumentStore, linkPoints } from './document-store';
 import { boundsOf, distance, Point, projectOnPolyline, Rect, rectContains, snapPoint } from './geometry';
+import { nearestSurveyPoint, SurveyPoint } from './survey';
 import { Viewport } from './viewport';
 
 /** Transient drawing aids the canvas shows on its overlay layer (never part of the document). */
@@ -292,9 +293,32 @@ export class Editor {
     const doc = this.store.doc;
     const id = nextId(def.prefix, doc.nodes.map((n) => n.id));
     const p = this.snap(at);
-    this.store.addNode(def.create(id, p.x, p.y));
+    const node = def.create(id, p.x, p.y);
+    const z = this.groundElevationAt(p);
+    if (z !== null) {
+      const lift = z - node.elevation_m;
+      node.elevation_m = z;
+      if (node.kind === 'source') node.head_m += lift;
+    }
+    this.store.addNode(node);
     this.select([id]);
     return id;
+  }
+
+  /**
+   * Best guess of the ground elevation at a point for a new element: the nearest survey point,
+   * else the nearest existing node's elevation, else null (the kind's default).
+   */
+  groundElevationAt(p: Point): number | null {
+    const survey = (this.store.doc.layout?.['survey'] as { points?: SurveyPoint[] } | undefined)?.points ?? [];
+    const near = nearestSurveyPoint(survey, p);
+    if (near) return near.point.elevation_m;
+    let best: { z: number; d: number } | null = null;
+    for (const n of this.store.doc.nodes) {
+      const d = distance(p, { x: n.x_m ?? 0, y: n.y_m ?? 0 });
+      if (!best || d < best.d) best = { z: n.elevation_m, d };
+    }
+    return best ? best.z : null;
   }
 
   /** Add a link between two nodes; returns its id. One undo step. */
