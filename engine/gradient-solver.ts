@@ -392,10 +392,13 @@ export class GradientSolver {
     let iterations = 0;
     let converged = false;
     let singular = false;
+    let settled = false; // the previous update changed flows by < 1 % and no status
+    let worst = 0;
     while (iterations < maxIterations) {
       iterations++;
       values.fill(0);
       rhs.fill(0);
+      worst = 0;
       pinned.fill(Number.NaN);
       for (let k = 0; k < m; k++) {
         const f = model.from[k];
@@ -419,6 +422,10 @@ export class GradientSolver {
           continue;
         }
         this.linkLaw(k, flow[k], state.pumpFactor[k]);
+        if (st === STATUS_OPEN) {
+          const r = Math.abs(this.scratch[0] - (head[f] - head[t]));
+          if (r > worst) worst = r;
+        }
         const g = this.scratch[1] > GRADIENT_FLOOR ? this.scratch[1] : GRADIENT_FLOOR;
         const pk = 1 / g;
         const yk = this.scratch[0] * pk;
@@ -441,6 +448,9 @@ export class GradientSolver {
         if (!active[i]) { values[pd] = 1; rhs[u] = model.elevation[i]; continue; }
         if (virtualFull[i] > 0) {
           this.virtualLaw(i, virtualFlow[i], virtualFull[i], state);
+          // flow residual of the virtual link, scaled to metres (the barriers are too steep for a head test)
+          const rv = (Math.abs(this.scratch[0] - (head[i] - model.elevation[i] - this.zeroPressure(i, state))) / this.scratch[1]) * VIRTUAL_RESIDUAL_SCALE;
+          if (rv > worst) worst = rv;
           const g = this.scratch[1] > GRADIENT_FLOOR ? this.scratch[1] : GRADIENT_FLOOR;
           const pv = 1 / g;
           const yv = this.scratch[0] * pv;
@@ -453,6 +463,9 @@ export class GradientSolver {
         }
         if (!Number.isNaN(pinned[i])) { values[pd] += PIN_WEIGHT; rhs[u] += PIN_WEIGHT * pinned[i]; }
       }
+      // the assembly just evaluated every energy equation at the current flows and heads: when the
+      // last update was small and they all hold, the current state is the solution
+      if (settled && worst < ENERGY_TOLERANCE_M) { converged = true; iterations--; break; }
       const factorisation = this.chol ?? ldl;
       if (factorisation.factor() !== ldl.n) { singular = true; break; }
       factorisation.solve(rhs, x);
@@ -507,7 +520,8 @@ export class GradientSolver {
       if (changed) { this.connect(); continue; }
       // converged when flows stop changing, or when they only creep (a power law approaching zero
       // flow converges linearly under Newton) while every link's energy equation already holds
-      if (relative < accuracy || (relative < 1e-2 && this.energyResidual(state) < ENERGY_TOLERANCE_M)) { converged = true; break; }
+      if (relative < accuracy) { converged = true; break; }
+      settled = relative < 1e-2;
     }
     // final delivered demand (clamped to the physical range of each law)
     for (let i = 0; i < n; i++) {
@@ -516,28 +530,6 @@ export class GradientSolver {
       if (virtualFull[i] > 0) this.demand[i] = Math.min(Math.max(virtualFlow[i], 0), virtualFull[i]);
     }
     return { converged: converged && !singular, iterations, singular };
-  }
-
-  /** Largest |h(Q) − (H_from − H_to)| over open links (m), and flow residuals of virtual demand links (scaled). */
-  private energyResidual(state: SolverState): number {
-    const model = this.model;
-    const { status, flow, head, active, p } = this;
-    let worst = 0;
-    for (let k = 0; k < model.linkCount; k++) {
-      if (p[k] === 0 || status[k] !== STATUS_OPEN) continue;
-      this.linkLaw(k, flow[k], state.pumpFactor[k]);
-      const r = Math.abs(this.scratch[0] - (head[model.from[k]] - head[model.to[k]]));
-      if (r > worst) worst = r;
-    }
-    for (let i = 0; i < model.nodeCount; i++) {
-      const full = this.virtualFull[i];
-      if (!(full > 0) || !active[i]) continue;
-      this.virtualLaw(i, this.virtualFlow[i], full, state);
-      // measured in flow (|Δh|/g) and scaled to metres: the barriers are too steep for a head test
-      const r = (Math.abs(this.scratch[0] - (head[i] - model.elevation[i] - this.zeroPressure(i, state))) / this.scratch[1]) * VIRTUAL_RESIDUAL_SCALE;
-      if (r > worst) worst = r;
-    }
-    return worst;
   }
 
   /** Status changes of check valves, no-reverse pumps, empty-tank blocks and PRVs; true if any. */

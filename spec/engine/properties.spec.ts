@@ -54,7 +54,7 @@ function lawHeadloss(doc: NetworkDocument, link: PipeLink, q: number): number {
 }
 
 describe('random networks (fast-check): continuity and energy identities', () => {
-  it("flow balance at every tee to 1e-9 of the total demand (floor 1e-10 m³/s: rounding of p·ΔH at heads of thousands of metres), and no NaN", () => {
+  it("flow balance at every tee to 1e-9 of the total demand (floor 1e-10 m³/s + 1e-13·max|H|), and no NaN", () => {
     fc.assert(fc.property(specArb, (s) => {
       const doc = build(s);
       const result = solve(doc);
@@ -67,11 +67,15 @@ describe('random networks (fast-check): continuity and energy identities', () =>
         net.set(link.from, (net.get(link.from) ?? 0) - q);
       }
       const total = doc.nodes.reduce((a, n) => a + (n.kind === 'tee' ? n.demand_m3s : 0), 0);
+      // rounding of p·ΔH (p ≤ 100 m³/s per m) grows with the heads, which reach −10⁵ m in the
+      // absurd corners fast-check finds (7 L/s through 16 mm pipe)
+      const maxHead = Math.max(...Object.values(result.nodes).map((x) => Math.abs(x.head_m)));
+      const tolerance = 1e-9 * Math.max(total, 0.1) + 1e-13 * maxHead;
       for (const node of doc.nodes) {
         const r = result.nodes[node.id];
         expect(Number.isFinite(r.head_m)).to.equal(true);
         if (node.kind !== 'tee') continue;
-            expect(Math.abs((net.get(node.id) ?? 0) - r.demand_m3s)).to.be.below(1e-9 * Math.max(total, 0.1));
+            expect(Math.abs((net.get(node.id) ?? 0) - r.demand_m3s)).to.be.below(tolerance);
         expect(r.demand_m3s).to.be.closeTo(node.demand_m3s, 1e-15);
       }
     }), { numRuns: 150 });
