@@ -293,3 +293,18 @@ describe('Layout editor: elevation of new elements', () => {
     expect(s?.kind === 'source' && s.head_m).to.be.closeTo(18.3, 1e-9); // water surface keeps its 0.3 m over the box
   });
 });
+
+describe('Layout editor: bend points', () => {
+  it('dragging a bend point of the selected pipe moves it (snapped), re-measures, and is one undo step', () => {
+    const ed = editor();
+    ed.placeNode('tank', { x: 0, y: 0 });
+    ed.placeNode('tee', { x: 30, y: 0 });
+    ed.addLink('pipe', 'T1', 'J1', [[15, 0]]);
+    ed.select(['P1']);
+    drag(ed, [15, 0], [15.2, 19.9]);
+    expect(ed.store.link('P1')?.vertices).to.deep.equal([[15, 20]]);
+    expect((ed.store.link('P1') as PipeLink).length_m).to.equal(50); // two 15-20-25 legs
+    ed.undo();
+    expect(ed.store.link('P1')?.vertices).to.deep.equal([[15, 0]]);
+  });
+});

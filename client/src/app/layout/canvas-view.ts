@@ -429,6 +429,13 @@ export class CanvasView {
         this.uiLayer.add(new Konva.Circle({ x: p.x, y: p.y, radius: 20, stroke: SELECT, strokeWidth: 1, opacity: 0.6, listening: false }));
       }
     }
+    if (ed.selection.size === 1 && !ed.readOnly) {
+      const link = ed.store.link([...ed.selection][0]);
+      for (const [x, y] of link?.vertices ?? []) {
+        const p = vp.toScreen({ x, y });
+        this.uiLayer.add(new Konva.Rect({ x: p.x - 4, y: p.y - 4, width: 8, height: 8, fill: '#ffffff', stroke: SELECT, strokeWidth: 1.5, listening: false }));
+      }
+    }
     if (pv.marquee) {
       const a = vp.toScreen({ x: pv.marquee.x, y: pv.marquee.y + pv.marquee.height });
       this.uiLayer.add(new Konva.Rect({ x: a.x, y: a.y, width: pv.marquee.width * vp.scale, height: pv.marquee.height * vp.scale, fill: 'rgba(23,105,194,0.08)', stroke: SELECT, strokeWidth: 1, dash: [4, 3], listening: false }));

@@ -337,11 +337,18 @@ export class LayoutScreen {
   // ---- keyboard ----
   onKeyDown(e: KeyboardEvent): void {
     if (this.dialog.openDialogs.length || isTyping(e.target)) return;
-    if (e.key === ' ') {
+    const onCanvas = e.target === document.body || e.target === this.canvasRef().nativeElement;
+    if (e.key === ' ' && onCanvas) {
       this.editor.spaceHeld = true;
       e.preventDefault();
       return;
     }
+    if ((e.ctrlKey || e.metaKey) && e.key.toLowerCase() === 's') {
+      this.saver.flush();
+      e.preventDefault();
+      return;
+    }
+    if (!onCanvas && (e.key === ' ' || e.key === 'Enter')) return;
     if (e.key === '?') {
       this.openShortcuts();
       e.preventDefault();

@@ -36,6 +36,7 @@ export const SHORTCUTS: { keys: string; action: string }[] = [
   { keys: 'Delete / Backspace', action: 'Delete the selection' },
   { keys: 'Ctrl/⌘ C, Ctrl/⌘ V', action: 'Copy, paste (new ids)' },
   { keys: 'Ctrl/⌘ A', action: 'Select everything' },
+  { keys: 'Ctrl/⌘ S', action: 'Save now' },
   { keys: 'Ctrl/⌘ Z', action: 'Undo' },
   { keys: 'Shift Ctrl/⌘ Z, Ctrl Y', action: 'Redo' },
   { keys: 'Esc', action: 'Cancel the drawing or gesture; clear the selection' },
@@ -215,6 +216,14 @@ export class Editor {
       if (d <= tol && (!best || d < best.d)) best = { id: l.id, d };
     }
     return best?.id ?? null;
+  }
+
+  /** A bend point of the single selected link under a screen point (within 7 px), or null. */
+  vertexAt(screen: Point): { link: string; index: number } | null {
+    if (this.selected.size !== 1) return null;
+    const link = this.store.link([...this.selected][0]);
+    const i = link?.vertices?.findIndex(([x, y]) => distance(this.viewport.toScreen({ x, y }), screen) <= 7) ?? -1;
+    return link && i >= 0 ? { link: link.id, index: i } : null;
   }
 
   /** Nodes inside a world rectangle, and links whose whole line is inside it. */

@@ -8,11 +8,13 @@ const DRAG_THRESHOLD_PX = 3;
 
 /**
  * Select: click (shift toggles), marquee on empty space, drag selected nodes (with their link
- * ends) snapping the grabbed node to the grid. States: idle → pressing → dragging, idle → marquee.
+ * ends) snapping the grabbed node to the grid, drag a bend point of the selected link.
+ * States: idle → pressing → dragging, idle → marquee, idle → bending.
  */
 export class SelectTool implements Tool {
   readonly id = 'select' as const;
-  state: 'idle' | 'pressing' | 'dragging' | 'marquee' = 'idle';
+  state: 'idle' | 'pressing' | 'dragging' | 'marquee' | 'bending' = 'idle';
+  private bend: { link: string; index: number } | null = null;
   private start: PointerInput | null = null;
   private grabbed: string | null = null;
   private dragFrom: NetworkDocument | null = null;
@@ -32,6 +34,13 @@ export class SelectTool implements Tool {
     if (p.button !== 0) return;
     const hit = this.ed.hitTest(p.screen);
     this.start = p;
+    const vertex = this.ed.readOnly ? null : this.ed.vertexAt(p.screen);
+    if (vertex) {
+      this.bend = vertex;
+      this.state = 'bending';
+      this.ed.store.begin('move bend');
+      return;
+    }
     if (hit) {
       if (p.shift) this.ed.toggleSelected(hit);
       else if (!this.ed.isSelected(hit)) this.ed.select([hit]);
@@ -59,6 +68,14 @@ export class SelectTool implements Tool {
       this.ed.store.begin('move');
       this.ed.setDragging(this.ed.selectedNodeIds());
     }
+    if (this.state === 'bending' && this.bend) {
+      const link = this.ed.store.link(this.bend.link);
+      if (!link?.vertices) return;
+      const at = this.ed.snap(p.world);
+      const vertices = link.vertices.map((v, i) => (i === this.bend!.index ? ([at.x, at.y] as [number, number]) : v));
+      this.ed.store.patchElement(link.id, { vertices });
+      return;
+    }
     if (this.state === 'dragging' && this.dragFrom && this.grabbed) {
       const anchor = this.dragFrom.nodes.find((n) => n.id === this.grabbed);
       const ax = anchor?.x_m ?? 0;
@@ -73,6 +90,7 @@ export class SelectTool implements Tool {
   }
 
   up(_p: PointerInput): void {
+    if (this.state === 'bending') this.ed.store.commit();
     if (this.state === 'dragging') {
       this.ed.store.commit();
       this.ed.setDragging([]);
@@ -83,6 +101,7 @@ export class SelectTool implements Tool {
 
   cancel(): boolean {
     const had = this.state !== 'idle';
+    if (this.state === 'bending') this.ed.store.rollback();
     if (this.state === 'dragging') {
       this.ed.store.rollback();
       this.ed.setDragging([]);
@@ -101,5 +120,6 @@ export class SelectTool implements Tool {
     this.grabbed = null;
     this.dragFrom = null;
     this.baseSelection = [];
+    this.bend = null;
   }
 }
