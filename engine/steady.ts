@@ -22,6 +22,8 @@ export interface SteadyOptions extends CheckOptions {
   omega?: number;
   /** Convergence: relative flow change (default 1e-9). */
   accuracy?: number;
+  /** Convergence: every link's energy equation holds to this, m (default 1e-4). */
+  headTolerance_m?: number;
   /** Iteration cap (default 100). */
   maxIterations?: number;
   /** Fixed demands fall off below the outlet's minimum pressure (default false: demand-driven). */
@@ -120,7 +122,7 @@ export function solve(doc: unknown, options: SteadyOptions = {}): SteadyResult {
     const model = compileNetwork(network, { omega: options.omega });
     const solver = new GradientSolver(model);
     const state = steadyState(solver, options);
-    const outcome = solver.solve(state, { accuracy: options.accuracy, maxIterations: options.maxIterations });
+    const outcome = solver.solve(state, { accuracy: options.accuracy, maxIterations: options.maxIterations, headTolerance_m: options.headTolerance_m });
     const { nodes, links } = collectResult(model, solver);
     const warnings: Warning[] = [];
     if (!outcome.converged) {

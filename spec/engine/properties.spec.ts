@@ -84,7 +84,7 @@ describe('random networks (fast-check): continuity and energy identities', () =>
   it('energy balance around every loop and between fixed heads to 1e-5 m', () => {
     fc.assert(fc.property(specArb, (s) => {
       const doc = build(s);
-      const result = solve(doc);
+      const result = solve(doc, { headTolerance_m: 1e-8 });
       expect(result.converged).to.equal(true);
       // the law's headloss on every pipe equals the head drop; summed over the fundamental cycle of
       // each non-tree pipe it is zero
