@@ -150,6 +150,23 @@ describe('Layout screen in a real browser', function () {
     expect(after.document.nodes[0].name).to.equal('Header tank');
   });
 
+  it('when the network cannot be reached the chip says Offline and the edit is saved once it comes back', async () => {
+    await signIn(page, app.baseUrl, 'designer');
+    await openLayout(page, app.baseUrl, projectId);
+    let blocked = true;
+    await page.route('**/api/projects/*/network', (route) =>
+      blocked && route.request().method() === 'PUT' ? route.abort('internetdisconnected') : route.continue());
+    const t = (await hook.doc(page)).nodes[0];
+    await clickAt(page, t.x_m, t.y_m);
+    await page.getByTestId('prop-name').fill('Offline edit');
+    await page.getByTestId('prop-name').press('Tab');
+    await page.waitForFunction(() => document.querySelector('[data-testid=save-status]')?.textContent?.includes('Offline'), null, { timeout: 10000 });
+    blocked = false;
+    await waitSaved(page);
+    const after = (await (await page.request.get(`${app.baseUrl}/api/projects/${projectId}/network`)).json()) as { document: Doc };
+    expect(after.document.nodes[0].name).to.equal('Offline edit');
+  });
+
   it('undo and redo buttons step through edits; Escape abandons a pipe being drawn', async () => {
     await signIn(page, app.baseUrl, 'designer');
     await openLayout(page, app.baseUrl, projectId);
