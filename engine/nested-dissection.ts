@@ -78,17 +78,11 @@ export function nestedDissectionOrder(n: number, adjPtr: Int32Array, adjIdx: Int
     if (vertices.length === 0) return;
     if (vertices.length <= DISSECTION_LEAF_SIZE) { orderLeaf(vertices); return; }
     const label = part[vertices[0]];
-    // pseudo-peripheral root: repeat BFS from the last vertex reached while eccentricity grows
-    let root = vertices[0];
-    let reached = bfs(root, label);
-    let depth = level[queue[reached - 1]];
-    for (let iter = 0; iter < 4; iter++) {
-      const far = queue[reached - 1];
-      const r2 = bfs(far, label);
-      const d2 = level[queue[r2 - 1]];
-      if (d2 <= depth) { reached = bfs(root, label); break; }
-      root = far; reached = r2; depth = d2;
-    }
+    // pseudo-peripheral root (one sweep of Gibbs-Poole-Stockmeyer): BFS from any vertex, then
+    // from the last vertex it reached; that second level structure is the one we cut
+    let reached = bfs(vertices[0], label);
+    if (reached === vertices.length) reached = bfs(queue[reached - 1], label);
+    const depth = level[queue[reached - 1]];
     if (reached < vertices.length) {
       // disconnected part: split off the component reached and the rest
       const comp = queue.slice(0, reached);
