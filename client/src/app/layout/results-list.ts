@@ -13,7 +13,7 @@ interface Row { id: string; name: string; kind: string; value: string; colour: s
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <h2 class="title">Results @if (solveMs() > 0) { <span class="ms">solved in {{ solveMs().toFixed(0) }} ms</span> }</h2>
-    @if (!results()) {
+    @if (!results() || !doc().nodes.length) {
       <p class="empty">Results appear here as you draw.</p>
     } @else {
       @for (m of general(); track $index) { <p class="warn" data-testid="results-general-warning">{{ m }}</p> }
