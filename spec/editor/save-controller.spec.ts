@@ -123,3 +123,22 @@ describe('Layout editor: autosave', () => {
     expect(s.c.status).to.equal('read-only');
   });
 });
+
+describe('Layout editor: autosave across documents', () => {
+  it('an answer to a save sent before loading another document is ignored', async () => {
+    let release: (o: PutOutcome) => void = () => undefined;
+    const timers = new ManualTimers();
+    let doc: NetworkDocument = emptyDocument();
+    const backend = { put: () => new Promise<PutOutcome>((r) => (release = r)) };
+    const c = new SaveController(backend, timers, () => doc);
+    c.loaded(3);
+    doc = { ...doc, title: 'A' };
+    c.changed();
+    timers.advance(1500); // save of document A in flight
+    c.loaded(7); // another project's document arrives
+    release({ kind: 'saved', version: 4 });
+    await flush();
+    expect(c.version).to.equal(7);
+    expect(c.status).to.equal('saved');
+  });
+});

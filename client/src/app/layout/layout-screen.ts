@@ -86,7 +86,8 @@ export class LayoutScreen {
   private view: CanvasView | null = null;
   private readonly solver = new SolverClient();
   private readonly saver = new SaveController(
-    { put: (version, doc) => this.api.saveNetwork(this.projectId(), version, doc) },
+    // Saves go to the project whose network was loaded, even while the route moves on.
+    { put: (version, doc) => this.api.saveNetwork(this.loadedProject, version, doc) },
     realTimers,
     () => this.editor.store.doc,
     (s) => this.status.set(s),
@@ -158,6 +159,7 @@ export class LayoutScreen {
   private pointerActive = false;
   private conflictOpen = false;
   private notifiedRevision = 0;
+  private loadedProject = '';
 
   constructor() {
     const ed = this.editor;
@@ -246,6 +248,8 @@ export class LayoutScreen {
 
   // ---- loading ----
   private load(projectId: string): void {
+    // Same screen, another project: send what is pending for the previous one first.
+    if (this.loadedProject && this.loadedProject !== projectId) this.saver.flush();
     this.status.set('loading');
     this.api.project(projectId).subscribe({
       next: (p) => {
@@ -257,6 +261,7 @@ export class LayoutScreen {
     this.api.network(projectId).subscribe({
       next: (rec) => {
         const doc = rec.document && Array.isArray(rec.document.nodes) ? markTypedLengths(rec.document) : emptyDocument();
+        this.loadedProject = projectId;
         this.editor.store.replace(doc);
         this.notifiedRevision = this.editor.store.revision;
         this.serverResults.set(rec.results ?? null);

@@ -32,6 +32,8 @@ export class SaveController {
   private inFlight = false;
   private editsSinceSend = false;
   private retryMs = 0;
+  /** Bumped by loaded(): an answer to a save sent before it belongs to another document. */
+  private epoch = 0;
   static readonly DEBOUNCE_MS = 1500;
   static readonly RETRY_START_MS = 2000;
   static readonly RETRY_MAX_MS = 30000;
@@ -45,6 +47,8 @@ export class SaveController {
 
   /** The document in the editor now matches the server's `version`. */
   loaded(version: number): void {
+    this.epoch++;
+    this.inFlight = false;
     this.version = version;
     this.conflict = null;
     this.editsSinceSend = false;
@@ -113,6 +117,7 @@ export class SaveController {
     if (this.inFlight) return;
     this.inFlight = true;
     this.editsSinceSend = false;
+    const epoch = this.epoch;
     const doc = this.currentDoc();
     this.setStatus('saving');
     let outcome: PutOutcome;
@@ -121,6 +126,7 @@ export class SaveController {
     } catch {
       outcome = { kind: 'offline' };
     }
+    if (epoch !== this.epoch) return;
     this.inFlight = false;
     switch (outcome.kind) {
       case 'saved':
