@@ -15,9 +15,9 @@ import type { SparseLdl } from './sparse-ldl';
  * chol.factor(); chol.solve(b, x);
  */
 /** Widest supernode, columns. */
-const MAX_SUPERNODE_WIDTH = 96;
+const MAX_SUPERNODE_WIDTH = 64;
 /** Share of explicit zeros a relaxed supernode may hold. */
-const RELAX_ZEROS_FRACTION = 0.15;
+const RELAX_ZEROS_FRACTION = 0.3;
 
 export class SupernodalCholesky {
   readonly n: number;
@@ -52,7 +52,7 @@ export class SupernodalCholesky {
       const width = j - s0;
       const extra = j > 0 ? (count(j) + 1 - count(j - 1)) * width : 0;
       const joins = j > 0 && parent[j - 1] === j && width < MAX_SUPERNODE_WIDTH
-        && (extra === 0 || zeros + extra <= RELAX_ZEROS_FRACTION * (width + 1) * (count(j) + width + 1));
+        && (extra === 0 || zeros + extra <= Math.max(RELAX_ZEROS_FRACTION * (width + 1) * (count(j) + width + 1), 64));
       if (joins) zeros += extra; else { starts.push(j); zeros = 0; }
     }
     starts.push(n);

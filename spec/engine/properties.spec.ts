@@ -78,7 +78,7 @@ describe('random networks (fast-check): continuity and energy identities', () =>
             expect(Math.abs((net.get(node.id) ?? 0) - r.demand_m3s)).to.be.below(tolerance);
         expect(r.demand_m3s).to.be.closeTo(node.demand_m3s, 1e-15);
       }
-    }), { numRuns: 150 });
+    }), { numRuns: 120 });
   });
 
   it('energy balance around every loop and between fixed heads to 1e-5 m', () => {
@@ -124,7 +124,7 @@ describe('random networks (fast-check): continuity and energy identities', () =>
       }
       // a second source: the path N0 → N1 through the tree loses exactly the head difference
       if (s.sources === 2) expect(Math.abs(potential('N1') - head('N1'))).to.be.below(1e-5);
-    }), { numRuns: 150 });
+    }), { numRuns: 120 });
   });
 
   it('never throws and never returns NaN on arbitrary JSON-like input', () => {

@@ -62,7 +62,7 @@ describe('sparse LDLᵀ (sparse-ldl.ts, after Davis 2005, ACM TOMS Algorithm 849
         }
         expect(isPermutation(ldl.perm, n)).to.equal(true);
       },
-    ), { numRuns: 200 });
+    ), { numRuns: 100 });
   });
 
   it('reports the pivot of a singular matrix instead of returning garbage', () => {
@@ -121,7 +121,7 @@ describe('sparse LDLᵀ (sparse-ldl.ts, after Davis 2005, ACM TOMS Algorithm 849
           expect(Math.abs(s - b[i])).to.be.below(1e-9 * scale);
         }
       },
-    ), { numRuns: 150 });
+    ), { numRuns: 80 });
     const g = grid(30, 40);
     const pairs: [number, number][] = [];
     for (let v = 0; v < g.n; v++) for (let a = g.ptr[v]; a < g.ptr[v + 1]; a++) if (g.idx[a] > v) pairs.push([v, g.idx[a]]);
