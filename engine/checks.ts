@@ -97,8 +97,10 @@ export function steadyChecks(model: NetworkModel, s: SteadySolution, options: Ch
 }
 
 /**
- * Static (no-flow) head per node: the highest fixed head (sources; tanks at max level; the setting
- * of a PRV feeding the part) reachable over open pipes and valves. Pumps and PRVs separate parts.
+ * Static (no-flow) head per node, m: the highest fixed head (sources; tanks at max level; the
+ * setting of a PRV feeding the part) reachable over open pipes and valves. Pumps and PRVs separate
+ * parts. Static pressure = static head − elevation (common practice for pipe-class selection).
+ * @example staticHeads(model, { closed: new Uint8Array(model.linkCount) })[i] - model.elevation[i]
  */
 export function staticHeads(model: NetworkModel, s: Pick<SteadySolution, 'closed'>): Float64Array {
   const n = model.nodeCount;

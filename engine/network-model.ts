@@ -202,7 +202,10 @@ export function compileNetwork(doc: NetworkDocument, options: CompileOptions = {
   return model;
 }
 
-/** Hourly factor of pattern p at time t (s); 1 when p < 0. Hours wrap every 24. */
+/**
+ * Hourly factor of pattern p at time t (s); 1 when p < 0. Hours wrap every 24.
+ * @example patternFactor(model, model.nodePattern[i], 7.5 * 3600) // the 07:00–08:00 factor
+ */
 export function patternFactor(model: NetworkModel, p: number, time_s: number): number {
   if (p < 0) return 1;
   const pat = model.patterns[p];

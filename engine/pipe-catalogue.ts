@@ -77,7 +77,11 @@ export const pipeSeries: readonly PipeSeries[] = [
 /** Minimum wall of ASTM D2241 pipe, in (M). */
 const D2241_MIN_WALL_IN = 0.06;
 
-/** Pressure rating, psi: 2S/(DR − 1) for OD-controlled, 2S/(SIDR + 1) for ID-controlled pipe. */
+/**
+ * Pressure rating, psi: 2S/(DR − 1) for OD-controlled, 2S/(SIDR + 1) for ID-controlled pipe
+ * (V2, NRCS National Engineering Handbook). S = hydrostatic design stress, psi.
+ * @example pressureRatingPsi(1000, 11, 'OD') // 200 (PE4710 DR 11)
+ */
 export function pressureRatingPsi(hds_psi: number, ratio: number, control: 'OD' | 'ID'): number {
   return (2 * hds_psi) / (control === 'OD' ? ratio - 1 : ratio + 1);
 }

@@ -45,12 +45,18 @@ export interface SteadyResult {
   warnings: Warning[];
 }
 
-/** Documents from JSON may omit schema/headloss; fill the defaults. */
+/**
+ * Documents from JSON may omit schema/headloss; fill the defaults (Hazen-Williams).
+ * @example normaliseDocument(JSON.parse(text)).headloss // 'hazen-williams' when absent
+ */
 export function normaliseDocument(doc: NetworkDocument): NetworkDocument {
   return { ...doc, schema: 'runnel.network/1', headloss: doc.headloss ?? 'hazen-williams' };
 }
 
-/** The design-condition state of a compiled model (see module doc). */
+/**
+ * The design-condition state of a compiled model (see module doc).
+ * @example solver.solve(steadyState(solver, { pressureDriven: true }))
+ */
 export function steadyState(solver: GradientSolver, options: SteadyOptions = {}): SolverState {
   const model = solver.model;
   const state = solver.createState();
@@ -71,7 +77,10 @@ export function steadyState(solver: GradientSolver, options: SteadyOptions = {})
   return state;
 }
 
-/** Result records from the solver's arrays. */
+/**
+ * Result records (keyed by element id) from the solver's arrays.
+ * @example const { nodes, links } = collectResult(model, solver);
+ */
 export function collectResult(model: NetworkModel, solver: GradientSolver): Pick<SteadyResult, 'nodes' | 'links'> {
   const nodes: Record<string, NodeResult> = {};
   const links: Record<string, LinkResult> = {};
