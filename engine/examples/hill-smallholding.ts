@@ -6,7 +6,7 @@ import { defaultRoughness, findPipeSize } from '../pipe-catalogue';
  *
  * `hillSmallholding`: a hill smallholding with a flock of sheep and a cider orchard on a site plan
  * of about 600 m × 400 m (x east, y north, metres). A drilled well near the yard (water surface
- * 38 m below ground) has a solar pump (constant 0.6 L/s by daylight) lifting through a check valve
+ * 38 m below ground) has a solar pump (constant 0.75 L/s by daylight) lifting through a check valve
  * and a PE rising main to two linked 8,600 L tanks on the ridge, 57 m above the farmhouse (same bank, 4 m header). The pump
  * stops when the tanks reach 1.80 m and restarts at 1.40 m. A gravity main runs down the slope with
  * tees to the farmhouse and garden, the lambing shed and yard hydrant, two orchard drip blocks
@@ -80,7 +80,7 @@ export const hillSmallholding: NetworkDocument = {
     { id: 'TR4', name: 'South trough (across the dip)', kind: 'outlet', outlet_type: 'trough', float_valve: true, elevation_m: 104, demand_m3s: 0.1 * G, min_pressure_m: 3.5, pattern: 'stock', x_m: 430, y_m: 58 },
   ],
   links: [
-    { id: 'PU1', name: 'Solar well pump', kind: 'pump', from: 'W', to: 'WH', flow_m3s: 0.6 * G, schedule: SOLAR_DAY,
+    { id: 'PU1', name: 'Solar well pump', kind: 'pump', from: 'W', to: 'WH', flow_m3s: 0.75 * G, schedule: SOLAR_DAY,
       control: { tank: 'T1', stop_level_m: 1.8, start_level_m: 1.4 } },
     { id: 'CV1', name: 'Pump check valve', kind: 'valve', valve_type: 'check', from: 'WH', to: 'WH2', diameter_m: findPipeSize('pe-sidr9', '1"')?.id_m ?? 0.0266, minor_loss: 2 },
     pipe('R1', 'Rising main', 'WH2', 'T1', 360, 'pe-sidr9', '1"', {
