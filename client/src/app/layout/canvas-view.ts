@@ -342,7 +342,14 @@ export class CanvasView {
           x: Math.cos(rad) * offset, y: Math.sin(rad) * offset, rotation: angle,
         });
         v.overlay.add(arrow);
-        if (speed && this.detail) v.overlay.add(new Konva.Text({ text: speed, x: 8, y: 6, fontFamily: FONT, fontSize: 10, fill: SELECT, listening: false }));
+        if (speed && this.detail) {
+          // Beside the line, on the side below or right of it, so the text never sits on the stroke.
+          const normal = v.mid.rotation() * (Math.PI / 180) + Math.PI / 2;
+          const side = Math.sin(normal) >= 0 ? 1 : -1;
+          const nx = Math.cos(normal) * 12 * side;
+          const ny = Math.sin(normal) * 12 * side;
+          v.overlay.add(new Konva.Text({ text: speed, x: nx + (nx < 0 ? -46 : 2), y: ny - 5, width: 44, align: nx < 0 ? 'right' : 'left', fontFamily: FONT, fontSize: 10, fill: SELECT, listening: false }));
+        }
       }
       if (show && w?.length) v.overlay.add(...badge(10, -20));
     }

@@ -203,6 +203,10 @@ export class LayoutScreen {
       untracked(() => this.view?.setSurvey(pts));
     });
 
+    effect(() => {
+      if (this.status() === 'conflict') untracked(() => this.askAboutConflict());
+    });
+
     afterNextRender(() => this.attachCanvas());
 
     window.__runnelEditor = {
@@ -452,8 +456,8 @@ export class LayoutScreen {
     );
   }
 
-  // ---- save conflict ----
-  private readonly conflictWatcher = effect(() => {
+  /** A 409 on save: ask once; never overwrite or drop anything without the user's word. */
+  private askAboutConflict(): void {
     if (this.status() !== 'conflict' || this.conflictOpen) return;
     const current = this.saver.conflict;
     if (!current) return;
@@ -467,7 +471,7 @@ export class LayoutScreen {
         this.saver.takeTheirs();
       } else this.saver.keepMine();
     });
-  });
+  }
 
   // ---- backdrop ----
   async uploadBackdrop(input: HTMLInputElement): Promise<void> {
