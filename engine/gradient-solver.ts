@@ -145,6 +145,11 @@ export class GradientSolver {
   private readonly adjLink: Int32Array;
   private readonly scratch = new Float64Array(2);
   private initialised = false;
+  private readonly hasPrv: boolean;
+  /** Links with status logic of their own (check, PRV, curve pump) and all links. */
+  private readonly logicLinks: Int32Array;
+  private readonly allLinks: Int32Array;
+  private statusLinks: Int32Array;
 
   constructor(model: NetworkModel) {
     this.model = model;
@@ -164,6 +169,15 @@ export class GradientSolver {
     }
     this.ldl = new SparseLdl(nu, { i: Int32Array.from(pi), j: Int32Array.from(pj) });
     this.chol = nu >= SUPERNODAL_MIN_ORDER ? new SupernodalCholesky(this.ldl) : null;
+    const logic: number[] = [];
+    for (let k = 0; k < m; k++) {
+      const kind = model.linkKind[k];
+      if (kind === LINK_CHECK || kind === LINK_PRV || kind === LINK_PUMP_CURVE) logic.push(k);
+    }
+    this.logicLinks = Int32Array.from(logic);
+    this.allLinks = Int32Array.from({ length: m }, (_, k) => k);
+    this.statusLinks = this.logicLinks;
+    this.hasPrv = logic.some((k) => model.linkKind[k] === LINK_PRV);
     this.posFF = new Int32Array(m).fill(-1);
     this.posTT = new Int32Array(m).fill(-1);
     this.posFT = new Int32Array(m).fill(-1);
@@ -392,6 +406,10 @@ export class GradientSolver {
       if (isVirtual && !(model.demandType[i] === DEMAND_EMITTER ? model.emitterK[i] * state.demandFactor[i] > 0 : base > 0)) virtualFull[i] = 0;
     }
     this.connect();
+    // links whose status can change: valves with logic, curve pumps, and links of empty tanks
+    let hasBlocks = false;
+    for (let k = 0; k < m; k++) if (state.linkDirection[k] !== 0) { hasBlocks = true; break; }
+    if (hasBlocks) this.statusLinks = this.allLinks; else this.statusLinks = this.logicLinks;
 
     let iterations = 0;
     let converged = false;
@@ -495,19 +513,18 @@ export class GradientSolver {
         flow[k] = q;
       }
       // delivered demands and flows through active PRVs from continuity at their outlets
-      netOut.fill(0);
+      if (this.hasPrv) netOut.fill(0);
       for (let i = 0; i < n; i++) {
         if (model.nodeKind[i] !== NODE_JUNCTION || !active[i]) { this.demand[i] = 0; continue; }
         const d = virtualFull[i] > 0 ? virtualFlow[i] : this.requested[i] || 0;
         this.demand[i] = d;
       }
-      let anyPrv = false;
-      for (let k = 0; k < m; k++) {
-        if (model.linkKind[k] === LINK_PRV && status[k] === STATUS_ACTIVE && active[model.from[k]] && active[model.to[k]]) { anyPrv = true; continue; }
-        netOut[model.from[k]] += flow[k];
-        netOut[model.to[k]] -= flow[k];
-      }
-      if (anyPrv) {
+      if (this.hasPrv) {
+        for (let k = 0; k < m; k++) {
+          if (model.linkKind[k] === LINK_PRV && status[k] === STATUS_ACTIVE && active[model.from[k]] && active[model.to[k]]) continue;
+          netOut[model.from[k]] += flow[k];
+          netOut[model.to[k]] -= flow[k];
+        }
         for (let k = 0; k < m; k++) {
           if (!(model.linkKind[k] === LINK_PRV && status[k] === STATUS_ACTIVE && active[model.from[k]] && active[model.to[k]])) continue;
           const t = model.to[k];
@@ -520,7 +537,7 @@ export class GradientSolver {
       }
       const relative = sumDQ / Math.max(sumQ, FLOW_SCALE_FLOOR);
       let changed = false;
-      if (relative < 1e-2 || iterations >= 10) changed = this.checkStatuses(state);
+      if ((relative < 1e-2 || iterations >= 10) && (this.statusLinks.length > 0 || hasBlocks)) changed = this.checkStatuses(state);
       if (changed) { this.connect(); continue; }
       // converged when flows stop changing, or when they only creep (a power law approaching zero
       // flow converges linearly under Newton) while every link's energy equation already holds
@@ -541,7 +558,9 @@ export class GradientSolver {
     const model = this.model;
     const { status, flow, head, active, changes } = this;
     let changed = false;
-    for (let k = 0; k < model.linkCount; k++) {
+    const list = this.statusLinks;
+    for (let a = 0; a < list.length; a++) {
+      const k = list[a];
       const st = status[k];
       if (st === STATUS_CLOSED || changes[k] > 8) continue;
       const kind = model.linkKind[k];
