@@ -360,7 +360,7 @@ export class GradientSolver {
       this.status[k] = kind === LINK_PRV ? STATUS_ACTIVE : STATUS_OPEN;
       if (kind === LINK_PUMP_FLOW) this.flow[k] = model.pumpFlow[k];
       else if (kind === LINK_PUMP_CURVE) this.flow[k] = model.curveQ[model.curveStart[k] + 1];
-      else this.flow[k] = 0.1 * model.area[k]; // 0.1 m/s forward
+      else this.flow[k] = 0.05 * model.area[k]; // 0.05 m/s forward
     }
     this.initialised = true;
   }
