@@ -308,3 +308,19 @@ describe('Layout editor: bend points', () => {
     expect(ed.store.link('P1')?.vertices).to.deep.equal([[15, 0]]);
   });
 });
+
+describe('Layout editor: moving the backdrop', () => {
+  it('a drag slides the backdrop by the pointer travel as one undo step; Escape mid-drag puts it back', () => {
+    const ed = editor();
+    ed.store.patchLayout({ backdrop: { fileId: 'f', opacity: 0.5, x_m: 0, y_m: 0, m_per_px: 0.1, width_px: 100, height_px: 100 } });
+    ed.setTool('backdrop');
+    drag(ed, [5, 5], [12, 2]);
+    expect(ed.backdrop()).to.include({ x_m: 7, y_m: -3 });
+    ed.pointerDown(at(ed, 0, 0));
+    ed.pointerMove(at(ed, 50, 50));
+    ed.handleKey('Escape', { mod: false, shift: false });
+    expect(ed.backdrop()).to.include({ x_m: 7, y_m: -3 });
+    ed.undo();
+    expect(ed.backdrop()).to.include({ x_m: 0, y_m: 0 });
+  });
+});

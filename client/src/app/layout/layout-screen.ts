@@ -137,6 +137,7 @@ export class LayoutScreen {
     if (t.id === 'calibrate') return 'Click two points a known distance apart.';
     if (t.id === 'place') return 'Click to place. Shift-click to place another.';
     if (t.id === 'pan') return 'Drag to move the view.';
+    if (t.id === 'backdrop') return 'Drag to slide the backdrop under the network. Esc when done.';
     return '';
   });
 

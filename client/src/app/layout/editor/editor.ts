@@ -1,5 +1,6 @@
 import type { LinkKind, NetworkDocument, NetworkLink, NetworkNode, NodeKind } from '../../../../../engine/network-document';
 import { isNodeKind, LINK_KINDS, nextId, NODE_KINDS } from '../kinds';
+import { BackdropTool } from '../tools/backdrop-tool';
 import { CalibrateTool } from '../tools/calibrate-tool';
 import { LinkTool } from '../tools/link-tool';
 import { PanTool } from '../tools/pan-tool';
@@ -102,6 +103,7 @@ export class Editor {
       : id === 'link' ? new LinkTool(this, (option as LinkKind) ?? 'pipe')
       : id === 'pan' ? new PanTool(this)
       : id === 'calibrate' ? new CalibrateTool(this)
+      : id === 'backdrop' ? new BackdropTool(this)
       : new SelectTool(this);
     this.tool.enter();
     this.emit('tool');

@@ -1,6 +1,6 @@
 import type { Point } from '../editor/geometry';
 
-export type ToolId = 'select' | 'place' | 'link' | 'pan' | 'calibrate';
+export type ToolId = 'select' | 'place' | 'link' | 'pan' | 'calibrate' | 'backdrop';
 
 /** One pointer event, already converted: world metres (y up) and screen CSS px (y down). */
 export interface PointerInput {
