@@ -324,3 +324,18 @@ describe('Layout editor: moving the backdrop', () => {
     expect(ed.backdrop()).to.include({ x_m: 0, y_m: 0 });
   });
 });
+
+describe('Layout editor: revealing an element', () => {
+  it('selects it and centres the view only when it is off screen', () => {
+    const ed = editor();
+    ed.placeNode('tee', { x: 10, y: 10 });
+    ed.placeNode('outlet', { x: 1000, y: 0 });
+    const origin = ed.viewport.originX;
+    ed.reveal('J1');
+    expect(ed.viewport.originX).to.equal(origin);
+    ed.reveal('O1');
+    expect([...ed.selection]).to.deep.equal(['O1']);
+    const s = ed.viewport.toScreen({ x: 1000, y: 0 });
+    expect(s).to.deep.equal({ x: 400, y: 300 });
+  });
+});

@@ -112,6 +112,7 @@ export class LayoutScreen {
 
   readonly results = computed(() => this.solver.result() ?? this.serverResults());
   readonly solveMs = computed(() => this.solver.lastMs());
+  readonly solveError = computed(() => this.solver.error());
   readonly warnings = computed(() => resultWarnings(this.doc(), this.results(), this.units()));
   readonly selectedElement = computed(() => {
     const sel = this.selection();
@@ -430,7 +431,7 @@ export class LayoutScreen {
   }
 
   pickResult(id: string): void {
-    this.editor.select([id]);
+    this.editor.reveal(id);
   }
 
   deleteSelection(): void {

@@ -13,6 +13,7 @@ interface Row { id: string; name: string; kind: string; value: string; colour: s
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <h2 class="title">Results @if (solveMs() > 0) { <span class="ms">solved in {{ solveMs().toFixed(0) }} ms</span> }</h2>
+    @if (solveError()) { <p class="warn" role="alert">The live solve failed: {{ solveError() }}. Results shown are from the last good solve.</p> }
     @if (!results() || !doc().nodes.length) {
       <p class="empty">Results appear here as you draw.</p>
     } @else {
@@ -57,6 +58,7 @@ export class ResultsList {
   readonly units = input<UnitSystem>('us');
   readonly selected = input<string[]>([]);
   readonly solveMs = input(0);
+  readonly solveError = input<string | null>(null);
   readonly pick = output<string>();
 
   readonly general = computed(() => documentWarnings(this.results()));

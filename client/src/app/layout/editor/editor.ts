@@ -8,7 +8,7 @@ import { PlaceTool } from '../tools/place-tool';
 import { SelectTool } from '../tools/select-tool';
 import type { PointerInput, Tool, ToolId } from '../tools/tool';
 import { DocumentStore, linkPoints } from './document-store';
-import { boundsOf, distance, Point, projectOnPolyline, Rect, rectContains, snapPoint } from './geometry';
+import { boundsOf, distance, Point, polylineMidpoint, projectOnPolyline, Rect, rectContains, snapPoint } from './geometry';
 import { nearestSurveyPoint, SurveyPoint } from './survey';
 import { Viewport } from './viewport';
 
@@ -273,6 +273,21 @@ export class Editor {
     const pad = Math.max(r.width, r.height) < 20 ? 20 : 0;
     this.viewport.fit({ x: r.x - pad / 2, y: r.y - pad / 2, width: r.width + pad, height: r.height + pad });
     this.emit('view');
+  }
+
+  /** Select an element and, when it lies outside the view, centre the view on it. */
+  reveal(id: string): void {
+    this.select([id]);
+    const n = this.store.node(id);
+    const l = n ? undefined : this.store.link(id);
+    const pts = n ? [{ x: n.x_m ?? 0, y: n.y_m ?? 0 }] : l ? linkPoints(l, this.store.doc) : [];
+    if (!pts.length) return;
+    const c = pts.length === 1 ? pts[0] : polylineMidpoint(pts).point;
+    const s = this.viewport.toScreen(c);
+    const margin = 40;
+    if (s.x < margin || s.y < margin || s.x > this.viewport.width - margin || s.y > this.viewport.height - margin) {
+      this.panBy(this.viewport.width / 2 - s.x, this.viewport.height / 2 - s.y);
+    }
   }
 
   setPreview(p: Preview): void {
