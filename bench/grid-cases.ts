@@ -9,8 +9,8 @@ export function gridCase(nx: number, ny: number, target_ms?: number): BenchCase 
   return {
     name: `looped grid ${n.toLocaleString('en-US')} tees (${nx}×${ny})`,
     detail: `solve() of ${n} tees and ${doc.links.length} pipes`,
-    warmup: n > 5000 ? 1 : 3,
-    repeats: n > 5000 ? 5 : 15,
+    warmup: n > 5000 ? 2 : 3,
+    repeats: n > 5000 ? 9 : 15,
     target_ms,
     check: (out) => { if (!(out as SteadyResult).converged) throw new Error(`grid ${nx}×${ny} did not converge`); },
     run: () => solve(doc),
