@@ -137,6 +137,9 @@ export class GradientSolver {
   private readonly y: Float64Array;
   private readonly virtualFlow: Float64Array;
   private readonly virtualFull: Float64Array;
+  /** Newton terms y = h/g and p = 1/g of the virtual demand links in the current iteration. */
+  private readonly virtualY: Float64Array;
+  private readonly virtualP: Float64Array;
   private readonly pinned: Float64Array;
   private readonly netOut: Float64Array;
   private readonly changes: Int32Array;
@@ -203,6 +206,8 @@ export class GradientSolver {
     this.y = new Float64Array(m);
     this.virtualFlow = new Float64Array(n);
     this.virtualFull = new Float64Array(n);
+    this.virtualY = new Float64Array(n);
+    this.virtualP = new Float64Array(n);
     this.pinned = new Float64Array(n).fill(Number.NaN);
     this.netOut = new Float64Array(n);
     this.changes = new Int32Array(m);
@@ -478,8 +483,8 @@ export class GradientSolver {
           const yv = this.scratch[0] * pv;
           values[pd] += pv;
           rhs[u] += -(virtualFlow[i] - yv) + pv * (model.elevation[i] + this.zeroPressure(i, state));
-          this.demand[i] = yv; // stash y of the virtual link
-          this.netOut[i] = pv; // stash p of the virtual link
+          this.virtualY[i] = yv;
+          this.virtualP[i] = pv;
         } else {
           rhs[u] -= this.requested[i] > 0 || this.requested[i] < 0 ? this.requested[i] : 0;
         }
@@ -499,7 +504,7 @@ export class GradientSolver {
       for (let i = 0; i < n; i++) {
         if (model.nodeKind[i] !== NODE_JUNCTION || !active[i]) { virtualFlow[i] = 0; continue; }
         if (virtualFull[i] > 0) {
-          const qv = virtualFlow[i] - this.demand[i] + this.netOut[i] * (head[i] - model.elevation[i] - this.zeroPressure(i, state));
+          const qv = virtualFlow[i] - this.virtualY[i] + this.virtualP[i] * (head[i] - model.elevation[i] - this.zeroPressure(i, state));
           sumDQ += Math.abs(qv - virtualFlow[i]);
           sumQ += Math.abs(qv);
           virtualFlow[i] = qv;
