@@ -96,3 +96,13 @@ describe('Layout editor: export and kinds', () => {
     expect(o.demand_model.k).to.equal(1);
   });
 });
+
+describe('Layout editor: pump daylight preset', () => {
+  it('has 24 hourly factors in 0..1, zero through the night, summing to 8.7 full-flow hours', async () => {
+    const { DAYLIGHT_SCHEDULE } = await import('../../client/src/app/layout/kinds/pump-kind');
+    expect(DAYLIGHT_SCHEDULE).to.have.length(24);
+    expect(DAYLIGHT_SCHEDULE.every((f) => f >= 0 && f <= 1)).to.equal(true);
+    expect([0, 1, 2, 3, 4, 5, 20, 21, 22, 23].map((h) => DAYLIGHT_SCHEDULE[h])).to.deep.equal(Array(10).fill(0));
+    expect(DAYLIGHT_SCHEDULE.reduce((a, b) => a + b, 0)).to.be.closeTo(8.7, 1e-9);
+  });
+});

@@ -2,7 +2,8 @@
  * Colour ramp for pressure margin (pressure − minimum pressure). Our own ramp from deep blue
  * through grey-olive to warm yellow: lightness rises steadily along it, and it avoids red–green
  * contrasts, so it reads for the common colour-vision deficiencies and in greyscale (the same
- * design idea as the published cividis map, Nuñez et al. 2018, PLoS ONE 13(7); stops our own).
+ * design idea as the published cividis map, Nuñez et al. 2018, PLoS ONE 13(7) — citation from
+ * memory; stops our own).
  */
 const STOPS: [number, [number, number, number]][] = [
   [0.0, [18, 38, 92]],

@@ -3,8 +3,8 @@ import { INK, LinkKindDef, nameField, notesField, PAPER } from './kind-types';
 
 /**
  * Hourly availability of a solar pump on a clear day: off at night, ramping up through the
- * morning, full from 10:00 to 15:00. Our own rounded approximation (common trade practice is to
- * assume about 5–6 full-sun hours); adjust to the site.
+ * morning, full from 10:00 to 14:59. Our own rounded approximation, about 8.7 full-sun-equivalent
+ * hours (trade practice often sizes solar pumps on 5–6 peak-sun hours — from memory); adjust to the site.
  */
 export const DAYLIGHT_SCHEDULE: readonly number[] = [
   0, 0, 0, 0, 0, 0, 0.1, 0.3, 0.6, 0.85, 1, 1, 1, 1, 1, 0.85, 0.6, 0.3, 0.1, 0, 0, 0, 0, 0,
