@@ -37,8 +37,10 @@ export class SparseLdl {
   /** Column pointers of L: column j holds lp[j+1] − lp[j] entries below the diagonal. */
   readonly lp: Int32Array;
   private readonly lnz: Int32Array;
-  private readonly li: Int32Array;
-  private readonly lx: Float64Array;
+  /** Row indices and values of L, allocated on the first factor() (a supernodal factorisation
+   * that only borrows this pattern never needs them). */
+  private li: Int32Array = new Int32Array(0);
+  private lx: Float64Array = new Float64Array(0);
   private readonly d: Float64Array;
   private readonly y: Float64Array;
   private readonly pattern: Int32Array;
@@ -96,8 +98,6 @@ export class SparseLdl {
     this.perm = new Int32Array(n);
     for (let k = 0; k < n; k++) this.perm[k] = order[post[k]];
     this.symbolic();
-    this.li = new Int32Array(this.lp[n]);
-    this.lx = new Float64Array(this.lp[n]);
     this.d = new Float64Array(n);
     this.y = new Float64Array(n);
     this.pattern = new Int32Array(n);
@@ -146,6 +146,10 @@ export class SparseLdl {
    * order) where D[k] was zero or not finite.
    */
   factor(): number {
+    if (this.li.length !== this.lp[this.n]) {
+      this.li = new Int32Array(this.lp[this.n]);
+      this.lx = new Float64Array(this.lp[this.n]);
+    }
     const { n, colPtr, rowIdx, values, perm, pinv, parent, lp, lnz, li, lx, d, y, pattern, flag } = this;
     for (let k = 0; k < n; k++) {
       y[k] = 0;
