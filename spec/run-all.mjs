@@ -8,7 +8,9 @@ import Mocha from 'mocha';
 
 const root = new URL('..', import.meta.url).pathname;
 const specRoot = join(root, 'spec');
-const order = ['engine', 'editor', 'api', 'e2e'];
+const clientRoot = join(root, 'client', 'src');
+// Pure client helpers keep their specs beside them; they run first with the other fast suites.
+const order = ['client', 'engine', 'editor', 'api', 'e2e'];
 
 function specFiles(dir) {
   return readdirSync(dir).flatMap((name) => {
@@ -19,11 +21,12 @@ function specFiles(dir) {
 }
 
 const rank = (file) => {
+  if (file.startsWith(clientRoot)) return 0;
   const top = relative(specRoot, file).split('/')[0];
   const i = order.indexOf(top);
   return i < 0 ? order.length : i;
 };
-const files = specFiles(specRoot).sort((a, b) => rank(a) - rank(b) || a.localeCompare(b));
+const files = [...specFiles(clientRoot), ...specFiles(specRoot)].sort((a, b) => rank(a) - rank(b) || a.localeCompare(b));
 
 if (process.env.RUNNEL_SKIP_BUILD !== '1') {
   console.log('Building the client for the browser tests…');
