@@ -58,6 +58,8 @@ export class CanvasView {
   private readonly backdropGroup = new Konva.Group({ listening: false });
   private headerKey = '';
   private detail = true;
+  private labelledNodes: NetworkNode[] | null = null;
+  private labelledSelection: ReadonlySet<string> | null = null;
   /** What each element's overlay shows now, to skip unchanged ones. */
   private readonly overlayKeys = new Map<string, string>();
   private backdropImage: Konva.Image | null = null;
@@ -157,12 +159,15 @@ export class CanvasView {
         v.label.text(n.name || n.id);
         v.rec = n;
       } else if (!viewChanged && !detailChanged && this.selectionShown.has(n.id) === selected && !dragging.has(n.id) && !this.lifted.has(n.id)) continue;
-      v.label.visible(detail || selected);
       const s = vp.toScreen({ x: n.x_m ?? 0, y: n.y_m ?? 0 });
       v.group.position(s);
       v.overlay.position(s);
       v.halo.visible(selected);
       this.place(v.group, v.overlay, n.id, dragging.has(n.id), this.nodeLayer, dirty);
+    }
+    if ((viewChanged || detailChanged || doc.nodes !== this.labelledNodes || selection !== this.labelledSelection) && dragging.size === 0) {
+      this.declutterNames(doc.nodes, detail, selection);
+      dirty.add(this.contentLayer);
     }
     for (const [id, v] of this.nodes) if (!seen.has(id)) { v.group.destroy(); v.overlay.destroy(); this.nodes.delete(id); this.overlayKeys.delete(id); dirty.add(this.contentLayer); }
 
@@ -212,6 +217,35 @@ export class CanvasView {
     dirty.add(this.uiLayer);
     this.renderedView = this.viewVersion;
     for (const layer of dirty) layer.batchDraw();
+  }
+
+  /**
+   * Name labels, placed greedily (tanks and sources first, then outlets, then tees): a name is
+   * hidden when an already shown name sits within 34 px, unless its element is selected.
+   */
+  private declutterNames(nodes: NetworkNode[], detail: boolean, selection: ReadonlySet<string>): void {
+    this.labelledNodes = nodes;
+    this.labelledSelection = selection;
+    const rank: Record<string, number> = { tank: 0, source: 0, outlet: 1, tee: 2 };
+    const order = [...nodes].sort((a, b) => Number(selection.has(b.id)) - Number(selection.has(a.id)) || rank[a.kind] - rank[b.kind]);
+    const cell = 34;
+    const shown = new Map<string, { x: number; y: number }[]>();
+    for (const n of order) {
+      const v = this.nodes.get(n.id);
+      if (!v) continue;
+      const p = this.editor.viewport.toScreen({ x: n.x_m ?? 0, y: n.y_m ?? 0 });
+      const cx = Math.floor(p.x / cell);
+      const cy = Math.floor(p.y / cell);
+      let free = true;
+      for (let i = -1; i <= 1 && free; i++) {
+        for (let j = -1; j <= 1 && free; j++) {
+          for (const q of shown.get(`${cx + i},${cy + j}`) ?? []) if (Math.hypot(q.x - p.x, q.y - p.y) < cell) free = false;
+        }
+      }
+      const visible = selection.has(n.id) || (detail && free);
+      v.label.visible(visible);
+      if (visible) shown.set(`${cx},${cy}`, [...(shown.get(`${cx},${cy}`) ?? []), p]);
+    }
   }
 
   /** Put an element's shapes on the drag layer while dragged, back on its own layer after. */
