@@ -10,7 +10,7 @@ import type { Page } from 'playwright-core';
 /** The parts of the network document these tests read (engine/network-document.ts). */
 export interface E2eNode { id: string; kind: string; name?: string; x_m: number; y_m: number; elevation_m: number; [k: string]: unknown }
 export interface E2eLink { id: string; kind: string; from: string; to: string; length_m?: number; [k: string]: unknown }
-export interface E2eDoc { schema: string; headloss: string; nodes: E2eNode[]; links: E2eLink[]; [k: string]: unknown }
+export interface E2eDoc { schema: string; headloss: string; nodes: E2eNode[]; links: E2eLink[]; layout?: Record<string, unknown>; [k: string]: unknown }
 export interface NetworkRecord { version: number; document: E2eDoc; results: unknown; updatedAt: string | null; updatedBy: string | null }
 
 interface Hook {

@@ -190,8 +190,11 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     expect(await page.getByTestId('tool-pipe').count()).to.equal(0);
     expect(await page.getByTestId('undo-button').count()).to.equal(0);
     expect(await page.getByTestId('save-status').count()).to.equal(0);
-    // The network is drawn with its results.
+    // The network is drawn with its results, and every number in the list carries its unit.
     await page.getByTestId('results-list').waitFor();
+    const values = await page.locator('[data-testid=results-list] .value').allTextContents();
+    expect(values.length).to.be.greaterThan(0);
+    for (const v of values) expect(v.trim()).to.match(/^-?[\d,.]+ (kPa|m head|L\/s · [\d,.]+ m\/s)$/);
 
     // Selecting works; deleting from the keyboard does nothing; the fields are read-only.
     const first = shown.nodes[0];
@@ -347,6 +350,51 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     // A good CSV afterwards is taken.
     await page.getByTestId('survey-file').setInputFiles({ name: 'levels.csv', mimeType: 'text/csv', buffer: Buffer.from(csv.replace('ten', '22')) });
     expect(await snackText(page)).to.contain('3 survey point(s)');
+  });
+
+  // Skipped: product bug "fit on open is off-centre". LayoutScreen.load() calls Editor.fitToView()
+  // before the canvas has its final width; the ResizeObserver in attachCanvas() only resizes the
+  // stage, so the network stays shifted left by half the width change (56 or 85 px seen at 1366×800)
+  // until the user presses Fit. Unskip once fixed.
+  it.skip('opening the Layout fits the network the way the Fit button does (centred in the canvas)', async () => {
+    await signIn(page, app.baseUrl, 'designer');
+    const projectId = await createProject(page, app.baseUrl, 'Fit on open');
+    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('fit') })).status()).to.equal(200);
+    // Three openings: the first fit races the canvas reaching its final width.
+    for (let attempt = 1; attempt <= 3; attempt++) {
+      await openLayout(page, app.baseUrl, projectId);
+      await page.getByTestId('result-O1').waitFor();
+      const opened = [await editorHook.toClient(page, 0, 0), await editorHook.toClient(page, 40, -30)];
+      await page.getByTestId('fit-button').click();
+      const fitted = [await editorHook.toClient(page, 0, 0), await editorHook.toClient(page, 40, -30)];
+      if (attempt === 1) await shot(page, '7-after-fit');
+      for (let i = 0; i < 2; i++) {
+        expect(opened[i].x, `opening ${attempt}: x of ${['T1', 'O1'][i]} on open vs after Fit`).to.be.closeTo(fitted[i].x, 1);
+        expect(opened[i].y, `opening ${attempt}: y of ${['T1', 'O1'][i]} on open vs after Fit`).to.be.closeTo(fitted[i].y, 1);
+      }
+    }
+  });
+
+  // Skipped: product bug "Fit hides the bottom-right element under the legend". Viewport.fit() keeps
+  // a 48 px margin but the "Pressure margin over minimum" legend is 58 px tall, 12 px from the corner,
+  // so an outlet at the lower right of the network (and its pressure label) is drawn under it.
+  // Unskip once fixed.
+  it.skip('after Fit no element sits under the pressure legend or the scale bar', async () => {
+    await signIn(page, app.baseUrl, 'designer');
+    const projectId = await createProject(page, app.baseUrl, 'Fit clear of the legend');
+    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('legend') })).status()).to.equal(200);
+    await openLayout(page, app.baseUrl, projectId);
+    await page.getByTestId('pressure-legend').waitFor();
+    await page.getByTestId('fit-button').click();
+    const boxes = { legend: (await page.getByTestId('pressure-legend').boundingBox())!, 'scale bar': (await page.getByTestId('scale-bar').boundingBox())! };
+    const symbolRadiusPx = 14; // outlet glyph and its pressure ring
+    for (const n of (await editorHook.doc(page)).nodes) {
+      const p = await editorHook.toClient(page, n.x_m, n.y_m);
+      for (const [what, b] of Object.entries(boxes)) {
+        const overlaps = p.x + symbolRadiusPx > b.x && p.x - symbolRadiusPx < b.x + b.width && p.y + symbolRadiusPx > b.y && p.y - symbolRadiusPx < b.y + b.height;
+        expect(overlaps, `${n.id} at (${p.x.toFixed(0)}, ${p.y.toFixed(0)}) is under the ${what} (${JSON.stringify(b)})`).to.equal(false);
+      }
+    }
   });
 
   it('a 500-element network loads, a node drags smoothly with the mouse, and a property edit updates the results (timings logged)', async () => {
