@@ -94,7 +94,8 @@ describe('Layout screen end to end (Chromium, real server)', function () {
 
     // The live result at the outlet: a positive pressure with its unit (SI project: kPa). The list
     // follows the solver, so wait for the solve of the latest edit: the static head is 45 + 1.2 − 5 =
-    // 41.2 m ≈ 404 kPa (1 m of water = 9.80665 kPa, NIST SP 811); friction takes some of that.
+    // 41.2 m ≈ 404 kPa (conventional metre of water = 9.80665 kPa, NIST SP 811 appendix B, from
+    // memory); friction takes some of that.
     const staticKPa = (45 + 1.2 - 5) * 9.80665;
     const valueOf = (t: string) => Number(/(-?[\d,.]+)\s*kPa/.exec(t)?.[1]?.replace(/,/g, '') ?? NaN);
     const value = page.getByTestId(`result-${outlet.id}`).locator('.value');
@@ -369,8 +370,8 @@ describe('Layout screen end to end (Chromium, real server)', function () {
       const fitted = [await editorHook.toClient(page, 0, 0), await editorHook.toClient(page, 40, -30)];
       if (attempt === 1) await shot(page, '7-after-fit');
       for (let i = 0; i < 2; i++) {
-        expect(opened[i].x, `opening ${attempt}: x of ${['T1', 'O1'][i]} on open vs after Fit`).to.be.closeTo(fitted[i].x, 1);
-        expect(opened[i].y, `opening ${attempt}: y of ${['T1', 'O1'][i]} on open vs after Fit`).to.be.closeTo(fitted[i].y, 1);
+        expect(opened[i].x, `opening ${attempt}: x of ${['T1', 'O1'][i]} on open vs after Fit`).to.be.closeTo(fitted[i].x, 2);
+        expect(opened[i].y, `opening ${attempt}: y of ${['T1', 'O1'][i]} on open vs after Fit`).to.be.closeTo(fitted[i].y, 2);
       }
     }
   });
@@ -415,6 +416,8 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     // Drag a node in the middle of the grid with ~60 small mouse steps.
     const target = doc.nodes[120];
     const framesBefore = (await editorHook.frameTimes(page)).length;
+    let puts = 0;
+    page.on('request', (r) => { if (r.method() === 'PUT' && r.url().endsWith('/network')) puts++; });
     const p = await editorHook.toClient(page, target.x_m, target.y_m);
     await page.mouse.move(p.x, p.y);
     await page.mouse.down();
@@ -428,6 +431,14 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     const p95 = percentile(frames, 95);
     console.log(`      500-element drag: ${frames.length} frames, median ${median.toFixed(1)} ms, 95th percentile ${p95.toFixed(1)} ms, worst ${Math.max(...frames).toFixed(1)} ms`);
     await shot(page, '6-grid-after-drag');
+    // The whole drag is one undo step and one save.
+    await page.keyboard.press('Control+z');
+    const undone = (await editorHook.doc(page)).nodes.find((n) => n.id === target.id)!;
+    expect([undone.x_m, undone.y_m]).to.deep.equal([target.x_m, target.y_m]);
+    await page.keyboard.press('Shift+Control+z');
+    expect((await editorHook.doc(page)).nodes.find((n) => n.id === target.id)).to.deep.equal(moved);
+    await waitSavedAfterEdit(page);
+    expect(puts, 'saves sent for one drag (plus its undo and redo inside the autosave delay)').to.equal(1);
 
     // Property edit → results: time from leaving the field to the far node's row changing.
     await clickNode(page, 'T1');
