@@ -50,8 +50,28 @@ export class SparseLdl {
   /**
    * @param n order of the matrix
    * @param offDiagonal list of unordered pairs [i, j] (i ≠ j) that may be non-zero; duplicates allowed
+   * @param structureOf an existing factorisation of the same pattern whose (read-only) symbolic
+   *   analysis is shared instead of recomputed; `n` and `offDiagonal` are then ignored
    */
-  constructor(n: number, offDiagonal: ArrayLike<readonly [number, number]> | { i: Int32Array; j: Int32Array }) {
+  constructor(n: number, offDiagonal: ArrayLike<readonly [number, number]> | { i: Int32Array; j: Int32Array }, structureOf?: SparseLdl) {
+    if (structureOf) {
+      n = structureOf.n;
+      this.n = n;
+      this.colPtr = structureOf.colPtr;
+      this.rowIdx = structureOf.rowIdx;
+      this.perm = structureOf.perm;
+      this.pinv = structureOf.pinv;
+      this.parent = structureOf.parent;
+      this.lp = structureOf.lp;
+      this.values = new Float64Array(this.rowIdx.length);
+      this.lnz = new Int32Array(n);
+      this.flag = new Int32Array(n);
+      this.d = new Float64Array(n);
+      this.y = new Float64Array(n);
+      this.pattern = new Int32Array(n);
+      this.work = new Float64Array(n);
+      return;
+    }
     this.n = n;
     const pi: Int32Array = 'i' in offDiagonal ? offDiagonal.i : Int32Array.from(Array.from(offDiagonal as ArrayLike<readonly [number, number]>, (p) => p[0]));
     const pj: Int32Array = 'j' in offDiagonal ? offDiagonal.j : Int32Array.from(Array.from(offDiagonal as ArrayLike<readonly [number, number]>, (p) => p[1]));

@@ -28,7 +28,8 @@ export class SupernodalCholesky {
   private readonly rowPtr: Int32Array; // row lists of supernodes
   private readonly rows: Int32Array;
   private readonly blockPtr: Int32Array; // dense block offsets
-  private readonly block: Float64Array;
+  /** Dense blocks, allocated on the first factor() (a structure template never needs them). */
+  private block: Float64Array = new Float64Array(0);
   private readonly superOf: Int32Array; // supernode of each column
   private readonly relative: Int32Array;
   private readonly head: Int32Array;
@@ -37,10 +38,30 @@ export class SupernodalCholesky {
   private readonly update: Float64Array;
   private readonly work: Float64Array;
 
-  constructor(pattern: SparseLdl) {
+  /**
+   * @param pattern the simplicial factorisation whose pattern, ordering and values are used
+   * @param structureOf an existing supernodal factorisation of the same pattern and ordering whose
+   *   (read-only) supernode structure is shared instead of recomputed
+   */
+  constructor(pattern: SparseLdl, structureOf?: SupernodalCholesky) {
     this.pattern = pattern;
     const n = pattern.n;
     this.n = n;
+    if (structureOf) {
+      this.supernodes = structureOf.supernodes;
+      this.first = structureOf.first;
+      this.rowPtr = structureOf.rowPtr;
+      this.rows = structureOf.rows;
+      this.blockPtr = structureOf.blockPtr;
+      this.superOf = structureOf.superOf;
+      this.relative = new Int32Array(n);
+      this.head = new Int32Array(this.supernodes);
+      this.next = new Int32Array(this.supernodes);
+      this.position = new Int32Array(this.supernodes);
+      this.update = new Float64Array(structureOf.update.length);
+      this.work = new Float64Array(n);
+      return;
+    }
     const { parent, lp, colPtr, rowIdx, perm, pinv } = pattern;
     const count = (j: number): number => lp[j + 1] - lp[j];
     // relaxed supernodes: column j joins the supernode of j−1 when j is j−1's parent (then
@@ -101,9 +122,8 @@ export class SupernodalCholesky {
       const wdt = starts[s + 1] - starts[s];
       this.blockPtr[s + 1] = this.blockPtr[s] + m * wdt;
       maxRows = Math.max(maxRows, m);
-      maxUpdate = Math.max(maxUpdate, m * m);
+      maxUpdate = Math.max(maxUpdate, m);
     }
-    this.block = new Float64Array(this.blockPtr[ns]);
     this.relative = new Int32Array(n);
     this.head = new Int32Array(ns);
     this.next = new Int32Array(ns);
@@ -113,10 +133,11 @@ export class SupernodalCholesky {
   }
 
   /** Stored entries of L (dense blocks, including the diagonal). */
-  get factorNonZeros(): number { return this.block.length; }
+  get factorNonZeros(): number { return this.blockPtr[this.supernodes]; }
 
   /** Numeric factorisation from pattern.values; returns n on success or the failing column. */
   factor(): number {
+    if (this.block.length !== this.blockPtr[this.supernodes]) this.block = new Float64Array(this.blockPtr[this.supernodes]);
     const { n, first, rowPtr, rows, blockPtr, block, superOf, relative, head, next, position, update } = this;
     const { colPtr, rowIdx, values, perm, pinv } = this.pattern;
     const ns = this.supernodes;
@@ -152,22 +173,31 @@ export class SupernodalCholesky {
         while (p2 < dm && rows[dr0 + p2] <= last) p2++;
         const um = dm - p1; // rows to update
         const uw = p2 - p1; // columns of s touched
-        // C = L_d[p1:dm, :] · L_d[p1:p2, :]ᵀ  (um × uw, column-major)
-        update.fill(0, 0, um * uw);
-        for (let k = 0; k < dw; k++) {
-          const colk = db0 + k * dm;
-          for (let jj = 0; jj < uw; jj++) {
-            const ljk = block[colk + p1 + jj];
-            if (ljk === 0) continue;
-            const ub = jj * um;
-            for (let ii = jj; ii < um; ii++) update[ub + ii] += block[colk + p1 + ii] * ljk;
-          }
-        }
+        // block(rows, cols of s) −= L_d[p1:dm, :] · L_d[p1:p2, :]ᵀ, one target column at a time:
+        // where d's rows are s's rows shifted (the usual case in a postordered tree) the
+        // target column is contiguous; otherwise the column is accumulated in `update` and scattered
+        const rel0 = relative[rows[dr0 + p1]];
+        const contiguous = relative[rows[dr0 + dm - 1]] - rel0 === um - 1;
         for (let jj = 0; jj < uw; jj++) {
-          const c = rows[dr0 + p1 + jj] - f;
-          const base = b0 + c * m;
-          const ub = jj * um;
-          for (let ii = jj; ii < um; ii++) block[base + relative[rows[dr0 + p1 + ii]]] -= update[ub + ii];
+          const base = b0 + (rows[dr0 + p1 + jj] - f) * m;
+          if (contiguous) {
+            const t0 = base + rel0;
+            for (let k = 0; k < dw; k++) {
+              const colk = db0 + k * dm + p1;
+              const ljk = block[colk + jj];
+              if (ljk === 0) continue;
+              for (let ii = jj; ii < um; ii++) block[t0 + ii] -= block[colk + ii] * ljk;
+            }
+          } else {
+            update.fill(0, jj, um);
+            for (let k = 0; k < dw; k++) {
+              const colk = db0 + k * dm + p1;
+              const ljk = block[colk + jj];
+              if (ljk === 0) continue;
+              for (let ii = jj; ii < um; ii++) update[ii] += block[colk + ii] * ljk;
+            }
+            for (let ii = jj; ii < um; ii++) block[base + relative[rows[dr0 + p1 + ii]]] -= update[ii];
+          }
         }
         // move d on to the supernode of its next row
         position[d] = p2;
