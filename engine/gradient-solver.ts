@@ -1,12 +1,21 @@
-import { WATER_KINEMATIC_VISCOSITY_M2S, GRAVITY_MS2 } from './constants';
-import { darcyFactorAndSlope, LAMINAR_REYNOLDS } from './darcy-weisbach';
-import { HW_FLOW_EXPONENT } from './hazen-williams';
-import {
-  DEMAND_EMITTER, DEMAND_FIXED, DEMAND_PRESSURE, LINK_CHECK, LINK_FLOAT, LINK_PIPE, LINK_PRV, LINK_PUMP_CURVE, LINK_PUMP_FLOW, LINK_SHUTOFF,
-  NODE_JUNCTION, NODE_SOURCE, NODE_TANK, type NetworkModel,
-} from './network-model';
+import * as constants from './constants';
+import { darcyFactorAndSlope, LAMINAR_REYNOLDS as LAMINAR_REYNOLDS_ } from './darcy-weisbach';
+import { HW_FLOW_EXPONENT as HW_FLOW_EXPONENT_ } from './hazen-williams';
+import * as kinds from './network-model';
+import type { NetworkModel } from './network-model';
 import { SparseLdl } from './sparse-ldl';
 import { SupernodalCholesky } from './supernodal-cholesky';
+
+// Module-local copies of the imported constants read in the inner loops: where modules are run
+// through a CommonJS transform (tsx on the server, the CLI and the benchmarks) every read of an
+// imported binding is a getter call, which cost about 6 % of a large solve.
+const { WATER_KINEMATIC_VISCOSITY_M2S, GRAVITY_MS2 } = constants;
+const LAMINAR_REYNOLDS = LAMINAR_REYNOLDS_;
+const HW_FLOW_EXPONENT = HW_FLOW_EXPONENT_;
+const {
+  DEMAND_EMITTER, DEMAND_FIXED, DEMAND_PRESSURE, LINK_CHECK, LINK_FLOAT, LINK_PIPE, LINK_PRV, LINK_PUMP_CURVE, LINK_PUMP_FLOW, LINK_SHUTOFF,
+  NODE_JUNCTION, NODE_SOURCE, NODE_TANK,
+} = kinds;
 
 /**
  * Global gradient algorithm for steady flow in looped and branched networks: Newton's method on
@@ -20,6 +29,8 @@ import { SupernodalCholesky } from './supernodal-cholesky';
  *   tanks joined by short headers, whose levels equalise in seconds).
  * - Zero and tiny flows: the headloss gradient g = dh/dQ is floored at GRADIENT_FLOOR so p = 1/g
  *   stays finite; the iteration still converges to h(Q) = ΔH because y = h/g uses the true h.
+ *   A link whose flow collapses towards zero in one step keeps part of its previous gradient
+ *   (GRADIENT_MEMORY), which stops the next step from overshooting.
  * - Pressure-dependent outlets and emitters are virtual links to a virtual reservoir with the
  *   inverse law as their headloss (the formulation of EPANET 2.2's pressure-driven analysis,
  *   Rossman et al. 2020, documented in the public US EPA manual) with barrier slopes keeping the
@@ -67,6 +78,16 @@ export const ENERGY_TOLERANCE_M = 1e-4;
 export const SUPERNODAL_MIN_ORDER = 1000;
 /** Required pressure used for outlets and tees in pressure-driven (simulation) mode without a minimum, m. */
 export const DEFAULT_REQUIRED_PRESSURE_M = 0.5;
+/**
+ * Share of a link's previous headloss gradient that its next gradient may not fall below. After
+ * the first solve many links of a looped network come out near zero flow, where the power law's
+ * gradient vanishes and the next Newton step overshoots several-fold (then takes iterations to
+ * come back). Keeping 0.3 of the previous gradient only acts when a flow collapses by more than
+ * about 4× in one step: converging links (quadratically, or at the ratio 1 − 1/1.852 of Newton
+ * approaching zero flow) never trigger it, and the solution is unchanged because y = h/g uses the
+ * true h. Measured: looped grids of 1,000–40,000 tees converge in one Newton iteration fewer.
+ */
+export const GRADIENT_MEMORY = 0.3;
 
 /**
  * The topology-only part of a solver: the matrix pattern with its fill-reducing ordering and
@@ -236,6 +257,8 @@ export class GradientSolver {
   private readonly adjPtr: Int32Array;
   private readonly adjLink: Int32Array;
   private readonly scratch = new Float64Array(2);
+  /** Headloss gradient of each link in the previous iteration (see GRADIENT_MEMORY). */
+  private readonly gradientPrev: Float64Array;
   private initialised = false;
   private readonly hasPrv: boolean;
   /** Links with status logic of their own (check, PRV, curve pump) and all links. */
@@ -287,6 +310,7 @@ export class GradientSolver {
     this.pinned = new Float64Array(n).fill(Number.NaN);
     this.netOut = new Float64Array(n);
     this.changes = new Int32Array(m);
+    this.gradientPrev = new Float64Array(m);
     this.queue = new Int32Array(n);
     // node → incident links (CSR)
     this.adjPtr = new Int32Array(n + 1);
@@ -458,10 +482,11 @@ export class GradientSolver {
     const headTolerance = options.headTolerance_m ?? ENERGY_TOLERANCE_M;
     const n = model.nodeCount;
     const m = model.linkCount;
-    const { head, flow, status, p, y, unknown, ldl, rhs, x, virtualFlow, virtualFull, pinned, netOut, changes, active } = this;
+    const { head, flow, status, p, y, unknown, ldl, rhs, x, virtualFlow, virtualFull, pinned, netOut, changes, active, gradientPrev } = this;
     const values = ldl.values;
     if (!options.warmStart || !this.initialised) this.initialise(state);
     changes.fill(0);
+    gradientPrev.fill(0);
     // structural statuses from the state
     for (let k = 0; k < m; k++) {
       const kind = model.linkKind[k];
@@ -529,7 +554,13 @@ export class GradientSolver {
           const r = Math.abs(this.scratch[0] - (head[f] - head[t]));
           if (r > worst) worst = r;
         }
-        const g = this.scratch[1] > GRADIENT_FLOOR ? this.scratch[1] : GRADIENT_FLOOR;
+        let g = this.scratch[1];
+        if (kind !== LINK_PUMP_CURVE) {
+          const memory = GRADIENT_MEMORY * gradientPrev[k];
+          gradientPrev[k] = g;
+          if (memory > g) g = memory;
+        }
+        if (g < GRADIENT_FLOOR) g = GRADIENT_FLOOR;
         const pk = 1 / g;
         const yk = this.scratch[0] * pk;
         p[k] = pk; y[k] = yk;
