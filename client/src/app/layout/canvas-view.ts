@@ -5,7 +5,8 @@ import { formatQuantity, fromDisplay, toDisplay, unitLabel, UnitSystem } from '.
 import { marginColour } from './editor/colour-scale';
 import { linkPoints } from './editor/document-store';
 import type { Backdrop, Editor, EditorChange } from './editor/editor';
-import { niceStep, polylineMidpoint } from './editor/geometry';
+import { distance, niceStep, Point, polylineMidpoint } from './editor/geometry';
+import { around, aroundBox, besideLine, Box, LabelRequest, lineBoxes, Placement, placeLabels, POINT_SIDES, Side, symbolBox } from './editor/label-placement';
 import type { SurveyPoint } from './editor/survey';
 import { LINK_KINDS, NODE_KINDS, ShapeSpec } from './kinds';
 
@@ -13,6 +14,17 @@ const FONT = 'IBM Plex Sans, sans-serif';
 const SELECT = '#1769c2';
 const LABEL = '#24323d';
 const WARN = '#b3261e';
+/** Half the designed symbol size, px. */
+const SYMBOL_HALF = 12;
+/** Pressure ring radius at full symbol size, px (5 px stroke). */
+const RING_R = 17;
+const NAME_FONT = 11;
+const NAME_H = 13;
+const TAG_FONT = 11;
+const TAG_PAD = 3;
+const SPEED_FONT = 10;
+/** Tank banks narrower than this on screen get a bank badge in place of their tanks' names. */
+const CROWDED_BANK_PX = 64;
 
 /** What the results overlay needs besides the document. */
 export interface OverlayInput {
@@ -22,8 +34,35 @@ export interface OverlayInput {
   show: boolean;
 }
 
-interface NodeView { rec: NetworkNode; group: Konva.Group; symbol: Konva.Group; halo: Konva.Rect; label: Konva.Text; overlay: Konva.Group }
-interface LinkView { rec: NetworkLink; from: NetworkNode | undefined; to: NetworkNode | undefined; group: Konva.Group; line: Konva.Line; halo: Konva.Line; mid: Konva.Group; overlay: Konva.Group }
+interface NodeView {
+  rec: NetworkNode; group: Konva.Group; symbol: Konva.Group; halo: Konva.Rect; label: Konva.Text; overlay: Konva.Group;
+  /** Pressure ring and badge (scaled with the symbol) and the pressure tag (placed with the name). */
+  marks: Konva.Group; tag: Konva.Label | null; tagText: string; scale: number;
+}
+interface LinkView {
+  rec: NetworkLink; from: NetworkNode | undefined; to: NetworkNode | undefined; group: Konva.Group; line: Konva.Line; halo: Konva.Line; mid: Konva.Group; overlay: Konva.Group;
+  speed: Konva.Text | null; speedText: string; arrowAt: Point | null;
+}
+
+/** Width of a text in px, measured once per font and string. */
+const measured = new Map<string, number>();
+let measureCtx: CanvasRenderingContext2D | null = null;
+function textWidth(text: string, size: number, bold = false): number {
+  const key = `${size}|${bold}|${text}`;
+  let w = measured.get(key);
+  if (w === undefined) {
+    measureCtx ??= document.createElement('canvas').getContext('2d');
+    if (measureCtx) {
+      measureCtx.font = `${bold ? 'bold ' : ''}${size}px ${FONT}`;
+      w = Math.ceil(measureCtx.measureText(text).width);
+    } else {
+      w = Math.ceil(text.length * size * 0.58);
+    }
+    if (measured.size > 5000) measured.clear();
+    measured.set(key, w);
+  }
+  return w;
+}
 
 /** Build Konva shapes from a kind's plain symbol description; nothing listens (hit tests are ours). */
 export function drawShapes(specs: ShapeSpec[]): Konva.Shape[] {
@@ -57,9 +96,15 @@ export class CanvasView {
   private readonly headers = new Konva.Group({ listening: false });
   private readonly backdropGroup = new Konva.Group({ listening: false });
   private headerKey = '';
-  private detail = true;
   private labelledNodes: NetworkNode[] | null = null;
+  private labelledLinks: NetworkLink[] | null = null;
   private labelledSelection: ReadonlySet<string> | null = null;
+  private labelsDirty = true;
+  /** Placed labels by element id (and `bank:<id>` for bank badges), from the last placement. */
+  private placed = new Map<string, Placement>();
+  private readonly bankBadges = new Konva.Group({ listening: false });
+  /** Screen boxes the canvas must keep clear of labels (legend, scale bar), from the screen. */
+  private reserved: () => Box[] = () => [];
   /** What each element's overlay shows now, to skip unchanged ones. */
   private readonly overlayKeys = new Map<string, string>();
   private backdropImage: Konva.Image | null = null;
@@ -79,6 +124,7 @@ export class CanvasView {
     this.stage = new Konva.Stage({ container, width: container.clientWidth || 800, height: container.clientHeight || 600, listening: false });
     for (const l of [this.baseLayer, this.contentLayer, this.overlayLayer, this.dragLayer, this.uiLayer]) this.stage.add(l);
     this.contentLayer.add(this.linkLayer, this.nodeLayer);
+    this.overlayLayer.add(this.bankBadges);
     this.linkLayer.add(this.headers);
     this.baseLayer.add(this.backdropGroup);
     this.baseLayer.add(new Konva.Shape({ listening: false, perfectDrawEnabled: false, sceneFunc: (ctx) => this.drawGrid(ctx) }));
@@ -101,6 +147,18 @@ export class CanvasView {
     this.overlay = o;
     this.overlayDirty = true;
     this.schedule();
+  }
+
+  /** Screen boxes (canvas px) that labels must avoid, such as the legend and the scale bar. */
+  setReservedAreas(fn: () => Box[]): void {
+    this.reserved = fn;
+    this.labelsDirty = true;
+    this.schedule();
+  }
+
+  /** Labels placed by the last render, by element id (for tests and the hover card). */
+  placedLabels(): ReadonlyMap<string, Placement> {
+    return this.placed;
   }
 
   setSurvey(points: SurveyPoint[]): void {
@@ -132,16 +190,6 @@ export class CanvasView {
     const vp = ed.viewport;
     const selection = ed.selection;
     const dragging = new Set(ed.dragging);
-    // Level of detail: when elements are packed tighter than about 56 px apart, names and
-    // numbers are hidden (rings, arrows and badges stay) until the designer zooms in.
-    const visible = vp.visibleWorld();
-    const inView = doc.nodes.filter((n) => (n.x_m ?? 0) >= visible.x && (n.x_m ?? 0) <= visible.x + visible.width && (n.y_m ?? 0) >= visible.y && (n.y_m ?? 0) <= visible.y + visible.height).length;
-    const detail = inView * 56 * 56 < vp.width * vp.height;
-    const detailChanged = detail !== this.detail;
-    if (detailChanged) {
-      this.detail = detail;
-      this.overlayDirty = true;
-    }
 
     // Nodes
     const seen = new Set<string>();
@@ -158,16 +206,12 @@ export class CanvasView {
         if (symbolChanged(v.rec, n)) this.rebuildSymbol(v, n);
         v.label.text(n.name || n.id);
         v.rec = n;
-      } else if (!viewChanged && !detailChanged && this.selectionShown.has(n.id) === selected && !dragging.has(n.id) && !this.lifted.has(n.id)) continue;
+      } else if (!viewChanged && this.selectionShown.has(n.id) === selected && !dragging.has(n.id) && !this.lifted.has(n.id)) continue;
       const s = vp.toScreen({ x: n.x_m ?? 0, y: n.y_m ?? 0 });
       v.group.position(s);
       v.overlay.position(s);
       v.halo.visible(selected);
       this.place(v.group, v.overlay, n.id, dragging.has(n.id), this.nodeLayer, dirty);
-    }
-    if ((viewChanged || detailChanged || doc.nodes !== this.labelledNodes || selection !== this.labelledSelection) && dragging.size === 0) {
-      this.declutterNames(doc.nodes, detail, selection);
-      dirty.add(this.contentLayer);
     }
     for (const [id, v] of this.nodes) if (!seen.has(id)) { v.group.destroy(); v.overlay.destroy(); this.nodes.delete(id); this.overlayKeys.delete(id); dirty.add(this.contentLayer); }
 
@@ -205,9 +249,18 @@ export class CanvasView {
     for (const [id, v] of this.links) if (!seenLinks.has(id)) { v.group.destroy(); v.overlay.destroy(); this.links.delete(id); this.overlayKeys.delete(id); dirty.add(this.contentLayer); }
 
     this.selectionShown = new Set(selection);
-    this.drawHeaders(doc.nodes, viewChanged, dirty);
-    if (this.overlayDirty && this.drawOverlay(doc.nodes, doc.links)) dirty.add(this.overlayLayer);
+    if (this.overlayDirty && this.drawOverlay(doc.nodes, doc.links)) {
+      dirty.add(this.overlayLayer);
+      this.labelsDirty = true;
+    }
     this.overlayDirty = false;
+    if ((this.labelsDirty || viewChanged || doc.nodes !== this.labelledNodes || doc.links !== this.labelledLinks || selection !== this.labelledSelection) && dragging.size === 0) {
+      this.scaleSymbols(doc.nodes);
+      this.layoutLabels(doc.nodes, doc.links, byId, selection);
+      dirty.add(this.contentLayer);
+      dirty.add(this.overlayLayer);
+    }
+    this.drawHeaders(doc.nodes, viewChanged, dirty);
     if (viewChanged) {
       dirty.add(this.baseLayer);
       dirty.add(this.overlayLayer);
@@ -219,33 +272,166 @@ export class CanvasView {
     for (const layer of dirty) layer.batchDraw();
   }
 
-  /**
-   * Name labels, placed greedily (tanks and sources first, then outlets, then tees): a name is
-   * hidden when an already shown name sits within 34 px, unless its element is selected.
-   */
-  private declutterNames(nodes: NetworkNode[], detail: boolean, selection: ReadonlySet<string>): void {
-    this.labelledNodes = nodes;
-    this.labelledSelection = selection;
-    const rank: Record<string, number> = { tank: 0, source: 0, outlet: 1, tee: 2 };
-    const order = [...nodes].sort((a, b) => Number(selection.has(b.id)) - Number(selection.has(a.id)) || rank[a.kind] - rank[b.kind]);
-    const cell = 34;
-    const shown = new Map<string, { x: number; y: number }[]>();
-    for (const n of order) {
+  /** Draw each node's symbol, halo and pressure ring at its crowding- and zoom-dependent scale. */
+  private scaleSymbols(nodes: NetworkNode[]): void {
+    for (const n of nodes) {
       const v = this.nodes.get(n.id);
       if (!v) continue;
-      const p = this.editor.viewport.toScreen({ x: n.x_m ?? 0, y: n.y_m ?? 0 });
-      const cx = Math.floor(p.x / cell);
-      const cy = Math.floor(p.y / cell);
-      let free = true;
-      for (let i = -1; i <= 1 && free; i++) {
-        for (let j = -1; j <= 1 && free; j++) {
-          for (const q of shown.get(`${cx + i},${cy + j}`) ?? []) if (Math.hypot(q.x - p.x, q.y - p.y) < cell) free = false;
-        }
-      }
-      const visible = selection.has(n.id) || (detail && free);
-      v.label.visible(visible);
-      if (visible) shown.set(`${cx},${cy}`, [...(shown.get(`${cx},${cy}`) ?? []), p]);
+      const k = this.editor.symbolScale(n.id);
+      if (k === v.scale) continue;
+      v.scale = k;
+      v.symbol.scale({ x: k, y: k });
+      v.halo.scale({ x: k, y: k });
+      v.marks.scale({ x: k, y: k });
     }
+  }
+
+  /**
+   * Place names, pressure tags, bank badges and velocities (`label-placement.ts`): selected
+   * elements first, then outlets, tanks and sources, tees, and pipe velocities last. Each label
+   * keeps clear of every symbol, ring, mid-line symbol and arrow, of the legend and scale bar,
+   * and of labels already placed; one that fits nowhere is hidden (hover shows it).
+   */
+  private layoutLabels(nodes: NetworkNode[], links: NetworkLink[], byId: Map<string, NetworkNode>, selection: ReadonlySet<string>): void {
+    this.labelledNodes = nodes;
+    this.labelledLinks = links;
+    this.labelledSelection = selection;
+    this.labelsDirty = false;
+    const vp = this.editor.viewport;
+    const margin = 60;
+    const onScreen = (p: Point) => p.x > -margin && p.y > -margin && p.x < vp.width + margin && p.y < vp.height + margin;
+    const obstacles: Box[] = [...this.reserved()];
+    const requests: LabelRequest[] = [];
+    const rank: Record<string, number> = { outlet: 1, tank: 2, source: 2, tee: 3 };
+    const screenOf = new Map<string, Point>();
+    const banks = this.crowdedBanks(nodes);
+    const inCrowdedBank = new Set([...banks.values()].flatMap((b) => b.tanks.map((t) => t.id)));
+
+    for (const n of nodes) {
+      const v = this.nodes.get(n.id);
+      if (!v) continue;
+      const p = vp.toScreen({ x: n.x_m ?? 0, y: n.y_m ?? 0 });
+      screenOf.set(n.id, p);
+      if (!onScreen(p)) continue;
+      const ringed = v.tag !== null;
+      const r = (ringed ? RING_R + 2.5 : SYMBOL_HALF + 1) * v.scale;
+      obstacles.push(symbolBox(p, r));
+      const name = n.name || n.id;
+      const nameW = textWidth(name, NAME_FONT);
+      const variants: { w: number; h: number }[] = [];
+      const tagW = v.tag ? textWidth(v.tagText, TAG_FONT, true) + 2 * TAG_PAD : 0;
+      const tagH = TAG_FONT + 2 * TAG_PAD;
+      const showName = !inCrowdedBank.has(n.id) || selection.has(n.id);
+      if (v.tag && showName) variants.push({ w: Math.max(tagW, nameW), h: tagH + NAME_H });
+      if (v.tag) variants.push({ w: tagW, h: tagH });
+      else if (showName) variants.push({ w: nameW, h: NAME_H });
+      if (!variants.length) continue;
+      const sides: readonly Side[] = v.tag ? POINT_SIDES : ['below', 'right', 'left', 'above', 'below-right', 'below-left', 'above-right', 'above-left'];
+      requests.push({ id: n.id, priority: selection.has(n.id) ? 0 : rank[n.kind] ?? 3, candidates: around(p, r, variants, sides) });
+    }
+    for (const [bank, b] of banks) {
+      const w = textWidth(b.text, 10) + 8;
+      obstacles.push(b.header);
+      requests.push({ id: 'bank:' + bank, priority: 1.5, candidates: aroundBox(b.tankBox, { w, h: 15 }, ['below', 'left', 'right', 'above', 'below-left', 'below-right', 'above-left', 'above-right']) });
+    }
+    const lines: Box[] = [];
+    for (const l of links) {
+      const v = this.links.get(l.id);
+      if (!v) continue;
+      const mid = v.mid.position();
+      if (!onScreen(mid)) continue;
+      const pts = linkPoints(l, byId).map((q) => vp.toScreen(q));
+      lines.push(...lineBoxes(pts));
+      // Mid-line symbols and arrows only where the line is long enough on screen to hold them.
+      const roomy = polylineScreenLength(pts) >= MIN_MARKED_LINK_PX;
+      v.mid.visible(roomy);
+      const arrow = v.overlay.findOne('.arrow');
+      arrow?.visible(roomy);
+      if (!roomy) {
+        v.speed?.visible(false);
+        continue;
+      }
+      if (v.mid.hasChildren()) obstacles.push(symbolBox(mid, 11));
+      if (v.arrowAt) obstacles.push(symbolBox({ x: mid.x + v.arrowAt.x, y: mid.y + v.arrowAt.y }, 6));
+      if (!v.speed) continue;
+      const seg = segmentAtMiddle(pts);
+      if (!seg) continue;
+      const size = { w: textWidth(v.speedText, SPEED_FONT) + 2, h: 12 };
+      requests.push({ id: l.id, priority: selection.has(l.id) ? 0 : 4, candidates: besideLine(seg[0], seg[1], size) });
+    }
+    this.placed = placeLabels(requests, obstacles, { x: 2, y: 2, w: vp.width - 4, h: vp.height - 4 }, 2, lines);
+    this.applyPlacements(nodes, links, screenOf, banks);
+  }
+
+  /** Move each label to its placed box (relative to its element) or hide it. */
+  private applyPlacements(nodes: NetworkNode[], links: NetworkLink[], screenOf: Map<string, Point>, banks: Map<string, BankView>): void {
+    for (const n of nodes) {
+      const v = this.nodes.get(n.id);
+      const p = screenOf.get(n.id);
+      if (!v || !p) continue;
+      const at = this.placed.get(n.id);
+      const withName = !!at && (at.variant === 0 && (!v.tag || at.box.h > TAG_FONT + 2 * TAG_PAD + 1));
+      v.label.visible(withName);
+      v.tag?.visible(!!at && !!v.tag);
+      if (!at) continue;
+      const { box, side } = at;
+      const align = side.endsWith('left') ? 'right' : side.endsWith('right') ? 'left' : 'center';
+      let y = box.y - p.y;
+      if (v.tag) {
+        const tagW = textWidth(v.tagText, TAG_FONT, true) + 2 * TAG_PAD;
+        const x = align === 'left' ? box.x : align === 'right' ? box.x + box.w - tagW : box.x + (box.w - tagW) / 2;
+        v.tag.position({ x: x - p.x, y });
+        y += TAG_FONT + 2 * TAG_PAD;
+      }
+      if (withName) {
+        v.label.position({ x: box.x - p.x, y: y + 1 });
+        v.label.width(box.w);
+        v.label.align(align);
+      }
+    }
+    for (const l of links) {
+      const v = this.links.get(l.id);
+      if (!v?.speed) continue;
+      const at = this.placed.get(l.id);
+      v.speed.visible(!!at);
+      if (!at) continue;
+      const mid = v.mid.position();
+      v.speed.position({ x: at.box.x - mid.x + 1, y: at.box.y - mid.y + 1 });
+    }
+    this.bankBadges.destroyChildren();
+    for (const [bank, b] of banks) {
+      const at = this.placed.get('bank:' + bank);
+      if (!at) continue;
+      this.bankBadges.add(new Konva.Label({ x: at.box.x, y: at.box.y, listening: false }).add(
+        new Konva.Tag({ fill: '#eef4f8', stroke: LABEL, strokeWidth: 1, cornerRadius: 7, listening: false }),
+        new Konva.Text({ text: b.text, padding: 2.5, fontFamily: FONT, fontSize: 10, fill: LABEL, listening: false, width: at.box.w, align: 'center' }),
+      ));
+    }
+  }
+
+  /** Tank banks and the screen box of their header. */
+  private crowdedBanks(nodes: NetworkNode[]): Map<string, BankView> {
+    const out = new Map<string, BankView>();
+    for (const bank of groupBanks(nodes)) {
+      const geo = this.bankGeometry(bank.tanks);
+      const top = Math.min(...geo.pts.map((p) => p.y)) - 15 * geo.k;
+      const tankBox = { x: geo.x0, y: top, w: geo.x1 - geo.x0, h: geo.box.y + geo.box.h - top };
+      out.set(bank.id, { tanks: bank.tanks, header: geo.box, tankBox, crowded: geo.span < CROWDED_BANK_PX, text: `${bank.id} bank · ${bank.tanks.length} tanks` });
+    }
+    for (const [id, b] of out) if (!b.crowded) out.delete(id);
+    return out;
+  }
+
+  /** Where a bank's header runs on screen: under the tank bases, at least across both end symbols. */
+  private bankGeometry(tanks: TankNode[]): { pts: Point[]; k: number; y: number; x0: number; x1: number; span: number; box: Box } {
+    const vp = this.editor.viewport;
+    const pts = tanks.map((t) => vp.toScreen({ x: t.x_m ?? 0, y: t.y_m ?? 0 })).sort((p, q) => p.x - q.x || p.y - q.y);
+    const k = Math.min(...tanks.map((t) => this.editor.symbolScale(t.id)));
+    const y = Math.max(...pts.map((p) => p.y)) + 14 * k + 3;
+    const x0 = pts[0].x - SYMBOL_HALF * k;
+    const x1 = pts[pts.length - 1].x + SYMBOL_HALF * k;
+    const span = Math.max(...pts.map((p) => p.x)) - Math.min(...pts.map((p) => p.x));
+    return { pts, k, y, x0, x1, span, box: { x: x0 - 3, y: y - 4, w: x1 - x0 + 6, h: 8 } };
   }
 
   /** Put an element's shapes on the drag layer while dragged, back on its own layer after. */
@@ -275,12 +461,14 @@ export class CanvasView {
     const group = new Konva.Group({ listening: false });
     const halo = new Konva.Rect({ x: -19, y: -19, width: 38, height: 38, cornerRadius: 8, stroke: SELECT, strokeWidth: 2.5, dash: [5, 3], visible: false, listening: false, perfectDrawEnabled: false });
     const symbol = new Konva.Group({ listening: false });
-    const label = new Konva.Text({ text: n.name || n.id, x: -60, y: 19, width: 120, align: 'center', fontFamily: FONT, fontSize: 11, fill: LABEL, listening: false, perfectDrawEnabled: false });
+    const label = new Konva.Text({ text: n.name || n.id, x: -60, y: 19, width: 120, align: 'center', wrap: 'none', fontFamily: FONT, fontSize: NAME_FONT, fill: LABEL, listening: false, perfectDrawEnabled: false });
     group.add(halo, symbol, label);
     const overlay = new Konva.Group({ listening: false });
+    const marks = new Konva.Group({ listening: false });
+    overlay.add(marks);
     this.overlayLayer.add(overlay);
     this.nodeLayer.add(group);
-    const v: NodeView = { rec: n, group, symbol, halo, label, overlay };
+    const v: NodeView = { rec: n, group, symbol, halo, label, overlay, marks, tag: null, tagText: '', scale: 1 };
     this.rebuildSymbol(v, n);
     return v;
   }
@@ -303,26 +491,26 @@ export class CanvasView {
     const overlay = new Konva.Group({ listening: false });
     this.overlayLayer.add(overlay);
     this.linkLayer.add(group);
-    return { rec: l, from: undefined, to: undefined, group, line, halo, mid, overlay };
+    return { rec: l, from: undefined, to: undefined, group, line, halo, mid, overlay, speed: null, speedText: '', arrowAt: null };
   }
 
-  /** Tank banks: a header pipe along the tanks' bases joins tanks sharing a bank id. */
+  /**
+   * Tank banks: a header pipe along the tanks' bases joins tanks sharing a bank id, drawn at
+   * least across the end tanks' symbols so it shows even when the tanks nearly touch on screen
+   * (a crowded bank also gets a "bank" badge from the label placement).
+   */
   private drawHeaders(nodes: NetworkNode[], viewChanged: boolean, dirty: Set<Konva.Layer>): void {
-    const banks = new Map<string, TankNode[]>();
-    for (const n of nodes) if (n.kind === 'tank' && n.bank) banks.set(n.bank, [...(banks.get(n.bank) ?? []), n]);
-    const key = [...banks].map(([b, ts]) => b + ':' + ts.map((t) => `${t.x_m},${t.y_m}`).join(';')).join('|');
+    const banks = groupBanks(nodes);
+    const key = banks.map((b) => b.id + ':' + b.tanks.map((t) => `${t.x_m},${t.y_m},${this.editor.symbolScale(t.id)}`).join(';')).join('|');
     if (key === this.headerKey && !viewChanged) return;
     this.headerKey = key;
     this.headers.destroyChildren();
-    for (const [bank, tanks] of banks) {
-      if (tanks.length < 2) continue;
-      const pts = tanks.map((t) => this.editor.viewport.toScreen({ x: t.x_m ?? 0, y: t.y_m ?? 0 })).sort((p, q) => p.x - q.x || p.y - q.y);
-      const flat = pts.flatMap((p) => [p.x, p.y + 16]);
+    for (const bank of banks) {
+      const g = this.bankGeometry(bank.tanks);
+      const flat = [g.x0, g.y, ...g.pts.flatMap((p) => [p.x, g.y]), g.x1, g.y];
       this.headers.add(new Konva.Line({ points: flat, stroke: LABEL, strokeWidth: 7, lineCap: 'round', lineJoin: 'round', listening: false, perfectDrawEnabled: false }));
       this.headers.add(new Konva.Line({ points: flat, stroke: '#cfe6f3', strokeWidth: 3.5, lineCap: 'round', lineJoin: 'round', listening: false, perfectDrawEnabled: false }));
-      for (const p of pts) this.headers.add(new Konva.Line({ points: [p.x, p.y + 13, p.x, p.y + 16], stroke: LABEL, strokeWidth: 3, listening: false }));
-      const first = pts[0];
-      this.headers.add(new Konva.Text({ text: 'bank ' + bank, x: first.x - 70, y: first.y + 11, width: 50, align: 'right', fontFamily: FONT, fontSize: 10, fill: LABEL, listening: false }));
+      for (const p of g.pts) this.headers.add(new Konva.Line({ points: [p.x, g.y - 4, p.x, g.y], stroke: LABEL, strokeWidth: 3, listening: false }));
     }
     dirty.add(this.contentLayer);
   }
@@ -341,19 +529,23 @@ export class CanvasView {
       const text = hasPressure ? formatQuantity('pressure', r.pressure_m, units) : '';
       const colour = hasPressure ? marginColour(r.pressure_m - min) : '';
       // Rebuild only what changed: most solves move few labels.
-      const key = `${text}|${colour}|${show && !!w?.length}|${this.detail}`;
+      const key = `${text}|${colour}|${show && !!w?.length}`;
       if (this.overlayKeys.get(n.id) === key) continue;
       this.overlayKeys.set(n.id, key);
-      changed ||= !this.lifted.has(n.id);
-      v.overlay.destroyChildren();
+      changed = true;
+      v.marks.destroyChildren();
+      v.tag?.destroy();
+      v.tag = null;
+      v.tagText = text;
       if (hasPressure) {
-        v.overlay.add(new Konva.Circle({ radius: 17, stroke: colour, strokeWidth: 5, listening: false, perfectDrawEnabled: false }));
-        if (this.detail) v.overlay.add(new Konva.Label({ x: 19, y: -22, listening: false }).add(
+        v.marks.add(new Konva.Circle({ radius: RING_R, stroke: colour, strokeWidth: 5, listening: false, perfectDrawEnabled: false }));
+        v.tag = new Konva.Label({ x: 19, y: -22, listening: false, visible: false }).add(
           new Konva.Tag({ fill: '#ffffff', stroke: colour, strokeWidth: 1.5, cornerRadius: 3, listening: false }),
-          new Konva.Text({ text, padding: 3, fontFamily: FONT, fontSize: 11, fontStyle: 'bold', fill: LABEL, listening: false }),
-        ));
+          new Konva.Text({ text, padding: TAG_PAD, fontFamily: FONT, fontSize: TAG_FONT, fontStyle: 'bold', fill: LABEL, listening: false }),
+        );
+        v.overlay.add(v.tag);
       }
-      if (show && w?.length) v.overlay.add(...badge(-15, -17));
+      if (show && w?.length) v.marks.add(...badge(-15, -17));
     }
     for (const l of links) {
       const v = this.links.get(l.id);
@@ -363,26 +555,27 @@ export class CanvasView {
       const flows = show && r && Math.abs(r.flow_m3s) > 1e-9;
       const angle = flows ? v.mid.rotation() + (r.flow_m3s < 0 ? 180 : 0) : 0;
       const speed = flows && l.kind === 'pipe' ? formatQuantity('velocity', Math.abs(r.velocity_ms), units) : '';
-      const key = `${flows}|${angle.toFixed(1)}|${speed}|${show && !!w?.length}|${this.detail}`;
+      const key = `${flows}|${angle.toFixed(1)}|${speed}|${show && !!w?.length}`;
       if (this.overlayKeys.get(l.id) === key) continue;
       this.overlayKeys.set(l.id, key);
-      changed ||= !this.lifted.has(l.id);
+      changed = true;
       v.overlay.destroyChildren();
+      v.speed = null;
+      v.speedText = speed;
+      v.arrowAt = null;
       if (flows) {
         const offset = l.kind === 'pipe' ? 0 : 18;
         const rad = (angle * Math.PI) / 180;
         const arrow = new Konva.Line({
-          points: [-6, -5, 4, 0, -6, 5], closed: true, fill: SELECT, listening: false, perfectDrawEnabled: false,
+          name: 'arrow', points: [-6, -5, 4, 0, -6, 5], closed: true, fill: SELECT, listening: false, perfectDrawEnabled: false,
           x: Math.cos(rad) * offset, y: Math.sin(rad) * offset, rotation: angle,
         });
         v.overlay.add(arrow);
-        if (speed && this.detail) {
-          // Beside the line, on the side below or right of it, so the text never sits on the stroke.
-          const normal = v.mid.rotation() * (Math.PI / 180) + Math.PI / 2;
-          const side = Math.sin(normal) >= 0 ? 1 : -1;
-          const nx = Math.cos(normal) * 12 * side;
-          const ny = Math.sin(normal) * 12 * side;
-          v.overlay.add(new Konva.Text({ text: speed, x: nx + (nx < 0 ? -46 : 2), y: ny - 5, width: 44, align: nx < 0 ? 'right' : 'left', fontFamily: FONT, fontSize: 10, fill: SELECT, listening: false }));
+        v.arrowAt = { x: arrow.x(), y: arrow.y() };
+        if (speed) {
+          // Placed beside the line by layoutLabels, or hidden when the pipe is short on screen.
+          v.speed = new Konva.Text({ text: speed, fontFamily: FONT, fontSize: SPEED_FONT, fill: SELECT, listening: false, visible: false });
+          v.overlay.add(v.speed);
         }
       }
       if (show && w?.length) v.overlay.add(...badge(10, -20));
@@ -452,6 +645,26 @@ export class CanvasView {
     draw(major, '#dde3e8');
   }
 
+  /** A small card with the name and pressure of a hovered node whose labels are not all shown. */
+  private hoverCard(n: NetworkNode, p: Point, k: number): void {
+    const v = this.nodes.get(n.id);
+    if (!v) return;
+    const at = this.placed.get(n.id);
+    const full = at && at.variant === 0 && v.label.visible();
+    if (full || this.editor.dragging.length) return;
+    const text = hoverLines(n.name || n.id, v.tagText);
+    const r = (v.tag ? RING_R + 3 : SYMBOL_HALF + 2) * k;
+    const card = new Konva.Label({ x: p.x + r + 4, y: p.y - r, listening: false });
+    card.add(
+      new Konva.Tag({ fill: '#ffffff', stroke: '#9aa6b0', strokeWidth: 1, cornerRadius: 4, shadowColor: 'rgba(0,0,0,0.18)', shadowBlur: 6, shadowOffsetY: 2, listening: false }),
+      new Konva.Text({ text, padding: 5, lineHeight: 1.3, fontFamily: FONT, fontSize: 11, fill: LABEL, listening: false }),
+    );
+    const vp = this.editor.viewport;
+    if (card.x() + card.width() > vp.width - 4) card.x(p.x - r - 4 - card.width());
+    if (card.y() < 4) card.y(4);
+    this.uiLayer.add(card);
+  }
+
   private drawUi(byId: Map<string, NetworkNode>): void {
     this.uiLayer.destroyChildren();
     const ed = this.editor;
@@ -463,19 +676,26 @@ export class CanvasView {
       this.uiLayer.add(new Konva.Line({ points: [p.x - 4, p.y - 4, p.x + 4, p.y + 4, p.x, p.y, p.x + 4, p.y - 4, p.x - 4, p.y + 4], stroke: '#6a4c93', strokeWidth: 1.5, listening: false }));
       if (vp.scale > 2) this.uiLayer.add(new Konva.Text({ x: p.x + 5, y: p.y - 12, text: formatQuantity('elevation', s.elevation_m, this.overlay.units), fontSize: 9, fontFamily: FONT, fill: '#6a4c93', listening: false }));
     }
-    if (ed.hover && !ed.isSelected(ed.hover)) {
+    if (ed.hover) {
       const n = byId.get(ed.hover);
       if (n) {
         const p = vp.toScreen({ x: n.x_m ?? 0, y: n.y_m ?? 0 });
-        this.uiLayer.add(new Konva.Circle({ x: p.x, y: p.y, radius: 20, stroke: SELECT, strokeWidth: 1, opacity: 0.6, listening: false }));
+        const k = ed.symbolScale(n.id);
+        if (!ed.isSelected(n.id)) this.uiLayer.add(new Konva.Circle({ x: p.x, y: p.y, radius: 20 * k, stroke: SELECT, strokeWidth: 1, opacity: 0.6, listening: false }));
+        this.hoverCard(n, p, k);
       }
     }
     if (ed.selection.size === 1 && !ed.readOnly) {
-      const link = ed.store.link([...ed.selection][0]);
-      for (const [x, y] of link?.vertices ?? []) {
-        const p = vp.toScreen({ x, y });
-        this.uiLayer.add(new Konva.Rect({ x: p.x - 4, y: p.y - 4, width: 8, height: 8, fill: '#ffffff', stroke: SELECT, strokeWidth: 1.5, listening: false }));
+      for (const h of ed.segmentHandles()) {
+        this.uiLayer.add(new Konva.Circle({ x: h.screen.x, y: h.screen.y, radius: 4.5, fill: '#ffffff', stroke: SELECT, strokeWidth: 1.2, opacity: 0.9, listening: false }));
+        this.uiLayer.add(new Konva.Line({ points: [h.screen.x - 2.5, h.screen.y, h.screen.x + 2.5, h.screen.y, h.screen.x, h.screen.y, h.screen.x, h.screen.y - 2.5, h.screen.x, h.screen.y + 2.5], stroke: SELECT, strokeWidth: 1.2, listening: false }));
       }
+      const link = ed.store.link([...ed.selection][0]);
+      (link?.vertices ?? []).forEach(([x, y], i) => {
+        const p = vp.toScreen({ x, y });
+        const chosen = ed.selectedVertex?.link === link?.id && ed.selectedVertex?.index === i;
+        this.uiLayer.add(new Konva.Rect({ x: p.x - 4.5, y: p.y - 4.5, width: 9, height: 9, fill: chosen ? SELECT : '#ffffff', stroke: SELECT, strokeWidth: 1.5, listening: false }));
+      });
     }
     if (pv.marquee) {
       const a = vp.toScreen({ x: pv.marquee.x, y: pv.marquee.y + pv.marquee.height });
@@ -501,6 +721,11 @@ export class CanvasView {
   }
 }
 
+/** Text of the hover card for a node whose labels were left off the plan: name, then pressure. */
+function hoverLines(name: string, pressure: string): string {
+  return pressure ? `${name}\n${pressure}` : name;
+}
+
 function badge(x: number, y: number): Konva.Shape[] {
   return [
     new Konva.Circle({ x, y, radius: 7, fill: WARN, stroke: '#ffffff', strokeWidth: 1.5, listening: false }),
@@ -520,4 +745,35 @@ function symbolChanged(a: NetworkNode, b: NetworkNode): boolean {
 export function scaleBar(metresPerPx: number, units: UnitSystem): { px: number; text: string } {
   const nice = niceStep(toDisplay('length', metresPerPx * 140, units));
   return { px: fromDisplay('length', nice, units) / metresPerPx, text: `${nice} ${unitLabel('length', units)}` };
+}
+
+interface BankView { tanks: TankNode[]; header: Box; tankBox: Box; crowded: boolean; text: string }
+
+/** Links shorter than this on screen show no mid-line symbol, arrow or velocity. */
+const MIN_MARKED_LINK_PX = 30;
+
+function polylineScreenLength(pts: Point[]): number {
+  let total = 0;
+  for (let i = 1; i < pts.length; i++) total += distance(pts[i - 1], pts[i]);
+  return total;
+}
+
+/** Tanks grouped by bank id (banks of two or more). */
+function groupBanks(nodes: NetworkNode[]): { id: string; tanks: TankNode[] }[] {
+  const banks = new Map<string, TankNode[]>();
+  for (const n of nodes) if (n.kind === 'tank' && n.bank) banks.set(n.bank, [...(banks.get(n.bank) ?? []), n]);
+  return [...banks].filter(([, ts]) => ts.length > 1).map(([id, tanks]) => ({ id, tanks }));
+}
+
+/** The screen segment holding the middle of a polyline (where the flow arrow sits). */
+function segmentAtMiddle(pts: Point[]): [Point, Point] | null {
+  let total = 0;
+  for (let i = 1; i < pts.length; i++) total += distance(pts[i - 1], pts[i]);
+  let walked = 0;
+  for (let i = 1; i < pts.length; i++) {
+    const len = distance(pts[i - 1], pts[i]);
+    if (walked + len >= total / 2 && len > 0) return [pts[i - 1], pts[i]];
+    walked += len;
+  }
+  return null;
 }

@@ -139,6 +139,10 @@ export class LayoutScreen {
     if (t.id === 'place') return 'Click to place. Shift-click to place another.';
     if (t.id === 'pan') return 'Drag to move the view.';
     if (t.id === 'backdrop') return 'Drag to slide the backdrop under the network. Esc when done.';
+    const el = this.selectedElement();
+    if (t.id === 'select' && el && 'from' in el && this.canEdit()) {
+      return 'Bends: drag a + handle or double-click the line to add one; drag to move; double-click one (or click it, then Delete) to remove it.';
+    }
     return '';
   });
 
@@ -286,6 +290,14 @@ export class LayoutScreen {
     this.view = view;
     view.setOverlay({ results: this.results(), units: this.units(), warnings: this.warnings(), show: this.showResults() });
     view.setSurvey(this.survey());
+    // Labels keep clear of the legend and the scale bar drawn over the canvas corners.
+    view.setReservedAreas(() => {
+      const r = el.getBoundingClientRect();
+      return Array.from(el.parentElement?.querySelectorAll('.scale-bar, .legend') ?? []).map((e) => {
+        const b = e.getBoundingClientRect();
+        return { x: b.left - r.left - 4, y: b.top - r.top - 4, w: b.width + 8, h: b.height + 8 };
+      });
+    });
     this.editor.fitToView();
     const toInput = (e: PointerEvent | MouseEvent): PointerInput => {
       const r = el.getBoundingClientRect();
@@ -312,12 +324,17 @@ export class LayoutScreen {
       const r = el.getBoundingClientRect();
       this.editor.zoomAt({ x: e.clientX - r.left, y: e.clientY - r.top }, Math.exp(-e.deltaY * (e.deltaMode === 1 ? 0.05 : 0.0015)));
     };
+    const dbl = (e: MouseEvent) => {
+      if (e.button !== 0) return;
+      if (this.editor.doubleClick(toInput(e))) this.publishDocument();
+    };
     const noMenu = (e: Event) => e.preventDefault();
     el.addEventListener('pointerdown', down);
     el.addEventListener('pointermove', move);
     el.addEventListener('pointerup', up);
     el.addEventListener('pointercancel', up);
     el.addEventListener('wheel', wheel, { passive: false });
+    el.addEventListener('dblclick', dbl);
     el.addEventListener('contextmenu', noMenu);
     const ro = new ResizeObserver(() => view.resize(el.clientWidth, el.clientHeight));
     ro.observe(el);
@@ -328,6 +345,7 @@ export class LayoutScreen {
       el.removeEventListener('pointerup', up);
       el.removeEventListener('pointercancel', up);
       el.removeEventListener('wheel', wheel);
+      el.removeEventListener('dblclick', dbl);
       el.removeEventListener('contextmenu', noMenu);
     });
   }

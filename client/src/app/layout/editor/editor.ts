@@ -8,9 +8,10 @@ import { PlaceTool } from '../tools/place-tool';
 import { SelectTool } from '../tools/select-tool';
 import type { PointerInput, Tool, ToolId } from '../tools/tool';
 import { DocumentStore, linkPoints } from './document-store';
-import { boundsOf, distance, Point, polylineMidpoint, projectOnPolyline, Rect, rectContains, snapPoint } from './geometry';
+import { boundsOf, distance, Point, polylineMidpoint, projectOnPolyline, projectOnSegment, Rect, rectContains, snapPoint } from './geometry';
+import { nearestDistances, symbolScale } from './symbol-size';
 import { nearestSurveyPoint, SurveyPoint } from './survey';
-import { Viewport } from './viewport';
+import { Insets, Viewport } from './viewport';
 
 /** Transient drawing aids the canvas shows on its overlay layer (never part of the document). */
 export interface Preview {
@@ -24,6 +25,13 @@ export type EditorChange = 'document' | 'selection' | 'view' | 'preview' | 'tool
 
 /** Link hit tolerance, CSS px either side of the line. */
 const LINK_HIT_PX = 6;
+/** Bend and add-bend handles answer within this many CSS px. */
+const HANDLE_HIT_PX = 7;
+/** A segment shorter than this on screen offers no add-bend handle at its middle. */
+const MIN_SEGMENT_FOR_HANDLE_PX = 36;
+
+/** A bend point of a link: the link id and the index in its `vertices`. */
+export interface VertexRef { link: string; index: number }
 
 /** Keyboard shortcuts, shown by the help dialog and handled by `handleKey`. */
 export const SHORTCUTS: { keys: string; action: string }[] = [
@@ -34,7 +42,9 @@ export const SHORTCUTS: { keys: string; action: string }[] = [
   { keys: 'L', action: 'Draw a valve' },
   { keys: 'F', action: 'Fit the network in view' },
   { keys: 'G', action: 'Grid snapping on/off' },
-  { keys: 'Delete / Backspace', action: 'Delete the selection' },
+  { keys: 'Delete / Backspace', action: 'Delete the selection (or the chosen bend point)' },
+  { keys: 'Double-click a line', action: 'Add a bend point there' },
+  { keys: 'Double-click a bend', action: 'Remove that bend point' },
   { keys: 'Ctrl/⌘ C, Ctrl/⌘ V', action: 'Copy, paste (new ids)' },
   { keys: 'Ctrl/⌘ A', action: 'Select everything' },
   { keys: 'Ctrl/⌘ S', action: 'Save now' },
@@ -64,6 +74,12 @@ export class Editor {
   /** Node ids being dragged (the view lifts them to the drag layer). */
   dragging: string[] = [];
   grid = { step_m: 1, snap: true };
+  /** Screen room kept free when fitting (labels, legend and scale bar), CSS px. */
+  fitInsets: Insets = { top: 40, right: 84, bottom: 88, left: 56 };
+  /** The bend point chosen by a click on its handle (Delete removes it), or null. */
+  selectedVertex: VertexRef | null = null;
+  private spacingOf: NetworkNode[] | null = null;
+  private spacing = new Map<string, number>();
   readOnly = false;
   message = '';
   spaceHeld = false;
@@ -174,6 +190,7 @@ export class Editor {
     const next = new Set(ids);
     if (next.size === this.selected.size && [...next].every((id) => this.selected.has(id))) return;
     this.selected = next;
+    this.selectedVertex = null;
     this.emit('selection');
   }
 
@@ -182,6 +199,7 @@ export class Editor {
     if (next.has(id)) next.delete(id);
     else next.add(id);
     this.selected = next;
+    this.selectedVertex = null;
     this.emit('selection');
   }
 
@@ -191,6 +209,8 @@ export class Editor {
 
   private pruneSelection(): void {
     const doc = this.store.doc;
+    const v = this.selectedVertex;
+    if (v && (this.store.link(v.link)?.vertices?.length ?? 0) <= v.index) this.selectedVertex = null;
     const alive = new Set([...doc.nodes.map((n) => n.id), ...doc.links.map((l) => l.id)]);
     const kept = [...this.selected].filter((id) => alive.has(id));
     if (kept.length !== this.selected.size) {
@@ -200,14 +220,29 @@ export class Editor {
   }
 
   // ---- hit testing (pure maths on the document; Konva shapes do not listen) ----
-  /** Topmost element under a screen point: nodes first (their symbol radius), then links. */
+  /**
+   * Scale (0.5…1) at which a node's symbol is drawn now: smaller at whole-site zoom and where
+   * neighbours crowd it (`symbol-size.ts`). The canvas draws with it and hit testing uses it.
+   */
+  symbolScale(id: string): number {
+    const nodes = this.store.doc.nodes;
+    if (this.spacingOf !== nodes) {
+      const d = nearestDistances(nodes.map((n) => ({ x: n.x_m ?? 0, y: n.y_m ?? 0 })));
+      this.spacing = new Map(nodes.map((n, i) => [n.id, d[i]]));
+      this.spacingOf = nodes;
+    }
+    return symbolScale((this.spacing.get(id) ?? Infinity) * this.viewport.scale, this.viewport.scale);
+  }
+
+  /** Topmost element under a screen point: nodes first (the nearest within its drawn symbol), then links. */
   hitTest(screen: Point): string | null {
     const doc = this.store.doc;
     let best: { id: string; d: number } | null = null;
     for (const n of doc.nodes) {
       const s = this.viewport.toScreen({ x: n.x_m ?? 0, y: n.y_m ?? 0 });
       const d = distance(s, screen);
-      if (d <= NODE_KINDS[n.kind].hitRadiusPx && (!best || d < best.d)) best = { id: n.id, d };
+      const r = Math.max(6, NODE_KINDS[n.kind].hitRadiusPx * this.symbolScale(n.id));
+      if (d <= r && (!best || d < best.d)) best = { id: n.id, d };
     }
     if (best) return best.id;
     const world = this.viewport.toWorld(screen);
@@ -221,11 +256,100 @@ export class Editor {
   }
 
   /** A bend point of the single selected link under a screen point (within 7 px), or null. */
-  vertexAt(screen: Point): { link: string; index: number } | null {
-    if (this.selected.size !== 1) return null;
-    const link = this.store.link([...this.selected][0]);
-    const i = link?.vertices?.findIndex(([x, y]) => distance(this.viewport.toScreen({ x, y }), screen) <= 7) ?? -1;
+  vertexAt(screen: Point): VertexRef | null {
+    const link = this.singleSelectedLink();
+    const i = link?.vertices?.findIndex(([x, y]) => distance(this.viewport.toScreen({ x, y }), screen) <= HANDLE_HIT_PX) ?? -1;
     return link && i >= 0 ? { link: link.id, index: i } : null;
+  }
+
+  /**
+   * Add-bend handles of the single selected link: the screen middle of each segment long enough
+   * on screen to take one. `segment` i runs from drawn point i to i + 1 (0 is the start node).
+   */
+  segmentHandles(): { link: string; segment: number; screen: Point }[] {
+    const link = this.singleSelectedLink();
+    if (!link || this.readOnly) return [];
+    const pts = linkPoints(link, this.store.doc).map((p) => this.viewport.toScreen(p));
+    const out: { link: string; segment: number; screen: Point }[] = [];
+    for (let i = 1; i < pts.length; i++) {
+      if (distance(pts[i - 1], pts[i]) < MIN_SEGMENT_FOR_HANDLE_PX) continue;
+      out.push({ link: link.id, segment: i - 1, screen: { x: (pts[i - 1].x + pts[i].x) / 2, y: (pts[i - 1].y + pts[i].y) / 2 } });
+    }
+    return out;
+  }
+
+  /** The add-bend handle under a screen point, or null. */
+  segmentHandleAt(screen: Point): { link: string; segment: number } | null {
+    const h = this.segmentHandles().find((s) => distance(s.screen, screen) <= HANDLE_HIT_PX);
+    return h ? { link: h.link, segment: h.segment } : null;
+  }
+
+  private singleSelectedLink(): NetworkLink | undefined {
+    return this.selected.size === 1 ? this.store.link([...this.selected][0]) : undefined;
+  }
+
+  // ---- bend points ----
+  /**
+   * Insert a bend point into a link at a world point: into `segment` when given, else into the
+   * segment nearest the point. Returns its index in `vertices`, or null. Outside a gesture this
+   * is one undo step; pipe lengths follow the drawing.
+   */
+  insertVertex(linkId: string, at: Point, segment?: number): number | null {
+    const link = this.store.link(linkId);
+    if (this.readOnly || !link) return null;
+    const pts = linkPoints(link, this.store.doc);
+    let seg = segment ?? 0;
+    if (segment === undefined) {
+      let best = Infinity;
+      for (let i = 1; i < pts.length; i++) {
+        const d = projectOnSegment(at, pts[i - 1], pts[i]).distance;
+        if (d < best) {
+          best = d;
+          seg = i - 1;
+        }
+      }
+    }
+    const vertices = [...(link.vertices ?? [])];
+    if (seg < 0 || seg > vertices.length) return null;
+    vertices.splice(seg, 0, [at.x, at.y]);
+    this.store.patchElement(link.id, { vertices });
+    this.selectedVertex = { link: link.id, index: seg };
+    return seg;
+  }
+
+  /** Remove a bend point (one undo step). */
+  removeVertex(ref: VertexRef): boolean {
+    const link = this.store.link(ref.link);
+    if (this.readOnly || !link?.vertices || ref.index < 0 || ref.index >= link.vertices.length) return false;
+    const vertices = link.vertices.filter((_, i) => i !== ref.index);
+    this.selectedVertex = null;
+    this.store.patchElement(link.id, { vertices });
+    return true;
+  }
+
+  /** Choose a bend point of the selected link (Delete then removes it), or none. */
+  selectVertex(ref: VertexRef | null): void {
+    this.selectedVertex = ref;
+    this.emit('preview');
+  }
+
+  /**
+   * Double-click with the Select tool: on a bend handle of the selected link it removes that bend;
+   * on a link (pipe, pump or valve line) it selects it and adds a bend point on the line there.
+   * Returns true when something changed.
+   */
+  doubleClick(p: PointerInput): boolean {
+    if (this.readOnly || this.activeTool.id !== 'select') return false;
+    const vertex = this.vertexAt(p.screen);
+    if (vertex) return this.removeVertex(vertex);
+    const hit = this.hitTest(p.screen);
+    const link = hit ? this.store.link(hit) : undefined;
+    if (!link) return false;
+    this.select([link.id]);
+    const on = projectOnPolyline(p.world, linkPoints(link, this.store.doc)).point;
+    const index = this.insertVertex(link.id, on);
+    this.emit('preview');
+    return index !== null;
   }
 
   /** Nodes inside a world rectangle, and links whose whole line is inside it. */
@@ -271,7 +395,7 @@ export class Editor {
     if (b) pts.push({ x: b.x, y: b.y }, { x: b.x + b.width, y: b.y + b.height });
     const r = boundsOf(pts) ?? { x: -50, y: -50, width: 100, height: 100 };
     const pad = Math.max(r.width, r.height) < 20 ? 20 : 0;
-    this.viewport.fit({ x: r.x - pad / 2, y: r.y - pad / 2, width: r.width + pad, height: r.height + pad });
+    this.viewport.fit({ x: r.x - pad / 2, y: r.y - pad / 2, width: r.width + pad, height: r.height + pad }, this.fitInsets);
     this.emit('view');
   }
 
@@ -357,6 +481,10 @@ export class Editor {
 
   deleteSelection(): void {
     if (this.readOnly || this.selected.size === 0) return;
+    if (this.selectedVertex && this.selected.has(this.selectedVertex.link)) {
+      this.removeVertex(this.selectedVertex);
+      return;
+    }
     this.store.remove(this.selected);
     this.select([]);
   }

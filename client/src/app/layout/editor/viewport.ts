@@ -1,5 +1,8 @@
 import { Point, Rect } from './geometry';
 
+/** Screen margins, CSS px. */
+export interface Insets { top: number; right: number; bottom: number; left: number }
+
 /**
  * The view onto the site plan: `scale` CSS pixels per metre and the screen position of the
  * world origin. World y points up, screen y points down. Pure state, no DOM.
@@ -50,17 +53,23 @@ export class Viewport {
     this.originY = screen.y + before.y * this.scale;
   }
 
-  /** Show the world rectangle (metres) with `marginPx` around it. */
-  fit(r: Rect, marginPx = 48): void {
+  /**
+   * Show the world rectangle (metres) with a margin around it: the same `margin` px on every side,
+   * or per side (room for labels and for the legend and scale bar over the canvas corners).
+   */
+  fit(r: Rect, margin: number | Insets = 48): void {
+    const m = typeof margin === 'number' ? { top: margin, right: margin, bottom: margin, left: margin } : margin;
     const w = Math.max(r.width, 1);
     const h = Math.max(r.height, 1);
-    const sx = (this.width - 2 * marginPx) / w;
-    const sy = (this.height - 2 * marginPx) / h;
-    this.scale = Math.min(Viewport.MAX_SCALE, Math.max(Viewport.MIN_SCALE, Math.min(sx, sy)));
+    const availW = Math.max(this.width - m.left - m.right, this.width * 0.3);
+    const availH = Math.max(this.height - m.top - m.bottom, this.height * 0.3);
+    this.scale = Math.min(Viewport.MAX_SCALE, Math.max(Viewport.MIN_SCALE, Math.min(availW / w, availH / h)));
     const cx = r.x + r.width / 2;
     const cy = r.y + r.height / 2;
-    this.originX = this.width / 2 - cx * this.scale;
-    this.originY = this.height / 2 + cy * this.scale;
+    const left = (this.width - availW) * (m.left / Math.max(m.left + m.right, 1e-9));
+    const top = (this.height - availH) * (m.top / Math.max(m.top + m.bottom, 1e-9));
+    this.originX = left + availW / 2 - cx * this.scale;
+    this.originY = top + availH / 2 + cy * this.scale;
   }
 
   /** The visible world rectangle. */

@@ -8,13 +8,16 @@ const DRAG_THRESHOLD_PX = 3;
 
 /**
  * Select: click (shift toggles), marquee on empty space, drag selected nodes (with their link
- * ends) snapping the grabbed node to the grid, drag a bend point of the selected link.
+ * ends) snapping the grabbed node to the grid, drag a bend point of the selected link (a click
+ * on it chooses it for Delete), or drag the handle at a segment's middle to add a bend there.
+ * Adding and moving a bend is one undo step. Double-clicks go to `Editor.doubleClick`.
  * States: idle → pressing → dragging, idle → marquee, idle → bending.
  */
 export class SelectTool implements Tool {
   readonly id = 'select' as const;
   state: 'idle' | 'pressing' | 'dragging' | 'marquee' | 'bending' = 'idle';
   private bend: { link: string; index: number } | null = null;
+  private bendMoved = false;
   private start: PointerInput | null = null;
   private grabbed: string | null = null;
   private dragFrom: NetworkDocument | null = null;
@@ -37,9 +40,25 @@ export class SelectTool implements Tool {
     const vertex = this.ed.readOnly ? null : this.ed.vertexAt(p.screen);
     if (vertex) {
       this.bend = vertex;
+      this.bendMoved = false;
       this.state = 'bending';
       this.ed.store.begin('move bend');
+      this.ed.selectVertex(vertex);
       return;
+    }
+    const handle = this.ed.readOnly ? null : this.ed.segmentHandleAt(p.screen);
+    if (handle) {
+      this.ed.store.begin('add bend');
+      const index = this.ed.insertVertex(handle.link, p.world, handle.segment);
+      if (index === null) {
+        this.ed.store.rollback();
+      } else {
+        this.bend = { link: handle.link, index };
+        this.bendMoved = false;
+        this.state = 'bending';
+        this.ed.selectVertex(this.bend);
+        return;
+      }
     }
     if (hit) {
       if (p.shift) this.ed.toggleSelected(hit);
@@ -69,6 +88,8 @@ export class SelectTool implements Tool {
       this.ed.setDragging(this.ed.selectedNodeIds());
     }
     if (this.state === 'bending' && this.bend) {
+      if (!this.bendMoved && distance(p.screen, start.screen) < DRAG_THRESHOLD_PX) return;
+      this.bendMoved = true;
       const link = this.ed.store.link(this.bend.link);
       if (!link?.vertices) return;
       const at = this.ed.snap(p.world);
