@@ -35,6 +35,28 @@ export function measure(c: BenchCase): BenchResult {
   return { name: c.name, detail: c.detail, median_ms: median, min_ms: times[0], target_ms: c.target_ms };
 }
 
+/**
+ * Time ratio b/a from interleaved runs (a, b, a, b, …): both cases see the same machine load at
+ * nearly the same moment, so on a shared machine the median of the per-pair ratios is far
+ * steadier than a ratio of two medians taken minutes apart.
+ * @example pairedRatio(grid10k, grid20k, 9) // ≈ 2 when time grows linearly
+ */
+export function pairedRatio(a: BenchCase, b: BenchCase, pairs: number): number {
+  for (let i = 0; i < Math.min(a.warmup, b.warmup); i++) { a.run(); b.run(); }
+  const ratios: number[] = [];
+  for (let i = 0; i < pairs; i++) {
+    const t0 = performance.now();
+    a.run();
+    const t1 = performance.now();
+    b.run();
+    const t2 = performance.now();
+    ratios.push((t2 - t1) / (t1 - t0));
+  }
+  ratios.sort((x, y) => x - y);
+  const mid = ratios.length >> 1;
+  return ratios.length % 2 ? ratios[mid] : (ratios[mid - 1] + ratios[mid]) / 2;
+}
+
 /** Print a table of results. */
 export function printTable(results: BenchResult[]): void {
   const rows = results.map((r) => [r.name, fmt(r.median_ms), fmt(r.min_ms), r.target_ms === undefined ? '' : `≤ ${r.target_ms}`, r.detail]);

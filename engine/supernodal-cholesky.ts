@@ -16,6 +16,8 @@ import type { SparseLdl } from './sparse-ldl';
  */
 /** Widest supernode, columns. */
 const MAX_SUPERNODE_WIDTH = 64;
+/** Descendant supernodes at most this wide update through the row map without a buffer. */
+const NARROW_UPDATE = 4;
 /** Share of explicit zeros a relaxed supernode may hold. */
 const RELAX_ZEROS_FRACTION = 0.3;
 
@@ -36,6 +38,8 @@ export class SupernodalCholesky {
   private readonly next: Int32Array;
   private readonly position: Int32Array;
   private readonly update: Float64Array;
+  /** Positions in the target block of a descendant's rows (one update at a time). */
+  private readonly map: Int32Array;
   private readonly work: Float64Array;
 
   /**
@@ -59,6 +63,7 @@ export class SupernodalCholesky {
       this.next = new Int32Array(this.supernodes);
       this.position = new Int32Array(this.supernodes);
       this.update = new Float64Array(structureOf.update.length);
+      this.map = new Int32Array(structureOf.update.length);
       this.work = new Float64Array(n);
       return;
     }
@@ -129,6 +134,7 @@ export class SupernodalCholesky {
     this.next = new Int32Array(ns);
     this.position = new Int32Array(ns);
     this.update = new Float64Array(Math.max(maxUpdate, 1));
+    this.map = new Int32Array(this.update.length);
     this.work = new Float64Array(n);
   }
 
@@ -138,7 +144,7 @@ export class SupernodalCholesky {
   /** Numeric factorisation from pattern.values; returns n on success or the failing column. */
   factor(): number {
     if (this.block.length !== this.blockPtr[this.supernodes]) this.block = new Float64Array(this.blockPtr[this.supernodes]);
-    const { n, first, rowPtr, rows, blockPtr, block, superOf, relative, head, next, position, update } = this;
+    const { n, first, rowPtr, rows, blockPtr, block, superOf, relative, head, next, position, update, map } = this;
     const { colPtr, rowIdx, values, perm, pinv } = this.pattern;
     const ns = this.supernodes;
     head.fill(-1);
@@ -173,11 +179,13 @@ export class SupernodalCholesky {
         while (p2 < dm && rows[dr0 + p2] <= last) p2++;
         const um = dm - p1; // rows to update
         const uw = p2 - p1; // columns of s touched
-        // block(rows, cols of s) −= L_d[p1:dm, :] · L_d[p1:p2, :]ᵀ, one target column at a time:
-        // where d's rows are s's rows shifted (the usual case in a postordered tree) the
-        // target column is contiguous; otherwise the column is accumulated in `update` and scattered
+        // block(rows, cols of s) −= L_d[p1:dm, :] · L_d[p1:p2, :]ᵀ, one target column at a time.
+        // Where d's rows are s's rows shifted (common in a postordered tree) the target column is
+        // contiguous; otherwise d's rows are mapped to s's once, and a narrow d updates through the
+        // map directly while a wide one accumulates each column in `update` and scatters it once
         const rel0 = relative[rows[dr0 + p1]];
         const contiguous = relative[rows[dr0 + dm - 1]] - rel0 === um - 1;
+        if (!contiguous) for (let ii = 0; ii < um; ii++) map[ii] = relative[rows[dr0 + p1 + ii]];
         for (let jj = 0; jj < uw; jj++) {
           const base = b0 + (rows[dr0 + p1 + jj] - f) * m;
           if (contiguous) {
@@ -188,6 +196,13 @@ export class SupernodalCholesky {
               if (ljk === 0) continue;
               for (let ii = jj; ii < um; ii++) block[t0 + ii] -= block[colk + ii] * ljk;
             }
+          } else if (dw <= NARROW_UPDATE) {
+            for (let k = 0; k < dw; k++) {
+              const colk = db0 + k * dm + p1;
+              const ljk = block[colk + jj];
+              if (ljk === 0) continue;
+              for (let ii = jj; ii < um; ii++) block[base + map[ii]] -= block[colk + ii] * ljk;
+            }
           } else {
             update.fill(0, jj, um);
             for (let k = 0; k < dw; k++) {
@@ -196,7 +211,7 @@ export class SupernodalCholesky {
               if (ljk === 0) continue;
               for (let ii = jj; ii < um; ii++) update[ii] += block[colk + ii] * ljk;
             }
-            for (let ii = jj; ii < um; ii++) block[base + relative[rows[dr0 + p1 + ii]]] -= update[ii];
+            for (let ii = jj; ii < um; ii++) block[base + map[ii]] -= update[ii];
           }
         }
         // move d on to the supernode of its next row
