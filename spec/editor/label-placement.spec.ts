@@ -155,3 +155,27 @@ describe('Layout view: fitting the network', () => {
     }
   });
 });
+
+describe('Layout view: fit survives the canvas settling', () => {
+  it('a resize right after a fit fits again (same as pressing Fit); after a pan or an edit it leaves the view alone', () => {
+    const ed = new Editor(structuredClone(hillSmallholding) as NetworkDocument, 700, 500);
+    ed.fitToView();
+    ed.resize(956, 645);
+    const refit = new Editor(structuredClone(hillSmallholding) as NetworkDocument, 956, 645);
+    refit.fitToView();
+    expect(ed.viewport.scale).to.be.closeTo(refit.viewport.scale, 1e-12);
+    expect(ed.viewport.originX).to.be.closeTo(refit.viewport.originX, 1e-9);
+    expect(ed.viewport.originY).to.be.closeTo(refit.viewport.originY, 1e-9);
+
+    ed.panBy(30, 0);
+    const origin = ed.viewport.originX;
+    ed.resize(900, 645);
+    expect(ed.viewport.originX).to.equal(origin);
+
+    ed.fitToView();
+    ed.placeNode('tee', { x: 0, y: 0 });
+    const scale = ed.viewport.scale;
+    ed.resize(956, 645);
+    expect(ed.viewport.scale).to.equal(scale);
+  });
+});

@@ -281,7 +281,9 @@ export class CanvasView {
       if (k === v.scale) continue;
       v.scale = k;
       v.symbol.scale({ x: k, y: k });
+      // Konva scales a shape about its own position, so the halo's corner moves with k.
       v.halo.scale({ x: k, y: k });
+      v.halo.position({ x: -19 * k, y: -19 * k });
       v.marks.scale({ x: k, y: k });
     }
   }

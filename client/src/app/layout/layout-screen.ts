@@ -41,6 +41,8 @@ export interface RunnelEditorHook {
   frameTimes(): number[];
   /** Page (client) coordinates of a site point, for driving the canvas with a real mouse. */
   worldToClient(x_m: number, y_m: number): { x: number; y: number };
+  /** Labels shown on the canvas now (element id, or bank:<id>), as page (client) boxes. */
+  labelBoxes(): { id: string; x: number; y: number; w: number; h: number }[];
 }
 
 declare global {
@@ -141,7 +143,7 @@ export class LayoutScreen {
     if (t.id === 'backdrop') return 'Drag to slide the backdrop under the network. Esc when done.';
     const el = this.selectedElement();
     if (t.id === 'select' && el && 'from' in el && this.canEdit()) {
-      return 'Bends: drag a + handle or double-click the line to add one; drag to move; double-click one (or click it, then Delete) to remove it.';
+      return 'Add a bend: drag a + or double-click the line. Remove: double-click the bend, or click it and press Delete.';
     }
     return '';
   });
@@ -224,6 +226,10 @@ export class LayoutScreen {
         const r = this.canvasRef().nativeElement.getBoundingClientRect();
         const p = ed.viewport.toScreen({ x: x_m, y: y_m });
         return { x: r.left + p.x, y: r.top + p.y };
+      },
+      labelBoxes: () => {
+        const r = this.canvasRef().nativeElement.getBoundingClientRect();
+        return [...(this.view?.placedLabels().values() ?? [])].map((p) => ({ id: p.id, x: r.left + p.box.x, y: r.top + p.box.y, w: p.box.w, h: p.box.h }));
       },
     };
 

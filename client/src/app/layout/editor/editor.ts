@@ -78,6 +78,8 @@ export class Editor {
   fitInsets: Insets = { top: 40, right: 84, bottom: 88, left: 56 };
   /** The bend point chosen by a click on its handle (Delete removes it), or null. */
   selectedVertex: VertexRef | null = null;
+  /** True from a fit until the view or the document changes: a canvas resize then fits again. */
+  private keepFitted = false;
   private spacingOf: NetworkNode[] | null = null;
   private spacing = new Map<string, number>();
   readOnly = false;
@@ -91,6 +93,7 @@ export class Editor {
     this.viewport = new Viewport(width, height);
     this.tool = new SelectTool(this);
     this.store.subscribe(() => {
+      this.keepFitted = false;
       this.pruneSelection();
       this.emit('document');
     });
@@ -372,18 +375,26 @@ export class Editor {
   }
 
   panBy(dx: number, dy: number): void {
+    this.keepFitted = false;
     this.viewport.panBy(dx, dy);
     this.emit('view');
   }
 
   zoomAt(screen: Point, factor: number): void {
+    this.keepFitted = false;
     this.viewport.zoomAt(screen, factor);
     this.emit('view');
   }
 
+  /**
+   * The canvas changed size. A view still as fitted (no pan, zoom or edit since) is fitted again,
+   * so a network opened while the page was still laying out ends up centred.
+   */
   resize(width: number, height: number): void {
+    const changed = width !== this.viewport.width || height !== this.viewport.height;
     this.viewport.resize(width, height);
-    this.emit('view');
+    if (changed && this.keepFitted) this.fitToView();
+    else this.emit('view');
   }
 
   /** Fit every node, bend point and the backdrop into view. */
@@ -396,6 +407,7 @@ export class Editor {
     const r = boundsOf(pts) ?? { x: -50, y: -50, width: 100, height: 100 };
     const pad = Math.max(r.width, r.height) < 20 ? 20 : 0;
     this.viewport.fit({ x: r.x - pad / 2, y: r.y - pad / 2, width: r.width + pad, height: r.height + pad }, this.fitInsets);
+    this.keepFitted = true;
     this.emit('view');
   }
 
