@@ -1,6 +1,14 @@
-import { LINK_PIPE, LINK_PRV, LINK_PUMP_CURVE, LINK_PUMP_FLOW, NODE_JUNCTION, NODE_TANK, type NetworkModel } from './network-model';
+import { LINK_PIPE as LINK_PIPE_, LINK_PRV as LINK_PRV_, LINK_PUMP_CURVE as LINK_PUMP_CURVE_, LINK_PUMP_FLOW as LINK_PUMP_FLOW_, NODE_JUNCTION as NODE_JUNCTION_, NODE_TANK as NODE_TANK_, type NetworkModel } from './network-model';
 import type { PipeLink } from './network-document';
 import type { Warning } from './warnings';
+
+// local copies of imported constants read per element (see gradient-solver.ts)
+const LINK_PIPE = LINK_PIPE_;
+const LINK_PRV = LINK_PRV_;
+const LINK_PUMP_CURVE = LINK_PUMP_CURVE_;
+const LINK_PUMP_FLOW = LINK_PUMP_FLOW_;
+const NODE_JUNCTION = NODE_JUNCTION_;
+const NODE_TANK = NODE_TANK_;
 
 /**
  * Design checks on a solved steady state (each one a common-practice rule; see REFERENCES.md):

@@ -1,9 +1,17 @@
 import { steadyChecks, type CheckOptions } from './checks';
-import { GradientSolver, STATUS_CLOSED, STATUS_NAMES, type SolverState } from './gradient-solver';
+import { GradientSolver, STATUS_CLOSED as STATUS_CLOSED_, STATUS_NAMES as STATUS_NAMES_, type SolverState } from './gradient-solver';
 import type { NetworkDocument } from './network-document';
-import { compileNetwork, LINK_FLOAT, LINK_PUMP_CURVE, LINK_PUMP_FLOW, NODE_JUNCTION, type NetworkModel } from './network-model';
+import { compileNetwork, LINK_FLOAT as LINK_FLOAT_, LINK_PUMP_CURVE as LINK_PUMP_CURVE_, LINK_PUMP_FLOW as LINK_PUMP_FLOW_, NODE_JUNCTION as NODE_JUNCTION_, type NetworkModel } from './network-model';
 import { validateDocument } from './validate';
 import type { Warning } from './warnings';
+
+// local copies of imported constants read per element (see gradient-solver.ts)
+const LINK_FLOAT = LINK_FLOAT_;
+const LINK_PUMP_CURVE = LINK_PUMP_CURVE_;
+const LINK_PUMP_FLOW = LINK_PUMP_FLOW_;
+const NODE_JUNCTION = NODE_JUNCTION_;
+const STATUS_CLOSED = STATUS_CLOSED_;
+const STATUS_NAMES = STATUS_NAMES_;
 
 /**
  * Steady-state solve of a network document: validate, compile, run the global gradient method
