@@ -11,6 +11,7 @@ export * from './units';
 export type { Warning, WarningCode } from './warnings';
 export { validateDocument } from './validate';
 export { solve, type SteadyResult, type SteadyOptions, type NodeResult, type LinkResult } from './steady';
+export { clearStructureCache } from './gradient-solver';
 export { simulate, type SimulateOptions, type TimeSeriesResult, type SimulationSummary } from './simulate';
 export { equalisationTime, type EqualiseOptions, type EqualiseResult } from './equalise';
 export { staticHeads, DEFAULT_VELOCITY_LIMIT_MS, DEFAULT_COVER_M } from './checks';
