@@ -353,11 +353,9 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     expect(await snackText(page)).to.contain('3 survey point(s)');
   });
 
-  // Skipped: product bug "fit on open is off-centre". LayoutScreen.load() calls Editor.fitToView()
-  // before the canvas has its final width; the ResizeObserver in attachCanvas() only resizes the
-  // stage, so the network stays shifted left by half the width change (56 or 85 px seen at 1366×800)
-  // until the user presses Fit. Unskip once fixed.
-  it.skip('opening the Layout fits the network the way the Fit button does (centred in the canvas)', async () => {
+  // Found by this suite and fixed: the first fit was taken before the canvas reached its final
+  // width and stayed off-centre by half the width change (56–95 px at 1366×800) until Fit was pressed.
+  it('opening the Layout fits the network the way the Fit button does (centred in the canvas)', async () => {
     await signIn(page, app.baseUrl, 'designer');
     const projectId = await createProject(page, app.baseUrl, 'Fit on open');
     expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('fit') })).status()).to.equal(200);
@@ -376,11 +374,9 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     }
   });
 
-  // Skipped: product bug "Fit hides the bottom-right element under the legend". Viewport.fit() keeps
-  // a 48 px margin but the "Pressure margin over minimum" legend is 58 px tall, 12 px from the corner,
-  // so an outlet at the lower right of the network (and its pressure label) is drawn under it.
-  // Unskip once fixed.
-  it.skip('after Fit no element sits under the pressure legend or the scale bar', async () => {
+  // Found by this suite and fixed: Fit kept a 48 px margin while the legend is 58 px tall and 12 px
+  // from the corner, so the lower-right outlet and its pressure label were drawn under it.
+  it('after Fit no element sits under the pressure legend or the scale bar', async () => {
     await signIn(page, app.baseUrl, 'designer');
     const projectId = await createProject(page, app.baseUrl, 'Fit clear of the legend');
     expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('legend') })).status()).to.equal(200);
