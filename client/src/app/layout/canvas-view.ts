@@ -24,7 +24,7 @@ const TAG_FONT = 11;
 const TAG_PAD = 3;
 const SPEED_FONT = 10;
 /** Tank banks narrower than this on screen get a bank badge in place of their tanks' names. */
-const CROWDED_BANK_PX = 64;
+const CROWDED_BANK_PX = 56;
 
 /** What the results overlay needs besides the document. */
 export interface OverlayInput {
@@ -100,6 +100,8 @@ export class CanvasView {
   private labelledLinks: NetworkLink[] | null = null;
   private labelledSelection: ReadonlySet<string> | null = null;
   private labelsDirty = true;
+  /** Viewport scale and origin at the last label placement. */
+  private placedAt = { scale: 0, x: 0, y: 0 };
   /** Placed labels by element id (and `bank:<id>` for bank badges), from the last placement. */
   private placed = new Map<string, Placement>();
   private readonly bankBadges = new Konva.Group({ listening: false });
@@ -254,7 +256,11 @@ export class CanvasView {
       this.labelsDirty = true;
     }
     this.overlayDirty = false;
-    if ((this.labelsDirty || viewChanged || doc.nodes !== this.labelledNodes || doc.links !== this.labelledLinks || selection !== this.labelledSelection) && dragging.size === 0) {
+    // While a pan drag is in progress labels ride along with their elements (placing them again
+    // on every frame of a large plan costs more than a frame); they are placed again when it ends.
+    const panOnly = viewChanged && ed.panning && vp.scale === this.placedAt.scale;
+    if (panOnly) this.bankBadges.position({ x: vp.originX - this.placedAt.x, y: vp.originY - this.placedAt.y });
+    if ((this.labelsDirty || (viewChanged && !panOnly) || doc.nodes !== this.labelledNodes || doc.links !== this.labelledLinks || selection !== this.labelledSelection) && dragging.size === 0) {
       this.scaleSymbols(doc.nodes);
       this.layoutLabels(doc.nodes, doc.links, byId, selection);
       dirty.add(this.contentLayer);
@@ -300,6 +306,8 @@ export class CanvasView {
     this.labelledSelection = selection;
     this.labelsDirty = false;
     const vp = this.editor.viewport;
+    this.placedAt = { scale: vp.scale, x: vp.originX, y: vp.originY };
+    this.bankBadges.position({ x: 0, y: 0 });
     const margin = 60;
     const onScreen = (p: Point) => p.x > -margin && p.y > -margin && p.x < vp.width + margin && p.y < vp.height + margin;
     const obstacles: Box[] = [...this.reserved()];
@@ -307,7 +315,7 @@ export class CanvasView {
     const rank: Record<string, number> = { outlet: 1, tank: 2, source: 2, tee: 3 };
     const screenOf = new Map<string, Point>();
     const banks = this.crowdedBanks(nodes);
-    const inCrowdedBank = new Set([...banks.values()].flatMap((b) => b.tanks.map((t) => t.id)));
+    const inCrowdedBank = new Set([...banks.values()].filter((b) => b.crowded).flatMap((b) => b.tanks.map((t) => t.id)));
 
     for (const n of nodes) {
       const v = this.nodes.get(n.id);
@@ -334,7 +342,8 @@ export class CanvasView {
     for (const [bank, b] of banks) {
       const w = textWidth(b.text, 10) + 8;
       obstacles.push(b.header);
-      requests.push({ id: 'bank:' + bank, priority: 1.5, candidates: aroundBox(b.tankBox, { w, h: 15 }, ['below', 'left', 'right', 'above', 'below-left', 'below-right', 'above-left', 'above-right']) });
+      // A crowded bank's badge stands in for its tanks' names; otherwise it comes after the tees.
+      requests.push({ id: 'bank:' + bank, priority: b.crowded ? 1.5 : 3.5, candidates: aroundBox(b.tankBox, { w, h: 15 }, ['below', 'left', 'right', 'above', 'below-left', 'below-right', 'above-left', 'above-right']) });
     }
     const lines: Box[] = [];
     for (const l of links) {
@@ -411,7 +420,7 @@ export class CanvasView {
     }
   }
 
-  /** Tank banks and the screen box of their header. */
+  /** Tank banks, the screen box of their header and whether they are too narrow for the tanks' names. */
   private crowdedBanks(nodes: NetworkNode[]): Map<string, BankView> {
     const out = new Map<string, BankView>();
     for (const bank of groupBanks(nodes)) {
@@ -420,7 +429,6 @@ export class CanvasView {
       const tankBox = { x: geo.x0, y: top, w: geo.x1 - geo.x0, h: geo.box.y + geo.box.h - top };
       out.set(bank.id, { tanks: bank.tanks, header: geo.box, tankBox, crowded: geo.span < CROWDED_BANK_PX, text: `${bank.id} bank · ${bank.tanks.length} tanks` });
     }
-    for (const [id, b] of out) if (!b.crowded) out.delete(id);
     return out;
   }
 

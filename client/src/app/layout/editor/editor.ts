@@ -369,6 +369,12 @@ export class Editor {
     return this.grid.snap ? snapPoint(p, this.grid.step_m) : p;
   }
 
+  /** A pan drag is in progress (the canvas keeps labels where they are until it ends). */
+  get panning(): boolean {
+    const t = this.activeTool;
+    return t.id === 'pan' && t.state === 'panning';
+  }
+
   toggleSnap(): void {
     this.grid = { ...this.grid, snap: !this.grid.snap };
     this.emit('view');

@@ -41,7 +41,7 @@ function inside(outer: Box, b: Box): boolean {
  * @example const g = new BoxGrid(40); g.add({ x: 0, y: 0, w: 10, h: 10 }); g.hits({ x: 5, y: 5, w: 2, h: 2 }) // → true
  */
 export class BoxGrid {
-  private readonly cells = new Map<string, Box[]>();
+  private readonly cells = new Map<number, Box[]>();
   constructor(private readonly cell = 48) {}
 
   add(b: Box): void {
@@ -56,13 +56,14 @@ export class BoxGrid {
     return this.visit(b, (list) => !!list && list.some((o) => boxesIntersect(o, b)));
   }
 
-  private visit(b: Box, fn: (list: Box[] | undefined, key: string) => boolean): boolean {
+  private visit(b: Box, fn: (list: Box[] | undefined, key: number) => boolean): boolean {
     const c = this.cell;
     const x0 = Math.floor(b.x / c), x1 = Math.floor((b.x + b.w) / c);
     const y0 = Math.floor(b.y / c), y1 = Math.floor((b.y + b.h) / c);
     for (let i = x0; i <= x1; i++) {
       for (let j = y0; j <= y1; j++) {
-        const key = i + ',' + j;
+        // Cells are numbered on a 2^20-wide lattice: unique for any screen a canvas can have.
+        const key = (i + 524288) * 1048576 + (j + 524288);
         if (fn(this.cells.get(key), key)) return true;
       }
     }
@@ -86,10 +87,17 @@ export function placeLabels(requests: readonly LabelRequest[], obstacles: readon
   const out = new Map<string, Placement>();
   const pad = (b: Box): Box => ({ x: b.x - gap / 2, y: b.y - gap / 2, w: b.w + gap, h: b.h + gap });
   for (const { r } of order) {
-    const fits = r.candidates.filter((c) => (!bounds || inside(bounds, c.box)) && !grid.hits(pad(c.box)));
-    // Within the best content variant that fits at all, prefer a box clear of the lines.
-    const variant = Math.min(...fits.map((c) => c.variant));
-    const chosen = fits.find((c) => c.variant === variant && !softGrid.hits(c.box)) ?? fits.find((c) => c.variant === variant);
+    // Within the fullest content variant that fits at all, prefer a box clear of the lines.
+    let chosen: Candidate | null = null;
+    let fallback: Candidate | null = null;
+    for (let k = 0; k < r.candidates.length && !chosen; k++) {
+      const c = r.candidates[k];
+      if (fallback && c.variant !== fallback.variant) break;
+      if ((bounds && !inside(bounds, c.box)) || grid.hits(pad(c.box))) continue;
+      if (!softGrid.hits(c.box)) chosen = c;
+      else fallback ??= c;
+    }
+    chosen ??= fallback;
     if (!chosen) continue;
     grid.add(pad(chosen.box));
     out.set(r.id, { id: r.id, box: chosen.box, side: chosen.side, variant: chosen.variant });

@@ -30,8 +30,11 @@ export class PanTool implements Tool {
   }
 
   up(): void {
+    const was = this.state;
     this.state = 'idle';
     this.last = null;
+    // The canvas holds labels still while a pan is in progress; let it place them again now.
+    if (was === 'panning') this.ed.panBy(0, 0);
   }
 
   cancel(): boolean {
