@@ -85,7 +85,10 @@ export class ResultsList {
       if (!r) continue;
       rows.push({
         id: l.id, name: l.name || l.id, kind: l.kind,
-        value: `${formatQuantity('flow', Math.abs(r.flow_m3s), u)} · ${formatQuantity('velocity', Math.abs(r.velocity_ms), u)}`,
+        // A pump has no bore of its own: show the head it adds (headloss is from-minus-to head) instead of a velocity.
+        value: l.kind === 'pump'
+          ? `${formatQuantity('flow', Math.abs(r.flow_m3s), u)} · +${formatQuantity('head', Math.max(0, -r.headloss_m), u)} head`
+          : `${formatQuantity('flow', Math.abs(r.flow_m3s), u)} · ${formatQuantity('velocity', Math.abs(r.velocity_ms), u)}`,
         colour: null, warnings: warn.get(l.id) ?? [],
       });
     }
