@@ -1,29 +1,11 @@
 import { expect } from 'chai';
-import type { Browser, Page } from 'playwright-core';
-import { hasChromium, launchBrowser, signIn, startApp, type RunningApp } from './harness';
+import { signIn, useBrowserApp } from './harness';
 
 describe('foundation in a real browser (Chromium, real server, PGlite on disk)', function () {
-  let app: RunningApp;
-  let browser: Browser;
-  let page: Page;
-
-  before(async function () {
-    if (!hasChromium()) this.skip();
-    app = await startApp();
-    browser = await launchBrowser();
-  });
-  after(async () => {
-    await browser?.close();
-    await app?.stop();
-  });
-  beforeEach(async () => {
-    page = await (await browser.newContext({ viewport: { width: 1366, height: 768 } })).newPage();
-  });
-  afterEach(async () => {
-    await page?.context().close();
-  });
+  const ui = useBrowserApp();
 
   it('the demo designer signs in, creates a project and finds it in the list after a reload', async () => {
+    const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
     await page.getByTestId('new-project').click();
     await page.getByTestId('project-form-name').fill('Upper paddock troughs');
@@ -38,12 +20,14 @@ describe('foundation in a real browser (Chromium, real server, PGlite on disk)',
   });
 
   it('a reviewer sees the projects but no create button', async () => {
+    const { app, page } = ui;
     await signIn(page, app.baseUrl, 'reviewer');
     await page.getByTestId('project-row').first().waitFor();
     expect(await page.getByTestId('new-project').count()).to.equal(0);
   });
 
   it('signing out returns to the sign-in screen and protected pages redirect there', async () => {
+    const { app, page } = ui;
     await signIn(page, app.baseUrl, 'owner');
     await page.getByTestId('user-menu').click();
     await page.getByTestId('sign-out').click();

@@ -1,13 +1,15 @@
 /**
  * Browser end-to-end harness: starts the real server (built client, fresh PGlite data folder,
  * demo seed) as a child process on 127.0.0.1 and drives Debian's Chromium with playwright-core.
+ * `useBrowserApp()` registers a spec file's hooks (one server and browser per file, a fresh
+ * context and page per test).
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { chromium, type Browser, type Page } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 export const DEMO_PASSWORD = 'runnel-demo-2026';
@@ -98,4 +100,67 @@ export async function signIn(page: Page, baseUrl: string, role: string): Promise
   await page.getByTestId('signin-password').fill(DEMO_PASSWORD);
   await page.getByTestId('signin-submit').click();
   await page.waitForURL(/\/projects/);
+}
+
+export interface Viewport { width: number; height: number }
+
+/** What `useBrowserApp` hands a spec file: getters, valid inside its tests and hooks. */
+export interface BrowserApp {
+  readonly app: RunningApp;
+  readonly browser: Browser;
+  /** This test's browser context (a fresh profile: no cookies from earlier tests). */
+  readonly context: BrowserContext;
+  /** This test's page, in `context`. */
+  readonly page: Page;
+  /** A further context (another window, another screen size), closed after the test. */
+  newContext(viewport?: Viewport): Promise<BrowserContext>;
+}
+
+/**
+ * Registers a spec file's mocha hooks: one server and one browser for the file (skipped where
+ * Chromium is missing), and a fresh context and page for each test, closed after it.
+ */
+export function useBrowserApp(options: { viewport?: Viewport } = {}): BrowserApp {
+  const viewport = options.viewport ?? { width: 1366, height: 768 };
+  let app: RunningApp | undefined;
+  let browser: Browser | undefined;
+  let context: BrowserContext | undefined;
+  let page: Page | undefined;
+  let extra: BrowserContext[] = [];
+  const need = <T>(v: T | undefined, what: string): T => {
+    if (v === undefined) throw new Error(`${what} is only there inside a test of this suite`);
+    return v;
+  };
+
+  before(async function () {
+    if (!hasChromium()) this.skip();
+    app = await startApp();
+    browser = await launchBrowser();
+  });
+  after(async () => {
+    await browser?.close();
+    await app?.stop();
+  });
+  beforeEach(async () => {
+    context = await need(browser, 'browser').newContext({ viewport });
+    page = await context.newPage();
+  });
+  afterEach(async () => {
+    for (const c of [context, ...extra]) await c?.close();
+    extra = [];
+    context = undefined;
+    page = undefined;
+  });
+
+  return {
+    get app() { return need(app, 'app'); },
+    get browser() { return need(browser, 'browser'); },
+    get context() { return need(context, 'context'); },
+    get page() { return need(page, 'page'); },
+    async newContext(size?: Viewport) {
+      const c = await need(browser, 'browser').newContext({ viewport: size ?? viewport });
+      extra.push(c);
+      return c;
+    },
+  };
 }

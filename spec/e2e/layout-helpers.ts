@@ -6,19 +6,44 @@
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
+import type { NetworkDocument } from '../../engine/network-document';
 
 /** The parts of the network document these tests read (engine/network-document.ts). */
 export interface E2eNode { id: string; kind: string; name?: string; x_m: number; y_m: number; elevation_m: number; [k: string]: unknown }
-export interface E2eLink { id: string; kind: string; from: string; to: string; length_m?: number; [k: string]: unknown }
+export interface E2eLink { id: string; kind: string; from: string; to: string; length_m?: number; vertices?: [number, number][]; [k: string]: unknown }
 export interface E2eDoc { schema: string; headloss: string; nodes: E2eNode[]; links: E2eLink[]; layout?: Record<string, unknown>; [k: string]: unknown }
 export interface NetworkRecord { version: number; document: E2eDoc; results: unknown; updatedAt: string | null; updatedBy: string | null }
 
-interface Hook {
-  getDocument(): unknown;
+/**
+ * The editor's test hook, as client/src/app/layout/layout-screen.ts declares it (RunnelEditorHook).
+ * The one declaration for every browser spec; keep the two in step.
+ */
+export interface RunnelEditorHook {
+  getDocument(): NetworkDocument;
   getSelection(): string[];
   lastSolveMs(): number;
   frameTimes(): number[];
-  worldToClient(x: number, y: number): { x: number; y: number };
+  /** Page (client) coordinates of a site point, for driving the canvas with a real mouse. */
+  worldToClient(x_m: number, y_m: number): { x: number; y: number };
+  /** Labels shown on the canvas now (element id, or bank:<id>), as page (client) boxes. */
+  labelBoxes(): LabelBox[];
+}
+export interface LabelBox { id: string; x: number; y: number; w: number; h: number }
+
+declare global {
+  interface Window { __runnelEditor?: RunnelEditorHook }
+}
+
+/** A small gravity line, stored through the API: tank on the hill, pipe down to an outlet. */
+export function smallNetwork(title: string): E2eDoc {
+  return {
+    schema: 'runnel.network/1', headloss: 'hazen-williams', title,
+    nodes: [
+      { id: 'T1', kind: 'tank', name: 'T1', elevation_m: 40, diameter_m: 1.6, level_m: 1.2, min_level_m: 0.1, max_level_m: 1.5, x_m: 0, y_m: 0 },
+      { id: 'O1', kind: 'outlet', name: 'O1', elevation_m: 10, demand_m3s: 0.0003, min_pressure_m: 7, outlet_type: 'hose-bib', demand_model: { type: 'fixed' }, x_m: 40, y_m: -30 },
+    ],
+    links: [{ id: 'P1', kind: 'pipe', from: 'T1', to: 'O1', length_m: 50, diameter_m: 0.025, roughness: 140 }],
+  };
 }
 
 /** Screenshots go to spec/.tmp/ (git-ignored) so a person can look at what the test saw. */
@@ -31,12 +56,13 @@ export async function shot(page: Page, name: string): Promise<string> {
 }
 
 export const editorHook = {
-  doc: (page: Page) => page.evaluate(() => (window as unknown as { __runnelEditor: Hook }).__runnelEditor.getDocument() as E2eDoc),
-  selection: (page: Page) => page.evaluate(() => (window as unknown as { __runnelEditor: Hook }).__runnelEditor.getSelection()),
-  solveMs: (page: Page) => page.evaluate(() => (window as unknown as { __runnelEditor: Hook }).__runnelEditor.lastSolveMs()),
-  frameTimes: (page: Page) => page.evaluate(() => (window as unknown as { __runnelEditor: Hook }).__runnelEditor.frameTimes()),
+  doc: (page: Page) => page.evaluate(() => window.__runnelEditor!.getDocument() as unknown as E2eDoc),
+  selection: (page: Page) => page.evaluate(() => window.__runnelEditor!.getSelection()),
+  solveMs: (page: Page) => page.evaluate(() => window.__runnelEditor!.lastSolveMs()),
+  frameTimes: (page: Page) => page.evaluate(() => window.__runnelEditor!.frameTimes()),
+  labels: (page: Page) => page.evaluate(() => window.__runnelEditor!.labelBoxes()),
   toClient: (page: Page, x_m: number, y_m: number) =>
-    page.evaluate(([x, y]) => (window as unknown as { __runnelEditor: Hook }).__runnelEditor.worldToClient(x, y), [x_m, y_m] as const),
+    page.evaluate(([x, y]) => window.__runnelEditor!.worldToClient(x, y), [x_m, y_m] as const),
 };
 
 /** What a document looks like once stored as JSON (drops `undefined` members; key order is irrelevant to deep-equal). */
@@ -55,6 +81,20 @@ export async function getNetwork(page: Page, baseUrl: string, projectId: string)
   return (await res.json()) as NetworkRecord;
 }
 
+/** The id of the project listed under `name` for the signed-in user. */
+export async function findProject(page: Page, baseUrl: string, name: string): Promise<string> {
+  const res = await apiCall(page, baseUrl, 'GET', '/api/projects');
+  if (res.status() !== 200) throw new Error(`GET projects: ${res.status()}`);
+  const project = ((await res.json()) as { id: string; name: string }[]).find((p) => p.name === name);
+  if (!project) throw new Error(`no project "${name}" listed`);
+  return project.id;
+}
+
+/** Waits until the editor has solved at least once (the worker reported a solve time). */
+export async function waitSolved(page: Page, timeout = 15000): Promise<void> {
+  await page.waitForFunction(() => (window.__runnelEditor?.lastSolveMs() ?? 0) > 0, null, { timeout });
+}
+
 export async function createProject(page: Page, baseUrl: string, name: string, units: 'si' | 'us' = 'si'): Promise<string> {
   const res = await apiCall(page, baseUrl, 'POST', '/api/projects', { name, units });
   if (res.status() !== 201) throw new Error(`create project: ${res.status()} ${await res.text()}`);
@@ -64,7 +104,7 @@ export async function createProject(page: Page, baseUrl: string, name: string, u
 /** Waits until the Layout screen has its canvas, its hook and a loaded document. */
 export async function waitForLayout(page: Page): Promise<void> {
   await page.getByTestId('layout-canvas').locator('canvas').first().waitFor();
-  await page.waitForFunction(() => !!(window as unknown as { __runnelEditor?: unknown }).__runnelEditor);
+  await page.waitForFunction(() => !!window.__runnelEditor);
   // The chip leaves "Loading…" once the network has been fetched (or says View only).
   await page.waitForFunction(() => {
     const chip = document.querySelector('[data-testid=save-status]');
@@ -102,7 +142,7 @@ export async function waitSavedAfterEdit(page: Page, timeout = 15000): Promise<v
 /** Waits until the editor's document has `n` nodes. */
 export async function waitForNodeCount(page: Page, n: number, timeout = 15000): Promise<void> {
   await page.waitForFunction(
-    (count) => ((window as unknown as { __runnelEditor?: Hook }).__runnelEditor?.getDocument() as { nodes?: unknown[] } | undefined)?.nodes?.length === count,
+    (count) => window.__runnelEditor?.getDocument().nodes.length === count,
     n, { timeout },
   );
 }

@@ -1,189 +1,28 @@
 /**
  * The Layout screen end to end, as its users meet it: real server (fresh PGlite, demo seed),
- * built client, Chromium driven with the mouse and keyboard. The editor's test hook
- * (`window.__runnelEditor`) is only read (document, selection, element positions, timings);
- * every change goes through the screen. Server-side checks use the HTTP API with the page's
- * own session cookie and CSRF token (server/API.md).
+ * built client, Chromium driven with the mouse and keyboard. View-only access, uploads and their
+ * messages, fitting the view, and a 500-element network. (Editing and saving: layout-editing.spec.ts;
+ * the demo plan's labels: layout-labels.spec.ts.) The editor's test hook (`window.__runnelEditor`)
+ * is only read (document, selection, element positions, timings); every change goes through the
+ * screen. Server-side checks use the HTTP API with the page's own session cookie and CSRF token
+ * (server/API.md).
  */
 import { expect } from 'chai';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { hasChromium, launchBrowser, signIn, startApp, type RunningApp } from './harness';
+import { signIn, useBrowserApp } from './harness';
 import {
-  apiCall, asStored, canvasPoint, clickNode, createProject, dragFromPalette, editorHook, getNetwork, openLayout, percentile,
-  saveStatus, setProperty, shot, snackText, waitForLayout, waitForNodeCount, waitSaved, waitSavedAfterEdit, type E2eDoc,
+  apiCall, asStored, clickNode, createProject, editorHook, findProject, getNetwork, openLayout, percentile,
+  setProperty, shot, smallNetwork, snackText, waitForNodeCount, waitSavedAfterEdit, waitSolved, type E2eDoc,
 } from './layout-helpers';
 
-const VIEWPORT = { width: 1366, height: 800 };
-
-/** A small gravity line, stored through the API: tank on the hill, pipe down to an outlet. */
-function smallNetwork(title: string): E2eDoc {
-  return {
-    schema: 'runnel.network/1', headloss: 'hazen-williams', title,
-    nodes: [
-      { id: 'T1', kind: 'tank', name: 'T1', elevation_m: 40, diameter_m: 1.6, level_m: 1.2, min_level_m: 0.1, max_level_m: 1.5, x_m: 0, y_m: 0 },
-      { id: 'O1', kind: 'outlet', name: 'O1', elevation_m: 10, demand_m3s: 0.0003, min_pressure_m: 7, outlet_type: 'hose-bib', demand_model: { type: 'fixed' }, x_m: 40, y_m: -30 },
-    ],
-    links: [{ id: 'P1', kind: 'pipe', from: 'T1', to: 'O1', length_m: 50, diameter_m: 0.025, roughness: 140 }],
-  };
-}
-
 describe('Layout screen end to end (Chromium, real server)', function () {
-  let app: RunningApp;
-  let browser: Browser;
-  let context: BrowserContext;
-  let page: Page;
-
-  before(async function () {
-    if (!hasChromium()) this.skip();
-    app = await startApp();
-    browser = await launchBrowser();
-  });
-  after(async () => {
-    await browser?.close();
-    await app?.stop();
-  });
-  beforeEach(async () => {
-    context = await browser.newContext({ viewport: VIEWPORT });
-    page = await context.newPage();
-  });
-  afterEach(async () => {
-    await context?.close();
-  });
-
-  it('a designer builds tank → tee → outlet from the palette, sees a pressure at the outlet, and the saved network survives a reload unchanged', async () => {
-    await signIn(page, app.baseUrl, 'designer');
-    // A new empty project, made on the projects screen (SI units).
-    await page.getByTestId('new-project').click();
-    await page.getByTestId('project-form-name').fill('Orchard line');
-    await page.getByTestId('project-form-units-si').click();
-    await page.getByTestId('project-form-save').click();
-    await page.waitForURL(/\/projects\/[^/]+\/layout/);
-    const projectId = new URL(page.url()).pathname.split('/')[2];
-    await page.getByTestId('tab-layout').click();
-    await waitForLayout(page);
-    expect((await editorHook.doc(page)).nodes).to.have.length(0);
-    expect(await page.getByTestId('layout-empty').isVisible()).to.equal(true);
-
-    await dragFromPalette(page, 'tank', await canvasPoint(page, 0.2, 0.25));
-    await dragFromPalette(page, 'tee', await canvasPoint(page, 0.5, 0.5));
-    await dragFromPalette(page, 'outlet', await canvasPoint(page, 0.8, 0.75));
-    let doc = await editorHook.doc(page);
-    expect(doc.nodes.map((n) => n.kind)).to.deep.equal(['tank', 'tee', 'outlet']);
-    const [tank, tee, outlet] = doc.nodes;
-
-    // Pipe tool: click the start element, click the end element (twice).
-    await page.getByTestId('tool-pipe').click();
-    await clickNode(page, tank.id);
-    await clickNode(page, tee.id);
-    await clickNode(page, tee.id);
-    await clickNode(page, outlet.id);
-    doc = await editorHook.doc(page);
-    expect(doc.links.map((l) => `${l.kind}:${l.from}->${l.to}`)).to.deep.equal([`pipe:${tank.id}->${tee.id}`, `pipe:${tee.id}->${outlet.id}`]);
-
-    // Elevations in the properties panel: tank 45 m up the hill, tee 20 m, outlet 5 m.
-    await page.getByTestId('tool-select').click();
-    await clickNode(page, tank.id);
-    expect(await editorHook.selection(page)).to.deep.equal([tank.id]);
-    await setProperty(page, 'prop-elevation', '45');
-    await clickNode(page, tee.id);
-    await setProperty(page, 'prop-elevation', '20');
-    await clickNode(page, outlet.id);
-    await setProperty(page, 'prop-elevation', '5');
-    doc = await editorHook.doc(page);
-    expect(doc.nodes.map((n) => n.elevation_m)).to.deep.equal([45, 20, 5]);
-
-    // The live result at the outlet: a positive pressure with its unit (SI project: kPa). The list
-    // follows the solver, so wait for the solve of the latest edit: the static head is 45 + 1.2 − 5 =
-    // 41.2 m ≈ 404 kPa (conventional metre of water = 9.80665 kPa, NIST SP 811 appendix B, from
-    // memory); friction takes some of that.
-    const staticKPa = (45 + 1.2 - 5) * 9.80665;
-    const valueOf = (t: string) => Number(/(-?[\d,.]+)\s*kPa/.exec(t)?.[1]?.replace(/,/g, '') ?? NaN);
-    const value = page.getByTestId(`result-${outlet.id}`).locator('.value');
-    try {
-      await page.waitForFunction(
-        ([id, max]) => {
-          const m = /(-?[\d,.]+)\s*kPa/.exec(document.querySelector(`[data-testid=result-${id}] .value`)?.textContent ?? '');
-          const v = m ? Number(m[1].replace(/,/g, '')) : NaN;
-          return v > max / 2 && v <= max; // neither an earlier solve (tank at 0 m: ~10 kPa; outlet at 0 m: ~440 kPa) nor nonsense
-        },
-        [outlet.id, staticKPa + 1] as const, { timeout: 15000 },
-      );
-    } finally {
-      await shot(page, '1-three-elements');
-    }
-    const kPa = valueOf((await value.textContent()) ?? '');
-    expect(kPa).to.be.greaterThan(staticKPa * 0.5);
-    expect(await page.getByTestId('pressure-legend').isVisible()).to.equal(true);
-
-    await waitSavedAfterEdit(page);
-    const before = await editorHook.doc(page);
-    const stored = await getNetwork(page, app.baseUrl, projectId);
-    expect(stored.document).to.deep.equal(asStored(before));
-
-    await page.reload();
-    await waitForLayout(page);
-    await waitForNodeCount(page, 3);
-    const after = await editorHook.doc(page);
-    expect(asStored(after)).to.deep.equal(asStored(before));
-    expect(await saveStatus(page)).to.equal('Saved');
-    await shot(page, '1-after-reload');
-  });
-
-  it('undo and redo restore each earlier document exactly (place, move, property, delete)', async () => {
-    await signIn(page, app.baseUrl, 'designer');
-    const projectId = await createProject(page, app.baseUrl, 'Undo walk');
-    await openLayout(page, app.baseUrl, projectId);
-    const snaps: E2eDoc[] = [await editorHook.doc(page)];
-    const record = async () => {
-      const d = await editorHook.doc(page);
-      expect(d, `edit ${snaps.length} changed nothing`).to.not.deep.equal(snaps[snaps.length - 1]);
-      snaps.push(d);
-    };
-
-    await dragFromPalette(page, 'tank', await canvasPoint(page, 0.3, 0.3));
-    await record(); // 1: tank placed
-    await dragFromPalette(page, 'outlet', await canvasPoint(page, 0.6, 0.6));
-    await record(); // 2: outlet placed
-    const outlet = snaps[2].nodes.find((n) => n.kind === 'outlet')!;
-    const tank = snaps[2].nodes.find((n) => n.kind === 'tank')!;
-    const p = await editorHook.toClient(page, outlet.x_m, outlet.y_m);
-    await page.mouse.move(p.x, p.y);
-    await page.mouse.down();
-    for (let i = 1; i <= 12; i++) await page.mouse.move(p.x + i * 6, p.y + i * 3);
-    await page.mouse.up();
-    await record(); // 3: outlet moved
-    const moved = snaps[3].nodes.find((n) => n.id === outlet.id)!;
-    expect(moved.x_m).to.be.greaterThan(outlet.x_m);
-    expect(moved.y_m).to.be.lessThan(outlet.y_m); // y up on the site, down on screen
-    await setProperty(page, 'prop-name', 'Lower trough');
-    await record(); // 4: renamed
-    expect(snaps[4].nodes.find((n) => n.id === outlet.id)!.name).to.equal('Lower trough');
-    await clickNode(page, tank.id);
-    await page.keyboard.press('Delete');
-    await record(); // 5: tank deleted
-    expect(snaps[5].nodes.map((n) => n.id)).to.deep.equal([outlet.id]);
-
-    for (let i = snaps.length - 2; i >= 0; i--) {
-      await page.keyboard.press('Control+z');
-      expect(await editorHook.doc(page), `after undo back to snapshot ${i}`).to.deep.equal(snaps[i]);
-    }
-    await page.waitForFunction(() => (document.querySelector('[data-testid=undo-button]') as HTMLButtonElement).disabled, null, { timeout: 3000 });
-    for (let i = 1; i < snaps.length; i++) {
-      await page.keyboard.press('Shift+Control+z');
-      expect(await editorHook.doc(page), `after redo to snapshot ${i}`).to.deep.equal(snaps[i]);
-    }
-    await page.waitForFunction(() => (document.querySelector('[data-testid=redo-button]') as HTMLButtonElement).disabled, null, { timeout: 3000 });
-    await waitSavedAfterEdit(page);
-    expect((await getNetwork(page, app.baseUrl, projectId)).document).to.deep.equal(asStored(snaps[snaps.length - 1]));
-  });
+  const ui = useBrowserApp({ viewport: { width: 1366, height: 800 } });
 
   it('a reviewer sees the demo network read-only, and the server refuses the reviewer\'s save with 403', async () => {
+    const { app, page } = ui;
     await signIn(page, app.baseUrl, 'reviewer');
-    const projects = (await (await apiCall(page, app.baseUrl, 'GET', '/api/projects')).json()) as { id: string; name: string }[];
-    const demo = projects.find((p) => p.name === 'Hillside smallholding');
-    expect(demo, 'demo project listed for the reviewer').to.not.equal(undefined);
-    await openLayout(page, app.baseUrl, demo!.id);
-    await page.waitForFunction(() => ((window as unknown as { __runnelEditor?: { getDocument(): { nodes: unknown[] } } }).__runnelEditor?.getDocument().nodes.length ?? 0) > 0);
+    const demo = { id: await findProject(page, app.baseUrl, 'Hillside smallholding') }; // listed for the reviewer
+    await openLayout(page, app.baseUrl, demo.id);
+    await page.waitForFunction(() => (window.__runnelEditor?.getDocument().nodes.length ?? 0) > 0);
     const shown = await editorHook.doc(page);
     expect(shown.nodes.length).to.be.greaterThan(0);
     expect(await page.getByTestId('view-only-chip').textContent()).to.contain('View only');
@@ -206,90 +45,19 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     expect(await page.getByTestId('prop-name').isDisabled()).to.equal(true);
     await shot(page, '3-reviewer-view-only');
 
-    const before = await getNetwork(page, app.baseUrl, demo!.id);
-    const res = await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${demo!.id}/network`, {
+    const before = await getNetwork(page, app.baseUrl, demo.id);
+    const res = await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${demo.id}/network`, {
       version: before.version, document: { ...before.document, title: 'reviewer was here' },
     });
     expect(res.status()).to.equal(403);
     expect(((await res.json()) as { error: { code: string } }).error.code).to.equal('forbidden'); // not a CSRF refusal
-    const after = await getNetwork(page, app.baseUrl, demo!.id);
+    const after = await getNetwork(page, app.baseUrl, demo.id);
     expect(after.version).to.equal(before.version);
     expect(after.document).to.deep.equal(before.document);
   });
 
-  it('two saves from the same version: the API answers 409 with the current copy; in two windows the conflict dialog asks, and Keep mine saves over it', async () => {
-    await signIn(page, app.baseUrl, 'designer');
-    const projectId = await createProject(page, app.baseUrl, 'Two windows');
-    const path = `/api/projects/${projectId}/network`;
-
-    // API: first save from version 0 wins; the second from version 0 is refused with `current`.
-    const base = smallNetwork('first');
-    const first = await apiCall(page, app.baseUrl, 'PUT', path, { version: 0, document: base });
-    expect(first.status()).to.equal(200);
-    const v1 = ((await first.json()) as { version: number }).version;
-    const stale = await apiCall(page, app.baseUrl, 'PUT', path, { version: 0, document: { ...base, title: 'second' } });
-    expect(stale.status()).to.equal(409);
-    const body = (await stale.json()) as { error: { code: string }; current: { version: number; document: E2eDoc } };
-    expect(body.error.code).to.equal('conflict');
-    expect(body.current.version).to.equal(v1);
-    expect(body.current.document).to.deep.equal(base);
-    let server = await getNetwork(page, app.baseUrl, projectId);
-    expect(server.version).to.equal(v1);
-    expect(server.document).to.deep.equal(base); // nothing lost, nothing half-written
-
-    // UI: the same designer in two windows, both opened at version v1.
-    const ctxB = await browser.newContext({ viewport: VIEWPORT });
-    try {
-      const pageA = page;
-      const pageB = await ctxB.newPage();
-      await signIn(pageB, app.baseUrl, 'designer');
-      await openLayout(pageA, app.baseUrl, projectId);
-      await openLayout(pageB, app.baseUrl, projectId);
-
-      await clickNode(pageA, 'T1');
-      await setProperty(pageA, 'prop-name', 'Ridge tank');
-      await waitSavedAfterEdit(pageA);
-      const savedByA = await getNetwork(pageA, app.baseUrl, projectId);
-      expect(savedByA.version).to.equal(v1 + 1);
-      expect(savedByA.document.nodes[0].name).to.equal('Ridge tank');
-
-      await clickNode(pageB, 'O1');
-      await setProperty(pageB, 'prop-name', 'Garden tap');
-      await pageB.getByTestId('conflict-keep-mine').waitFor({ timeout: 15000 });
-      expect(await saveStatus(pageB)).to.equal('Conflict');
-      const dialog = ((await pageB.locator('mat-dialog-container').textContent()) ?? '').replace(/\s+/g, ' ');
-      expect(dialog).to.contain(`Version ${v1 + 1} was saved by Dana Designer`);
-      expect(dialog).to.contain('Your changes are still here, unsaved');
-      expect(await pageB.getByTestId('conflict-load-theirs').isVisible()).to.equal(true);
-      await shot(pageB, '4-conflict-dialog');
-      // The local edit is kept while the dialog is open.
-      const mine = await editorHook.doc(pageB);
-      expect(mine.nodes.find((n) => n.id === 'O1')!.name).to.equal('Garden tap');
-
-      await pageB.getByTestId('conflict-keep-mine').click();
-      await waitSaved(pageB);
-      server = await getNetwork(pageB, app.baseUrl, projectId);
-      expect(server.version).to.equal(v1 + 2);
-      expect(server.document).to.deep.equal(asStored(mine));
-      // What the product promises: no silent loss. Keep mine replaces A's save as a whole (no merge),
-      // after the dialog said so ("Keep mine saves your version over theirs").
-      expect(server.document.nodes[0].name).to.equal('T1');
-
-      // Window A is now stale too: its next edit is not saved over B's; it is asked the same question.
-      await clickNode(pageA, 'O1');
-      await setProperty(pageA, 'prop-name', 'Yard tap');
-      await pageA.getByTestId('conflict-load-theirs').waitFor({ timeout: 15000 });
-      await pageA.getByTestId('conflict-load-theirs').click();
-      await waitSaved(pageA);
-      expect(asStored(await editorHook.doc(pageA))).to.deep.equal(server.document);
-      const final = await getNetwork(pageA, app.baseUrl, projectId);
-      expect(final.version).to.equal(v1 + 2);
-    } finally {
-      await ctxB.close();
-    }
-  });
-
   it('uploads: wrong backdrop type, oversized backdrop, bad CSV line and bad GPX point each give a clear message', async () => {
+    const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
     const projectId = await createProject(page, app.baseUrl, 'Upload checks');
     const put = await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('uploads') });
@@ -356,6 +124,7 @@ describe('Layout screen end to end (Chromium, real server)', function () {
   // Found by this suite and fixed: the first fit was taken before the canvas reached its final
   // width and stayed off-centre by half the width change (56–95 px at 1366×800) until Fit was pressed.
   it('opening the Layout fits the network the way the Fit button does (centred in the canvas)', async () => {
+    const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
     const projectId = await createProject(page, app.baseUrl, 'Fit on open');
     expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('fit') })).status()).to.equal(200);
@@ -377,6 +146,7 @@ describe('Layout screen end to end (Chromium, real server)', function () {
   // Found by this suite and fixed: Fit kept a 48 px margin while the legend is 58 px tall and 12 px
   // from the corner, so the lower-right outlet and its pressure label were drawn under it.
   it('after Fit no element sits under the pressure legend or the scale bar', async () => {
+    const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
     const projectId = await createProject(page, app.baseUrl, 'Fit clear of the legend');
     expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('legend') })).status()).to.equal(200);
@@ -394,20 +164,27 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     }
   });
 
-  it('a 500-element network loads, a node drags smoothly with the mouse, and a property edit updates the results (timings logged)', async () => {
+  it('a 500-element network imports from a file, solves and saves, a node drags smoothly with the mouse, and a property edit updates the results (timings logged)', async () => {
+    const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
     const projectId = await createProject(page, app.baseUrl, 'Big grid');
     const doc = gridNetwork();
     expect(doc.nodes.length + doc.links.length).to.equal(500);
-    const put = await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: doc });
-    expect(put.status(), await put.text()).to.equal(200);
 
+    // Brought in the way a designer does: the toolbar's JSON import, then solved in the worker and
+    // autosaved whole (the server takes all 500 elements).
     await openLayout(page, app.baseUrl, projectId);
+    await page.getByTestId('import-file').setInputFiles({ name: 'big-grid.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(doc)) });
+    expect(await snackText(page)).to.contain('Imported 250 nodes and 250 links');
     await waitForNodeCount(page, 250, 30000);
     const far = doc.nodes[doc.nodes.length - 1].id;
     await page.getByTestId(`result-${far}`).waitFor({ timeout: 30000 });
-    await page.waitForFunction(() => ((window as unknown as { __runnelEditor?: { lastSolveMs(): number } }).__runnelEditor?.lastSolveMs() ?? 0) > 0, null, { timeout: 30000 });
+    await waitSolved(page, 30000);
     await shot(page, '6-grid-500');
+    await waitSavedAfterEdit(page, 30000);
+    const stored = await getNetwork(page, app.baseUrl, projectId);
+    expect(stored.document.nodes.length + stored.document.links.length).to.equal(500);
+    expect(stored.document).to.deep.equal(asStored(await editorHook.doc(page)));
 
     // Drag a node in the middle of the grid with ~60 small mouse steps.
     const target = doc.nodes[120];
@@ -490,6 +267,7 @@ describe('Layout screen end to end (Chromium, real server)', function () {
   });
 });
 
+
 /**
  * 250 nodes and 250 pipes: a tank above a 16-wide grid of tees (every fifth an outlet), joined
  * as a comb (each row fed from its left neighbour, the first column fed from above) plus one
@@ -519,3 +297,4 @@ function gridNetwork(): E2eDoc {
   pipe(ids[1], ids[1 + cols]); // closes one loop
   return { schema: 'runnel.network/1', headloss: 'hazen-williams', title: 'Grid of 500 elements', nodes, links };
 }
+
