@@ -11,7 +11,9 @@ describe('foundation in a real browser (Chromium, real server, PGlite on disk)',
     await page.getByTestId('project-form-name').fill('Upper paddock troughs');
     await page.getByTestId('project-form-site').fill('North slope');
     await page.getByTestId('project-form-save').click();
-    // Creating opens the project or stays on the list; either way it must be listed after a reload.
+    // Creating opens the new project's Layout. Wait for it: leaving at once could cancel the POST
+    // in flight (seen once in a full run under load). Then it must be listed after a reload.
+    await page.waitForURL(/\/projects\/[^/]+\/layout/);
     await page.goto(`${app.baseUrl}/projects`);
     await page.reload();
     const row = page.getByTestId('project-row').filter({ hasText: 'Upper paddock troughs' });
