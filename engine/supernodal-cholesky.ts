@@ -16,8 +16,6 @@ import type { SparseLdl } from './sparse-ldl';
  */
 /** Widest supernode, columns. */
 const MAX_SUPERNODE_WIDTH = 64;
-/** Descendant supernodes at most this wide update through the row map without a buffer. */
-const NARROW_UPDATE = 4;
 /** Share of explicit zeros a relaxed supernode may hold. */
 const RELAX_ZEROS_FRACTION = 0.3;
 
@@ -179,38 +177,21 @@ export class SupernodalCholesky {
         while (p2 < dm && rows[dr0 + p2] <= last) p2++;
         const um = dm - p1; // rows to update
         const uw = p2 - p1; // columns of s touched
-        // block(rows, cols of s) −= L_d[p1:dm, :] · L_d[p1:p2, :]ᵀ, one target column at a time.
-        // Where d's rows are s's rows shifted (common in a postordered tree) the target column is
-        // contiguous; otherwise d's rows are mapped to s's once, and a narrow d updates through the
-        // map directly while a wide one accumulates each column in `update` and scatters it once
+        // block(rows, cols of s) −= L_d[p1:dm, :] · L_d[p1:p2, :]ᵀ, one target column at a time:
+        // the column of products is formed in `update` (four source columns per pass, see
+        // columnProducts) and subtracted once. Where d's rows are s's rows shifted (common in a
+        // postordered tree) the target column is contiguous; otherwise d's rows are mapped to s's once
         const rel0 = relative[rows[dr0 + p1]];
         const contiguous = relative[rows[dr0 + dm - 1]] - rel0 === um - 1;
         if (!contiguous) for (let ii = 0; ii < um; ii++) map[ii] = relative[rows[dr0 + p1 + ii]];
+        const c0 = db0 + p1;
         for (let jj = 0; jj < uw; jj++) {
           const base = b0 + (rows[dr0 + p1 + jj] - f) * m;
+          columnProducts(block, c0, dm, dw, jj, um, update);
           if (contiguous) {
             const t0 = base + rel0;
-            for (let k = 0; k < dw; k++) {
-              const colk = db0 + k * dm + p1;
-              const ljk = block[colk + jj];
-              if (ljk === 0) continue;
-              for (let ii = jj; ii < um; ii++) block[t0 + ii] -= block[colk + ii] * ljk;
-            }
-          } else if (dw <= NARROW_UPDATE) {
-            for (let k = 0; k < dw; k++) {
-              const colk = db0 + k * dm + p1;
-              const ljk = block[colk + jj];
-              if (ljk === 0) continue;
-              for (let ii = jj; ii < um; ii++) block[base + map[ii]] -= block[colk + ii] * ljk;
-            }
+            for (let ii = jj; ii < um; ii++) block[t0 + ii] -= update[ii];
           } else {
-            update.fill(0, jj, um);
-            for (let k = 0; k < dw; k++) {
-              const colk = db0 + k * dm + p1;
-              const ljk = block[colk + jj];
-              if (ljk === 0) continue;
-              for (let ii = jj; ii < um; ii++) update[ii] += block[colk + ii] * ljk;
-            }
             for (let ii = jj; ii < um; ii++) block[base + map[ii]] -= update[ii];
           }
         }
@@ -219,20 +200,18 @@ export class SupernodalCholesky {
         if (p2 < dm) { const t = superOf[rows[dr0 + p2]]; next[d] = head[t]; head[t] = d; }
         d = nextD;
       }
-      // dense Cholesky of the diagonal block and triangular solve of the rows below
+      // dense Cholesky of the diagonal block and triangular solve of the rows below, left-looking
+      // one column at a time (the products of the earlier columns formed by columnProducts)
       for (let c = 0; c < wdt; c++) {
         const cb = b0 + c * m;
-        let diag = block[cb + c];
-        for (let k = 0; k < c; k++) { const v = block[b0 + k * m + c]; diag -= v * v; }
+        if (c > 0) {
+          columnProducts(block, b0, m, c, c, m, update);
+          for (let i = c; i < m; i++) block[cb + i] -= update[i];
+        }
+        const diag = block[cb + c];
         if (!(diag > 0) || !Number.isFinite(diag)) return f + c;
         const lcc = Math.sqrt(diag);
         block[cb + c] = lcc;
-        for (let k = 0; k < c; k++) {
-          const kb = b0 + k * m;
-          const lck = block[kb + c];
-          if (lck === 0) continue;
-          for (let i = c + 1; i < m; i++) block[cb + i] -= block[kb + i] * lck;
-        }
         const inv = 1 / lcc;
         for (let i = c + 1; i < m; i++) block[cb + i] *= inv;
       }
@@ -280,5 +259,54 @@ export class SupernodalCholesky {
       }
     }
     for (let k = 0; k < n; k++) x[perm[k]] = work[k];
+  }
+}
+
+/**
+ * out[i] = Σ_k L[i, k]·L[j, k] for rows i = j … rows−1 over `width` columns of a dense column-major
+ * block (column k of the rows in question starts at `start + k·stride`). Four columns are taken
+ * per pass so each entry of `out` is loaded and stored once per four columns instead of once per
+ * column: the small supernodes of a long grid are mostly 5–40 columns wide, where those loads and
+ * stores, not the multiplications, set the pace.
+ */
+function columnProducts(block: Float64Array, start: number, stride: number, width: number, j: number, rows: number, out: Float64Array): void {
+  let k = 0;
+  let a = start;
+  if (width >= 4) {
+    const a1 = a + stride;
+    const a2 = a1 + stride;
+    const a3 = a2 + stride;
+    const l0 = block[a + j];
+    const l1 = block[a1 + j];
+    const l2 = block[a2 + j];
+    const l3 = block[a3 + j];
+    for (let i = j; i < rows; i++) out[i] = block[a + i] * l0 + block[a1 + i] * l1 + block[a2 + i] * l2 + block[a3 + i] * l3;
+    k = 4;
+    a += 4 * stride;
+  } else {
+    const l0 = block[a + j];
+    for (let i = j; i < rows; i++) out[i] = block[a + i] * l0;
+    k = 1;
+    a += stride;
+  }
+  for (; k + 4 <= width; k += 4, a += 4 * stride) {
+    const a1 = a + stride;
+    const a2 = a1 + stride;
+    const a3 = a2 + stride;
+    const l0 = block[a + j];
+    const l1 = block[a1 + j];
+    const l2 = block[a2 + j];
+    const l3 = block[a3 + j];
+    for (let i = j; i < rows; i++) out[i] += block[a + i] * l0 + block[a1 + i] * l1 + block[a2 + i] * l2 + block[a3 + i] * l3;
+  }
+  for (; k + 2 <= width; k += 2, a += 2 * stride) {
+    const a1 = a + stride;
+    const l0 = block[a + j];
+    const l1 = block[a1 + j];
+    for (let i = j; i < rows; i++) out[i] += block[a + i] * l0 + block[a1 + i] * l1;
+  }
+  if (k < width) {
+    const l0 = block[a + j];
+    for (let i = j; i < rows; i++) out[i] += block[a + i] * l0;
   }
 }
