@@ -61,7 +61,7 @@ export class SupernodalCholesky {
       this.next = new Int32Array(this.supernodes);
       this.position = new Int32Array(this.supernodes);
       this.update = new Float64Array(structureOf.update.length);
-      this.map = new Int32Array(structureOf.update.length);
+      this.map = new Int32Array(structureOf.map.length);
       this.work = new Float64Array(n);
       return;
     }
@@ -131,8 +131,8 @@ export class SupernodalCholesky {
     this.head = new Int32Array(ns);
     this.next = new Int32Array(ns);
     this.position = new Int32Array(ns);
-    this.update = new Float64Array(Math.max(maxUpdate, 1));
-    this.map = new Int32Array(this.update.length);
+    this.update = new Float64Array(2 * Math.max(maxUpdate, 1)); // two columns (columnProductsPair)
+    this.map = new Int32Array(this.update.length >> 1);
     this.work = new Float64Array(n);
   }
 
@@ -143,6 +143,7 @@ export class SupernodalCholesky {
   factor(): number {
     if (this.block.length !== this.blockPtr[this.supernodes]) this.block = new Float64Array(this.blockPtr[this.supernodes]);
     const { n, first, rowPtr, rows, blockPtr, block, superOf, relative, head, next, position, update, map } = this;
+    const half = update.length >> 1;
     const { colPtr, rowIdx, values, perm, pinv } = this.pattern;
     const ns = this.supernodes;
     head.fill(-1);
@@ -185,7 +186,23 @@ export class SupernodalCholesky {
         const contiguous = relative[rows[dr0 + dm - 1]] - rel0 === um - 1;
         if (!contiguous) for (let ii = 0; ii < um; ii++) map[ii] = relative[rows[dr0 + p1 + ii]];
         const c0 = db0 + p1;
-        for (let jj = 0; jj < uw; jj++) {
+        let jj = 0;
+        for (; jj + 1 < uw; jj += 2) {
+          // two target columns per pass over d's columns
+          const base = b0 + (rows[dr0 + p1 + jj] - f) * m;
+          const base1 = b0 + (rows[dr0 + p1 + jj + 1] - f) * m;
+          columnProductsPair(block, c0, dm, dw, jj, um, update, half);
+          if (contiguous) {
+            const t0 = base + rel0;
+            const t1 = base1 + rel0;
+            for (let ii = jj; ii < um; ii++) block[t0 + ii] -= update[ii];
+            for (let ii = jj + 1; ii < um; ii++) block[t1 + ii] -= update[half + ii];
+          } else {
+            for (let ii = jj; ii < um; ii++) block[base + map[ii]] -= update[ii];
+            for (let ii = jj + 1; ii < um; ii++) block[base1 + map[ii]] -= update[half + ii];
+          }
+        }
+        if (jj < uw) {
           const base = b0 + (rows[dr0 + p1 + jj] - f) * m;
           columnProducts(block, c0, dm, dw, jj, um, update);
           if (contiguous) {
@@ -201,10 +218,19 @@ export class SupernodalCholesky {
         d = nextD;
       }
       // dense Cholesky of the diagonal block and triangular solve of the rows below, left-looking
-      // one column at a time (the products of the earlier columns formed by columnProducts)
-      for (let c = 0; c < wdt; c++) {
+      // two columns at a time: the products of the earlier columns for both (columnProductsPair),
+      // then column c is finished and its own term is taken off column c + 1
+      for (let c = 0; c < wdt; c += 2) {
         const cb = b0 + c * m;
-        if (c > 0) {
+        const pair = c + 1 < wdt;
+        const cb1 = cb + m;
+        if (pair) {
+          if (c > 0) {
+            columnProductsPair(block, b0, m, c, c, m, update, half);
+            for (let i = c; i < m; i++) block[cb + i] -= update[i];
+            for (let i = c + 1; i < m; i++) block[cb1 + i] -= update[half + i];
+          }
+        } else if (c > 0) {
           columnProducts(block, b0, m, c, c, m, update);
           for (let i = c; i < m; i++) block[cb + i] -= update[i];
         }
@@ -214,6 +240,15 @@ export class SupernodalCholesky {
         block[cb + c] = lcc;
         const inv = 1 / lcc;
         for (let i = c + 1; i < m; i++) block[cb + i] *= inv;
+        if (!pair) break;
+        const l = block[cb + c + 1];
+        for (let i = c + 1; i < m; i++) block[cb1 + i] -= block[cb + i] * l;
+        const diag1 = block[cb1 + c + 1];
+        if (!(diag1 > 0) || !Number.isFinite(diag1)) return f + c + 1;
+        const l11 = Math.sqrt(diag1);
+        block[cb1 + c + 1] = l11;
+        const inv1 = 1 / l11;
+        for (let i = c + 2; i < m; i++) block[cb1 + i] *= inv1;
       }
       if (wdt < m) {
         position[s] = wdt;
@@ -308,5 +343,47 @@ function columnProducts(block: Float64Array, start: number, stride: number, widt
   if (k < width) {
     const l0 = block[a + j];
     for (let i = j; i < rows; i++) out[i] += block[a + i] * l0;
+  }
+}
+
+/**
+ * Two columns of products at once, for target columns j and j + 1: out[i] = Σ_k L[i, k]·L[j, k]
+ * and out[half + i] = Σ_k L[i, k]·L[j + 1, k] for rows i from j (the entry at row j of the second
+ * column is above its diagonal and not used). Each source entry loaded serves both columns.
+ */
+function columnProductsPair(block: Float64Array, start: number, stride: number, width: number, j: number, rows: number, out: Float64Array, half: number): void {
+  const j1 = j + 1;
+  let k = 0;
+  let a = start;
+  for (let i = j; i < rows; i++) { out[i] = 0; out[half + i] = 0; }
+  for (; k + 4 <= width; k += 4, a += 4 * stride) {
+    const a1 = a + stride;
+    const a2 = a1 + stride;
+    const a3 = a2 + stride;
+    const l0 = block[a + j];
+    const l1 = block[a1 + j];
+    const l2 = block[a2 + j];
+    const l3 = block[a3 + j];
+    const u0 = block[a + j1];
+    const u1 = block[a1 + j1];
+    const u2 = block[a2 + j1];
+    const u3 = block[a3 + j1];
+    for (let i = j; i < rows; i++) {
+      const x0 = block[a + i];
+      const x1 = block[a1 + i];
+      const x2 = block[a2 + i];
+      const x3 = block[a3 + i];
+      out[i] += x0 * l0 + x1 * l1 + x2 * l2 + x3 * l3;
+      out[half + i] += x0 * u0 + x1 * u1 + x2 * u2 + x3 * u3;
+    }
+  }
+  for (; k < width; k++, a += stride) {
+    const l0 = block[a + j];
+    const u0 = block[a + j1];
+    for (let i = j; i < rows; i++) {
+      const x0 = block[a + i];
+      out[i] += x0 * l0;
+      out[half + i] += x0 * u0;
+    }
   }
 }
