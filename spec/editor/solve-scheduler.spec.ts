@@ -33,4 +33,18 @@ describe('Layout editor: solve scheduling', () => {
     expect(s.finished(2)).to.equal(true);
     expect(s.idle).to.equal(true);
   });
+
+  it('a request with no delay (a properties-panel edit) is sent at once when the worker is idle, and waits as the pending job when busy', () => {
+    const t = new ManualTimers();
+    const sent: string[] = [];
+    const s = new SolveScheduler<string>((job) => sent.push(job), t, 60);
+    s.request('drag');
+    s.request('typed', 0);
+    expect(sent).to.deep.equal(['typed']);
+    expect(t.pending, 'the drag debounce was cancelled').to.equal(0);
+    s.request('typed again', 0);
+    expect(sent).to.deep.equal(['typed']);
+    s.finished(1);
+    expect(sent).to.deep.equal(['typed', 'typed again']);
+  });
 });

@@ -146,6 +146,8 @@ export class CanvasView {
   }
 
   setOverlay(o: OverlayInput): void {
+    const was = this.overlay;
+    if (was.results === o.results && was.units === o.units && was.warnings === o.warnings && was.show === o.show) return;
     this.overlay = o;
     this.overlayDirty = true;
     this.schedule();
@@ -251,7 +253,8 @@ export class CanvasView {
     for (const [id, v] of this.links) if (!seenLinks.has(id)) { v.group.destroy(); v.overlay.destroy(); this.links.delete(id); this.overlayKeys.delete(id); dirty.add(this.contentLayer); }
 
     this.selectionShown = new Set(selection);
-    if (this.overlayDirty && this.drawOverlay(doc.nodes, doc.links)) {
+    const overlayChanged = this.overlayDirty && this.drawOverlay(doc.nodes, doc.links);
+    if (overlayChanged) {
       dirty.add(this.overlayLayer);
       this.labelsDirty = true;
     }
@@ -260,11 +263,18 @@ export class CanvasView {
     // on every frame of a large plan costs more than a frame); they are placed again when it ends.
     const panOnly = viewChanged && ed.panning && vp.scale === this.placedAt.scale;
     if (panOnly) this.bankBadges.position({ x: vp.originX - this.placedAt.x, y: vp.originY - this.placedAt.y });
-    if ((this.labelsDirty || (viewChanged && !panOnly) || doc.nodes !== this.labelledNodes || doc.links !== this.labelledLinks || selection !== this.labelledSelection) && dragging.size === 0) {
-      this.scaleSymbols(doc.nodes);
-      this.layoutLabels(doc.nodes, doc.links, byId, selection);
-      dirty.add(this.contentLayer);
-      dirty.add(this.overlayLayer);
+    const geometryChanged = (viewChanged && !panOnly) || doc.nodes !== this.labelledNodes || doc.links !== this.labelledLinks || selection !== this.labelledSelection;
+    if ((this.labelsDirty || geometryChanged) && dragging.size === 0) {
+      if (overlayChanged && !geometryChanged) {
+        // New results only: the rings, arrows and tags (kept where they were) show this frame;
+        // the labels are placed again on the next one, so colours never wait for placement.
+        this.schedule();
+      } else {
+        this.scaleSymbols(doc.nodes);
+        this.layoutLabels(doc.nodes, doc.links, byId, selection);
+        dirty.add(this.contentLayer);
+        dirty.add(this.overlayLayer);
+      }
     }
     this.drawHeaders(doc.nodes, viewChanged, dirty);
     if (viewChanged) {
@@ -275,7 +285,8 @@ export class CanvasView {
     this.drawUi(byId);
     dirty.add(this.uiLayer);
     this.renderedView = this.viewVersion;
-    for (const layer of dirty) layer.batchDraw();
+    // Drawn now, in this animation frame (batchDraw would wait for the next one).
+    for (const layer of dirty) layer.draw();
   }
 
   /** Draw each node's symbol, halo and pressure ring at its crowding- and zoom-dependent scale. */
@@ -539,17 +550,29 @@ export class CanvasView {
       const text = hasPressure ? formatQuantity('pressure', r.pressure_m, units) : '';
       const colour = hasPressure ? marginColour(r.pressure_m - min) : '';
       // Rebuild only what changed: most solves move few labels.
-      const key = `${text}|${colour}|${show && !!w?.length}`;
-      if (this.overlayKeys.get(n.id) === key) continue;
+      const warned = show && !!w?.length;
+      const key = `${text}|${colour}|${warned}`;
+      const before = this.overlayKeys.get(n.id);
+      if (before === key) continue;
       this.overlayKeys.set(n.id, key);
       changed = true;
+      // Same marks, new numbers (most solves): recolour the ring and retext the tag in place.
+      if (hasPressure && v.tag && before?.endsWith(`|${warned}`) && before.split('|')[0]) {
+        (v.marks.findOne('.ring') as Konva.Circle | undefined)?.stroke(colour);
+        v.tag.getTag().stroke(colour);
+        v.tag.getText().text(text);
+        v.tagText = text;
+        continue;
+      }
       v.marks.destroyChildren();
+      // A new tag takes the old one's place until the labels are placed again (next frame).
+      const was = v.tag ? { x: v.tag.x(), y: v.tag.y(), visible: v.tag.visible() } : { x: 19, y: -22, visible: false };
       v.tag?.destroy();
       v.tag = null;
       v.tagText = text;
       if (hasPressure) {
-        v.marks.add(new Konva.Circle({ radius: RING_R, stroke: colour, strokeWidth: 5, listening: false, perfectDrawEnabled: false }));
-        v.tag = new Konva.Label({ x: 19, y: -22, listening: false, visible: false }).add(
+        v.marks.add(new Konva.Circle({ name: 'ring', radius: RING_R, stroke: colour, strokeWidth: 5, listening: false, perfectDrawEnabled: false }));
+        v.tag = new Konva.Label({ ...was, listening: false }).add(
           new Konva.Tag({ fill: '#ffffff', stroke: colour, strokeWidth: 1.5, cornerRadius: 3, listening: false }),
           new Konva.Text({ text, padding: TAG_PAD, fontFamily: FONT, fontSize: TAG_FONT, fontStyle: 'bold', fill: LABEL, listening: false }),
         );
@@ -566,9 +589,18 @@ export class CanvasView {
       const angle = flows ? v.mid.rotation() + (r.flow_m3s < 0 ? 180 : 0) : 0;
       const speed = flows && l.kind === 'pipe' ? formatQuantity('velocity', Math.abs(r.velocity_ms), units) : '';
       const key = `${flows}|${angle.toFixed(1)}|${speed}|${show && !!w?.length}`;
-      if (this.overlayKeys.get(l.id) === key) continue;
+      const before = this.overlayKeys.get(l.id);
+      if (before === key) continue;
       this.overlayKeys.set(l.id, key);
       changed = true;
+      // Same arrow, new speed: retext in place.
+      const [bf, ba, bs, bw] = before?.split('|') ?? [];
+      if (speed && v.speed && bs && bf === String(flows) && ba === angle.toFixed(1) && bw === String(show && !!w?.length)) {
+        v.speed.text(speed);
+        v.speedText = speed;
+        continue;
+      }
+      const wasSpeed = v.speed ? { x: v.speed.x(), y: v.speed.y(), visible: v.speed.visible() } : { x: 0, y: 0, visible: false };
       v.overlay.destroyChildren();
       v.speed = null;
       v.speedText = speed;
@@ -584,7 +616,7 @@ export class CanvasView {
         v.arrowAt = { x: arrow.x(), y: arrow.y() };
         if (speed) {
           // Placed beside the line by layoutLabels, or hidden when the pipe is short on screen.
-          v.speed = new Konva.Text({ text: speed, fontFamily: FONT, fontSize: SPEED_FONT, fill: SELECT, listening: false, visible: false });
+          v.speed = new Konva.Text({ text: speed, fontFamily: FONT, fontSize: SPEED_FONT, fill: SELECT, listening: false, ...wasSpeed });
           v.overlay.add(v.speed);
         }
       }

@@ -168,13 +168,15 @@ export class LayoutScreen {
   private conflictOpen = false;
   private notifiedRevision = 0;
   private loadedProject = '';
+  /** Set while a properties-panel edit is applied: its solve skips most of the debounce. */
+  private quickSolve = false;
 
   constructor() {
     const ed = this.editor;
     const off = ed.subscribe((what) => {
       if (what === 'document') {
         const d = ed.store.doc;
-        this.solver.request(d);
+        this.solver.request(d, this.quickSolve);
         // During a drag only the canvas follows every frame; panels catch up when it ends.
         if (!ed.store.inGesture) this.publishDocument();
       } else if (what === 'selection') this.selection.set([...ed.selection]);
@@ -206,6 +208,9 @@ export class LayoutScreen {
       const o = { results: this.results(), units: this.units(), warnings: this.warnings(), show: this.showResults() };
       untracked(() => this.view?.setOverlay(o));
     });
+    // A solve result goes to the canvas straight from the worker's message, without waiting for
+    // change detection to run the effect above (which then finds nothing new).
+    this.solver.onResult = () => this.view?.setOverlay({ results: this.results(), units: this.units(), warnings: this.warnings(), show: this.showResults() });
     effect(() => {
       const pts = this.survey();
       untracked(() => this.view?.setSurvey(pts));
@@ -451,7 +456,12 @@ export class LayoutScreen {
 
   // ---- properties ----
   applyPatch(p: ElementPatch): void {
-    this.editor.store.patchElement(p.id, p.patch);
+    this.quickSolve = true;
+    try {
+      this.editor.store.patchElement(p.id, p.patch);
+    } finally {
+      this.quickSolve = false;
+    }
   }
 
   pickResult(id: string): void {

@@ -16,6 +16,13 @@ export class SolverClient {
   readonly result = this.resultState.asReadonly();
   readonly error = this.errorState.asReadonly();
   readonly lastMs = signal(0);
+  /**
+   * Called as soon as the worker's answer arrives, before Angular's change detection runs the
+   * effects, so the canvas can redraw on the next animation frame.
+   */
+  onResult: (result: SteadyResult) => void = () => undefined;
+  /** Debounce for edits that come one committed value at a time (the properties panel), ms. */
+  static readonly QUICK_MS = 0;
 
   constructor() {
     this.worker = typeof Worker !== 'undefined' ? new Worker(new URL('./solver.worker', import.meta.url), { type: 'module' }) : null;
@@ -26,13 +33,17 @@ export class SolverClient {
       if (result) {
         this.resultState.set(result);
         this.errorState.set(null);
+        this.scheduler.finished(seq);
+        this.onResult(result);
+        return;
       } else this.errorState.set(error ?? 'The solver failed');
       this.scheduler.finished(seq);
     });
   }
 
-  request(doc: NetworkDocument): void {
-    this.scheduler.request(doc);
+  /** Solve `doc` after the debounce (60 ms), or after `QUICK_MS` when `quick`. */
+  request(doc: NetworkDocument, quick = false): void {
+    this.scheduler.request(doc, quick ? SolverClient.QUICK_MS : undefined);
   }
 
   dispose(): void {

@@ -19,13 +19,23 @@ export class SolveScheduler<J> {
     readonly debounceMs = 60,
   ) {}
 
-  request(job: J): void {
+  /**
+   * Queue `job` to be sent after `delayMs` (the debounce by default) without a newer request.
+   * A property-panel edit asks for none (0: sent now if the worker is idle) (one committed value, nothing to coalesce);
+   * drags keep the full debounce.
+   */
+  request(job: J, delayMs = this.debounceMs): void {
     this.pending = job;
     if (this.timer !== null) this.timers.clear(this.timer);
+    this.timer = null;
+    if (delayMs <= 0) {
+      this.pump();
+      return;
+    }
     this.timer = this.timers.set(() => {
       this.timer = null;
       this.pump();
-    }, this.debounceMs);
+    }, delayMs);
   }
 
   /** The worker answered job `seq`; send the pending job, if any. Returns true if seq is the latest. */
