@@ -12,6 +12,7 @@ import { SupernodalCholesky } from './supernodal-cholesky';
 const { WATER_KINEMATIC_VISCOSITY_M2S, GRAVITY_MS2 } = constants;
 const LAMINAR_REYNOLDS = LAMINAR_REYNOLDS_;
 const HW_FLOW_EXPONENT = HW_FLOW_EXPONENT_;
+const HW_SLOPE_EXPONENT = HW_FLOW_EXPONENT_ - 1;
 const {
   DEMAND_EMITTER, DEMAND_FIXED, DEMAND_PRESSURE, LINK_CHECK, LINK_FLOAT, LINK_PIPE, LINK_PRV, LINK_PUMP_CURVE, LINK_PUMP_FLOW, LINK_SHUTOFF,
   NODE_JUNCTION, NODE_SOURCE, NODE_TANK,
@@ -484,6 +485,11 @@ export class GradientSolver {
     const m = model.linkCount;
     const { head, flow, status, p, y, unknown, ldl, rhs, x, virtualFlow, virtualFull, pinned, netOut, changes, active, gradientPrev } = this;
     const values = ldl.values;
+    const { posFF, posTT, posFT, posTF } = this;
+    const { resistance, minor, linkKind } = model;
+    const linkFrom = model.from;
+    const linkTo = model.to;
+    const hazenWilliams = model.headloss !== 'darcy-weisbach';
     if (!options.warmStart || !this.initialised) this.initialise(state);
     changes.fill(0);
     gradientPrev.fill(0);
@@ -529,13 +535,13 @@ export class GradientSolver {
       worst = 0;
       pinned.fill(Number.NaN);
       for (let k = 0; k < m; k++) {
-        const f = model.from[k];
-        const t = model.to[k];
+        const f = linkFrom[k];
+        const t = linkTo[k];
         const st = status[k];
         if (st === STATUS_CLOSED || st === STATUS_CHECK_CLOSED || !active[f] || !active[t]) { flow[k] = 0; p[k] = 0; y[k] = 0; continue; }
         const uf = unknown[f];
         const ut = unknown[t];
-        const kind = model.linkKind[k];
+        const kind = linkKind[k];
         if (kind === LINK_PUMP_FLOW) {
           const q = model.pumpFlow[k] * state.pumpFactor[k];
           flow[k] = q; p[k] = 0; y[k] = 0;
@@ -549,12 +555,27 @@ export class GradientSolver {
           pinned[t] = model.elevation[t] + model.prvSetting[k];
           continue;
         }
-        this.linkLaw(k, flow[k], state.pumpFactor[k]);
+        let hk: number;
+        let g: number;
+        if (kind === LINK_PIPE && hazenWilliams) {
+          // the Hazen-Williams pipe law of linkLaw, inline (nearly every link of a large network)
+          const q = flow[k];
+          const a = Math.abs(q);
+          const mk = minor[k];
+          // |q|^0.852 as exp(0.852·ln|q|): half the time of Math.pow in V8 (about 30 against 65 ns,
+          // 140,000 calls in a 10,000-tee solve), within a few units in the last place
+          const r = resistance[k] * Math.exp(HW_SLOPE_EXPONENT * Math.log(a));
+          hk = mk * a * q + r * q;
+          g = 2 * mk * a + HW_FLOW_EXPONENT * r;
+        } else {
+          this.linkLaw(k, flow[k], state.pumpFactor[k]);
+          hk = this.scratch[0];
+          g = this.scratch[1];
+        }
         if (st === STATUS_OPEN) {
-          const r = Math.abs(this.scratch[0] - (head[f] - head[t]));
+          const r = Math.abs(hk - (head[f] - head[t]));
           if (r > worst) worst = r;
         }
-        let g = this.scratch[1];
         if (kind !== LINK_PUMP_CURVE) {
           const memory = GRADIENT_MEMORY * gradientPrev[k];
           gradientPrev[k] = g;
@@ -562,12 +583,12 @@ export class GradientSolver {
         }
         if (g < GRADIENT_FLOOR) g = GRADIENT_FLOOR;
         const pk = 1 / g;
-        const yk = this.scratch[0] * pk;
+        const yk = hk * pk;
         p[k] = pk; y[k] = yk;
         const qy = flow[k] - yk;
-        if (uf >= 0) { values[this.posFF[k]] += pk; rhs[uf] -= qy; } else if (ut >= 0) rhs[ut] += pk * head[f];
-        if (ut >= 0) { values[this.posTT[k]] += pk; rhs[ut] += qy; } else if (uf >= 0) rhs[uf] += pk * head[t];
-        if (uf >= 0 && ut >= 0) { values[this.posFT[k]] -= pk; values[this.posTF[k]] -= pk; }
+        if (uf >= 0) { values[posFF[k]] += pk; rhs[uf] -= qy; } else if (ut >= 0) rhs[ut] += pk * head[f];
+        if (ut >= 0) { values[posTT[k]] += pk; rhs[ut] += qy; } else if (uf >= 0) rhs[uf] += pk * head[t];
+        if (uf >= 0 && ut >= 0) { values[posFT[k]] -= pk; values[posTF[k]] -= pk; }
       }
       for (let u = 0; u < unknown.length && u < this.unknownNode.length; u++) {
         const i = this.unknownNode[u];
@@ -619,7 +640,7 @@ export class GradientSolver {
       }
       for (let k = 0; k < m; k++) {
         if (p[k] === 0) continue;
-        const q = flow[k] - y[k] + p[k] * (head[model.from[k]] - head[model.to[k]]);
+        const q = flow[k] - y[k] + p[k] * (head[linkFrom[k]] - head[linkTo[k]]);
         sumDQ += Math.abs(q - flow[k]);
         sumQ += Math.abs(q);
         flow[k] = q;
