@@ -1,4 +1,4 @@
-import { hazenWilliamsResistance, HW_OMEGA_SI } from './hazen-williams';
+import { HW_DIAMETER_EXPONENT, HW_FLOW_EXPONENT, HW_OMEGA_SI } from './hazen-williams';
 import { minorLossCoefficient } from './minor-loss';
 import type { NetworkDocument, NetworkLink, NetworkNode } from './network-document';
 
@@ -167,6 +167,8 @@ export function compileNetwork(doc: NetworkDocument, options: CompileOptions = {
 
   const cq: number[] = [];
   const ch: number[] = [];
+  const cPowers = new Map<number, number>();
+  const dPowers = new Map<number, number>();
   doc.links.forEach((link, k) => {
     const kind = kindOfLink(link);
     model.linkKind[k] = kind;
@@ -178,7 +180,11 @@ export function compileNetwork(doc: NetworkDocument, options: CompileOptions = {
       model.diameter[k] = d;
       model.area[k] = (Math.PI * d * d) / 4;
       if (doc.headloss === 'darcy-weisbach') model.roughnessRelative[k] = link.roughness / 1000 / d;
-      else model.resistance[k] = hazenWilliamsResistance(link.length_m, d, link.roughness, omega);
+      else {
+        // hazenWilliamsResistance (./hazen-williams) with the powers of each distinct C and
+        // diameter taken once: a network uses a handful of each, and Math.pow is the costly part
+        model.resistance[k] = (omega * link.length_m) / (power(cPowers, link.roughness, HW_FLOW_EXPONENT) * power(dPowers, d, HW_DIAMETER_EXPONENT));
+      }
       model.minor[k] = minorLossCoefficient(link.minor_loss ?? 0, d);
       if (link.closed) model.closedInDocument[k] = 1;
     } else if (link.kind === 'valve') {
@@ -200,6 +206,13 @@ export function compileNetwork(doc: NetworkDocument, options: CompileOptions = {
   model.curveQ = Float64Array.from(cq);
   model.curveH = Float64Array.from(ch);
   return model;
+}
+
+/** x^e, remembered in `cache` by x. */
+function power(cache: Map<number, number>, x: number, e: number): number {
+  let v = cache.get(x);
+  if (v === undefined) { v = Math.pow(x, e); cache.set(x, v); }
+  return v;
 }
 
 /**

@@ -47,7 +47,7 @@ export function validateDocument(doc: unknown): Warning[] {
 function validateNode(out: Warning[], node: unknown, index: number, nodeKinds: Map<string, string>, patternIds: Set<string>): void {
   if (!isObject(node)) { report(out, null, `nodes[${index}]`, 'must be an object'); return; }
   const id = node['id'];
-  if (typeof id !== 'string' || id.trim() === '') { report(out, null, `nodes[${index}].id`, `must be a non-empty string (got ${show(id)})`); return; }
+  if (typeof id !== 'string' || blank(id)) { report(out, null, `nodes[${index}].id`, `must be a non-empty string (got ${show(id)})`); return; }
   if (nodeKinds.has(id)) { report(out, id, 'id', 'is used by another node'); return; }
   const kind = node['kind'];
   nodeKinds.set(id, typeof kind === 'string' ? kind : '');
@@ -99,13 +99,13 @@ function validateNode(out: Warning[], node: unknown, index: number, nodeKinds: M
 function validateLink(out: Warning[], link: unknown, index: number, nodeKinds: Map<string, string>, linkIds: Set<string>): void {
   if (!isObject(link)) { report(out, null, `links[${index}]`, 'must be an object'); return; }
   const id = link['id'];
-  if (typeof id !== 'string' || id.trim() === '') { report(out, null, `links[${index}].id`, `must be a non-empty string (got ${show(id)})`); return; }
+  if (typeof id !== 'string' || blank(id)) { report(out, null, `links[${index}].id`, `must be a non-empty string (got ${show(id)})`); return; }
   if (linkIds.has(id)) { report(out, id, 'id', 'is used by another link'); return; }
   linkIds.add(id);
-  for (const end of ['from', 'to'] as const) {
-    const ref = link[end];
-    if (typeof ref !== 'string' || !nodeKinds.has(ref)) report(out, id, end, `must name an existing node (got ${show(ref)})`);
-  }
+  const from = link['from'];
+  const to = link['to'];
+  if (typeof from !== 'string' || !nodeKinds.has(from)) report(out, id, 'from', `must name an existing node (got ${show(from)})`);
+  if (typeof to !== 'string' || !nodeKinds.has(to)) report(out, id, 'to', `must name an existing node (got ${show(to)})`);
   if (link['from'] === link['to'] && typeof link['from'] === 'string') report(out, id, 'to', `must differ from "from" (both ${show(link['from'])})`);
   const kind = link['kind'];
   switch (kind) {
@@ -198,6 +198,11 @@ function field_(out: Warning[], id: string, element: Record<string, unknown>, fi
 
 function describeRule(rule: Rule): string {
   return rule === 'finite' ? 'a number' : rule === 'positive' ? 'a positive number' : 'a number ≥ 0';
+}
+
+/** Empty or only white space (as `s.trim() === ''`, without making a trimmed copy of every id). */
+function blank(s: string): boolean {
+  return s.length === 0 || (s.charCodeAt(0) <= 32 || s.charCodeAt(0) >= 127 ? s.trim() === '' : false);
 }
 
 function isObject(v: unknown): v is Record<string, unknown> {
