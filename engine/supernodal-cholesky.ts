@@ -39,6 +39,9 @@ export class SupernodalCholesky {
   /** Positions in the target block of a descendant's rows (one update at a time). */
   private readonly map: Int32Array;
   private readonly work: Float64Array;
+  /** Where each lower-triangle entry of A goes: values[scatterFrom[e]] adds to block[scatterTo[e]]. */
+  private readonly scatterFrom: Int32Array;
+  private readonly scatterTo: Int32Array;
 
   /**
    * @param pattern the simplicial factorisation whose pattern, ordering and values are used
@@ -63,6 +66,8 @@ export class SupernodalCholesky {
       this.update = new Float64Array(structureOf.update.length);
       this.map = new Int32Array(structureOf.map.length);
       this.work = new Float64Array(n);
+      this.scatterFrom = structureOf.scatterFrom;
+      this.scatterTo = structureOf.scatterTo;
       return;
     }
     const { parent, lp, colPtr, rowIdx, perm, pinv } = pattern;
@@ -128,6 +133,25 @@ export class SupernodalCholesky {
       maxUpdate = Math.max(maxUpdate, m);
     }
     this.relative = new Int32Array(n);
+    // the scatter of A into the blocks, worked out once: entries of the permuted lower triangle
+    // in supernode and column order, so factor() adds them in one sequential pass
+    const scatterFrom: number[] = [];
+    const scatterTo: number[] = [];
+    for (let s = 0; s < ns; s++) {
+      const f = starts[s];
+      const r0 = this.rowPtr[s];
+      const m = this.rowPtr[s + 1] - r0;
+      for (let q = 0; q < m; q++) this.relative[this.rows[r0 + q]] = q;
+      for (let c = 0; c < starts[s + 1] - f; c++) {
+        const col = perm[f + c];
+        for (let q = colPtr[col]; q < colPtr[col + 1]; q++) {
+          const i = pinv[rowIdx[q]];
+          if (i >= f + c) { scatterFrom.push(q); scatterTo.push(this.blockPtr[s] + c * m + this.relative[i]); }
+        }
+      }
+    }
+    this.scatterFrom = Int32Array.from(scatterFrom);
+    this.scatterTo = Int32Array.from(scatterTo);
     this.head = new Int32Array(ns);
     this.next = new Int32Array(ns);
     this.position = new Int32Array(ns);
@@ -144,9 +168,13 @@ export class SupernodalCholesky {
     if (this.block.length !== this.blockPtr[this.supernodes]) this.block = new Float64Array(this.blockPtr[this.supernodes]);
     const { n, first, rowPtr, rows, blockPtr, block, superOf, relative, head, next, position, update, map } = this;
     const half = update.length >> 1;
-    const { colPtr, rowIdx, values, perm, pinv } = this.pattern;
+    const { values } = this.pattern;
+    const { scatterFrom, scatterTo } = this;
     const ns = this.supernodes;
     head.fill(-1);
+    // A's lower triangle into the blocks (see scatterFrom)
+    block.fill(0);
+    for (let e = 0; e < scatterFrom.length; e++) block[scatterTo[e]] += values[scatterFrom[e]];
     for (let s = 0; s < ns; s++) {
       const f = first[s];
       const wdt = first[s + 1] - f;
@@ -154,16 +182,6 @@ export class SupernodalCholesky {
       const m = rowPtr[s + 1] - r0;
       const b0 = blockPtr[s];
       for (let q = 0; q < m; q++) relative[rows[r0 + q]] = q;
-      block.fill(0, b0, b0 + m * wdt);
-      // scatter A (lower part of the permuted columns)
-      for (let c = 0; c < wdt; c++) {
-        const col = perm[f + c];
-        const base = b0 + c * m;
-        for (let q = colPtr[col]; q < colPtr[col + 1]; q++) {
-          const i = pinv[rowIdx[q]];
-          if (i >= f + c) block[base + relative[i]] += values[q];
-        }
-      }
       // updates from descendants whose next rows fall in this supernode's columns
       let d = head[s];
       while (d >= 0) {
