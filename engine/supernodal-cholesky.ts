@@ -281,6 +281,9 @@ export class SupernodalCholesky {
   /** Solve A·x = b with the current factorisation (b and x may be the same array). */
   solve(b: ArrayLike<number>, x: Float64Array): void {
     const { n, first, rowPtr, rows, blockPtr, block, work } = this;
+    // rows below a supernode's columns are gathered into (and scattered from) a dense buffer once
+    // per supernode instead of being addressed through `rows` once per column
+    const below = this.update;
     const { perm } = this.pattern;
     const ns = this.supernodes;
     for (let k = 0; k < n; k++) work[k] = b[perm[k]];
@@ -290,12 +293,14 @@ export class SupernodalCholesky {
       const r0 = rowPtr[s];
       const m = rowPtr[s + 1] - r0;
       const b0 = blockPtr[s];
+      for (let i = wdt; i < m; i++) below[i] = 0;
       for (let c = 0; c < wdt; c++) {
         const cb = b0 + c * m;
         const xc = (work[f + c] /= block[cb + c]);
         for (let i = c + 1; i < wdt; i++) work[f + i] -= block[cb + i] * xc;
-        for (let i = wdt; i < m; i++) work[rows[r0 + i]] -= block[cb + i] * xc;
+        for (let i = wdt; i < m; i++) below[i] += block[cb + i] * xc;
       }
+      for (let i = wdt; i < m; i++) work[rows[r0 + i]] -= below[i];
     }
     for (let s = ns - 1; s >= 0; s--) {
       const f = first[s];
@@ -303,11 +308,12 @@ export class SupernodalCholesky {
       const r0 = rowPtr[s];
       const m = rowPtr[s + 1] - r0;
       const b0 = blockPtr[s];
+      for (let i = wdt; i < m; i++) below[i] = work[rows[r0 + i]];
       for (let c = wdt - 1; c >= 0; c--) {
         const cb = b0 + c * m;
         let xc = work[f + c];
         for (let i = c + 1; i < wdt; i++) xc -= block[cb + i] * work[f + i];
-        for (let i = wdt; i < m; i++) xc -= block[cb + i] * work[rows[r0 + i]];
+        for (let i = wdt; i < m; i++) xc -= block[cb + i] * below[i];
         work[f + c] = xc / block[cb + c];
       }
     }
