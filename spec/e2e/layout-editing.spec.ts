@@ -209,6 +209,9 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
       const dialog = ((await pageB.locator('mat-dialog-container').textContent()) ?? '').replace(/\s+/g, ' ');
       expect(dialog).to.contain(`Version ${v1 + 1} was saved by Dana Designer`);
       expect(dialog).to.contain('Your changes are still here, unsaved');
+      // What differs, element by element, against the version both windows opened.
+      expect(((await pageB.getByTestId('conflict-summary').textContent()) ?? '').trim())
+        .to.equal('Theirs: 1 element changed (Ridge tank); yours: 1 element changed (Garden tap).');
       expect(await pageB.getByTestId('conflict-load-theirs').isVisible()).to.equal(true);
       await shot(pageB, '4-conflict-dialog');
       // The local edit is kept while the dialog is open.

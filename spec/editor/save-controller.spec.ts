@@ -76,6 +76,26 @@ describe('Layout editor: autosave', () => {
     expect(s.c.version).to.equal(9);
   });
 
+  it('keeps the base both sides of a conflict started from: the loaded copy, then each saved copy, then theirs once resolved', async () => {
+    const theirs = { version: 9, document: { ...emptyDocument(), title: 'theirs' } };
+    const s = setup([{ kind: 'saved', version: 5 }, { kind: 'conflict', current: theirs }]);
+    s.c.loaded(4);
+    const loadedDoc = s.getDoc();
+    expect(s.c.base).to.equal(loadedDoc);
+    s.edit();
+    s.timers.advance(1500);
+    await flush();
+    const saved = s.puts[0].doc;
+    expect(s.c.base).to.equal(saved);
+    s.edit();
+    s.timers.advance(1500);
+    await flush();
+    expect(s.c.status).to.equal('conflict');
+    expect(s.c.base, 'the conflict is summarised against the last saved copy').to.equal(saved);
+    s.c.keepMine();
+    expect(s.c.base).to.equal(theirs.document);
+  });
+
   it('when offline retries with doubling back-off (2 s, 4 s, 8 s…) and recovers', async () => {
     const s = setup([{ kind: 'offline' }, { kind: 'offline' }, { kind: 'offline' }]);
     s.c.loaded(1);

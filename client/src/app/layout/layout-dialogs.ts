@@ -20,6 +20,7 @@ import { SHORTCUTS } from './editor/editor';
         Version {{ data.version }} was saved{{ who() ? ' by ' + who() : '' }}{{ data.updatedAt ? ' at ' + when() : '' }}
         while you were editing. Your changes are still here, unsaved.
       </p>
+      @if (data.summary) { <p class="summary" data-testid="conflict-summary">{{ data.summary }}</p> }
       <p><strong>Load theirs</strong> replaces your changes with the saved version.
         <strong>Keep mine</strong> saves your version over theirs.</p>
     </mat-dialog-content>
@@ -28,9 +29,10 @@ import { SHORTCUTS } from './editor/editor';
       <button mat-flat-button [mat-dialog-close]="'mine'" data-testid="conflict-keep-mine">Keep mine</button>
     </mat-dialog-actions>
   `,
+  styles: `.summary { background: #f3f5f7; border-left: 3px solid #1769c2; padding: 6px 10px; }`,
 })
 export class SaveConflictDialog {
-  readonly data = inject<{ version: number; updatedAt?: string; updatedBy?: unknown }>(MAT_DIALOG_DATA);
+  readonly data = inject<{ version: number; updatedAt?: string; updatedBy?: unknown; summary?: string }>(MAT_DIALOG_DATA);
   /** The server sends a name; older shapes sent a user record. */
   who(): string {
     const u = this.data.updatedBy;

@@ -18,6 +18,7 @@ import { formatQuantity, UnitSystem } from '../../../../engine/units';
 import { SessionService } from '../core/session.service';
 import { CanvasView, scaleBar } from './canvas-view';
 import { legendStops } from './editor/colour-scale';
+import { conflictSummary } from './editor/document-diff';
 import { emptyDocument, markTypedLengths } from './editor/document-store';
 import { Backdrop, Editor } from './editor/editor';
 import { toGeoJson } from './editor/geojson-export';
@@ -275,6 +276,7 @@ export class LayoutScreen {
     this.api.project(projectId).subscribe({
       next: (p) => {
         this.units.set(p.units);
+        this.editor.units = p.units;
         this.projectName.set(p.name);
       },
       error: () => undefined,
@@ -498,7 +500,8 @@ export class LayoutScreen {
     const current = this.saver.conflict;
     if (!current) return;
     this.conflictOpen = true;
-    const ref = this.dialog.open(SaveConflictDialog, { data: current, disableClose: true, width: '460px' });
+    const summary = conflictSummary(this.saver.base, this.editor.store.doc, current.document);
+    const ref = this.dialog.open(SaveConflictDialog, { data: { ...current, summary }, disableClose: true, width: '460px' });
     ref.afterClosed().subscribe((choice: 'mine' | 'theirs' | undefined) => {
       this.conflictOpen = false;
       if (choice === 'theirs') {

@@ -1,4 +1,5 @@
 import type { LinkKind, NetworkDocument, NetworkLink, NetworkNode, NodeKind } from '../../../../../engine/network-document';
+import type { UnitSystem } from '../../../../../engine/units';
 import { isNodeKind, LINK_KINDS, nextId, NODE_KINDS } from '../kinds';
 import { BackdropTool } from '../tools/backdrop-tool';
 import { CalibrateTool } from '../tools/calibrate-tool';
@@ -83,6 +84,8 @@ export class Editor {
   private spacingOf: NetworkNode[] | null = null;
   private spacing = new Map<string, number>();
   readOnly = false;
+  /** The project's unit system: new elements get round defaults in it (kinds/*.ts `*_DEFAULTS`). */
+  units: UnitSystem = 'si';
   message = '';
   spaceHeld = false;
   /** Called by the calibrate tool with the two clicked points; the screen asks for the distance. */
@@ -461,7 +464,7 @@ export class Editor {
     const doc = this.store.doc;
     const id = nextId(def.prefix, doc.nodes.map((n) => n.id));
     const p = this.snap(at);
-    const node = def.create(id, p.x, p.y);
+    const node = def.create(id, p.x, p.y, this.units);
     const z = this.groundElevationAt(p);
     if (z !== null) {
       const lift = z - node.elevation_m;
@@ -493,7 +496,7 @@ export class Editor {
   addLink(kind: LinkKind, from: string, to: string, vertices: [number, number][] = []): string {
     const def = LINK_KINDS[kind];
     const id = nextId(def.prefix, this.store.doc.links.map((l) => l.id));
-    this.store.addLink(def.create(id, from, to, vertices));
+    this.store.addLink(def.create(id, from, to, vertices, this.units));
     return id;
   }
 

@@ -27,6 +27,8 @@ export class SaveController {
   status: SaveStatus = 'loading';
   version = 0;
   conflict: ServerCopy | null = null;
+  /** The document as last loaded or saved (the server's copy then): what both sides of a conflict started from. */
+  base: NetworkDocument | null = null;
   message = '';
   private timer: unknown = null;
   private inFlight = false;
@@ -51,6 +53,7 @@ export class SaveController {
     this.inFlight = false;
     this.version = version;
     this.conflict = null;
+    this.base = this.currentDoc();
     this.editsSinceSend = false;
     this.retryMs = 0;
     this.cancelTimer();
@@ -83,6 +86,7 @@ export class SaveController {
   keepMine(): void {
     if (!this.conflict) return;
     this.version = this.conflict.version;
+    this.base = this.conflict.document;
     this.conflict = null;
     this.editsSinceSend = true;
     this.setStatus('dirty');
@@ -92,7 +96,10 @@ export class SaveController {
   /** Conflict resolved by taking the server's copy: returns it for the caller to load. */
   takeTheirs(): ServerCopy | null {
     const theirs = this.conflict;
-    if (theirs) this.loaded(theirs.version);
+    if (theirs) {
+      this.loaded(theirs.version);
+      this.base = theirs.document;
+    }
     return theirs;
   }
 
@@ -131,6 +138,7 @@ export class SaveController {
     switch (outcome.kind) {
       case 'saved':
         this.version = outcome.version;
+        this.base = doc;
         this.retryMs = 0;
         this.message = '';
         if (this.editsSinceSend || this.currentDoc() !== doc) {

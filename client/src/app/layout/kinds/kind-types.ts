@@ -1,5 +1,5 @@
 import type { NetworkDocument, NetworkLink, NetworkNode } from '../../../../../engine/network-document';
-import type { Quantity } from '../../../../../engine/units';
+import { fromDisplay, Quantity, UnitSystem } from '../../../../../engine/units';
 
 /**
  * A symbol is drawn from these plain shape descriptions (CSS pixels around the element's centre,
@@ -40,7 +40,8 @@ export interface NodeKindDef<N extends NetworkNode = NetworkNode> {
   prefix: string;
   /** Hit radius around the centre, CSS px. */
   hitRadiusPx: number;
-  create(id: string, x_m: number, y_m: number): N;
+  /** A new record; numbers from the kind's `defaults` for `units` (round in that system), stored SI. */
+  create(id: string, x_m: number, y_m: number, units?: UnitSystem): N;
   symbol(node: N): ShapeSpec[];
   fields: FieldSpec[];
   /** Messages for combinations of fields that are each valid alone. */
@@ -51,7 +52,7 @@ export interface LinkKindDef<L extends NetworkLink = NetworkLink> {
   kind: L['kind'];
   label: string;
   prefix: string;
-  create(id: string, from: string, to: string, vertices: [number, number][]): L;
+  create(id: string, from: string, to: string, vertices: [number, number][], units?: UnitSystem): L;
   /** Stroke of the line. */
   stroke: { colour: string; widthPx: number; dash?: number[] };
   /** Symbol drawn at the middle of the line, rotated along it (pointing from → to); empty for none. */
@@ -70,3 +71,16 @@ export const elevationField: FieldSpec = {
   testid: 'prop-elevation',
 };
 export const notesField: FieldSpec = { key: 'notes', label: 'Notes', type: 'text', testid: 'prop-notes' };
+
+/**
+ * Default values of a kind's new records, written as the round numbers a designer would type in
+ * each unit system (10 psi, 70 kPa), with the quantity that converts them to SI.
+ */
+export type DefaultTable<F extends string> = Record<UnitSystem, Record<F, [Quantity, number]>>;
+
+/** The SI values of a default table for `units`. */
+export function siDefaults<F extends string>(table: DefaultTable<F>, units: UnitSystem): Record<F, number> {
+  const out = {} as Record<F, number>;
+  for (const [key, [q, shown]] of Object.entries(table[units]) as [F, [Quantity, number]][]) out[key] = fromDisplay(q, shown, units);
+  return out;
+}

@@ -1,5 +1,14 @@
 import type { OutletNode, OutletType } from '../../../../../engine/network-document';
-import { elevationField, INK, nameField, NodeKindDef, notesField, PAPER, ShapeSpec, WATER } from './kind-types';
+import { DefaultTable, elevationField, INK, nameField, NodeKindDef, notesField, PAPER, ShapeSpec, siDefaults, WATER } from './kind-types';
+
+/**
+ * A new outlet: a garden hose bib's flow and a minimum pressure of about 7 m of water (common
+ * trade practice for a hose bib, from memory), as round numbers in each system.
+ */
+export const OUTLET_DEFAULTS: DefaultTable<'demand_m3s' | 'min_pressure_m'> = {
+  us: { demand_m3s: ['flow', 5], min_pressure_m: ['pressure', 10] },
+  si: { demand_m3s: ['flow', 0.3], min_pressure_m: ['pressure', 70] },
+};
 
 const OUTLET_TYPES: { value: OutletType; label: string }[] = [
   { value: 'hose-bib', label: 'Hose bib' },
@@ -48,8 +57,8 @@ export const outletKind: NodeKindDef<OutletNode> = {
   label: 'Outlet',
   prefix: 'O',
   hitRadiusPx: 14,
-  create: (id, x_m, y_m) => ({
-    id, kind: 'outlet', name: id, elevation_m: 0, demand_m3s: 0.0003, min_pressure_m: 7, outlet_type: 'hose-bib',
+  create: (id, x_m, y_m, units = 'si') => ({
+    id, kind: 'outlet', name: id, elevation_m: 0, ...siDefaults(OUTLET_DEFAULTS, units), outlet_type: 'hose-bib',
     demand_model: { type: 'fixed' }, x_m, y_m,
   }),
   symbol: (o) => glyph(o.outlet_type ?? 'other'),

@@ -2,7 +2,11 @@ import type { PipeLink } from '../../../../../engine/network-document';
 import { catalogueFields } from '../pipe-catalogue';
 import { INK, LinkKindDef, nameField, notesField } from './kind-types';
 
-/** A new pipe starts as 1" PE SIDR 9 (a common farm-line choice; trade practice), changed in the panel. */
+/**
+ * A new pipe starts as 1" PE SIDR 9 (a common farm-line choice; trade practice), changed in the
+ * panel. The catalogue's sizes are nominal, so this default is the same in both unit systems;
+ * the length follows the drawing.
+ */
 export const DEFAULT_PIPE = { series: 'pe-sidr9', nominal: '1"' };
 
 /** Pipe: a plain polyline; no mid symbol (flow arrows come from the results overlay). */

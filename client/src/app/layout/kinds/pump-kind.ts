@@ -1,5 +1,11 @@
 import type { PumpLink } from '../../../../../engine/network-document';
-import { INK, LinkKindDef, nameField, notesField, PAPER } from './kind-types';
+import { DefaultTable, INK, LinkKindDef, nameField, notesField, PAPER, siDefaults } from './kind-types';
+
+/** A new pump: a small solar fill pump's delivered flow, round in each system. */
+export const PUMP_DEFAULTS: DefaultTable<'flow_m3s'> = {
+  us: { flow_m3s: ['flow', 3] },
+  si: { flow_m3s: ['flow', 0.2] },
+};
 
 /**
  * Hourly availability of a solar pump on a clear day: off at night, ramping up through the
@@ -15,7 +21,7 @@ export const pumpKind: LinkKindDef<PumpLink> = {
   kind: 'pump',
   label: 'Pump',
   prefix: 'Pu',
-  create: (id, from, to, vertices) => ({ id, kind: 'pump', name: id, from, to, vertices, flow_m3s: 0.0002, schedule: [...DAYLIGHT_SCHEDULE] }),
+  create: (id, from, to, vertices, units = 'si') => ({ id, kind: 'pump', name: id, from, to, vertices, ...siDefaults(PUMP_DEFAULTS, units), schedule: [...DAYLIGHT_SCHEDULE] }),
   stroke: { colour: INK, widthPx: 2.5, dash: [8, 4] },
   midSymbol: () => [
     { t: 'circle', r: 11, fill: PAPER, stroke: INK, sw: 2 },

@@ -1,5 +1,11 @@
 import type { SourceNode } from '../../../../../engine/network-document';
-import { elevationField, INK, nameField, NodeKindDef, notesField, WATER } from './kind-types';
+import { DefaultTable, elevationField, INK, nameField, NodeKindDef, notesField, siDefaults, WATER } from './kind-types';
+
+/** A new source's water surface stands this far above its elevation (set as head_m = elevation + this). */
+export const SOURCE_DEFAULTS: DefaultTable<'head_m'> = {
+  us: { head_m: ['elevation', 1] },
+  si: { head_m: ['elevation', 0.3] },
+};
 
 /** Source: a circle of water with two ripple lines — spring box, creek intake or well. */
 export const sourceKind: NodeKindDef<SourceNode> = {
@@ -7,7 +13,7 @@ export const sourceKind: NodeKindDef<SourceNode> = {
   label: 'Source',
   prefix: 'S',
   hitRadiusPx: 14,
-  create: (id, x_m, y_m) => ({ id, kind: 'source', name: id, elevation_m: 0, head_m: 0.3, source_type: 'spring', x_m, y_m }),
+  create: (id, x_m, y_m, units = 'si') => ({ id, kind: 'source', name: id, elevation_m: 0, ...siDefaults(SOURCE_DEFAULTS, units), source_type: 'spring', x_m, y_m }),
   symbol: () => [
     { t: 'circle', r: 12, fill: WATER, stroke: INK, sw: 2 },
     { t: 'poly', points: [-7, -2, -3.5, -5, 0, -2, 3.5, -5, 7, -2], stroke: INK, sw: 1.5 },

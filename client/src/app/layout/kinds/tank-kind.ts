@@ -1,5 +1,11 @@
 import type { TankNode } from '../../../../../engine/network-document';
-import { elevationField, INK, nameField, NodeKindDef, notesField, PAPER, WATER } from './kind-types';
+import { DefaultTable, elevationField, INK, nameField, NodeKindDef, notesField, PAPER, siDefaults, WATER } from './kind-types';
+
+/** A new tank: a small farm poly tank (about 2.5–3 m³), round in each system. */
+export const TANK_DEFAULTS: DefaultTable<'diameter_m' | 'level_m' | 'min_level_m' | 'max_level_m'> = {
+  us: { diameter_m: ['length', 5], level_m: ['head', 4], min_level_m: ['head', 0.5], max_level_m: ['head', 5] },
+  si: { diameter_m: ['length', 1.6], level_m: ['head', 1.2], min_level_m: ['head', 0.1], max_level_m: ['head', 1.5] },
+};
 
 /**
  * Tank: an upright cylinder seen from the side (a rounded body with a lid band) filled to its
@@ -10,9 +16,7 @@ export const tankKind: NodeKindDef<TankNode> = {
   label: 'Tank',
   prefix: 'T',
   hitRadiusPx: 16,
-  create: (id, x_m, y_m) => ({
-    id, kind: 'tank', name: id, elevation_m: 0, diameter_m: 1.6, level_m: 1.2, min_level_m: 0.1, max_level_m: 1.5, x_m, y_m,
-  }),
+  create: (id, x_m, y_m, units = 'si') => ({ id, kind: 'tank', name: id, elevation_m: 0, ...siDefaults(TANK_DEFAULTS, units), x_m, y_m }),
   symbol: (t) => {
     const fillFrac = t.max_level_m > 0 ? Math.max(0, Math.min(1, t.level_m / t.max_level_m)) : 0;
     const h = 24 * fillFrac;

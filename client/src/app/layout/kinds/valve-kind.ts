@@ -1,5 +1,11 @@
 import type { ValveLink, ValveType } from '../../../../../engine/network-document';
-import { INK, LinkKindDef, nameField, notesField, PAPER, ShapeSpec } from './kind-types';
+import { DefaultTable, INK, LinkKindDef, nameField, notesField, PAPER, ShapeSpec, siDefaults } from './kind-types';
+
+/** A new valve's bore, round in each system. */
+export const VALVE_DEFAULTS: DefaultTable<'diameter_m'> = {
+  us: { diameter_m: ['diameter', 1] },
+  si: { diameter_m: ['diameter', 25] },
+};
 
 const VALVE_TYPES: { value: ValveType; label: string }[] = [
   { value: 'shutoff', label: 'Shut-off' },
@@ -24,7 +30,7 @@ export const valveKind: LinkKindDef<ValveLink> = {
   kind: 'valve',
   label: 'Valve',
   prefix: 'V',
-  create: (id, from, to, vertices) => ({ id, kind: 'valve', name: id, from, to, vertices, valve_type: 'shutoff', diameter_m: 0.025, open: true }),
+  create: (id, from, to, vertices, units = 'si') => ({ id, kind: 'valve', name: id, from, to, vertices, valve_type: 'shutoff', ...siDefaults(VALVE_DEFAULTS, units), open: true }),
   stroke: { colour: INK, widthPx: 2.5 },
   midSymbol: body,
   fields: [
