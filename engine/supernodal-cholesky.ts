@@ -155,7 +155,7 @@ export class SupernodalCholesky {
     this.head = new Int32Array(ns);
     this.next = new Int32Array(ns);
     this.position = new Int32Array(ns);
-    this.update = new Float64Array(2 * Math.max(maxUpdate, 1)); // two columns (columnProductsPair)
+    this.update = new Float64Array(2 * Math.max(maxUpdate, 1)); // two columns (subtractProductsPair)
     this.map = new Int32Array(this.update.length >> 1);
     this.work = new Float64Array(n);
   }
@@ -196,38 +196,33 @@ export class SupernodalCholesky {
         while (p2 < dm && rows[dr0 + p2] <= last) p2++;
         const um = dm - p1; // rows to update
         const uw = p2 - p1; // columns of s touched
-        // block(rows, cols of s) −= L_d[p1:dm, :] · L_d[p1:p2, :]ᵀ, one target column at a time:
-        // the column of products is formed in `update` (four source columns per pass, see
-        // columnProducts) and subtracted once. Where d's rows are s's rows shifted (common in a
-        // postordered tree) the target column is contiguous; otherwise d's rows are mapped to s's once
+        // block(rows, cols of s) −= L_d[p1:dm, :] · L_d[p1:p2, :]ᵀ, two target columns per pass
+        // over d's columns (subtractProductsPair). Where d's rows are s's rows shifted (common in a
+        // postordered tree) the target columns are contiguous and updated in place; otherwise d's
+        // rows are mapped to s's once and each pair of columns is formed in `update`, then scattered
         const rel0 = relative[rows[dr0 + p1]];
         const contiguous = relative[rows[dr0 + dm - 1]] - rel0 === um - 1;
         if (!contiguous) for (let ii = 0; ii < um; ii++) map[ii] = relative[rows[dr0 + p1 + ii]];
         const c0 = db0 + p1;
         let jj = 0;
         for (; jj + 1 < uw; jj += 2) {
-          // two target columns per pass over d's columns
           const base = b0 + (rows[dr0 + p1 + jj] - f) * m;
           const base1 = b0 + (rows[dr0 + p1 + jj + 1] - f) * m;
-          columnProductsPair(block, c0, dm, dw, jj, um, update, half);
-          if (contiguous) {
-            const t0 = base + rel0;
-            const t1 = base1 + rel0;
-            for (let ii = jj; ii < um; ii++) block[t0 + ii] -= update[ii];
-            for (let ii = jj + 1; ii < um; ii++) block[t1 + ii] -= update[half + ii];
-          } else {
-            for (let ii = jj; ii < um; ii++) block[base + map[ii]] -= update[ii];
-            for (let ii = jj + 1; ii < um; ii++) block[base1 + map[ii]] -= update[half + ii];
+          if (contiguous) subtractProductsPair(block, c0, dm, dw, jj, um, block, base + rel0, base1 + rel0);
+          else {
+            for (let ii = jj; ii < um; ii++) { update[ii] = 0; update[half + ii] = 0; }
+            subtractProductsPair(block, c0, dm, dw, jj, um, update, 0, half);
+            for (let ii = jj; ii < um; ii++) block[base + map[ii]] += update[ii];
+            for (let ii = jj + 1; ii < um; ii++) block[base1 + map[ii]] += update[half + ii];
           }
         }
         if (jj < uw) {
           const base = b0 + (rows[dr0 + p1 + jj] - f) * m;
-          columnProducts(block, c0, dm, dw, jj, um, update);
-          if (contiguous) {
-            const t0 = base + rel0;
-            for (let ii = jj; ii < um; ii++) block[t0 + ii] -= update[ii];
-          } else {
-            for (let ii = jj; ii < um; ii++) block[base + map[ii]] -= update[ii];
+          if (contiguous) subtractProducts(block, c0, dm, dw, jj, um, block, base + rel0);
+          else {
+            for (let ii = jj; ii < um; ii++) update[ii] = 0;
+            subtractProducts(block, c0, dm, dw, jj, um, update, 0);
+            for (let ii = jj; ii < um; ii++) block[base + map[ii]] += update[ii];
           }
         }
         // move d on to the supernode of its next row
@@ -236,21 +231,15 @@ export class SupernodalCholesky {
         d = nextD;
       }
       // dense Cholesky of the diagonal block and triangular solve of the rows below, left-looking
-      // two columns at a time: the products of the earlier columns for both (columnProductsPair),
+      // two columns at a time: the products of the earlier columns off both (subtractProductsPair),
       // then column c is finished and its own term is taken off column c + 1
       for (let c = 0; c < wdt; c += 2) {
         const cb = b0 + c * m;
         const pair = c + 1 < wdt;
         const cb1 = cb + m;
-        if (pair) {
-          if (c > 0) {
-            columnProductsPair(block, b0, m, c, c, m, update, half);
-            for (let i = c; i < m; i++) block[cb + i] -= update[i];
-            for (let i = c + 1; i < m; i++) block[cb1 + i] -= update[half + i];
-          }
-        } else if (c > 0) {
-          columnProducts(block, b0, m, c, c, m, update);
-          for (let i = c; i < m; i++) block[cb + i] -= update[i];
+        if (c > 0) {
+          if (pair) subtractProductsPair(block, b0, m, c, c, m, block, cb, cb1);
+          else subtractProducts(block, b0, m, c, c, m, block, cb);
         }
         const diag = block[cb + c];
         if (!(diag > 0) || !Number.isFinite(diag)) return f + c;
@@ -322,32 +311,16 @@ export class SupernodalCholesky {
 }
 
 /**
- * out[i] = Σ_k L[i, k]·L[j, k] for rows i = j … rows−1 over `width` columns of a dense column-major
- * block (column k of the rows in question starts at `start + k·stride`). Four columns are taken
- * per pass so each entry of `out` is loaded and stored once per four columns instead of once per
- * column: the small supernodes of a long grid are mostly 5–40 columns wide, where those loads and
- * stores, not the multiplications, set the pace.
+ * out[o + i] −= Σ_k L[i, k]·L[j, k] for rows i = j … rows−1 over `width` columns of a dense
+ * column-major block (column k of the rows in question starts at `start + k·stride`). Four
+ * columns are taken per pass so each entry of `out` is loaded and stored once per four columns
+ * instead of once per column: the small supernodes of a long grid are mostly 5–40 columns wide,
+ * where those loads and stores, not the multiplications, set the pace. `out` is the target block
+ * itself where the target rows are contiguous, else a buffer that is scattered afterwards.
  */
-function columnProducts(block: Float64Array, start: number, stride: number, width: number, j: number, rows: number, out: Float64Array): void {
+function subtractProducts(block: Float64Array, start: number, stride: number, width: number, j: number, rows: number, out: Float64Array, o: number): void {
   let k = 0;
   let a = start;
-  if (width >= 4) {
-    const a1 = a + stride;
-    const a2 = a1 + stride;
-    const a3 = a2 + stride;
-    const l0 = block[a + j];
-    const l1 = block[a1 + j];
-    const l2 = block[a2 + j];
-    const l3 = block[a3 + j];
-    for (let i = j; i < rows; i++) out[i] = block[a + i] * l0 + block[a1 + i] * l1 + block[a2 + i] * l2 + block[a3 + i] * l3;
-    k = 4;
-    a += 4 * stride;
-  } else {
-    const l0 = block[a + j];
-    for (let i = j; i < rows; i++) out[i] = block[a + i] * l0;
-    k = 1;
-    a += stride;
-  }
   for (; k + 4 <= width; k += 4, a += 4 * stride) {
     const a1 = a + stride;
     const a2 = a1 + stride;
@@ -356,30 +329,29 @@ function columnProducts(block: Float64Array, start: number, stride: number, widt
     const l1 = block[a1 + j];
     const l2 = block[a2 + j];
     const l3 = block[a3 + j];
-    for (let i = j; i < rows; i++) out[i] += block[a + i] * l0 + block[a1 + i] * l1 + block[a2 + i] * l2 + block[a3 + i] * l3;
+    for (let i = j; i < rows; i++) out[o + i] -= block[a + i] * l0 + block[a1 + i] * l1 + block[a2 + i] * l2 + block[a3 + i] * l3;
   }
   for (; k + 2 <= width; k += 2, a += 2 * stride) {
     const a1 = a + stride;
     const l0 = block[a + j];
     const l1 = block[a1 + j];
-    for (let i = j; i < rows; i++) out[i] += block[a + i] * l0 + block[a1 + i] * l1;
+    for (let i = j; i < rows; i++) out[o + i] -= block[a + i] * l0 + block[a1 + i] * l1;
   }
   if (k < width) {
     const l0 = block[a + j];
-    for (let i = j; i < rows; i++) out[i] += block[a + i] * l0;
+    for (let i = j; i < rows; i++) out[o + i] -= block[a + i] * l0;
   }
 }
 
 /**
- * Two columns of products at once, for target columns j and j + 1: out[i] = Σ_k L[i, k]·L[j, k]
- * and out[half + i] = Σ_k L[i, k]·L[j + 1, k] for rows i from j (the entry at row j of the second
- * column is above its diagonal and not used). Each source entry loaded serves both columns.
+ * subtractProducts for two target columns at once, j (into out[o0 + i]) and j + 1 (into
+ * out[o1 + i]), rows from j: each source entry loaded serves both. The entry at row j of the
+ * second column lies above its diagonal, where nothing is read.
  */
-function columnProductsPair(block: Float64Array, start: number, stride: number, width: number, j: number, rows: number, out: Float64Array, half: number): void {
+function subtractProductsPair(block: Float64Array, start: number, stride: number, width: number, j: number, rows: number, out: Float64Array, o0: number, o1: number): void {
   const j1 = j + 1;
   let k = 0;
   let a = start;
-  for (let i = j; i < rows; i++) { out[i] = 0; out[half + i] = 0; }
   for (; k + 4 <= width; k += 4, a += 4 * stride) {
     const a1 = a + stride;
     const a2 = a1 + stride;
@@ -397,8 +369,8 @@ function columnProductsPair(block: Float64Array, start: number, stride: number, 
       const x1 = block[a1 + i];
       const x2 = block[a2 + i];
       const x3 = block[a3 + i];
-      out[i] += x0 * l0 + x1 * l1 + x2 * l2 + x3 * l3;
-      out[half + i] += x0 * u0 + x1 * u1 + x2 * u2 + x3 * u3;
+      out[o0 + i] -= x0 * l0 + x1 * l1 + x2 * l2 + x3 * l3;
+      out[o1 + i] -= x0 * u0 + x1 * u1 + x2 * u2 + x3 * u3;
     }
   }
   for (; k < width; k++, a += stride) {
@@ -406,8 +378,8 @@ function columnProductsPair(block: Float64Array, start: number, stride: number, 
     const u0 = block[a + j1];
     for (let i = j; i < rows; i++) {
       const x0 = block[a + i];
-      out[i] += x0 * l0;
-      out[half + i] += x0 * u0;
+      out[o0 + i] -= x0 * l0;
+      out[o1 + i] -= x0 * u0;
     }
   }
 }
