@@ -10,7 +10,7 @@ import { expect } from 'chai';
 import { signIn, useBrowserApp } from './harness';
 import {
   apiCall, asStored, canvasPoint, clickNode, clickWorld, createProject, dragFromPalette, editorHook, getNetwork, openLayout,
-  saveStatus, setProperty, shot, smallNetwork, waitForLayout, waitForNodeCount, waitSaved, waitSavedAfterEdit, waitSolved, type E2eDoc,
+  saveStatus, setProperty, shot, smallNetwork, snackText, waitForLayout, waitForNodeCount, waitSaved, waitSavedAfterEdit, waitSolved, type E2eDoc,
 } from './layout-helpers';
 
 describe('Layout screen: editing end to end (Chromium, real server)', function () {
@@ -237,6 +237,37 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
       const final = await getNetwork(pageA, app.baseUrl, projectId);
       expect(final.version).to.equal(v1 + 2);
     }
+  });
+
+  it('a window with nothing unsaved notices a version saved elsewhere when it regains focus, loads it and says so', async () => {
+    const { app, page } = ui;
+    await signIn(page, app.baseUrl, 'designer');
+    const projectId = await createProject(page, app.baseUrl, 'Stale window');
+    const put = await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('start') });
+    expect(put.status()).to.equal(200);
+    const ctxB = await ui.newContext();
+    const pageA = page;
+    const pageB = await ctxB.newPage();
+    await signIn(pageB, app.baseUrl, 'designer');
+    await openLayout(pageA, app.baseUrl, projectId);
+    await openLayout(pageB, app.baseUrl, projectId);
+    await clickNode(pageB, 'O1');
+    await setProperty(pageB, 'prop-name', 'Lower tap');
+    await waitSavedAfterEdit(pageB);
+    const saved = await getNetwork(pageB, app.baseUrl, projectId);
+    expect(await saveStatus(pageA)).to.equal('Saved');
+    // Window A comes back to the front (the browser's focus event).
+    await pageA.evaluate(() => window.dispatchEvent(new Event('focus')));
+    expect(await snackText(pageA)).to.contain(`Reloaded version ${saved.version} saved by Dana Designer`);
+    expect(asStored(await editorHook.doc(pageA))).to.deep.equal(saved.document);
+    expect(await saveStatus(pageA)).to.equal('Saved');
+    // A's next edit saves over B's version without a conflict.
+    await clickNode(pageA, 'T1');
+    await setProperty(pageA, 'prop-name', 'Hill tank');
+    await waitSavedAfterEdit(pageA);
+    const after = await getNetwork(pageA, app.baseUrl, projectId);
+    expect(after.version).to.equal(saved.version + 1);
+    expect(after.document.nodes.map((n) => n.name)).to.include.members(['Hill tank', 'Lower tap']);
   });
 
   it('in a US-units project: an elevation typed in feet is kept in metres and results read in psi; offline, the chip says so and the edits are saved once the network is back', async () => {

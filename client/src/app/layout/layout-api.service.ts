@@ -31,8 +31,9 @@ export class LayoutApi {
     return this.http.get<Project>(`/api/projects/${encodeURIComponent(id)}`);
   }
 
-  network(id: string): Observable<NetworkRecord> {
-    return this.http.get<NetworkRecord>(`/api/projects/${encodeURIComponent(id)}/network`);
+  /** `quiet`: a background check — failures are the caller's (no error snack bar). */
+  network(id: string, quiet = false): Observable<NetworkRecord> {
+    return this.http.get<NetworkRecord>(`/api/projects/${encodeURIComponent(id)}/network`, quiet ? { context: handleErrorsLocally() } : {});
   }
 
   /** PUT the document; 409, network failures and 400s become outcomes instead of snack bars. */

@@ -23,7 +23,8 @@ import { emptyDocument, markTypedLengths } from './editor/document-store';
 import { Backdrop, Editor } from './editor/editor';
 import { toGeoJson } from './editor/geojson-export';
 import { resultWarnings } from './editor/result-checks';
-import { SaveController, SaveStatus } from './editor/save-controller';
+import { FreshnessCheck } from './editor/freshness-check';
+import { SaveController, SaveStatus, ServerCopy } from './editor/save-controller';
 import { nearestSurveyPoint, profileAlong, SurveyPoint, toLocalPoints } from './editor/survey';
 import { realTimers } from './editor/timers';
 import type { PointerInput, ToolId } from './tools/tool';
@@ -73,6 +74,8 @@ interface ToolButton { id: ToolId; option?: LinkKind; label: string; testid: str
     '(document:keydown)': 'onKeyDown($event)',
     '(document:keyup)': 'onKeyUp($event)',
     '(window:beforeunload)': 'onBeforeUnload($event)',
+    '(document:visibilitychange)': 'onVisibilityChange()',
+    '(window:focus)': 'freshness.focused()',
   },
 })
 export class LayoutScreen {
@@ -94,6 +97,14 @@ export class LayoutScreen {
     realTimers,
     () => this.editor.store.doc,
     (s) => this.status.set(s),
+  );
+
+  /** Notices a version saved elsewhere when the tab comes back (and every 30 s while visible). */
+  readonly freshness = new FreshnessCheck(
+    () => this.fetchServerCopy(),
+    realTimers,
+    () => this.saver,
+    (decision, copy) => (decision === 'reload' ? this.reloadFromServer(copy) : this.saver.raiseConflict(copy)),
   );
 
   readonly canEdit = computed(() => this.session.can('network.write'));
@@ -243,6 +254,7 @@ export class LayoutScreen {
       off();
       this.saver.flush();
       this.saver.dispose();
+      this.freshness.dispose();
       this.solver.dispose();
       this.view?.dispose();
       cancelAnimationFrame(this.frameLoop);
@@ -288,12 +300,38 @@ export class LayoutScreen {
         this.editor.store.replace(doc);
         this.notifiedRevision = this.editor.store.revision;
         this.serverResults.set(rec.results ?? null);
-        if (this.canEdit()) this.saver.loaded(rec.version);
-        else this.saver.setReadOnly();
+        if (this.canEdit()) {
+          this.saver.loaded(rec.version);
+          this.freshness.setVisible(document.visibilityState === 'visible');
+        } else this.saver.setReadOnly();
         this.editor.fitToView();
       },
       error: () => this.loadError.set('The network could not be loaded. Reload the page to try again.'),
     });
+  }
+
+  // ---- versions saved elsewhere ----
+  onVisibilityChange(): void {
+    this.freshness.setVisible(document.visibilityState === 'visible' && this.canEdit() && !!this.loadedProject);
+  }
+
+  private async fetchServerCopy(): Promise<ServerCopy | null> {
+    const project = this.loadedProject;
+    if (!project) return null;
+    const rec = await firstValueFrom(this.api.network(project, true));
+    // Another project opened meanwhile: this answer is about the old one.
+    if (project !== this.loadedProject || !rec.document || !Array.isArray(rec.document.nodes)) return null;
+    return { version: rec.version, document: rec.document, updatedAt: rec.updatedAt ?? undefined, updatedBy: rec.updatedBy };
+  }
+
+  /** Nothing unsaved here and a newer version on the server: show that one, and say so. */
+  private reloadFromServer(copy: ServerCopy): void {
+    this.editor.store.replace(markTypedLengths(copy.document));
+    this.notifiedRevision = this.editor.store.revision;
+    this.saver.loaded(copy.version);
+    this.serverResults.set(null);
+    const by = copy.updatedBy ? ` saved by ${copy.updatedBy}` : ' saved elsewhere';
+    this.snack.open(`Reloaded version ${copy.version}${by}.`, 'OK', { duration: 6000 });
   }
 
   // ---- canvas wiring ----

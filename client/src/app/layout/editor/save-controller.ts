@@ -82,6 +82,18 @@ export class SaveController {
     }
   }
 
+  /**
+   * A newer server version found while local changes wait unsaved (the freshness check): the
+   * same state as a 409, so the user chooses. Ignored while a save is in flight (its answer decides).
+   */
+  raiseConflict(current: ServerCopy): void {
+    if (this.inFlight || this.status === 'read-only' || this.status === 'loading' || this.status === 'conflict') return;
+    this.cancelTimer();
+    this.conflict = current;
+    this.editsSinceSend = true;
+    this.setStatus('conflict');
+  }
+
   /** Conflict resolved by re-saving the local document over the server's newer version. */
   keepMine(): void {
     if (!this.conflict) return;
