@@ -1,6 +1,6 @@
 /** The save-conflict summary: what each side changed, compared element by element. */
 import { expect } from 'chai';
-import type { NetworkDocument } from '../../engine/network-document';
+import type { NetworkDocument, PipeLink, TeeNode } from '../../engine/network-document';
 import { conflictSummary, describeChanges, diffDocuments } from '../../client/src/app/layout/editor/document-diff';
 
 function base(): NetworkDocument {
@@ -23,7 +23,7 @@ describe('Layout editor: document diff for the save conflict', () => {
     const a = base();
     const b = structuredClone(a);
     b.nodes[1] = { ...b.nodes[1], elevation_m: 31 };
-    b.links[1] = { ...b.links[1], diameter_m: 0.032 };
+    b.links[1] = { ...(b.links[1] as PipeLink), diameter_m: 0.032 };
     // Same tank, keys in another order: no change.
     const t = b.nodes[0] as unknown as Record<string, unknown>;
     b.nodes[0] = Object.fromEntries(Object.entries(t).reverse()) as never;
@@ -40,7 +40,7 @@ describe('Layout editor: document diff for the save conflict', () => {
   it('summarises each side against the version both started from', () => {
     const start = base();
     const theirs = structuredClone(start);
-    theirs.nodes[1] = { ...theirs.nodes[1], demand_m3s: 0.0001 };
+    theirs.nodes[1] = { ...(theirs.nodes[1] as TeeNode), demand_m3s: 0.0001 };
     theirs.nodes.push({ id: 'O2', kind: 'outlet', name: 'East trough', elevation_m: 15, demand_m3s: 0.0001, min_pressure_m: 3 } as never);
     const mine = structuredClone(start);
     mine.nodes = mine.nodes.map((n) => ({ ...n, x_m: (n.x_m ?? 0) + 1 }));
