@@ -9,7 +9,7 @@
 import { expect } from 'chai';
 import { signIn, useBrowserApp } from './harness';
 import {
-  apiCall, asStored, canvasPoint, clickNode, clickWorld, createProject, dragFromPalette, editorHook, getNetwork, openLayout,
+  apiCall, asStored, canvasPoint, clickNode, clickWorld, createProject, dragFromPalette, editorHook, getNetwork, openInTwoWindows, openLayout,
   saveStatus, setProperty, shot, smallNetwork, snackText, waitForLayout, waitForNodeCount, waitSaved, waitSavedAfterEdit, waitSolved, type E2eDoc,
 } from './layout-helpers';
 
@@ -188,12 +188,7 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
 
     // UI: the same designer in two windows, both opened at version v1 (the second context is closed after the test).
     {
-      const ctxB = await ui.newContext();
-      const pageA = page;
-      const pageB = await ctxB.newPage();
-      await signIn(pageB, app.baseUrl, 'designer');
-      await openLayout(pageA, app.baseUrl, projectId);
-      await openLayout(pageB, app.baseUrl, projectId);
+      const { pageA, pageB } = await openInTwoWindows(ui, app.baseUrl, projectId);
 
       await clickNode(pageA, 'T1');
       await setProperty(pageA, 'prop-name', 'Ridge tank');
@@ -245,12 +240,7 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
     const projectId = await createProject(page, app.baseUrl, 'Stale window');
     const put = await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('start') });
     expect(put.status()).to.equal(200);
-    const ctxB = await ui.newContext();
-    const pageA = page;
-    const pageB = await ctxB.newPage();
-    await signIn(pageB, app.baseUrl, 'designer');
-    await openLayout(pageA, app.baseUrl, projectId);
-    await openLayout(pageB, app.baseUrl, projectId);
+    const { pageA, pageB } = await openInTwoWindows(ui, app.baseUrl, projectId);
     await clickNode(pageB, 'O1');
     await setProperty(pageB, 'prop-name', 'Lower tap');
     await waitSavedAfterEdit(pageB);

@@ -5,7 +5,8 @@
  */
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
+import { signIn } from './harness';
 import type { NetworkDocument } from '../../engine/network-document';
 
 /** The parts of the network document these tests read (engine/network-document.ts). */
@@ -200,4 +201,21 @@ export function percentile(values: number[], p: number): number {
   if (!s.length) return NaN;
   const i = Math.min(s.length - 1, Math.max(0, Math.ceil((p / 100) * s.length) - 1));
   return s[i];
+}
+
+/**
+ * The same designer with the project's Layout open in two windows: `pageA` is the suite's page
+ * (already signed in), `pageB` a second signed-in context the harness closes after the test.
+ */
+export async function openInTwoWindows(
+  ui: { page: Page; newContext(): Promise<BrowserContext> },
+  baseUrl: string,
+  projectId: string,
+): Promise<{ pageA: Page; pageB: Page }> {
+  const pageA = ui.page;
+  const pageB = await (await ui.newContext()).newPage();
+  await signIn(pageB, baseUrl, 'designer');
+  await openLayout(pageA, baseUrl, projectId);
+  await openLayout(pageB, baseUrl, projectId);
+  return { pageA, pageB };
 }
