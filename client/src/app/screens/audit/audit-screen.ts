@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { Component, inject } from '@angular/core';
+import { Component, computed, inject } from '@angular/core';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
@@ -16,7 +16,7 @@ import { AuditService } from '../../core/audit.service';
       <p class="rn-muted">The latest 200 actions in this team, newest first.</p>
       @if (entries.isLoading()) { <mat-progress-bar mode="indeterminate" aria-label="Loading audit log" /> }
       <div class="rn-audit-card">
-        <table mat-table [dataSource]="entries.value() ?? []" aria-label="Audit log" data-testid="audit-table">
+        <table mat-table [dataSource]="rows()" aria-label="Audit log" data-testid="audit-table">
           <ng-container matColumnDef="at">
             <th mat-header-cell *matHeaderCellDef>When</th>
             <td mat-cell *matCellDef="let e"><time [attr.datetime]="e.at">{{ e.at | date: 'd MMM y, HH:mm:ss' }}</time></td>
@@ -57,6 +57,8 @@ export class AuditScreen {
   private readonly audit = inject(AuditService);
   protected readonly columns = ['at', 'userEmail', 'action', 'target', 'detail'];
   protected readonly entries = rxResource({ stream: () => this.audit.entries() });
+  /** `value()` throws while the resource is in its error state; a failed load shows an empty table (the snack bar says why). */
+  protected readonly rows = computed(() => (this.entries.hasValue() ? this.entries.value() : []));
 
   /** `{ roles: ['reviewer', 'owner'] }` → "roles: reviewer, owner". */
   protected describe(detail: AuditEntry['detail']): string {

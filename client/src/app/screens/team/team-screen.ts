@@ -56,6 +56,8 @@ export class TeamScreen {
     params: () => this.session.me()?.currentTeamId ?? undefined,
     stream: () => this.teamApi.invitations(),
   });
+  /** `value()` throws while a resource is in its error state, so read it only when there is one. */
+  protected readonly memberRows = computed(() => (this.members.hasValue() ? this.members.value() : []));
   protected readonly pending = computed(() =>
     (this.invitations.hasValue() ? this.invitations.value() : []).filter((invitation) => !invitation.acceptedAt),
   );
