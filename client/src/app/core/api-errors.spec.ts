@@ -21,4 +21,13 @@ describe('apiErrorMessage', () => {
   it('falls back to a sentence for a non-HTTP error', () => {
     expect(apiErrorMessage(new Error('boom'))).to.equal('Something went wrong.');
   });
+  it('uses the screen’s own sentence for an expected status, over the body', () => {
+    const err = new HttpErrorResponse({ status: 401, error: { error: { code: 'auth', message: 'Invalid credentials' } } });
+    expect(apiErrorMessage(err, { 401: 'Those do not match.' })).to.equal('Those do not match.');
+    expect(apiErrorMessage(err, { 404: 'Not here.' })).to.equal('Invalid credentials');
+  });
+  it('unwraps an error carried as a cause (rxResource wrapping)', () => {
+    const wrapped = new Error('Resource is currently in an error state', { cause: new HttpErrorResponse({ status: 404 }) });
+    expect(apiErrorMessage(wrapped, { 404: 'Gone.' })).to.equal('Gone.');
+  });
 });

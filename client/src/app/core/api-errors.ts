@@ -8,11 +8,19 @@ export function apiErrorBody(err: unknown): ApiErrorBody['error'] | null {
   return body && typeof body === 'object' && body.error && typeof body.error.message === 'string' ? body.error : null;
 }
 
+/** Screen-specific sentences for some statuses, e.g. `{ 404: 'This project does not exist…' }`. */
+export type StatusMessages = Partial<Record<number, string>>;
+
 /**
  * One human sentence (plus one line per field error) for a failed request.
  * Never shows a stack trace or raw HTML: unknown bodies fall back to a sentence about the status.
+ * `byStatus` lets a screen say it in its own words for statuses it expects (these win over the body).
+ * Accepts the error of an `rxResource` too: a wrapped error is unwrapped through `cause`.
  */
-export function apiErrorMessage(err: unknown): string {
+export function apiErrorMessage(error: unknown, byStatus: StatusMessages = {}): string {
+  const err = error instanceof Error && error.cause instanceof HttpErrorResponse ? error.cause : error;
+  const own = err instanceof HttpErrorResponse ? byStatus[err.status] : undefined;
+  if (own) return own;
   const body = apiErrorBody(err);
   if (body) {
     const fields = (body.fields ?? []).map((f) => `• ${f.path ? `${f.path}: ` : ''}${f.message}`);

@@ -1,4 +1,3 @@
-import { HttpErrorResponse } from '@angular/common/http';
 import { Component, DestroyRef, computed, inject, input, signal } from '@angular/core';
 import { rxResource, takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
@@ -44,11 +43,7 @@ export class JoinScreen {
   protected readonly ready = computed(() => !this.invitation.isLoading() && !this.sessionProbe.isLoading());
   protected readonly loadError = computed(() => {
     const err = this.invitation.error();
-    if (!err) return null;
-    const cause = (err as { cause?: unknown }).cause ?? err;
-    return cause instanceof HttpErrorResponse && cause.status === 404
-      ? 'This invitation link is not valid. Ask your team admin for a new one.'
-      : apiErrorMessage(cause);
+    return err ? apiErrorMessage(err, { 404: 'This invitation link is not valid. Ask your team admin for a new one.' }) : null;
   });
   protected readonly returnUrl = computed(() => `/join/${this.token()}`);
 

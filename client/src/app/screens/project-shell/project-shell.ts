@@ -1,4 +1,3 @@
-import { HttpErrorResponse } from '@angular/common/http';
 import { Component, computed, effect, inject, input } from '@angular/core';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
@@ -48,11 +47,11 @@ export class ProjectShell {
   });
   protected readonly loadError = computed(() => {
     const err = this.project.error();
-    if (!err) return null;
-    const cause = (err as { cause?: unknown }).cause ?? err;
-    return cause instanceof HttpErrorResponse && cause.status === 404
-      ? 'This project does not exist in your current team. It may have been deleted, or it belongs to another team.'
-      : apiErrorMessage(cause);
+    return err
+      ? apiErrorMessage(err, {
+          404: 'This project does not exist in your current team. It may have been deleted, or it belongs to another team.',
+        })
+      : null;
   });
 
   constructor() {

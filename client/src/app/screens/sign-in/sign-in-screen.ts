@@ -1,4 +1,3 @@
-import { HttpErrorResponse } from '@angular/common/http';
 import { Component, DestroyRef, inject, input, signal } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
@@ -47,16 +46,13 @@ export class SignInScreen {
         next: () => void this.router.navigateByUrl(safeReturnUrl(this.returnUrl())),
         error: (err: unknown) => {
           this.busy.set(false);
-          this.error.set(signInMessage(err));
+          this.error.set(apiErrorMessage(err, SIGN_IN_MESSAGES));
         },
       });
   }
 }
 
-function signInMessage(err: unknown): string {
-  if (err instanceof HttpErrorResponse) {
-    if (err.status === 401) return 'That email and password do not match an account.';
-    if (err.status === 429) return 'Too many sign-in attempts. Wait a few minutes, then try again.';
-  }
-  return apiErrorMessage(err);
-}
+const SIGN_IN_MESSAGES = {
+  401: 'That email and password do not match an account.',
+  429: 'Too many sign-in attempts. Wait a few minutes, then try again.',
+};

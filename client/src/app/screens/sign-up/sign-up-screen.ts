@@ -1,4 +1,3 @@
-import { HttpErrorResponse } from '@angular/common/http';
 import { Component, DestroyRef, inject, signal } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
@@ -49,11 +48,7 @@ export class SignUpScreen {
         next: () => void this.router.navigate(['/projects']),
         error: (err: unknown) => {
           this.busy.set(false);
-          this.error.set(
-            err instanceof HttpErrorResponse && err.status === 429
-              ? 'Too many attempts. Wait a few minutes, then try again.'
-              : apiErrorMessage(err),
-          );
+          this.error.set(apiErrorMessage(err, { 429: 'Too many attempts. Wait a few minutes, then try again.' }));
         },
       });
   }
