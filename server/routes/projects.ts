@@ -35,7 +35,7 @@ export function projectJson(row: ProjectRow) {
 /** The project `:id` of the caller's current team, or 404. */
 export async function projectOfTeam(db: DbOrTx, req: Request): Promise<ProjectRow> {
   const id = String(req.params.id);
-  if (!UUID.test(id)) throw new ApiError('not-found', 'No such project');
+  if (!isUuid(id)) throw new ApiError('not-found', 'No such project');
   const [row] = await db.select().from(projects)
     .where(and(eq(projects.id, id), eq(projects.teamId, req.membership!.teamId)));
   if (!row) throw new ApiError('not-found', 'No such project');

@@ -13,6 +13,7 @@ import type { DbOrTx } from '../db';
 import { ApiError, parseBody } from '../errors';
 import { isRole, ROLES, type Role } from '../permissions';
 import { emailField, nameField, passwordField, signIn } from './auth';
+import { isUuid } from './projects';
 
 const INVITATION_DAYS = 14;
 const rolesField = z.array(z.enum(ROLES)).min(1, 'must hold at least one role').transform((r) => [...new Set(r)]);
@@ -26,6 +27,13 @@ export function hashToken(token: string): string {
 
 function memberRow(row: { userId: string; email: string; name: string; roles: string[] }) {
   return { userId: row.userId, email: row.email, name: row.name, roles: row.roles.filter(isRole) };
+}
+
+/** The `:userId` of a member route; a value that is not a user id names no member (404, not a database error). */
+function memberIdParam(raw: unknown): string {
+  const userId = String(raw);
+  if (!isUuid(userId)) throw new ApiError('not-found', 'No such member in this team');
+  return userId;
 }
 
 async function adminCount(db: DbOrTx, teamId: string, exceptUserId: string): Promise<number> {
@@ -51,7 +59,7 @@ export function teamRoutes(api: ApiRoutes, ctx: AppContext): void {
   api.patch('/team/members/:userId', 'team.manage', async (req, res) => {
     const { roles } = parseBody(memberBody, req.body);
     const teamId = req.membership!.teamId;
-    const userId = String(req.params.userId);
+    const userId = memberIdParam(req.params.userId);
     const member = await db.transaction(async (tx) => {
       const [row] = await tx.select({ userId: users.id, email: users.email, name: users.name, roles: memberships.roles })
         .from(memberships).innerJoin(users, eq(users.id, memberships.userId))
@@ -69,7 +77,7 @@ export function teamRoutes(api: ApiRoutes, ctx: AppContext): void {
 
   api.delete('/team/members/:userId', 'team.manage', async (req, res) => {
     const teamId = req.membership!.teamId;
-    const userId = String(req.params.userId);
+    const userId = memberIdParam(req.params.userId);
     await db.transaction(async (tx) => {
       const [row] = await tx.select({ email: users.email, roles: memberships.roles })
         .from(memberships).innerJoin(users, eq(users.id, memberships.userId))

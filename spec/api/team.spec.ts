@@ -102,6 +102,13 @@ describe('API: team, invitations through the mail sink', () => {
     await admin.patch(`/api/team/members/${reviewer.userId}`, { roles: ['reviewer'] }).expect(200);
   });
 
+  it('answers 404, not a server error, for a member id that is not a user id', async () => {
+    const admin = await t.signInAs('admin');
+    const patched = await admin.patch('/api/team/members/not-a-uuid', { roles: ['owner'] }).expect(404);
+    expect(patched.body.error.code).to.equal('not-found');
+    await admin.delete('/api/team/members/not-a-uuid').expect(404);
+  });
+
   it('GET /api/team gives the current team', async () => {
     const a = await t.signInAs('estimator');
     const res = await a.get('/api/team').expect(200);
