@@ -51,10 +51,8 @@ export class App {
 
   /** Open by default on wide screens outside a project (the Layout canvas wants the width); the user may toggle. */
   protected readonly navOpen = linkedSignal(() => !this.handset() && !this.inProject());
-  protected readonly navItems = computed(() => {
-    this.session.me();
-    return NAV.filter((item) => this.session.can(item.permission));
-  });
+  // session.can() reads the session signal, so the list follows sign-in, sign-out and team switches.
+  protected readonly navItems = computed(() => NAV.filter((item) => this.session.can(item.permission)));
   protected readonly teams = computed(() => this.session.me()?.teams ?? []);
   protected readonly initials = computed(() => {
     const name = this.session.me()?.user.name.trim() ?? '';

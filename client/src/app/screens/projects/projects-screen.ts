@@ -50,9 +50,10 @@ export class ProjectsScreen {
     const me = this.session.me();
     return me !== null && !me.currentTeamId;
   });
-  protected readonly canCreate = computed(() => this.session.me() !== null && this.session.can('project.create'));
-  protected readonly canUpdate = computed(() => this.session.me() !== null && this.session.can('project.update'));
-  protected readonly canDelete = computed(() => this.session.me() !== null && this.session.can('project.delete'));
+  // session.can() reads the session signal, so these recompute when the user or team changes.
+  protected readonly canCreate = computed(() => this.session.can('project.create'));
+  protected readonly canUpdate = computed(() => this.session.can('project.update'));
+  protected readonly canDelete = computed(() => this.session.can('project.delete'));
   protected readonly columns = computed(() =>
     this.canUpdate() || this.canDelete()
       ? ['name', 'siteName', 'units', 'updatedAt', 'actions']
