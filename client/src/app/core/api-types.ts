@@ -62,6 +62,9 @@ export interface ProjectCreate { name: string; siteName?: string; notes?: string
 
 export type ProjectPatch = Partial<Pick<Project, 'name' | 'siteName' | 'notes' | 'units' | 'archived'>>;
 
+/** Minimum password length, as the server enforces it (server/API.md, sign-up and invitation accept). */
+export const MIN_PASSWORD_LENGTH = 10;
+
 export const ROLES: readonly Role[] = ['admin', 'designer', 'reviewer', 'estimator', 'owner'];
 
 /** Label shown for each unit system. */

@@ -10,10 +10,9 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 import { Observable } from 'rxjs';
 import { apiErrorMessage } from '../../core/api-errors';
-import { Me } from '../../core/api-types';
+import { MIN_PASSWORD_LENGTH, Me } from '../../core/api-types';
 import { SessionService } from '../../core/session.service';
 import { TeamService } from '../../core/team.service';
-import { MIN_PASSWORD_LENGTH } from '../sign-up/sign-up-screen';
 
 /** Accepting an invitation link (/join/:token): a new user picks a name and password; a signed-in user just joins. */
 @Component({

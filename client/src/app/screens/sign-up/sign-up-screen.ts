@@ -8,10 +8,8 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 import { apiErrorMessage } from '../../core/api-errors';
+import { MIN_PASSWORD_LENGTH } from '../../core/api-types';
 import { SessionService } from '../../core/session.service';
-
-/** Minimum password length, as the server enforces it (server/API.md). */
-export const MIN_PASSWORD_LENGTH = 10;
 
 @Component({
   selector: 'rn-sign-up-screen',
