@@ -14,7 +14,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableDataSource, MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
-import { Router } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import { catchError, combineLatest, filter, of, switchMap, tap } from 'rxjs';
 import { Project, UNIT_SYSTEM_LABELS } from '../../core/api-types';
 import { ProjectsService } from '../../core/projects.service';
@@ -26,7 +26,7 @@ import { ProjectFormData, ProjectFormDialog } from './project-form-dialog';
 @Component({
   selector: 'rn-projects-screen',
   imports: [
-    DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatFormFieldModule, MatInputModule, MatButtonModule,
+    DatePipe, RouterLink, MatTableModule, MatSortModule, MatPaginatorModule, MatFormFieldModule, MatInputModule, MatButtonModule,
     MatIconModule, MatMenuModule, MatSlideToggleModule, MatProgressBarModule, MatTooltipModule,
   ],
   templateUrl: './projects-screen.html',
