@@ -26,7 +26,10 @@ export function imageType(bytes: Buffer): 'image/png' | 'image/jpeg' | null {
 
 /** One file in field `file`, at most `maxBytes`, kept in memory; 413 above the limit. */
 function singleFile(maxBytes: number): RequestHandler {
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 10 } }).single('file');
+  // Browsers send the filename as raw UTF-8 (WHATWG multipart form-data encoding); multer's default reads it as latin1.
+  const upload = multer({
+    storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: maxBytes, files: 1, fields: 10 },
+  }).single('file');
   return (req, res, next) => {
     upload(req, res, (err: unknown) => {
       if (!err) return next();
@@ -37,6 +40,16 @@ function singleFile(maxBytes: number): RequestHandler {
       next(err);
     });
   };
+}
+
+/**
+ * Content-Disposition for a stored file name (RFC 6266 §4.3): an ASCII `filename` fallback and the
+ * exact name as UTF-8 in `filename*` (RFC 8187). A raw non-Latin-1 name would make Node refuse the header.
+ */
+export function inlineDisposition(filename: string): string {
+  const ascii = filename.replace(/[^\x20-\x7e]/g, '_').replace(/["\\]/g, '_');
+  const encoded = encodeURIComponent(filename).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`);
+  return `inline; filename="${ascii}"; filename*=UTF-8''${encoded}`;
 }
 
 function requireFile(file: Express.Multer.File | undefined): Express.Multer.File {
@@ -99,7 +112,7 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
     const [row] = await db.select().from(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
     if (!row) throw new ApiError('not-found', 'No such file');
     res.setHeader('Content-Type', row.mime);
-    res.setHeader('Content-Disposition', `inline; filename="${row.filename}"`);
+    res.setHeader('Content-Disposition', inlineDisposition(row.filename));
     res.setHeader('X-Content-Type-Options', 'nosniff');
     res.send(row.bytes);
   });

@@ -32,6 +32,15 @@ describe('API: files and survey parsing', () => {
     await designer.get(`${files}/${res.body.id}`).expect(404);
   });
 
+  it('keeps a non-ASCII file name and serves it in Content-Disposition (RFC 6266 filename*)', async () => {
+    const res = await designer.upload(files, { bytes: PNG_BYTES, filename: '水路 plan.png' }, { kind: 'backdrop' }).expect(201);
+    expect(res.body.filename).to.equal('水路 plan.png');
+    const got = await designer.get(`${files}/${res.body.id}`).expect(200);
+    // RFC 8187 percent-encoding of the UTF-8 bytes: 水 = E6 B0 B4, 路 = E8 B7 AF.
+    expect(got.headers['content-disposition']).to.equal(`inline; filename="__ plan.png"; filename*=UTF-8''%E6%B0%B4%E8%B7%AF%20plan.png`);
+    await designer.delete(`${files}/${res.body.id}`).expect(204);
+  });
+
   it('accepts a JPEG by its magic bytes whatever the file is called', async () => {
     const res = await designer.upload(files, { bytes: JPEG_BYTES, filename: 'drone.dat' }, { kind: 'backdrop' }).expect(201);
     expect(res.body.mime).to.equal('image/jpeg');
