@@ -44,7 +44,6 @@ export class ProjectsScreen {
   protected readonly filterText = signal('');
   protected readonly projects = signal<Project[]>([]);
   protected readonly loading = signal(true);
-  private readonly reloads = signal(0);
 
   protected readonly noTeam = computed(() => {
     const me = this.session.me();
@@ -73,11 +72,10 @@ export class ProjectsScreen {
       return typeof value === 'string' ? value.toLowerCase() : String(value);
     };
 
-    // Reload when the team changes (team switcher), the archived toggle flips, or after a change.
+    // Reload when the team changes (team switcher) or the archived toggle flips; edits update the list in place.
     combineLatest([
       toObservable(computed(() => this.session.me()?.currentTeamId ?? null)),
       toObservable(this.showArchived),
-      toObservable(this.reloads),
     ])
       .pipe(
         tap(([teamId]) => {
@@ -157,10 +155,6 @@ export class ProjectsScreen {
         this.projects.update((list) => list.filter((p) => p.id !== project.id));
         this.snackBar.open(`“${project.name}” deleted.`, undefined, { duration: 4000 });
       });
-  }
-
-  protected refresh(): void {
-    this.reloads.update((n) => n + 1);
   }
 
   private replace(saved: Project): void {
