@@ -10,7 +10,7 @@ declare global {
     // Passport's req.user
     interface User extends SessionUser {}
     interface Request {
-      /** Membership of the session's current team (server/auth/current-member.ts). */
+      /** Membership of the session's current team (currentMember in server/auth/passport.ts). */
       membership?: CurrentMembership;
     }
   }

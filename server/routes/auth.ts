@@ -1,5 +1,5 @@
 /** /api/auth/*: sign-up, sign-in (rate-limited), sign-out, me, switching team. */
-import type { Request, RequestHandler } from 'express';
+import type { Request } from 'express';
 import { eq } from 'drizzle-orm';
 import rateLimit, { ipKeyGenerator } from 'express-rate-limit';
 import type passport from 'passport';
@@ -7,7 +7,7 @@ import { z } from 'zod';
 import { memberships, teams, users } from '../../drizzle/schema';
 import type { ApiRoutes } from '../api-routes';
 import { audit } from '../audit';
-import { loadMe, teamsOf } from '../auth/me';
+import { buildMe, loadMe, teamsOf } from '../auth/me';
 import { normaliseEmail } from '../auth/passport';
 import { DrizzleRateLimitStore } from '../auth/rate-limit-store';
 import { hashPassword } from '../auth/passwords';
@@ -49,10 +49,6 @@ export function authRoutes(api: ApiRoutes, ctx: AppContext, auth: passport.Authe
     },
   });
 
-  const sendMe: RequestHandler = async (req, res) => {
-    res.json(await loadMe(db, req.user!, req.session.teamId));
-  };
-
   api.post('/auth/signup', 'public', async (req, res) => {
     const body = parseBody(signupBody, req.body);
     const email = normaliseEmail(body.email);
@@ -79,8 +75,9 @@ export function authRoutes(api: ApiRoutes, ctx: AppContext, auth: passport.Authe
       if (!user) return next(new ApiError('unauthenticated', 'E-mail or password is wrong'));
       signIn(req, user).then(async () => {
         const list = await teamsOf(db, user.id);
-        req.session.teamId = list[0]?.id;
-        res.json(await loadMe(db, user, req.session.teamId));
+        const current = list[0] ?? null;
+        req.session.teamId = current?.id;
+        res.json(buildMe(user, list, current));
       }, next);
     })(req, res, next);
   });
@@ -89,13 +86,16 @@ export function authRoutes(api: ApiRoutes, ctx: AppContext, auth: passport.Authe
     req.logout((err) => (err ? next(err) : res.status(204).end()));
   });
 
-  api.get('/auth/me', 'signed-in', sendMe);
+  api.get('/auth/me', 'signed-in', async (req, res) => {
+    res.json(await loadMe(db, req.user!, req.session.teamId));
+  });
 
-  api.post('/auth/current-team', 'signed-in', async (req, res, next) => {
+  api.post('/auth/current-team', 'signed-in', async (req, res) => {
     const { teamId } = parseBody(currentTeamBody, req.body);
     const list = await teamsOf(db, req.user!.id);
-    if (!list.some((t) => t.id === teamId)) throw new ApiError('not-found', 'No such team among yours');
+    const chosen = list.find((t) => t.id === teamId);
+    if (!chosen) throw new ApiError('not-found', 'No such team among yours');
     req.session.teamId = teamId;
-    sendMe(req, res, next);
+    res.json(buildMe(req.user!, list, chosen));
   });
 }
