@@ -8,7 +8,7 @@ import type { ApiRoutes } from '../api-routes';
 import { audit } from '../audit';
 import type { AppContext } from '../context';
 import { ApiError, parseBody } from '../errors';
-import { detectSurveyFormat, parseSurvey, SurveyError } from '../survey';
+import { detectSurveyFormat, parseSurvey, SurveyError, type SurveyFormat } from '../survey';
 import { isUuid, projectOfTeam } from './projects';
 
 const MB = 1024 * 1024;
@@ -57,6 +57,13 @@ function requireFile(file: Express.Multer.File | undefined): Express.Multer.File
   return file;
 }
 
+/** CSV or GPX by content (survey/index.ts), or 415 for binary content. */
+function surveyFormatOf(file: Express.Multer.File): SurveyFormat {
+  const format = detectSurveyFormat(file.buffer);
+  if (!format) throw new ApiError('unsupported-type', `A survey must be a CSV or GPX text file; "${file.originalname}" is binary`);
+  return format;
+}
+
 function fileJson(row: { id: string; kind: string; filename: string; mime: string; size: number; createdAt: Date; createdByName: string | null }) {
   return {
     id: row.id, kind: row.kind, filename: row.filename, mime: row.mime, size: row.size, createdAt: row.createdAt.toISOString(),
@@ -90,9 +97,7 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
       mime = type;
     } else {
       if (file.size > SURVEY_MAX_BYTES) throw new ApiError('too-large', `A survey file must be at most ${SURVEY_MAX_BYTES / MB} MB`);
-      const format = detectSurveyFormat(file.buffer);
-      if (!format) throw new ApiError('unsupported-type', `A survey must be a CSV or GPX text file; "${file.originalname}" is binary`);
-      mime = format === 'gpx' ? 'application/gpx+xml' : 'text/csv';
+      mime = surveyFormatOf(file) === 'gpx' ? 'application/gpx+xml' : 'text/csv';
     }
     const filename = file.originalname.replace(/[\\/\r\n"]/g, '_').slice(0, 200) || 'upload';
     const row = await db.transaction(async (tx) => {
@@ -132,8 +137,7 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
   api.post('/projects/:id/survey/parse', 'files.read', singleFile(SURVEY_MAX_BYTES), async (req, res) => {
     await projectOfTeam(db, req);
     const file = requireFile(req.file);
-    const format = detectSurveyFormat(file.buffer);
-    if (!format) throw new ApiError('unsupported-type', `A survey must be a CSV or GPX text file; "${file.originalname}" is binary`);
+    const format = surveyFormatOf(file);
     try {
       res.json(parseSurvey(file.buffer.toString('utf8'), format));
     } catch (err) {
