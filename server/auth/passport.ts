@@ -20,7 +20,7 @@ export function createPassport(db: Db, bcryptCost: number): passport.Authenticat
   const auth = new passport.Authenticator();
   auth.use(new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
     db.select().from(users).where(eq(users.email, normaliseEmail(email))).then(async ([row]) => {
-      const ok = await checkPassword(password, row?.passwordHash ?? dummyHash(bcryptCost));
+      const ok = await checkPassword(password, row?.passwordHash ?? await dummyHash(bcryptCost));
       done(null, row && ok ? { id: row.id, email: row.email, name: row.name } : false);
     }, done);
   }));

@@ -12,13 +12,16 @@ export function checkPassword(password: string, hash: string): Promise<boolean> 
   return bcrypt.compare(password, hash);
 }
 
-const dummyHashes = new Map<number, string>();
+const dummyHashes = new Map<number, Promise<string>>();
 
-/** Compared against when the e-mail is unknown, so a miss costs as much as a wrong password. */
-export function dummyHash(cost: number): string {
+/**
+ * Compared against when the e-mail is unknown, so a miss costs as much as a wrong password.
+ * Made once per cost, asynchronously, so the first miss does not block the event loop.
+ */
+export function dummyHash(cost: number): Promise<string> {
   let hash = dummyHashes.get(cost);
   if (!hash) {
-    hash = bcrypt.hashSync('not-a-real-password', cost);
+    hash = bcrypt.hash('not-a-real-password', cost);
     dummyHashes.set(cost, hash);
   }
   return hash;
