@@ -3,7 +3,7 @@
  * the "Ridgeback Water Co-op" team with one user per role and the "Hillside smallholding"
  * project, plus a second team ("Cold Creek Growers") so cross-team isolation can be shown.
  */
-import { eq } from 'drizzle-orm';
+import { and, asc, eq } from 'drizzle-orm';
 import { hillSmallholding } from '../engine/examples/hill-smallholding';
 import { memberships, projects, teams, users } from '../drizzle/schema';
 import { audit } from './audit';
@@ -65,9 +65,15 @@ export async function seed(db: Db, { bcryptCost }: { bcryptCost: number }): Prom
 }
 
 async function findSeeded(db: Db): Promise<Omit<SeedResult, 'seeded'>> {
-  const [team] = await db.select({ id: teams.id }).from(teams).where(eq(teams.name, DEMO_TEAM));
-  const [project] = await db.select({ id: projects.id }).from(projects).where(eq(projects.name, DEMO_PROJECT));
-  const [otherTeam] = await db.select({ id: teams.id }).from(teams).where(eq(teams.name, OTHER_TEAM));
-  const [otherProject] = await db.select({ id: projects.id }).from(projects).where(eq(projects.name, OTHER_PROJECT));
-  return { demoTeamId: team?.id ?? '', demoProjectId: project?.id ?? '', otherTeamId: otherTeam?.id ?? '', otherProjectId: otherProject?.id ?? '' };
+  const demo = await findTeamProject(db, DEMO_TEAM, DEMO_PROJECT);
+  const other = await findTeamProject(db, OTHER_TEAM, OTHER_PROJECT);
+  return { demoTeamId: demo.teamId, demoProjectId: demo.projectId, otherTeamId: other.teamId, otherProjectId: other.projectId };
+}
+
+/** The seeded team and its project, oldest first; a user's team or project of the same name elsewhere is not taken. */
+async function findTeamProject(db: Db, teamName: string, projectName: string): Promise<{ teamId: string; projectId: string }> {
+  const [row] = await db.select({ teamId: teams.id, projectId: projects.id })
+    .from(teams).leftJoin(projects, and(eq(projects.teamId, teams.id), eq(projects.name, projectName)))
+    .where(eq(teams.name, teamName)).orderBy(asc(teams.createdAt), asc(projects.createdAt)).limit(1);
+  return { teamId: row?.teamId ?? '', projectId: row?.projectId ?? '' };
 }

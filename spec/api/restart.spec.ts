@@ -15,12 +15,15 @@ describe('API: data survives a restart on the same PGlite data dir', () => {
     const designer = await first.signInAs('designer');
     const project = await designer.post('/api/projects', { name: 'Kept across restarts', units: 'si' }).expect(201);
     await designer.put(`/api/projects/${project.body.id}/network`, { version: 0, document: SMALL_NETWORK }).expect(200);
+    // Another team's project with the demo project's name must not be taken for the seeded one.
+    await (await first.signInAs('other')).post('/api/projects', { name: 'Hillside smallholding', units: 'si' }).expect(201);
     await first.close();
 
     const second = await startTestApp({ dataDir: dir });
     try {
       expect(second.seeded!.seeded).to.equal(false);
       expect(second.seeded!.demoProjectId).to.equal(first.seeded!.demoProjectId);
+      expect(second.seeded!.otherProjectId).to.equal(first.seeded!.otherProjectId);
       // The same browser session still works after the restart: sessions live in the database.
       const sameSession = await supertest(second.app).get('/api/auth/me').set('Cookie', designer.sessionCookie).expect(200);
       expect(sameSession.body.user.email).to.equal('designer@runnel.test');
