@@ -2,7 +2,7 @@
  * Editing on the Layout screen end to end, as its users meet it: real server (fresh PGlite, demo
  * seed), built client, Chromium driven with the mouse and keyboard. Placing from the palette and
  * drawing pipes, undo and redo, units, autosave (offline and back) and a save conflict in two
- * windows. The editor's test hook (`window.__runnelEditor`, see client/src/app/layout/README.md)
+ * windows. The editor's test hook (`window.__runnelEditor`, see client/src/app/screens/layout/README.md)
  * is only read; every change goes through the screen. Server-side checks use the HTTP API with
  * the page's own session cookie and CSRF token (server/API.md).
  */

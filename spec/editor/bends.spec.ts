@@ -4,8 +4,8 @@
  * is one undo step, and a drawn pipe's length follows its new shape.
  */
 import { expect } from 'chai';
-import { Editor } from '../../client/src/app/layout/editor/editor';
-import type { PointerInput } from '../../client/src/app/layout/tools/tool';
+import { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import type { PointerInput } from '../../client/src/app/screens/layout/tools/tool';
 import type { PipeLink } from '../../engine/network-document';
 
 function at(ed: Editor, x: number, y: number): PointerInput {

@@ -1,7 +1,7 @@
 /** The save-conflict summary: what each side changed, compared element by element. */
 import { expect } from 'chai';
 import type { NetworkDocument, PipeLink, TeeNode } from '../../engine/network-document';
-import { conflictSummary, describeChanges, diffDocuments } from '../../client/src/app/layout/editor/document-diff';
+import { conflictSummary, describeChanges, diffDocuments } from '../../client/src/app/screens/layout/editor/document-diff';
 
 function base(): NetworkDocument {
   return {

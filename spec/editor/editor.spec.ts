@@ -3,8 +3,8 @@
  * state and the document. No browser, no Angular, no Konva.
  */
 import { expect } from 'chai';
-import { Editor } from '../../client/src/app/layout/editor/editor';
-import type { PointerInput } from '../../client/src/app/layout/tools/tool';
+import { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import type { PointerInput } from '../../client/src/app/screens/layout/tools/tool';
 import type { PipeLink, TankNode } from '../../engine/network-document';
 
 /** A pointer event at a world point (the editor's viewport gives the screen point). */
@@ -252,7 +252,7 @@ describe('Layout editor: change notification', () => {
 
 describe('Layout editor: lengths from elsewhere', () => {
   it('marks a loaded pipe whose length differs from its drawing as typed, and leaves matching ones alone', async () => {
-    const { markTypedLengths } = await import('../../client/src/app/layout/editor/document-store');
+    const { markTypedLengths } = await import('../../client/src/app/screens/layout/editor/document-store');
     const ed = editor();
     ed.placeNode('tank', { x: 0, y: 0 });
     ed.placeNode('tee', { x: 30, y: 40 });

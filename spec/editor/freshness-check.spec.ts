@@ -1,8 +1,8 @@
 /** A window whose saved version was replaced elsewhere: when it checks, and what it does. */
 import { expect } from 'chai';
-import { emptyDocument } from '../../client/src/app/layout/editor/document-store';
-import { decideOnServerCopy, FreshnessCheck } from '../../client/src/app/layout/editor/freshness-check';
-import { SaveController, SaveStatus, ServerCopy } from '../../client/src/app/layout/editor/save-controller';
+import { emptyDocument } from '../../client/src/app/screens/layout/editor/document-store';
+import { decideOnServerCopy, FreshnessCheck } from '../../client/src/app/screens/layout/editor/freshness-check';
+import { SaveController, SaveStatus, ServerCopy } from '../../client/src/app/screens/layout/editor/save-controller';
 import { ManualTimers } from './manual-timers';
 
 const flush = () => new Promise<void>((r) => setImmediate(r));

@@ -1,11 +1,11 @@
 /** Pure helpers of the Layout editor: colour scale, survey maths, GeoJSON export, kinds. */
 import { expect } from 'chai';
-import { legendStops, luminance, marginColour, rampColour } from '../../client/src/app/layout/editor/colour-scale';
-import { Editor } from '../../client/src/app/layout/editor/editor';
-import { toGeoJson } from '../../client/src/app/layout/editor/geojson-export';
-import { niceStep, projectOnPolyline } from '../../client/src/app/layout/editor/geometry';
-import { nearestSurveyPoint, profileAlong, toLocalPoints } from '../../client/src/app/layout/editor/survey';
-import { LINK_KINDS, NODE_KINDS, nextId, patchForPath, readPath } from '../../client/src/app/layout/kinds';
+import { legendStops, luminance, marginColour, rampColour } from '../../client/src/app/screens/layout/editor/colour-scale';
+import { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import { toGeoJson } from '../../client/src/app/screens/layout/editor/geojson-export';
+import { niceStep, projectOnPolyline } from '../../client/src/app/screens/layout/editor/geometry';
+import { nearestSurveyPoint, profileAlong, toLocalPoints } from '../../client/src/app/screens/layout/editor/survey';
+import { LINK_KINDS, NODE_KINDS, nextId, patchForPath, readPath } from '../../client/src/app/screens/layout/kinds';
 
 describe('Layout editor: colour scale', () => {
   it('lightness rises monotonically along the ramp (readable in greyscale and for colour-vision deficiency)', () => {
@@ -99,7 +99,7 @@ describe('Layout editor: export and kinds', () => {
 
 describe('Layout editor: pump daylight preset', () => {
   it('has 24 hourly factors in 0..1, zero through the night, summing to 8.7 full-flow hours', async () => {
-    const { DAYLIGHT_SCHEDULE } = await import('../../client/src/app/layout/kinds/pump-kind');
+    const { DAYLIGHT_SCHEDULE } = await import('../../client/src/app/screens/layout/kinds/pump-kind');
     expect(DAYLIGHT_SCHEDULE).to.have.length(24);
     expect(DAYLIGHT_SCHEDULE.every((f) => f >= 0 && f <= 1)).to.equal(true);
     expect([0, 1, 2, 3, 4, 5, 20, 21, 22, 23].map((h) => DAYLIGHT_SCHEDULE[h])).to.deep.equal(Array(10).fill(0));

@@ -1,8 +1,8 @@
 /** New elements' defaults: round numbers in the project's unit system, stored SI. */
 import { expect } from 'chai';
 import { formatQuantity, UnitSystem } from '../../engine/units';
-import { Editor } from '../../client/src/app/layout/editor/editor';
-import { LINK_KINDS, NODE_KINDS } from '../../client/src/app/layout/kinds';
+import { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import { LINK_KINDS, NODE_KINDS } from '../../client/src/app/screens/layout/kinds';
 
 describe('Layout editor: defaults of new elements per unit system', () => {
   const cases: { units: UnitSystem; shown: Record<string, string> }[] = [

@@ -6,11 +6,11 @@
  */
 import { expect } from 'chai';
 import fc from 'fast-check';
-import { Editor } from '../../client/src/app/layout/editor/editor';
+import { Editor } from '../../client/src/app/screens/layout/editor/editor';
 import {
   around, besideLine, Box, BoxGrid, boxesIntersect, LabelRequest, placeLabels, symbolBox,
-} from '../../client/src/app/layout/editor/label-placement';
-import { MIN_SYMBOL_SCALE, nearestDistances, symbolScale } from '../../client/src/app/layout/editor/symbol-size';
+} from '../../client/src/app/screens/layout/editor/label-placement';
+import { MIN_SYMBOL_SCALE, nearestDistances, symbolScale } from '../../client/src/app/screens/layout/editor/symbol-size';
 import { hillSmallholding } from '../../engine/examples/hill-smallholding';
 import type { NetworkDocument } from '../../engine/network-document';
 

@@ -1,4 +1,4 @@
-import type { Timers } from '../../client/src/app/layout/editor/timers';
+import type { Timers } from '../../client/src/app/screens/layout/editor/timers';
 
 /** Timers stepped by hand: `advance(ms)` runs what falls due, in order. */
 export class ManualTimers implements Timers {

@@ -1,6 +1,6 @@
 /** Engine warnings as the Layout screen words them, in the project's units. */
 import { expect } from 'chai';
-import { documentWarnings, resultWarnings } from '../../client/src/app/layout/editor/result-checks';
+import { documentWarnings, resultWarnings } from '../../client/src/app/screens/layout/editor/result-checks';
 import type { SteadyResult } from '../../engine/index';
 import type { NetworkDocument } from '../../engine/network-document';
 

@@ -1,7 +1,7 @@
 /** Autosave and conflict handling of the Layout editor, with hand-stepped timers. */
 import { expect } from 'chai';
-import { emptyDocument } from '../../client/src/app/layout/editor/document-store';
-import { PutOutcome, SaveController, SaveStatus } from '../../client/src/app/layout/editor/save-controller';
+import { emptyDocument } from '../../client/src/app/screens/layout/editor/document-store';
+import { PutOutcome, SaveController, SaveStatus } from '../../client/src/app/screens/layout/editor/save-controller';
 import type { NetworkDocument } from '../../engine/network-document';
 import { ManualTimers } from './manual-timers';
 

@@ -1,6 +1,6 @@
 /** Debounced latest-wins solving for the Layout editor's live results. */
 import { expect } from 'chai';
-import { SolveScheduler } from '../../client/src/app/layout/editor/solve-scheduler';
+import { SolveScheduler } from '../../client/src/app/screens/layout/editor/solve-scheduler';
 import { ManualTimers } from './manual-timers';
 
 describe('Layout editor: solve scheduling', () => {

@@ -45,7 +45,7 @@ export const routes: Routes = [
       {
         path: 'layout',
         title: 'Layout · Runnel',
-        loadComponent: () => import('./layout/layout-screen').then((m) => m.LayoutScreen),
+        loadComponent: () => import('./screens/layout/layout-screen').then((m) => m.LayoutScreen),
       },
       placeholder('budget', 'Water budget', 'Adds up each use’s daily and peak need and checks that storage and fill keep the tanks from running dry overnight or through cloudy days.'),
       placeholder('profile', 'Profile', 'Draws the ground, the pipe and the hydraulic grade line along a chosen route so high points and low-point pressures stand out.'),

@@ -1,0 +1,86 @@
+import type { NetworkDocument, NetworkLink, NetworkNode } from '../../../../../../engine/network-document';
+import { fromDisplay, Quantity, UnitSystem } from '../../../../../../engine/units';
+
+/**
+ * A symbol is drawn from these plain shape descriptions (CSS pixels around the element's centre,
+ * screen y down), so kinds stay free of Konva and testable headlessly. The canvas view turns
+ * them into Konva shapes.
+ */
+export type ShapeSpec =
+  | { t: 'circle'; x?: number; y?: number; r: number; fill?: string; stroke?: string; sw?: number }
+  | { t: 'rect'; x: number; y: number; w: number; h: number; fill?: string; stroke?: string; sw?: number; corner?: number }
+  | { t: 'poly'; points: number[]; closed?: boolean; fill?: string; stroke?: string; sw?: number };
+
+/** One row of the properties panel. `key` may be a dotted path ('demand_model.type'). */
+export interface FieldSpec {
+  key: string;
+  label: string;
+  type: 'text' | 'number' | 'select' | 'checkbox' | 'pipe-size' | 'schedule' | 'length';
+  /** Display conversion through engine/units.ts; absent means a plain number. */
+  quantity?: Quantity;
+  /** Plain-number unit label (e.g. "K"). */
+  suffix?: string;
+  options?: { value: string; label: string }[];
+  /** Shown for a select when the record lacks the field (the engine's default). */
+  fallback?: string;
+  /** Bounds in SI. */
+  min?: number;
+  max?: number;
+  required?: boolean;
+  /** data-testid of the input: prop-<slug>. */
+  testid: string;
+  hint?: string;
+  when?: (element: NetworkNode | NetworkLink) => boolean;
+}
+
+export interface NodeKindDef<N extends NetworkNode = NetworkNode> {
+  kind: N['kind'];
+  label: string;
+  /** Id prefix: T → T1, T2… */
+  prefix: string;
+  /** Hit radius around the centre, CSS px. */
+  hitRadiusPx: number;
+  /** A new record; numbers from the kind's `defaults` for `units` (round in that system), stored SI. */
+  create(id: string, x_m: number, y_m: number, units?: UnitSystem): N;
+  symbol(node: N): ShapeSpec[];
+  fields: FieldSpec[];
+  /** Messages for combinations of fields that are each valid alone. */
+  check?(node: N, doc: NetworkDocument): string[];
+}
+
+export interface LinkKindDef<L extends NetworkLink = NetworkLink> {
+  kind: L['kind'];
+  label: string;
+  prefix: string;
+  create(id: string, from: string, to: string, vertices: [number, number][], units?: UnitSystem): L;
+  /** Stroke of the line. */
+  stroke: { colour: string; widthPx: number; dash?: number[] };
+  /** Symbol drawn at the middle of the line, rotated along it (pointing from → to); empty for none. */
+  midSymbol(link: L): ShapeSpec[];
+  fields: FieldSpec[];
+  check?(link: L, doc: NetworkDocument): string[];
+}
+
+export const INK = '#24323d';
+export const PAPER = '#ffffff';
+export const WATER = '#cfe6f3';
+
+export const nameField: FieldSpec = { key: 'name', label: 'Name', type: 'text', testid: 'prop-name' };
+export const elevationField: FieldSpec = {
+  key: 'elevation_m', label: 'Elevation', type: 'number', quantity: 'elevation', required: true, min: -500, max: 9000,
+  testid: 'prop-elevation',
+};
+export const notesField: FieldSpec = { key: 'notes', label: 'Notes', type: 'text', testid: 'prop-notes' };
+
+/**
+ * Default values of a kind's new records, written as the round numbers a designer would type in
+ * each unit system (10 psi, 70 kPa), with the quantity that converts them to SI.
+ */
+export type DefaultTable<F extends string> = Record<UnitSystem, Record<F, [Quantity, number]>>;
+
+/** The SI values of a default table for `units`. */
+export function siDefaults<F extends string>(table: DefaultTable<F>, units: UnitSystem): Record<F, number> {
+  const out = {} as Record<F, number>;
+  for (const [key, [q, shown]] of Object.entries(table[units]) as [F, [Quantity, number]][]) out[key] = fromDisplay(q, shown, units);
+  return out;
+}

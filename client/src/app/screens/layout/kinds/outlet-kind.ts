@@ -1,0 +1,104 @@
+import type { OutletNode, OutletType } from '../../../../../../engine/network-document';
+import { DefaultTable, elevationField, INK, nameField, NodeKindDef, notesField, PAPER, ShapeSpec, siDefaults, WATER } from './kind-types';
+
+/**
+ * A new outlet: a garden hose bib's flow and a minimum pressure of about 7 m of water (common
+ * trade practice for a hose bib, from memory), as round numbers in each system.
+ */
+export const OUTLET_DEFAULTS: DefaultTable<'demand_m3s' | 'min_pressure_m'> = {
+  us: { demand_m3s: ['flow', 5], min_pressure_m: ['pressure', 10] },
+  si: { demand_m3s: ['flow', 0.3], min_pressure_m: ['pressure', 70] },
+};
+
+const OUTLET_TYPES: { value: OutletType; label: string }[] = [
+  { value: 'hose-bib', label: 'Hose bib' },
+  { value: 'trough', label: 'Stock trough' },
+  { value: 'drip-zone', label: 'Drip zone' },
+  { value: 'sprinkler', label: 'Sprinkler' },
+  { value: 'house', label: 'House' },
+  { value: 'other', label: 'Other' },
+];
+
+/** One glyph per outlet type, all about 24 px across, white body with dark outline. */
+function glyph(type: OutletType): ShapeSpec[] {
+  switch (type) {
+    case 'hose-bib': // a downward spout
+      return [
+        { t: 'poly', points: [-10, -9, 10, -9, 0, 10], closed: true, fill: PAPER, stroke: INK, sw: 2 },
+        { t: 'circle', y: -3, r: 2.5, fill: INK },
+      ];
+    case 'trough': // a long basin with water
+      return [
+        { t: 'poly', points: [-13, -6, 13, -6, 9, 7, -9, 7], closed: true, fill: PAPER, stroke: INK, sw: 2 },
+        { t: 'poly', points: [-11, -2, 11, -2, 8.5, 5, -8.5, 5], closed: true, fill: WATER },
+      ];
+    case 'drip-zone': // a square bed with emitter dots
+      return [
+        { t: 'rect', x: -10, y: -10, w: 20, h: 20, fill: PAPER, stroke: INK, sw: 2, corner: 2 },
+        ...[-5, 0, 5].flatMap((x) => [-5, 5].map((y) => ({ t: 'circle' as const, x, y, r: 1.6, fill: INK }))),
+      ];
+    case 'sprinkler': // a ring with spray spokes
+      return [
+        { t: 'circle', r: 10, fill: PAPER, stroke: INK, sw: 2 },
+        { t: 'poly', points: [-6, -6, 6, 6], stroke: INK, sw: 1.5 },
+        { t: 'poly', points: [-6, 6, 6, -6], stroke: INK, sw: 1.5 },
+        { t: 'circle', r: 2.5, fill: INK },
+      ];
+    case 'house': // a gabled outline
+      return [{ t: 'poly', points: [-10, 10, -10, -2, 0, -11, 10, -2, 10, 10], closed: true, fill: PAPER, stroke: INK, sw: 2 }];
+    default:
+      return [{ t: 'circle', r: 9, fill: PAPER, stroke: INK, sw: 2 }, { t: 'circle', r: 3, fill: INK }];
+  }
+}
+
+/** Outlet: where water is used; the glyph shows its type. */
+export const outletKind: NodeKindDef<OutletNode> = {
+  kind: 'outlet',
+  label: 'Outlet',
+  prefix: 'O',
+  hitRadiusPx: 14,
+  create: (id, x_m, y_m, units = 'si') => ({
+    id, kind: 'outlet', name: id, elevation_m: 0, ...siDefaults(OUTLET_DEFAULTS, units), outlet_type: 'hose-bib',
+    demand_model: { type: 'fixed' }, x_m, y_m,
+  }),
+  symbol: (o) => glyph(o.outlet_type ?? 'other'),
+  fields: [
+    nameField,
+    elevationField,
+    { key: 'outlet_type', label: 'Outlet type', type: 'select', options: OUTLET_TYPES, fallback: 'other', testid: 'prop-outlet-type' },
+    { key: 'demand_m3s', label: 'Design flow', type: 'number', quantity: 'flow', required: true, min: 0, max: 1, testid: 'prop-demand' },
+    { key: 'min_pressure_m', label: 'Minimum pressure', type: 'number', quantity: 'pressure', min: 0, max: 200, testid: 'prop-min-pressure' },
+    {
+      key: 'demand_model.type', label: 'Demand model', type: 'select', testid: 'prop-demand-model', fallback: 'fixed',
+      options: [
+        { value: 'fixed', label: 'Fixed flow' },
+        { value: 'pressure-dependent', label: 'Falls off with pressure' },
+        { value: 'emitter', label: 'Emitter (q = k·pˣ)' },
+      ],
+    },
+    {
+      key: 'demand_model.required_pressure_m', label: 'Pressure for full flow', type: 'number', quantity: 'pressure', min: 0, max: 200,
+      testid: 'prop-required-pressure', when: (o) => (o as OutletNode).demand_model?.type === 'pressure-dependent',
+    },
+    {
+      key: 'demand_model.k', label: 'Emitter coefficient k', type: 'number', min: 0, max: 1, testid: 'prop-emitter-k',
+      hint: 'm³/s per m^x of pressure', when: (o) => (o as OutletNode).demand_model?.type === 'emitter',
+    },
+    {
+      key: 'demand_model.exponent', label: 'Emitter exponent', type: 'number', min: 0, max: 2, testid: 'prop-emitter-exponent',
+      when: (o) => (o as OutletNode).demand_model?.type === 'emitter',
+    },
+    {
+      key: 'float_valve', label: 'Float valve (stops when full)', type: 'checkbox', testid: 'prop-float-valve',
+      when: (o) => (o as OutletNode).outlet_type === 'trough',
+    },
+    notesField,
+  ],
+};
+
+/** Defaults used when the demand model type changes in the panel (SI). */
+export function defaultDemandModel(type: string, outlet: OutletNode): OutletNode['demand_model'] {
+  if (type === 'pressure-dependent') return { type, required_pressure_m: Math.max(outlet.min_pressure_m ?? 7, 1) * 1.5 };
+  if (type === 'emitter') return { type, k: outlet.demand_m3s / Math.sqrt(Math.max(outlet.min_pressure_m ?? 7, 1)), exponent: 0.5 };
+  return { type: 'fixed' };
+}

@@ -1,0 +1,231 @@
+import { ChangeDetectionStrategy, Component, computed, DestroyRef, effect, inject, input, output } from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { AbstractControl, FormControl, FormGroup, ReactiveFormsModule, ValidationErrors, ValidatorFn } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import type { NetworkDocument, NetworkLink, NetworkNode, OutletNode } from '../../../../../engine/network-document';
+import { formatQuantity, fromDisplay, toDisplay, unitLabel, UnitSystem } from '../../../../../engine/units';
+import { lengthSource } from './editor/document-store';
+import { FieldSpec, fieldsFor, isNodeKind, LINK_KINDS, NODE_KINDS, patchForPath, readPath } from './kinds';
+import { defaultDemandModel } from './kinds/outlet-kind';
+import { DAYLIGHT_SCHEDULE } from './kinds/pump-kind';
+import { catalogueSeries, catalogueSizes } from './pipe-catalogue';
+
+/** A change the panel asks the screen to apply (one undo step each). */
+export interface ElementPatch { id: string; patch: Record<string, unknown> }
+
+/**
+ * Properties of the selected element, built from its kind's field list. Values are shown and
+ * typed in the project's units and stored SI; a field commits on blur (or on change for
+ * selects and checkboxes), so each edit is one undo step.
+ */
+@Component({
+  selector: 'rn-properties-panel',
+  imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatCheckboxModule, MatButtonModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './properties-panel.html',
+  styleUrl: './properties-panel.scss',
+})
+export class PropertiesPanel {
+  readonly element = input<NetworkNode | NetworkLink | null>(null);
+  readonly selectionCount = input(0);
+  readonly doc = input.required<NetworkDocument>();
+  readonly units = input<UnitSystem>('us');
+  readonly readOnly = input(false);
+  readonly surveyAvailable = input(false);
+  readonly patch = output<ElementPatch>();
+  readonly snapElevation = output<string>();
+  readonly profileFromSurvey = output<string>();
+  readonly deleteSelection = output<void>();
+
+  private readonly destroyRef = inject(DestroyRef);
+  form = new FormGroup<Record<string, FormControl<unknown>>>({});
+  private formFor = '';
+
+  readonly fields = computed(() => {
+    const el = this.element();
+    return el ? fieldsFor(el) : [];
+  });
+  readonly kindLabel = computed(() => {
+    const el = this.element();
+    if (!el) return '';
+    return isNodeKind(el.kind) ? NODE_KINDS[el.kind as NetworkNode['kind']].label : LINK_KINDS[el.kind as NetworkLink['kind']].label;
+  });
+  readonly checks = computed(() => {
+    const el = this.element();
+    if (!el) return [];
+    const def = isNodeKind(el.kind) ? NODE_KINDS[el.kind as NetworkNode['kind']] : LINK_KINDS[el.kind as NetworkLink['kind']];
+    return (def.check as ((e: unknown, d: NetworkDocument) => string[]) | undefined)?.(el, this.doc()) ?? [];
+  });
+  readonly series = computed(() => catalogueSeries());
+  readonly sizes = computed(() => {
+    const el = this.element();
+    return el?.kind === 'pipe' && el.series ? catalogueSizes(el.series, this.doc().headloss, this.units()) : [];
+  });
+  readonly isPipe = computed(() => this.element()?.kind === 'pipe');
+  readonly lengthFrom = computed(() => {
+    const el = this.element();
+    return el?.kind === 'pipe' ? lengthSource(el) : 'drawing';
+  });
+  readonly schedule = computed(() => {
+    const el = this.element();
+    return el?.kind === 'pump' ? (el.schedule ?? []) : [];
+  });
+
+  constructor() {
+    // Rebuild the form when the element or its visible fields change; otherwise refresh values
+    // (undo, drag) without emitting.
+    effect(() => {
+      const el = this.element();
+      const fields = this.fields();
+      const units = this.units();
+      const ro = this.readOnly();
+      const key = el ? `${el.id}|${units}|${ro}|${fields.map((f) => f.key).join(',')}` : '';
+      if (key !== this.formFor) {
+        this.formFor = key;
+        this.buildForm(el, fields, units, ro);
+      } else if (el) {
+        for (const f of fields) this.form.controls[controlName(f)]?.setValue(this.shown(el, f, units), { emitEvent: false });
+      }
+    });
+  }
+
+  unit(f: FieldSpec): string {
+    return f.quantity ? unitLabel(f.quantity, this.units()) : (f.suffix ?? '');
+  }
+
+  errorText(f: FieldSpec): string {
+    const c = this.form.controls[controlName(f)];
+    if (!c?.errors) return '';
+    if (c.errors['required']) return `${f.label} is required`;
+    if (c.errors['number']) return 'Enter a number';
+    if (c.errors['min']) return `At least ${c.errors['min']}`;
+    if (c.errors['max']) return `At most ${c.errors['max']}`;
+    if (c.errors['schedule']) return c.errors['schedule'] as string;
+    return 'Invalid value';
+  }
+
+  private shown(el: NetworkNode | NetworkLink, f: FieldSpec, units: UnitSystem): unknown {
+    const v = readPath(el, f.key);
+    if (f.type === 'checkbox') return f.key === 'open' ? v !== false : v === true;
+    if (f.type === 'number' || f.type === 'length') {
+      if (typeof v !== 'number') return '';
+      if (!f.quantity) return Number(v.toPrecision(6));
+      // One decimal more than the unit's usual display precision (engine/units.ts decides it).
+      const usual = formatQuantity(f.quantity, v, units).split(' ')[0].split('.')[1]?.length ?? 0;
+      return Number(toDisplay(f.quantity, v, units).toFixed(usual + 1));
+    }
+    if (f.type === 'schedule') return Array.isArray(v) ? v.join(', ') : '';
+    return v ?? f.fallback ?? '';
+  }
+
+  private buildForm(el: NetworkNode | NetworkLink | null, fields: FieldSpec[], units: UnitSystem, ro: boolean): void {
+    const controls: Record<string, FormControl<unknown>> = {};
+    if (el) {
+      for (const f of fields) {
+        if (f.type === 'pipe-size') continue;
+        const text = f.type === 'text' || f.type === 'number' || f.type === 'length' || f.type === 'schedule';
+        const c = new FormControl<unknown>(
+          { value: this.shown(el, f, units), disabled: ro },
+          { validators: [this.validator(f, units)], updateOn: text ? 'blur' : 'change' },
+        );
+        c.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe((v) => this.commit(f, c, v));
+        controls[controlName(f)] = c;
+      }
+    }
+    this.form = new FormGroup<Record<string, FormControl<unknown>>>(controls);
+  }
+
+  private validator(f: FieldSpec, units: UnitSystem): ValidatorFn {
+    return (c: AbstractControl): ValidationErrors | null => {
+      const v = c.value;
+      if (f.type === 'schedule') return scheduleError(String(v ?? ''));
+      if (f.type !== 'number' && f.type !== 'length') return f.required && !v ? { required: true } : null;
+      if (v === '' || v === null || v === undefined) return f.required ? { required: true } : null;
+      const n = Number(v);
+      if (!Number.isFinite(n)) return { number: true };
+      const si = f.quantity ? fromDisplay(f.quantity, n, units) : n;
+      const fmt = (x: number) => (f.quantity ? formatQuantity(f.quantity, x, units, 3).replace(/\.?0+ /, ' ') : String(x));
+      if (f.min !== undefined && si < f.min - 1e-12) return { min: fmt(f.min) };
+      if (f.max !== undefined && si > f.max + 1e-12) return { max: fmt(f.max) };
+      return null;
+    };
+  }
+
+  private commit(f: FieldSpec, c: AbstractControl, v: unknown): void {
+    const el = this.element();
+    if (!el || c.invalid || this.readOnly()) return;
+    let value: unknown = v;
+    if (f.type === 'number' || f.type === 'length') {
+      value = v === '' || v === null ? undefined : f.quantity ? fromDisplay(f.quantity, Number(v), this.units()) : Number(v);
+    } else if (f.type === 'text') {
+      value = String(v ?? '').trim() || undefined;
+    } else if (f.type === 'schedule') {
+      value = String(v).split(/[,\s]+/).filter(Boolean).map(Number);
+    }
+    if (f.key === 'demand_model.type') {
+      this.patch.emit({ id: el.id, patch: { demand_model: defaultDemandModel(String(v), el as OutletNode) } });
+      return;
+    }
+    const patch = patchForPath(el, f.key, value);
+    if (f.type === 'length') patch['length_source'] = 'typed';
+    this.patch.emit({ id: el.id, patch });
+  }
+
+  chooseSeries(seriesId: string): void {
+    const el = this.element();
+    if (el?.kind !== 'pipe') return;
+    const s = this.series().find((x) => x.id === seriesId);
+    // Keep the nominal size when the new series has it, so switching class is one step.
+    const same = el.nominal ? catalogueSizes(seriesId, this.doc().headloss).find((z) => z.nominal === el.nominal) : undefined;
+    this.patch.emit({
+      id: el.id,
+      patch: same
+        ? { series: seriesId, material: s?.material, nominal: same.nominal, diameter_m: same.diameter_m, roughness: same.roughness, rating_m: same.rating_m }
+        : { series: seriesId, material: s?.material, nominal: undefined },
+    });
+  }
+
+  chooseSize(nominal: string): void {
+    const el = this.element();
+    if (el?.kind !== 'pipe') return;
+    const size = this.sizes().find((s) => s.nominal === nominal);
+    if (!size) return;
+    this.patch.emit({
+      id: el.id,
+      patch: { nominal, diameter_m: size.diameter_m, roughness: size.roughness, rating_m: size.rating_m },
+    });
+  }
+
+  useDrawnLength(): void {
+    const el = this.element();
+    if (el) this.patch.emit({ id: el.id, patch: { length_source: undefined } });
+  }
+
+  setSchedule(values: readonly number[]): void {
+    const el = this.element();
+    if (el) this.patch.emit({ id: el.id, patch: { schedule: [...values] } });
+  }
+
+  control(f: FieldSpec): string {
+    return controlName(f);
+  }
+
+  readonly daylight = DAYLIGHT_SCHEDULE;
+  readonly alwaysOn: readonly number[] = Array.from({ length: 24 }, () => 1);
+}
+
+/** Form control name of a field (FormGroup keys may not contain dots). */
+function controlName(f: FieldSpec): string {
+  return f.key.replace(/\./g, '__');
+}
+
+function scheduleError(text: string): ValidationErrors | null {
+  const parts = text.split(/[,\s]+/).filter(Boolean);
+  if (parts.length !== 24) return { schedule: `Enter 24 hourly factors (found ${parts.length})` };
+  const bad = parts.findIndex((p) => !(Number(p) >= 0 && Number(p) <= 1));
+  return bad >= 0 ? { schedule: `Hour ${bad}: factors run from 0 to 1` } : null;
+}
