@@ -17,6 +17,7 @@ import type { Config } from './config';
 import type { AppContext } from './context';
 import { openDatabase, pgliteDir, type Database, type Db } from './db';
 import { apiNotFound, errorHandler, notFoundHandler } from './errors';
+import { loadProject } from './project-scope';
 import { createMailer } from './mail/mailer';
 import { startMailSink, type MailSink } from './mail/sink';
 import { authRoutes, type SigninLimit } from './routes/auth';
@@ -111,7 +112,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
     next();
   });
 
-  const api = new ApiRoutes();
+  const api = new ApiRoutes(loadProject(db));
   api.get('/csrf', 'public', csrf.issue);
   authRoutes(api, ctx, passport, options.signinLimit ?? { max: 10, windowMs: 15 * 60 * 1000 });
   teamRoutes(api, ctx);

@@ -1,5 +1,6 @@
 /** Type augmentations for Express, passport and express-session. */
 import type { Role } from './permissions';
+import type { ProjectRow } from './project-scope';
 
 export interface SessionUser { id: string; email: string; name: string }
 export interface CurrentMembership { teamId: string; teamName: string; roles: Role[] }
@@ -12,6 +13,8 @@ declare global {
     interface Request {
       /** Membership of the session's current team (currentMember in server/auth/passport.ts). */
       membership?: CurrentMembership;
+      /** The project of a /projects/:id… route, of the caller's team (server/project-scope.ts). */
+      project?: ProjectRow;
     }
   }
 }

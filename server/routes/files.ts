@@ -9,7 +9,8 @@ import { audit } from '../audit';
 import type { AppContext } from '../context';
 import { ApiError, parseBody } from '../errors';
 import { detectSurveyFormat, parseSurvey, SurveyError, type SurveyFormat } from '../survey';
-import { isUuid, projectOfTeam } from './projects';
+import { uuidParam } from '../ids';
+import { projectOf } from '../project-scope';
 
 const MB = 1024 * 1024;
 export const BACKDROP_MAX_BYTES = 8 * MB;
@@ -80,14 +81,14 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
   const { db } = ctx;
 
   api.get('/projects/:id/files', 'files.read', async (req, res) => {
-    const project = await projectOfTeam(db, req);
+    const project = projectOf(req);
     const rows = await db.select(listColumns).from(files).leftJoin(users, eq(users.id, files.createdBy))
       .where(eq(files.projectId, project.id)).orderBy(desc(files.createdAt));
     res.json(rows.map(fileJson));
   });
 
   api.post('/projects/:id/files', 'files.write', singleFile(BACKDROP_MAX_BYTES), async (req, res) => {
-    const project = await projectOfTeam(db, req);
+    const project = projectOf(req);
     const { kind } = parseBody(uploadBody, req.body);
     const file = requireFile(req.file);
     let mime: string;
@@ -111,9 +112,8 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
   });
 
   api.get('/projects/:id/files/:fileId', 'files.read', async (req, res) => {
-    const project = await projectOfTeam(db, req);
-    const fileId = String(req.params.fileId);
-    if (!isUuid(fileId)) throw new ApiError('not-found', 'No such file');
+    const project = projectOf(req);
+    const fileId = uuidParam(req.params.fileId, 'No such file');
     const [row] = await db.select().from(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
     if (!row) throw new ApiError('not-found', 'No such file');
     res.setHeader('Content-Type', row.mime);
@@ -123,9 +123,8 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
   });
 
   api.delete('/projects/:id/files/:fileId', 'files.write', async (req, res) => {
-    const project = await projectOfTeam(db, req);
-    const fileId = String(req.params.fileId);
-    if (!isUuid(fileId)) throw new ApiError('not-found', 'No such file');
+    const project = projectOf(req);
+    const fileId = uuidParam(req.params.fileId, 'No such file');
     await db.transaction(async (tx) => {
       const [row] = await tx.delete(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id))).returning({ filename: files.filename });
       if (!row) throw new ApiError('not-found', 'No such file');
@@ -135,7 +134,6 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
   });
 
   api.post('/projects/:id/survey/parse', 'files.read', singleFile(SURVEY_MAX_BYTES), async (req, res) => {
-    await projectOfTeam(db, req);
     const file = requireFile(req.file);
     const format = surveyFormatOf(file);
     try {

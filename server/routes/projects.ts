@@ -1,5 +1,4 @@
 /** /api/projects: the current team's projects. Another team's project is 404, never 403. */
-import type { Request } from 'express';
 import { and, asc, eq } from 'drizzle-orm';
 import { createInsertSchema, createUpdateSchema } from 'drizzle-zod';
 import { z } from 'zod';
@@ -7,10 +6,8 @@ import { projects } from '../../drizzle/schema';
 import type { ApiRoutes } from '../api-routes';
 import { audit } from '../audit';
 import type { AppContext } from '../context';
-import type { DbOrTx } from '../db';
 import { ApiError, parseBody } from '../errors';
-
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+import { projectOf, type ProjectRow } from '../project-scope';
 
 /** Request bodies derived from the table (drizzle-zod), with the limits the API adds. */
 const columnRules = {
@@ -23,27 +20,11 @@ const createBody = createInsertSchema(projects, columnRules).pick(editable);
 const updateBody = createUpdateSchema(projects, columnRules).pick({ ...editable, archived: true });
 const listQuery = z.object({ archived: z.enum(['true', 'false']).optional() });
 
-export type ProjectRow = typeof projects.$inferSelect;
-
 export function projectJson(row: ProjectRow) {
   return {
     id: row.id, teamId: row.teamId, name: row.name, siteName: row.siteName, notes: row.notes,
     units: row.units, archived: row.archived, createdAt: row.createdAt.toISOString(), updatedAt: row.updatedAt.toISOString(),
   };
-}
-
-/** The project `:id` of the caller's current team, or 404. */
-export async function projectOfTeam(db: DbOrTx, req: Request): Promise<ProjectRow> {
-  const id = String(req.params.id);
-  if (!isUuid(id)) throw new ApiError('not-found', 'No such project');
-  const [row] = await db.select().from(projects)
-    .where(and(eq(projects.id, id), eq(projects.teamId, req.membership!.teamId)));
-  if (!row) throw new ApiError('not-found', 'No such project');
-  return row;
-}
-
-export function isUuid(value: string): boolean {
-  return UUID.test(value);
 }
 
 export function projectRoutes(api: ApiRoutes, ctx: AppContext): void {
@@ -69,14 +50,15 @@ export function projectRoutes(api: ApiRoutes, ctx: AppContext): void {
   });
 
   api.get('/projects/:id', 'project.read', async (req, res) => {
-    res.json(projectJson(await projectOfTeam(db, req)));
+    res.json(projectJson(projectOf(req)));
   });
 
   api.patch('/projects/:id', 'project.update', async (req, res) => {
     const body = parseBody(updateBody, req.body);
     const row = await db.transaction(async (tx) => {
-      const before = await projectOfTeam(tx, req);
+      const before = projectOf(req);
       const [updated] = await tx.update(projects).set({ ...body, updatedAt: new Date() }).where(eq(projects.id, before.id)).returning();
+      if (!updated) throw new ApiError('not-found', 'No such project');
       await audit(tx, { teamId: before.teamId, user: req.user!, action: 'project.update', target: updated.name, detail: { projectId: before.id, changed: Object.keys(body) } });
       return updated;
     });
@@ -85,8 +67,9 @@ export function projectRoutes(api: ApiRoutes, ctx: AppContext): void {
 
   api.delete('/projects/:id', 'project.delete', async (req, res) => {
     await db.transaction(async (tx) => {
-      const row = await projectOfTeam(tx, req);
-      await tx.delete(projects).where(eq(projects.id, row.id));
+      const row = projectOf(req);
+      const [gone] = await tx.delete(projects).where(eq(projects.id, row.id)).returning({ id: projects.id });
+      if (!gone) throw new ApiError('not-found', 'No such project');
       await audit(tx, { teamId: row.teamId, user: req.user!, action: 'project.delete', target: row.name, detail: { projectId: row.id } });
     });
     res.status(204).end();

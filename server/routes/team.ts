@@ -13,7 +13,7 @@ import type { DbOrTx } from '../db';
 import { ApiError, parseBody } from '../errors';
 import { isRole, ROLES, type Role } from '../permissions';
 import { emailField, nameField, passwordField, signIn } from './auth';
-import { isUuid } from './projects';
+import { uuidParam } from '../ids';
 
 const INVITATION_DAYS = 14;
 const rolesField = z.array(z.enum(ROLES)).min(1, 'must hold at least one role').transform((r) => [...new Set(r)]);
@@ -31,9 +31,7 @@ function memberRow(row: { userId: string; email: string; name: string; roles: st
 
 /** The `:userId` of a member route; a value that is not a user id names no member (404, not a database error). */
 function memberIdParam(raw: unknown): string {
-  const userId = String(raw);
-  if (!isUuid(userId)) throw new ApiError('not-found', 'No such member in this team');
-  return userId;
+  return uuidParam(raw, 'No such member in this team');
 }
 
 async function adminCount(db: DbOrTx, teamId: string, exceptUserId: string): Promise<number> {

@@ -1,0 +1,37 @@
+/**
+ * server/project-scope.ts: every route registered under /projects/:id (today's and the ones still to
+ * come) gets the caller's team's project loaded before its handler, so another team's project, an
+ * unknown id and a malformed id are 404 on all of them, whatever the handler does.
+ */
+import { randomUUID } from 'node:crypto';
+import { expect } from 'chai';
+import { PROJECT_PATH } from '../../server/project-scope';
+import { startTestApp, type TestApp } from './test-app';
+
+describe('API: the project of /projects/:id routes is loaded for the caller\'s team', () => {
+  let t: TestApp;
+  before(async () => { t = await startTestApp(); });
+  after(async () => { await t.close(); });
+
+  it('every /projects/:id route answers 404 for another team\'s, an unknown and a malformed project id', async () => {
+    const scoped = t.routes.filter((r) => PROJECT_PATH.test(r.path));
+    expect(scoped.length).to.be.at.least(8);
+    // The admin of the second team holds every permission of their own team.
+    const a = await t.signInAs('other');
+    const wrong: string[] = [];
+    for (const id of [t.seeded!.demoProjectId, randomUUID(), 'not-a-uuid']) {
+      for (const r of scoped) {
+        const path = '/api' + r.path.replace(':id', id).replace(/:(\w+)/g, () => randomUUID());
+        const res = await (r.method === 'get' ? a.get(path) : r.method === 'delete' ? a.delete(path) : a[r.method](path, {}));
+        if (res.status !== 404 || res.body.error?.message !== 'No such project') wrong.push(`${r.method} ${path} → ${res.status} ${JSON.stringify(res.body)}`);
+      }
+    }
+    expect(wrong, wrong.join('\n')).to.deep.equal([]);
+  });
+
+  it('the demo team still reaches its own project through the same routes', async () => {
+    const a = await t.signInAs('designer');
+    const res = await a.get(`/api/projects/${t.seeded!.demoProjectId}/network`).expect(200);
+    expect(res.body.version).to.be.at.least(1);
+  });
+});
