@@ -4,7 +4,7 @@
  */
 import { sql } from 'drizzle-orm';
 import {
-  bigserial, boolean, customType, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
+  bigserial, boolean, customType, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
 } from 'drizzle-orm/pg-core';
 
 /** Raw bytes (PostgreSQL bytea) as a Node Buffer. */
@@ -125,3 +125,46 @@ export const files = pgTable('files', {
   createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
   createdAt: createdAt(),
 }, (t) => [index('files_project_idx').on(t.projectId)]);
+
+/**
+ * Every save of a network keeps an immutable copy here (who, when, a one-line summary of the change)
+ * and its sign-off state (server/network/versions-store.ts, server/review/). Rows are never updated
+ * except for the sign-off columns, and an approved row never changes again.
+ */
+export const networkVersions = pgTable('network_versions', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  version: integer('version').notNull(),
+  document: jsonb('document').notNull(),
+  results: jsonb('results'),
+  summary: text('summary').notNull().default(''),
+  /** Set when the version was made by restoring an earlier one. */
+  restoredFrom: integer('restored_from'),
+  createdAt: createdAt(),
+  createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  /** Sign-off state: draft → submitted → approved | returned (a returned version may be submitted again). */
+  status: text('status', { enum: ['draft', 'submitted', 'approved', 'returned'] }).notNull().default('draft'),
+  statusAt: timestamp('status_at', { withTimezone: true }),
+  statusBy: uuid('status_by').references(() => users.id, { onDelete: 'set null' }),
+  /** The note given with the last transition (submit note, return reason, approval remark). */
+  statusNote: text('status_note').notNull().default(''),
+}, (t) => [uniqueIndex('network_versions_project_version_idx').on(t.projectId, t.version)]);
+
+/** Review comments: threaded (parent), pinned to an element or a plan point, resolvable. */
+export const reviewComments = pgTable('review_comments', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  /** The version the comment was made on. */
+  version: integer('version').notNull(),
+  /** A reply's thread root; null for a thread's first comment (which carries the pin). */
+  parentId: uuid('parent_id'),
+  element: text('element'),
+  xM: doublePrecision('x_m'),
+  yM: doublePrecision('y_m'),
+  body: text('body').notNull(),
+  resolved: boolean('resolved').notNull().default(false),
+  resolvedAt: timestamp('resolved_at', { withTimezone: true }),
+  resolvedBy: uuid('resolved_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+  createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+}, (t) => [index('review_comments_project_idx').on(t.projectId, t.version)]);

@@ -25,6 +25,7 @@ import { fileRoutes } from './routes/files';
 import { networkRoutes } from './routes/network';
 import { projectRoutes } from './routes/projects';
 import { teamRoutes } from './routes/team';
+import { versionRoutes } from './routes/versions';
 import { seed as seedDemo, type SeedResult } from './seed';
 import './types';
 
@@ -118,6 +119,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   teamRoutes(api, ctx);
   projectRoutes(api, ctx);
   networkRoutes(api, ctx);
+  versionRoutes(api, ctx);
   fileRoutes(api, ctx);
 
   app.use('/api',

@@ -10,6 +10,7 @@ import { audit } from '../audit';
 import type { Db, DbOrTx } from '../db';
 import { ApiError } from '../errors';
 import { engineErrors, shapeErrors } from './document-shape';
+import { recordVersion } from './versions-store';
 
 export const EMPTY_DOCUMENT: NetworkDocument = { schema: 'runnel.network/1', headloss: 'hazen-williams', nodes: [], links: [] };
 
@@ -42,6 +43,8 @@ export interface SaveRequest {
   expectedVersion: number;
   document: unknown;
   log?: (line: string) => void;
+  /** Set when the document is an earlier version being restored (recorded in the version history). */
+  restoredFrom?: number;
 }
 
 export interface SaveResult { version: number; results: SteadyResult | null; updatedAt: string }
@@ -60,6 +63,9 @@ export async function saveNetwork(db: Db, request: SaveRequest): Promise<SaveRes
   const results = solveSafely(document, request.log);
   const now = new Date();
   const saved = await db.transaction(async (tx) => {
+    // The document this save replaces, for the version history's one-line summary.
+    const [previous] = request.expectedVersion === 0 ? [] : await tx.select({ document: networks.document }).from(networks)
+      .where(and(eq(networks.projectId, request.projectId), eq(networks.version, request.expectedVersion)));
     const written = request.expectedVersion === 0
       ? await tx.insert(networks).values({ projectId: request.projectId, version: 1, document, results, updatedAt: now, updatedBy: request.user.id })
         .onConflictDoNothing({ target: networks.projectId }).returning({ version: networks.version })
@@ -67,9 +73,13 @@ export async function saveNetwork(db: Db, request: SaveRequest): Promise<SaveRes
         .where(and(eq(networks.projectId, request.projectId), eq(networks.version, request.expectedVersion)))
         .returning({ version: networks.version });
     if (written.length === 0) return null;
+    await recordVersion(tx, {
+      projectId: request.projectId, version: written[0].version, document, results, userId: request.user.id,
+      previous: (previous?.document as NetworkDocument | undefined) ?? null, restoredFrom: request.restoredFrom, at: now,
+    });
     await audit(tx, {
       teamId: request.teamId, user: request.user, action: 'network.save', target: request.projectId,
-      detail: { version: written[0].version, nodes: document.nodes.length, links: document.links.length },
+      detail: { version: written[0].version, nodes: document.nodes.length, links: document.links.length, ...(request.restoredFrom ? { restoredFrom: request.restoredFrom } : {}) },
     });
     return written[0].version;
   });

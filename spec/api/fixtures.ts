@@ -1,8 +1,10 @@
 /** Rows inserted straight into the test database, so a test can act on a fresh target. */
 import { randomBytes, randomUUID } from 'node:crypto';
+import { eq } from 'drizzle-orm';
 import { files, invitations, memberships, projects, teams, users } from '../../drizzle/schema';
 import type { Db } from '../../server/db';
 import type { Role } from '../../server/permissions';
+import { saveNetwork } from '../../server/network/network-store';
 import { hashToken } from '../../server/routes/team';
 import type { NetworkDocument } from '../../engine';
 
@@ -51,4 +53,17 @@ export async function insertFile(db: Db, projectId: string): Promise<string> {
     projectId, kind: 'backdrop', filename: 'site.png', mime: 'image/png', size: PNG_BYTES.length, bytes: PNG_BYTES,
   }).returning({ id: files.id });
   return row.id;
+}
+
+/** The demo user holding `role` (id and e-mail), for saving through the store as that user. */
+export async function demoUserRow(db: Db, role: Role): Promise<{ id: string; email: string }> {
+  const [row] = await db.select({ id: users.id, email: users.email }).from(users).where(eq(users.email, `${role}@runnel.test`));
+  return row;
+}
+
+/** A fresh project with `document` saved once through the real save path (version 1 kept). */
+export async function insertSavedProject(db: Db, teamId: string, document: NetworkDocument = SMALL_NETWORK): Promise<string> {
+  const id = await insertProject(db, teamId);
+  await saveNetwork(db, { projectId: id, teamId, user: await demoUserRow(db, 'designer'), expectedVersion: 0, document });
+  return id;
 }

@@ -10,7 +10,7 @@ import { expect } from 'chai';
 import type { Response } from 'supertest';
 import { PERMISSION_TABLE, ROLES, type Access, type Role } from '../../server/permissions';
 import { DEMO_PASSWORD } from '../../server/seed';
-import { insertFile, insertInvitation, insertMember, insertProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
+import { insertFile, insertInvitation, insertMember, insertProject, insertSavedProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
 import { demoEmail, startTestApp, type ApiAgent, type TestApp } from './test-app';
 
 interface Case {
@@ -62,6 +62,12 @@ const CASES: Case[] = [
   { method: 'get', path: '/projects/:id/network', access: 'network.read', success: 200, call: (a, t) => a.get(`${p(t)}/network`) },
   { method: 'put', path: '/projects/:id/network', access: 'network.write', success: 200,
     call: async (a, t) => a.put(`/api/projects/${await insertProject(t.db, t.seeded!.demoTeamId)}/network`, { version: 0, document: SMALL_NETWORK }) },
+  { method: 'get', path: '/projects/:id/versions', access: 'network.read', success: 200, call: (a, t) => a.get(`${p(t)}/versions`) },
+  { method: 'get', path: '/projects/:id/versions/:version', access: 'network.read', success: 200, call: (a, t) => a.get(`${p(t)}/versions/1`) },
+  { method: 'get', path: '/projects/:id/versions/:version/compare/:other', access: 'network.read', success: 200,
+    call: (a, t) => a.get(`${p(t)}/versions/1/compare/1`) },
+  { method: 'post', path: '/projects/:id/versions/:version/restore', access: 'network.write', success: 201,
+    call: async (a, t) => a.post(`/api/projects/${await insertSavedProject(t.db, t.seeded!.demoTeamId)}/versions/1/restore`, { version: 1 }) },
   { method: 'get', path: '/projects/:id/files', access: 'files.read', success: 200, call: (a, t) => a.get(`${p(t)}/files`) },
   { method: 'post', path: '/projects/:id/files', access: 'files.write', success: 201,
     call: (a, t) => a.upload(`${p(t)}/files`, { bytes: PNG_BYTES, filename: 'plan.png' }, { kind: 'backdrop' }) },
