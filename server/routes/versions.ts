@@ -5,7 +5,7 @@ import type { AppContext } from '../context';
 import { ApiError, parseBody } from '../errors';
 import { saveNetwork } from '../network/network-store';
 import { compareVersions, listVersions, loadVersion } from '../network/versions-store';
-import { projectOfTeam } from './projects';
+import { projectOf } from '../project-scope';
 
 /** A version number from the path: a positive integer, or 400 naming the parameter. */
 export function versionParam(value: unknown, name = 'version'): number {
@@ -25,23 +25,23 @@ export function versionRoutes(api: ApiRoutes, ctx: AppContext): void {
   const { db } = ctx;
 
   api.get('/projects/:id/versions', 'network.read', async (req, res) => {
-    const project = await projectOfTeam(db, req);
+    const project = projectOf(req);
     res.json({ versions: await listVersions(db, project.id) });
   });
 
   api.get('/projects/:id/versions/:version', 'network.read', async (req, res) => {
-    const project = await projectOfTeam(db, req);
+    const project = projectOf(req);
     res.json(await loadVersion(db, project.id, versionParam(req.params.version)));
   });
 
   api.get('/projects/:id/versions/:version/compare/:other', 'network.read', async (req, res) => {
-    const project = await projectOfTeam(db, req);
+    const project = projectOf(req);
     res.json(await compareVersions(db, project.id, versionParam(req.params.version), versionParam(req.params.other, 'other')));
   });
 
   api.post('/projects/:id/versions/:version/restore', 'network.write', async (req, res) => {
     const body = parseBody(restoreBody, req.body);
-    const project = await projectOfTeam(db, req);
+    const project = projectOf(req);
     const old = await loadVersion(db, project.id, versionParam(req.params.version));
     res.status(201).json(await saveNetwork(db, {
       projectId: project.id, teamId: project.teamId, user: req.user!, expectedVersion: body.version,
