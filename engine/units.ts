@@ -11,7 +11,7 @@
 export type UnitSystem = 'us' | 'si';
 export type Quantity =
   | 'length' | 'elevation' | 'diameter' | 'flow' | 'pressure' | 'head' | 'velocity'
-  | 'volume' | 'area' | 'headloss-gradient';
+  | 'volume' | 'area' | 'headloss-gradient' | 'daily-volume' | 'depth-rate' | 'duration';
 
 const FOOT_M = 0.3048; // exact
 const INCH_M = 0.0254; // exact
@@ -57,6 +57,21 @@ const TABLE: Record<Quantity, Record<UnitSystem, UnitDef>> = {
   area: {
     us: { label: 'ft²', fromSi: (v) => v / (FOOT_M * FOOT_M), toSi: (v) => v * FOOT_M * FOOT_M, digits: 1 },
     si: { label: 'm²', fromSi: (v) => v, toSi: (v) => v, digits: 2 },
+  },
+  /** Water use per day (budget): m³/day inside. */
+  'daily-volume': {
+    us: { label: 'gal/day', fromSi: (v) => v / US_GALLON_M3, toSi: (v) => v * US_GALLON_M3, digits: 0 },
+    si: { label: 'L/day', fromSi: (v) => v * 1000, toSi: (v) => v / 1000, digits: 0 },
+  },
+  /** Application depth per day (garden, tunnel): m/day inside; 1 in/day over 1 ft² = 0.623 gal/day. */
+  'depth-rate': {
+    us: { label: 'in/day', fromSi: (v) => v / INCH_M, toSi: (v) => v * INCH_M, digits: 2 },
+    si: { label: 'mm/day', fromSi: (v) => v * 1000, toSi: (v) => v / 1000, digits: 1 },
+  },
+  /** Time spans (windows, reserve): hours in both systems. */
+  duration: {
+    us: { label: 'h', fromSi: (v) => v / 3600, toSi: (v) => v * 3600, digits: 1 },
+    si: { label: 'h', fromSi: (v) => v / 3600, toSi: (v) => v * 3600, digits: 1 },
   },
   'headloss-gradient': {
     us: { label: 'ft/100 ft', fromSi: (v) => v * 100, toSi: (v) => v / 100, digits: 2 },
