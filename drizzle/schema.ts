@@ -76,6 +76,13 @@ export const invitations = pgTable('invitations', {
   expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
   acceptedAt: timestamp('accepted_at', { withTimezone: true }),
   acceptedBy: uuid('accepted_by').references(() => users.id, { onDelete: 'set null' }),
+  /**
+   * Admin override, audited when set: any signed-in account may accept (e.g. the person uses
+   * another address for Runnel). Without it only an account with `email` may accept.
+   */
+  anyAccount: boolean('any_account').notNull().default(false),
+  /** Withdrawn by an admin: the link no longer works. */
+  revokedAt: timestamp('revoked_at', { withTimezone: true }),
 }, (t) => [uniqueIndex('invitations_token_idx').on(t.tokenHash), index('invitations_team_idx').on(t.teamId)]);
 
 export const auditLog = pgTable('audit_log', {

@@ -3,7 +3,7 @@
  * (DATABASE_URL). Migrations from drizzle/migrations are applied through Drizzle's migrator.
  */
 import { mkdirSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
 import { PGlite } from '@electric-sql/pglite';
 import type { ExtractTablesWithRelations } from 'drizzle-orm';
 import type { PgDatabase, PgQueryResultHKT, PgTransaction } from 'drizzle-orm/pg-core';
@@ -13,6 +13,7 @@ import { drizzle as drizzlePg } from 'drizzle-orm/node-postgres';
 import { migrate as migratePg } from 'drizzle-orm/node-postgres/migrator';
 import pg from 'pg';
 import * as schema from '../drizzle/schema';
+import { acquireDataLock, type DataLock } from './data-lock';
 
 export type Schema = typeof schema;
 /** The database handle every module uses, whichever driver is underneath. */
@@ -24,7 +25,8 @@ export type DbOrTx = Db | Tx;
 export const MIGRATIONS_DIR = resolve(import.meta.dirname, '../drizzle/migrations');
 
 export type DatabaseTarget =
-  | { kind: 'pglite'; dir?: string }   // dir undefined → in memory
+  /** dir undefined → in memory. `lock`: the folder's lock, already taken by the caller (server/main.ts). */
+  | { kind: 'pglite'; dir?: string; lock?: DataLock }
   | { kind: 'postgres'; url: string };
 
 export interface Database { db: Db; target: DatabaseTarget; close(): Promise<void> }
@@ -37,11 +39,25 @@ export async function openDatabase(target: DatabaseTarget): Promise<Database> {
     await migratePg(db, { migrationsFolder: MIGRATIONS_DIR });
     return { db, target, close: () => pool.end() };
   }
-  if (target.dir) mkdirSync(target.dir, { recursive: true });
-  const client = target.dir ? new PGlite(target.dir) : new PGlite();
-  const db = drizzlePglite(client, { schema });
-  await migratePglite(db, { migrationsFolder: MIGRATIONS_DIR });
-  return { db, target, close: () => client.close() };
+  if (!target.dir) {
+    const client = new PGlite();
+    const db = drizzlePglite(client, { schema });
+    await migratePglite(db, { migrationsFolder: MIGRATIONS_DIR });
+    return { db, target, close: () => client.close() };
+  }
+  // One process per folder (server/data-lock.ts), taken before PGlite reads a byte of it.
+  mkdirSync(dirname(target.dir), { recursive: true });
+  const lock = target.lock ?? acquireDataLock(target.dir);
+  try {
+    mkdirSync(target.dir, { recursive: true });
+    const client = new PGlite(target.dir);
+    const db = drizzlePglite(client, { schema });
+    await migratePglite(db, { migrationsFolder: MIGRATIONS_DIR });
+    return { db, target, close: () => client.close().finally(() => lock.release()) };
+  } catch (err) {
+    lock.release();
+    throw err;
+  }
 }
 
 /** The default store for a data dir: RUNNEL_DATA_DIR/pg. */

@@ -4,8 +4,8 @@ import { eq } from 'drizzle-orm';
 import { files, invitations, memberships, projects, teams, users } from '../../drizzle/schema';
 import type { Db } from '../../server/db';
 import type { Role } from '../../server/permissions';
+import { hashToken } from '../../server/auth/invitation-token';
 import { saveNetwork } from '../../server/network/network-store';
-import { hashToken } from '../../server/routes/team';
 import type { NetworkDocument } from '../../engine';
 
 /** The smallest PNG signature plus an IHDR start: enough for the magic-byte check. */
@@ -43,9 +43,15 @@ export async function insertTeam(db: Db, name = `Fixture team ${randomUUID().sli
 
 /** An open invitation; returns the token (only its hash is stored). */
 export async function insertInvitation(db: Db, teamId: string, roles: Role[], email = `i-${randomUUID()}@example.test`): Promise<string> {
+  return (await insertInvitationRow(db, teamId, roles, email)).token;
+}
+
+/** An open invitation; returns its id and token. */
+export async function insertInvitationRow(db: Db, teamId: string, roles: Role[], email = `i-${randomUUID()}@example.test`) {
   const token = randomBytes(24).toString('base64url');
-  await db.insert(invitations).values({ teamId, email, roles, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + 86400_000) });
-  return token;
+  const [row] = await db.insert(invitations).values({ teamId, email, roles, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + 86400_000) })
+    .returning({ id: invitations.id });
+  return { id: row.id, token };
 }
 
 export async function insertFile(db: Db, projectId: string): Promise<string> {

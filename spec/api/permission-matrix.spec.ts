@@ -10,7 +10,7 @@ import { expect } from 'chai';
 import type { Response } from 'supertest';
 import { PERMISSION_TABLE, ROLES, type Access, type Role } from '../../server/permissions';
 import { DEMO_PASSWORD } from '../../server/seed';
-import { insertFile, insertInvitation, insertMember, insertProject, insertSavedProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
+import { insertFile, insertInvitation, insertInvitationRow, insertMember, insertProject, insertSavedProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
 import { demoEmail, startTestApp, type ApiAgent, type TestApp } from './test-app';
 
 interface Case {
@@ -45,10 +45,15 @@ const CASES: Case[] = [
   { method: 'get', path: '/team/invitations', access: 'team.manage', success: 200, call: (a) => a.get('/api/team/invitations') },
   { method: 'post', path: '/team/invitations', access: 'team.manage', success: 201,
     call: (a) => a.post('/api/team/invitations', { email: `inv-${randomUUID()}@example.test`, roles: ['owner'] }) },
+  { method: 'delete', path: '/team/invitations/:invitationId', access: 'team.manage', success: 204,
+    call: async (a, t) => a.delete(`/api/team/invitations/${(await insertInvitationRow(t.db, t.seeded!.demoTeamId, ['owner'])).id}`) },
+  { method: 'post', path: '/team/invitations/:invitationId/resend', access: 'team.manage', success: 200,
+    call: async (a, t) => a.post(`/api/team/invitations/${(await insertInvitationRow(t.db, t.seeded!.demoTeamId, ['owner'])).id}/resend`) },
   { method: 'get', path: '/invitations/:token', access: 'public', success: 200,
     call: async (a, t) => a.get(`/api/invitations/${await insertInvitation(t.db, t.seeded!.demoTeamId, ['owner'])}`) },
   { method: 'post', path: '/invitations/:token/accept', access: 'public', success: 200,
-    call: async (a, t, who) => a.post(`/api/invitations/${await insertInvitation(t.db, await insertTeam(t.db), ['owner'])}/accept`,
+    // Addressed to the caller: only the invited address may accept (a new account when signed out).
+    call: async (a, t, who) => a.post(`/api/invitations/${await insertInvitation(t.db, await insertTeam(t.db), ['owner'], who ? demoEmail(who) : undefined)}/accept`,
       who ? {} : { name: 'Newly Invited', password: 'long-enough-pw' }) },
   { method: 'get', path: '/team/outbox', access: 'outbox.read', success: 200, call: (a) => a.get('/api/team/outbox') },
   { method: 'get', path: '/team/audit', access: 'audit.read', success: 200, call: (a) => a.get('/api/team/audit') },

@@ -21,7 +21,7 @@ describe('API: team, invitations through the mail sink', () => {
 
     const visitor = await t.anonymous();
     const info = await visitor.get(`/api/invitations/${token}`).expect(200);
-    expect(info.body).to.deep.equal({ teamName: 'Ridgeback Water Co-op', email: 'newhand@example.test', roles: ['estimator', 'owner'], expired: false, accepted: false });
+    expect(info.body).to.deep.equal({ teamName: 'Ridgeback Water Co-op', email: 'newhand@example.test', roles: ['estimator', 'owner'], anyAccount: false, expired: false, accepted: false, revoked: false });
 
     const missing = await visitor.post(`/api/invitations/${token}/accept`, {}).expect(400);
     expect(missing.body.error.fields.map((f: { path: string }) => f.path)).to.have.members(['name', 'password']);
