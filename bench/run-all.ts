@@ -11,10 +11,12 @@ import { grid20k } from './grid-20k';
 import { grid20kCold } from './grid-20k-cold';
 import { gridSquare10k } from './grid-square-10k';
 import { gridSquare20k } from './grid-square-20k';
+import { sizingDemo } from './sizing-demo';
+import { sizingTwoLoop } from './sizing-two-loop';
 import { measure, pairedRatio, printTable, type BenchResult } from './harness';
 
 const results: BenchResult[] = [];
-for (const c of [demoSteady, grid1k, grid10k, grid20k, grid10kCold, grid20kCold, gridSquare10k, gridSquare20k, farmWeek]) {
+for (const c of [demoSteady, grid1k, grid10k, grid20k, grid10kCold, grid20kCold, gridSquare10k, gridSquare20k, farmWeek, sizingDemo, sizingTwoLoop]) {
   results.push(measure(c));
 }
 printTable(results);
