@@ -9,17 +9,22 @@ export const ROLES = ['admin', 'designer', 'reviewer', 'estimator', 'owner'] as 
 export type Role = (typeof ROLES)[number];
 
 const EVERY_MEMBER: readonly Role[] = ROLES;
+/**
+ * Who designs: the designer, and the admin, who runs the team and can do what a designer can
+ * (an admin who creates a project can also draw in it). README "Roles" says the same.
+ */
+const DESIGNERS: readonly Role[] = ['admin', 'designer'];
 
 /** Permission → roles holding it. */
 export const PERMISSION_TABLE = {
   'project.read': EVERY_MEMBER,
-  'project.create': ['admin', 'designer'],
-  'project.update': ['admin', 'designer'],
-  'project.delete': ['admin', 'designer'],
+  'project.create': DESIGNERS,
+  'project.update': DESIGNERS,
+  'project.delete': DESIGNERS,
   'network.read': EVERY_MEMBER,
-  'network.write': ['designer'],
+  'network.write': DESIGNERS,
   'files.read': EVERY_MEMBER,
-  'files.write': ['designer'],
+  'files.write': DESIGNERS,
   'team.read': EVERY_MEMBER,
   'team.manage': ['admin'],
   'outbox.read': ['admin'],

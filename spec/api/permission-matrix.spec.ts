@@ -128,8 +128,23 @@ describe('API: role × route permission matrix', () => {
     expect(PERMISSION_TABLE['project.create']).to.have.members(['admin', 'designer']);
     expect(PERMISSION_TABLE['project.update']).to.have.members(['admin', 'designer']);
     expect(PERMISSION_TABLE['project.delete']).to.have.members(['admin', 'designer']);
-    expect(PERMISSION_TABLE['network.write']).to.have.members(['designer']);
-    expect(PERMISSION_TABLE['files.write']).to.have.members(['designer']);
+    expect(PERMISSION_TABLE['network.write']).to.have.members(['admin', 'designer']);
+    expect(PERMISSION_TABLE['files.write']).to.have.members(['admin', 'designer']);
     for (const admin of ['team.manage', 'outbox.read', 'audit.read'] as const) expect(PERMISSION_TABLE[admin]).to.have.members(['admin']);
+  });
+
+  it('is coherent: an admin holds every permission a designer holds', () => {
+    const designer = Object.entries(PERMISSION_TABLE).filter(([, roles]) => (roles as readonly Role[]).includes('designer')).map(([p]) => p);
+    const missing = designer.filter((p) => !(PERMISSION_TABLE[p as keyof typeof PERMISSION_TABLE] as readonly Role[]).includes('admin'));
+    expect(missing, `admin lacks ${missing.join(', ')}`).to.deep.equal([]);
+  });
+
+  it('an admin who creates a project can draw in it and upload to it', async () => {
+    const admin = await t.signInAs('admin');
+    const project = await admin.post('/api/projects', { name: 'Admin draws' }).expect(201);
+    await admin.put(`/api/projects/${project.body.id}/network`, { version: 0, document: SMALL_NETWORK }).expect(200);
+    await admin.upload(`/api/projects/${project.body.id}/files`, { bytes: PNG_BYTES, filename: 'plan.png' }, { kind: 'backdrop' }).expect(201);
+    const me = await admin.get('/api/auth/me').expect(200);
+    expect(me.body.permissions).to.include.members(['project.create', 'network.write', 'files.write']);
   });
 });
