@@ -14,9 +14,10 @@ import { gridSquare20k } from './grid-square-20k';
 import { sizingDemo } from './sizing-demo';
 import { sizingTwoLoop } from './sizing-two-loop';
 import { measure, pairedRatio, printTable, type BenchResult } from './harness';
+import { reviewWhatIfs } from './review-what-ifs';
 
 const results: BenchResult[] = [];
-for (const c of [demoSteady, grid1k, grid10k, grid20k, grid10kCold, grid20kCold, gridSquare10k, gridSquare20k, farmWeek, sizingDemo, sizingTwoLoop]) {
+for (const c of [demoSteady, grid1k, grid10k, grid20k, grid10kCold, grid20kCold, gridSquare10k, gridSquare20k, farmWeek, sizingDemo, sizingTwoLoop, reviewWhatIfs]) {
   results.push(measure(c));
 }
 printTable(results);

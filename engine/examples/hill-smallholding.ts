@@ -12,7 +12,8 @@ import { defaultRoughness, findPipeSize } from '../pipe-catalogue';
  * tees to the farmhouse and garden, the lambing shed and yard hydrant, two orchard drip blocks
  * behind a pressure-reducing valve (one emitter block, one pressure-dependent block) and four
  * paddock troughs with float valves; the south trough line crosses a dip and rises again (its
- * ground profile feeds the HGL / air-lock check). Pipe sizes come from ./pipe-catalogue.
+ * ground profile feeds the HGL / air-lock check; its high point has no air valve and its line runs
+ * near its rating at the bottom of the dip, both review cautions). Pipe sizes come from ./pipe-catalogue.
  *
  * `twoTankBank`: two 1 m² tanks joined through a 0.001 m² orifice (Cd = 1), 1 m apart in level:
  * the worked equalisation example of REFERENCES.md (T = 225.8 s).
@@ -110,7 +111,8 @@ export const hillSmallholding: NetworkDocument = {
     pipe('L-EAST1', 'East line', 'J1', 'J7a', 95, 'pe-sidr9', '1"'),
     pipe('L-EAST2', 'East line, far half', 'J7a', 'J7', 85, 'pe-sidr9', '1"'),
     pipe('L-TR3', 'East trough line', 'J7', 'TR3', 95, 'pe-sidr9', '3/4"'),
-    pipe('L-TR4', 'South trough line (crosses the dip)', 'J3', 'TR4', 270, 'pe-sidr9', '3/4"', {
+    // SIDR 11.5 (same bore as SIDR 9): at the bottom of the dip it works above 72 % of its rating, a review caution.
+    pipe('L-TR4', 'South trough line (crosses the dip)', 'J3', 'TR4', 270, 'pe-sidr11.5', '3/4"', {
       vertices: [[260, 100], [350, 70]],
       profile: [[0, 108], [60, 100], [110, 93], [150, 92], [200, 99], [240, 106], [270, 104]],
     }),
