@@ -4,7 +4,8 @@
  * is one undo step, and a drawn pipe's length follows its new shape.
  */
 import { expect } from 'chai';
-import { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import type { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import { createEditor } from '../../client/src/app/screens/layout/create-editor';
 import type { PointerInput } from '../../client/src/app/screens/layout/tools/tool';
 import type { PipeLink } from '../../engine/network-document';
 
@@ -27,7 +28,7 @@ function doubleClick(ed: Editor, x: number, y: number): boolean {
 
 /** Tank T1 at (0, 0), tee J1 at (40, 0), pipe P1 between them with `vertices`; 4 px/m. */
 function pipeEditor(vertices: [number, number][] = []): Editor {
-  const ed = new Editor(undefined, 800, 600);
+  const ed = createEditor(undefined, 800, 600);
   ed.placeNode('tank', { x: 0, y: 0 });
   ed.placeNode('tee', { x: 40, y: 0 });
   ed.addLink('pipe', 'T1', 'J1', vertices);

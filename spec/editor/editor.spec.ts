@@ -3,7 +3,8 @@
  * state and the document. No browser, no Angular, no Konva.
  */
 import { expect } from 'chai';
-import { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import type { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import { createEditor } from '../../client/src/app/screens/layout/create-editor';
 import type { PointerInput } from '../../client/src/app/screens/layout/tools/tool';
 import type { PipeLink, TankNode } from '../../engine/network-document';
 
@@ -27,7 +28,7 @@ function drag(ed: Editor, from: [number, number], to: [number, number], extra: P
 
 /** Editor at 4 px/m with the world origin at the canvas centre. */
 function editor(): Editor {
-  return new Editor(undefined, 800, 600);
+  return createEditor(undefined, 800, 600);
 }
 
 describe('Layout editor: placing elements', () => {

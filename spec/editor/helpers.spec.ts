@@ -1,7 +1,7 @@
 /** Pure helpers of the Layout editor: colour scale, survey maths, GeoJSON export, kinds. */
 import { expect } from 'chai';
 import { legendStops, luminance, marginColour, rampColour } from '../../client/src/app/screens/layout/editor/colour-scale';
-import { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import { createEditor } from '../../client/src/app/screens/layout/create-editor';
 import { toGeoJson } from '../../client/src/app/screens/layout/editor/geojson-export';
 import { niceStep, projectOnPolyline } from '../../client/src/app/screens/layout/editor/geometry';
 import { nearestSurveyPoint, profileAlong, toLocalPoints } from '../../client/src/app/screens/layout/editor/survey';
@@ -45,7 +45,7 @@ describe('Layout editor: geometry and survey', () => {
   });
 
   it('nearest survey point and a ground profile along a pipe (3-4-5 slope gives the sloped length)', () => {
-    const ed = new Editor();
+    const ed = createEditor();
     ed.placeNode('tank', { x: 0, y: 0 });
     ed.placeNode('outlet', { x: 80, y: 0 });
     ed.store.patchElement('T1', { elevation_m: 30 });
@@ -63,7 +63,7 @@ describe('Layout editor: geometry and survey', () => {
 
 describe('Layout editor: export and kinds', () => {
   it('GeoJSON: nodes as Points, links as LineStrings through their bend points, fields as properties', () => {
-    const ed = new Editor();
+    const ed = createEditor();
     ed.placeNode('tank', { x: 0, y: 0 });
     ed.placeNode('tee', { x: 10, y: 10 });
     ed.addLink('pipe', 'T1', 'J1', [[10, 0]]);

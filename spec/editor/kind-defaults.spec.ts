@@ -1,7 +1,7 @@
 /** New elements' defaults: round numbers in the project's unit system, stored SI. */
 import { expect } from 'chai';
 import { formatQuantity, UnitSystem } from '../../engine/units';
-import { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import { createEditor } from '../../client/src/app/screens/layout/create-editor';
 import { LINK_KINDS, NODE_KINDS } from '../../client/src/app/screens/layout/kinds';
 
 describe('Layout editor: defaults of new elements per unit system', () => {
@@ -36,7 +36,7 @@ describe('Layout editor: defaults of new elements per unit system', () => {
   });
 
   it('the editor places elements with its project units', () => {
-    const ed = new Editor();
+    const ed = createEditor();
     ed.units = 'us';
     const id = ed.placeNode('outlet', { x: 0, y: 0 })!;
     const o = ed.store.doc.nodes.find((n) => n.id === id) as { min_pressure_m: number };

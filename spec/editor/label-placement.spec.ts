@@ -6,7 +6,7 @@
  */
 import { expect } from 'chai';
 import fc from 'fast-check';
-import { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import { createEditor } from '../../client/src/app/screens/layout/create-editor';
 import {
   around, besideLine, Box, BoxGrid, boxesIntersect, LabelRequest, placeLabels, symbolBox,
 } from '../../client/src/app/screens/layout/editor/label-placement';
@@ -129,7 +129,7 @@ describe('Layout symbols: size with zoom and crowding', () => {
   });
 
   it('demo plan at fit zoom: the two ridge tanks 8 m apart shrink, and a click on each picks that tank', () => {
-    const ed = new Editor(structuredClone(hillSmallholding) as NetworkDocument, 956, 645);
+    const ed = createEditor(structuredClone(hillSmallholding) as NetworkDocument, 956, 645);
     ed.fitToView();
     expect(ed.symbolScale('T1')).to.be.lessThan(0.7);
     for (const id of ['T1', 'T2', 'W', 'WH', 'WH2', 'J4', 'J5']) {
@@ -142,7 +142,7 @@ describe('Layout symbols: size with zoom and crowding', () => {
 describe('Layout view: fitting the network', () => {
   it('the first fit keeps every element inside the margins, clear of the legend (bottom right) and scale bar (bottom left)', () => {
     for (const [w, h] of [[956, 645], [916, 536]]) {
-      const ed = new Editor(structuredClone(hillSmallholding) as NetworkDocument, w, h);
+      const ed = createEditor(structuredClone(hillSmallholding) as NetworkDocument, w, h);
       ed.fitToView();
       const m = ed.fitInsets;
       for (const n of ed.store.doc.nodes) {
@@ -158,10 +158,10 @@ describe('Layout view: fitting the network', () => {
 
 describe('Layout view: fit survives the canvas settling', () => {
   it('a resize right after a fit fits again (same as pressing Fit); after a pan or an edit it leaves the view alone', () => {
-    const ed = new Editor(structuredClone(hillSmallholding) as NetworkDocument, 700, 500);
+    const ed = createEditor(structuredClone(hillSmallholding) as NetworkDocument, 700, 500);
     ed.fitToView();
     ed.resize(956, 645);
-    const refit = new Editor(structuredClone(hillSmallholding) as NetworkDocument, 956, 645);
+    const refit = createEditor(structuredClone(hillSmallholding) as NetworkDocument, 956, 645);
     refit.fitToView();
     expect(ed.viewport.scale).to.be.closeTo(refit.viewport.scale, 1e-12);
     expect(ed.viewport.originX).to.be.closeTo(refit.viewport.originX, 1e-9);

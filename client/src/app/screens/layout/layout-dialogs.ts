@@ -6,7 +6,7 @@ import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/materia
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { fromDisplay, unitLabel, UnitSystem } from '../../../../../engine/units';
-import { SHORTCUTS } from './editor/editor';
+import { SHORTCUTS } from './editor/keys';
 
 /** 409 on save: the user decides; nothing is overwritten or dropped silently. */
 @Component({

@@ -20,7 +20,8 @@ import { CanvasView, scaleBar } from './canvas-view';
 import { legendStops } from './editor/colour-scale';
 import { conflictSummary } from './editor/document-diff';
 import { emptyDocument, markTypedLengths } from './editor/document-store';
-import { Backdrop, Editor } from './editor/editor';
+import type { Backdrop } from './editor/editor';
+import { createEditor } from './create-editor';
 import { toGeoJson } from './editor/geojson-export';
 import { resultWarnings } from './editor/result-checks';
 import { FreshnessCheck } from './editor/freshness-check';
@@ -88,7 +89,7 @@ export class LayoutScreen {
   private readonly destroyRef = inject(DestroyRef);
   private readonly canvasRef = viewChild.required<ElementRef<HTMLDivElement>>('canvas');
 
-  readonly editor = new Editor();
+  readonly editor = createEditor();
   private view: CanvasView | null = null;
   private readonly solver = new SolverClient();
   private readonly saver = new SaveController(

@@ -1,75 +1,43 @@
-import type { LinkKind, NetworkDocument, NetworkLink, NetworkNode, NodeKind } from '../../../../../../engine/network-document';
+import type { LinkKind, NetworkDocument, NodeKind } from '../../../../../../engine/network-document';
 import type { UnitSystem } from '../../../../../../engine/units';
 import { isNodeKind, LINK_KINDS, nextId, NODE_KINDS } from '../kinds';
-import { BackdropTool } from '../tools/backdrop-tool';
-import { CalibrateTool } from '../tools/calibrate-tool';
-import { LinkTool } from '../tools/link-tool';
-import { PanTool } from '../tools/pan-tool';
-import { PlaceTool } from '../tools/place-tool';
-import { SelectTool } from '../tools/select-tool';
-import type { PointerInput, Tool, ToolId } from '../tools/tool';
+import type { PointerInput, Preview, Tool, ToolHost, ToolId, ToolRegistry, VertexRef } from '../tools/tool';
+import { withBend, withoutBend } from './bends';
+import { Backdrop, backdropOf, backdropRect, calibratedDocument } from './calibration';
+import { Clipboard } from './clipboard';
 import { DocumentStore, linkPoints } from './document-store';
-import { boundsOf, distance, Point, polylineMidpoint, projectOnPolyline, projectOnSegment, Rect, rectContains, snapPoint } from './geometry';
-import { nearestDistances, symbolScale } from './symbol-size';
-import { nearestSurveyPoint, SurveyPoint } from './survey';
+import { elementAnchor, fitRect } from './fitting';
+import { Point, projectOnPolyline, Rect, snapPoint } from './geometry';
+import { HitTester, SegmentHandle } from './hit-test';
+import { handleEditorKey } from './keys';
+import { groundElevationAt } from './survey';
 import { Insets, Viewport } from './viewport';
 
-/** Transient drawing aids the canvas shows on its overlay layer (never part of the document). */
-export interface Preview {
-  marquee?: Rect;
-  rubberBand?: Point[];
-  ghost?: { kind: NodeKind; at: Point };
-  calibration?: [Point, Point];
-}
+export type { Backdrop } from './calibration';
+export { SHORTCUTS } from './keys';
+export type { Preview, VertexRef } from '../tools/tool';
 
 export type EditorChange = 'document' | 'selection' | 'view' | 'preview' | 'tool' | 'hover' | 'message';
 
-/** Link hit tolerance, CSS px either side of the line. */
-const LINK_HIT_PX = 6;
-/** Bend and add-bend handles answer within this many CSS px. */
-const HANDLE_HIT_PX = 7;
-/** A segment shorter than this on screen offers no add-bend handle at its middle. */
-const MIN_SEGMENT_FOR_HANDLE_PX = 36;
-
-/** A bend point of a link: the link id and the index in its `vertices`. */
-export interface VertexRef { link: string; index: number }
-
-/** Keyboard shortcuts, shown by the help dialog and handled by `handleKey`. */
-export const SHORTCUTS: { keys: string; action: string }[] = [
-  { keys: 'V', action: 'Select tool' },
-  { keys: 'H', action: 'Pan tool (or hold Space, or drag with the middle button)' },
-  { keys: 'P', action: 'Draw a pipe' },
-  { keys: 'U', action: 'Draw a pump' },
-  { keys: 'L', action: 'Draw a valve' },
-  { keys: 'F', action: 'Fit the network in view' },
-  { keys: 'G', action: 'Grid snapping on/off' },
-  { keys: 'Delete / Backspace', action: 'Delete the selection (or the chosen bend point)' },
-  { keys: 'Double-click a line', action: 'Add a bend point there' },
-  { keys: 'Double-click a bend', action: 'Remove that bend point' },
-  { keys: 'Ctrl/⌘ C, Ctrl/⌘ V', action: 'Copy, paste (new ids)' },
-  { keys: 'Ctrl/⌘ A', action: 'Select everything' },
-  { keys: 'Ctrl/⌘ S', action: 'Save now' },
-  { keys: 'Ctrl/⌘ Z', action: 'Undo' },
-  { keys: 'Shift Ctrl/⌘ Z, Ctrl Y', action: 'Redo' },
-  { keys: 'Esc', action: 'Cancel the drawing or gesture; clear the selection' },
-  { keys: 'Wheel', action: 'Zoom at the cursor' },
-  { keys: '?', action: 'This help' },
-];
+/** Stands in until a select tool is registered (an editor built with no tools does nothing). */
+const IDLE_TOOL: Tool = { id: 'select', state: 'idle', enter() {}, exit() {}, down() {}, move() {}, up() {}, cancel: () => false };
 
 /**
  * The Layout editor without any browser: the document store, selection, viewport, grid and the
- * active tool. The canvas view and the Angular screen feed it pointer and key input and listen
- * for changes; tests drive it the same way.
+ * active tool, with change notification. The jobs live beside it (hit-test.ts, keys.ts, bends.ts,
+ * fitting.ts, clipboard.ts, calibration.ts); tools come from the registry it is given
+ * (create-editor.ts) and see it only as a `ToolHost`. The canvas view and the Angular screen feed
+ * it pointer and key input and listen for changes; tests drive it the same way.
  */
-export class Editor {
+export class Editor implements ToolHost {
   readonly store: DocumentStore;
   readonly viewport: Viewport;
+  private readonly hits: HitTester;
+  private readonly clipboard = new Clipboard();
   private selected = new Set<string>();
-  private tool: Tool;
-  private panOverride: PanTool | null = null;
+  private current: Tool = IDLE_TOOL;
+  private panOverride: Tool | null = null;
   private listeners = new Set<(what: EditorChange) => void>();
-  private clipboard: { nodes: NetworkNode[]; links: NetworkLink[] } | null = null;
-  private pasteCount = 0;
   preview: Preview = {};
   hover: string | null = null;
   /** Node ids being dragged (the view lifts them to the drag layer). */
@@ -81,8 +49,6 @@ export class Editor {
   selectedVertex: VertexRef | null = null;
   /** True from a fit until the view or the document changes: a canvas resize then fits again. */
   private keepFitted = false;
-  private spacingOf: NetworkNode[] | null = null;
-  private spacing = new Map<string, number>();
   readOnly = false;
   /** The project's unit system: new elements get round defaults in it (kinds/*.ts `*_DEFAULTS`). */
   units: UnitSystem = 'si';
@@ -91,10 +57,11 @@ export class Editor {
   /** Called by the calibrate tool with the two clicked points; the screen asks for the distance. */
   onCalibrationRequest: ((a: Point, b: Point) => void) | null = null;
 
-  constructor(doc?: NetworkDocument, width = 800, height = 600) {
+  constructor(private readonly tools: ToolRegistry, doc?: NetworkDocument, width = 800, height = 600) {
     this.store = new DocumentStore(doc);
     this.viewport = new Viewport(width, height);
-    this.tool = new SelectTool(this);
+    this.hits = new HitTester(() => this.store.doc, this.viewport);
+    this.current = tools['select']?.(this) ?? IDLE_TOOL;
     this.store.subscribe(() => {
       this.keepFitted = false;
       this.pruneSelection();
@@ -112,32 +79,33 @@ export class Editor {
     for (const fn of this.listeners) fn(what);
   }
 
-  // ---- tools ----
-  get activeTool(): Tool {
-    return this.panOverride ?? this.tool;
+  // ---- tools and pointer input ----
+  /** The chosen tool (not a temporary pan). */
+  get tool(): Tool {
+    return this.current;
   }
 
-  setTool(id: ToolId, option?: NodeKind | LinkKind): void {
+  get activeTool(): Tool {
+    return this.panOverride ?? this.current;
+  }
+
+  setTool(id: ToolId, option?: NodeKind | LinkKind | string): void {
     if (this.readOnly && id !== 'select' && id !== 'pan') return;
-    this.tool.exit();
-    this.tool =
-      id === 'place' ? new PlaceTool(this, (option as NodeKind) ?? 'tee')
-      : id === 'link' ? new LinkTool(this, (option as LinkKind) ?? 'pipe')
-      : id === 'pan' ? new PanTool(this)
-      : id === 'calibrate' ? new CalibrateTool(this)
-      : id === 'backdrop' ? new BackdropTool(this)
-      : new SelectTool(this);
-    this.tool.enter();
+    const make = this.tools[id] ?? this.tools['select'];
+    this.current.exit();
+    this.current = make?.(this, option) ?? IDLE_TOOL;
+    this.current.enter();
     this.emit('tool');
   }
 
   pointerDown(p: PointerInput): void {
-    if (p.button === 1 || (this.spaceHeld && p.button === 0)) {
-      this.panOverride = new PanTool(this);
+    const pan = this.tools['pan'];
+    if (pan && (p.button === 1 || (this.spaceHeld && p.button === 0))) {
+      this.panOverride = pan(this);
       this.panOverride.down(p);
       return;
     }
-    this.tool.down(p);
+    this.current.down(p);
   }
 
   pointerMove(p: PointerInput): void {
@@ -146,41 +114,16 @@ export class Editor {
 
   pointerUp(p: PointerInput): void {
     if (this.panOverride) {
-      this.panOverride.up();
+      this.panOverride.up(p);
       this.panOverride = null;
       return;
     }
-    this.tool.up(p);
+    this.current.up(p);
   }
 
-  /**
-   * Keyboard input (key as in KeyboardEvent.key). Returns true when handled so the caller can
-   * prevent the browser default.
-   */
+  /** Keyboard input (key as in KeyboardEvent.key); true when handled (keys.ts). */
   handleKey(key: string, mods: { mod: boolean; shift: boolean }): boolean {
-    const k = key.length === 1 ? key.toLowerCase() : key;
-    if (mods.mod) {
-      if (k === 'z' && !mods.shift) return this.undo(), true;
-      if ((k === 'z' && mods.shift) || k === 'y') return this.redo(), true;
-      if (k === 'c') return this.copy(), true;
-      if (k === 'v') return this.paste(), true;
-      if (k === 'a') return this.select([...this.store.doc.nodes.map((n) => n.id), ...this.store.doc.links.map((l) => l.id)]), true;
-      return false;
-    }
-    if (this.tool.key?.(key)) return true;
-    if (k === 'Escape') {
-      if (!this.activeTool.cancel()) this.select([]);
-      return true;
-    }
-    if (k === 'Delete' || k === 'Backspace') return this.deleteSelection(), true;
-    if (k === 'v') return this.setTool('select'), true;
-    if (k === 'h') return this.setTool('pan'), true;
-    if (k === 'p') return this.setTool('link', 'pipe'), true;
-    if (k === 'u') return this.setTool('link', 'pump'), true;
-    if (k === 'l') return this.setTool('link', 'valve'), true;
-    if (k === 'f') return this.fitToView(), true;
-    if (k === 'g') return this.toggleSnap(), true;
-    return false;
+    return handleEditorKey(this, key, mods);
   }
 
   // ---- selection ----
@@ -198,6 +141,10 @@ export class Editor {
     this.selected = next;
     this.selectedVertex = null;
     this.emit('selection');
+  }
+
+  selectAll(): void {
+    this.select([...this.store.doc.nodes.map((n) => n.id), ...this.store.doc.links.map((l) => l.id)]);
   }
 
   toggleSelected(id: string): void {
@@ -225,111 +172,54 @@ export class Editor {
     }
   }
 
-  // ---- hit testing (pure maths on the document; Konva shapes do not listen) ----
-  /**
-   * Scale (0.5…1) at which a node's symbol is drawn now: smaller at whole-site zoom and where
-   * neighbours crowd it (`symbol-size.ts`). The canvas draws with it and hit testing uses it.
-   */
+  // ---- hit testing (hit-test.ts) ----
   symbolScale(id: string): number {
-    const nodes = this.store.doc.nodes;
-    if (this.spacingOf !== nodes) {
-      const d = nearestDistances(nodes.map((n) => ({ x: n.x_m ?? 0, y: n.y_m ?? 0 })));
-      this.spacing = new Map(nodes.map((n, i) => [n.id, d[i]]));
-      this.spacingOf = nodes;
-    }
-    return symbolScale((this.spacing.get(id) ?? Infinity) * this.viewport.scale, this.viewport.scale);
+    return this.hits.symbolScale(id);
   }
 
-  /** Topmost element under a screen point: nodes first (the nearest within its drawn symbol), then links. */
   hitTest(screen: Point): string | null {
-    const doc = this.store.doc;
-    let best: { id: string; d: number } | null = null;
-    for (const n of doc.nodes) {
-      const s = this.viewport.toScreen({ x: n.x_m ?? 0, y: n.y_m ?? 0 });
-      const d = distance(s, screen);
-      const r = Math.max(6, NODE_KINDS[n.kind].hitRadiusPx * this.symbolScale(n.id));
-      if (d <= r && (!best || d < best.d)) best = { id: n.id, d };
-    }
-    if (best) return best.id;
-    const world = this.viewport.toWorld(screen);
-    const tol = this.viewport.metres(LINK_HIT_PX);
-    const byId = new Map(doc.nodes.map((n) => [n.id, n]));
-    for (const l of doc.links) {
-      const d = projectOnPolyline(world, linkPoints(l, byId)).distance;
-      if (d <= tol && (!best || d < best.d)) best = { id: l.id, d };
-    }
-    return best?.id ?? null;
+    return this.hits.hitTest(screen);
   }
 
-  /** A bend point of the single selected link under a screen point (within 7 px), or null. */
+  /** A bend point of the single selected link under a screen point, or null. */
   vertexAt(screen: Point): VertexRef | null {
-    const link = this.singleSelectedLink();
-    const i = link?.vertices?.findIndex(([x, y]) => distance(this.viewport.toScreen({ x, y }), screen) <= HANDLE_HIT_PX) ?? -1;
-    return link && i >= 0 ? { link: link.id, index: i } : null;
+    return this.hits.vertexAt(this.singleSelectedLink(), screen);
   }
 
-  /**
-   * Add-bend handles of the single selected link: the screen middle of each segment long enough
-   * on screen to take one. `segment` i runs from drawn point i to i + 1 (0 is the start node).
-   */
-  segmentHandles(): { link: string; segment: number; screen: Point }[] {
-    const link = this.singleSelectedLink();
-    if (!link || this.readOnly) return [];
-    const pts = linkPoints(link, this.store.doc).map((p) => this.viewport.toScreen(p));
-    const out: { link: string; segment: number; screen: Point }[] = [];
-    for (let i = 1; i < pts.length; i++) {
-      if (distance(pts[i - 1], pts[i]) < MIN_SEGMENT_FOR_HANDLE_PX) continue;
-      out.push({ link: link.id, segment: i - 1, screen: { x: (pts[i - 1].x + pts[i].x) / 2, y: (pts[i - 1].y + pts[i].y) / 2 } });
-    }
-    return out;
+  /** Add-bend handles of the single selected link (none when read-only). */
+  segmentHandles(): SegmentHandle[] {
+    return this.readOnly ? [] : this.hits.segmentHandles(this.singleSelectedLink());
   }
 
-  /** The add-bend handle under a screen point, or null. */
   segmentHandleAt(screen: Point): { link: string; segment: number } | null {
-    const h = this.segmentHandles().find((s) => distance(s.screen, screen) <= HANDLE_HIT_PX);
-    return h ? { link: h.link, segment: h.segment } : null;
+    return this.readOnly ? null : this.hits.segmentHandleAt(this.singleSelectedLink(), screen);
   }
 
-  private singleSelectedLink(): NetworkLink | undefined {
+  elementsInRect(r: Rect): string[] {
+    return this.hits.elementsInRect(r);
+  }
+
+  private singleSelectedLink() {
     return this.selected.size === 1 ? this.store.link([...this.selected][0]) : undefined;
   }
 
-  // ---- bend points ----
-  /**
-   * Insert a bend point into a link at a world point: into `segment` when given, else into the
-   * segment nearest the point. Returns its index in `vertices`, or null. Outside a gesture this
-   * is one undo step; pipe lengths follow the drawing.
-   */
+  // ---- bend points (bends.ts) ----
+  /** Insert a bend into a link (see `withBend`); its index, or null. One undo step outside a gesture. */
   insertVertex(linkId: string, at: Point, segment?: number): number | null {
     const link = this.store.link(linkId);
-    if (this.readOnly || !link) return null;
-    const pts = linkPoints(link, this.store.doc);
-    let seg = segment ?? 0;
-    if (segment === undefined) {
-      let best = Infinity;
-      for (let i = 1; i < pts.length; i++) {
-        const d = projectOnSegment(at, pts[i - 1], pts[i]).distance;
-        if (d < best) {
-          best = d;
-          seg = i - 1;
-        }
-      }
-    }
-    const vertices = [...(link.vertices ?? [])];
-    if (seg < 0 || seg > vertices.length) return null;
-    vertices.splice(seg, 0, [at.x, at.y]);
-    this.store.patchElement(link.id, { vertices });
-    this.selectedVertex = { link: link.id, index: seg };
-    return seg;
+    const next = this.readOnly || !link ? null : withBend(this.store, link, at, segment);
+    if (!next) return null;
+    this.store.patchElement(linkId, { vertices: next.vertices });
+    this.selectedVertex = { link: linkId, index: next.index };
+    return next.index;
   }
 
   /** Remove a bend point (one undo step). */
   removeVertex(ref: VertexRef): boolean {
-    const link = this.store.link(ref.link);
-    if (this.readOnly || !link?.vertices || ref.index < 0 || ref.index >= link.vertices.length) return false;
-    const vertices = link.vertices.filter((_, i) => i !== ref.index);
+    const vertices = this.readOnly ? null : withoutBend(this.store.link(ref.link), ref);
+    if (!vertices) return false;
     this.selectedVertex = null;
-    this.store.patchElement(link.id, { vertices });
+    this.store.patchElement(ref.link, { vertices });
     return true;
   }
 
@@ -341,8 +231,7 @@ export class Editor {
 
   /**
    * Double-click with the Select tool: on a bend handle of the selected link it removes that bend;
-   * on a link (pipe, pump or valve line) it selects it and adds a bend point on the line there.
-   * Returns true when something changed.
+   * on a line it selects the line and adds a bend there. True when something changed.
    */
   doubleClick(p: PointerInput): boolean {
     if (this.readOnly || this.activeTool.id !== 'select') return false;
@@ -356,15 +245,6 @@ export class Editor {
     const index = this.insertVertex(link.id, on);
     this.emit('preview');
     return index !== null;
-  }
-
-  /** Nodes inside a world rectangle, and links whose whole line is inside it. */
-  elementsInRect(r: Rect): string[] {
-    const doc = this.store.doc;
-    const byId = new Map(doc.nodes.map((n) => [n.id, n]));
-    const ids = doc.nodes.filter((n) => rectContains(r, { x: n.x_m ?? 0, y: n.y_m ?? 0 })).map((n) => n.id);
-    for (const l of doc.links) if (linkPoints(l, byId).every((p) => rectContains(r, p))) ids.push(l.id);
-    return ids;
   }
 
   // ---- view ----
@@ -406,16 +286,9 @@ export class Editor {
     else this.emit('view');
   }
 
-  /** Fit every node, bend point and the backdrop into view. */
+  /** Fit every node, bend point and the backdrop into view (fitting.ts). */
   fitToView(): void {
-    const doc = this.store.doc;
-    const pts: Point[] = doc.nodes.map((n) => ({ x: n.x_m ?? 0, y: n.y_m ?? 0 }));
-    for (const l of doc.links) for (const [x, y] of l.vertices ?? []) pts.push({ x, y });
-    const b = this.backdropRect();
-    if (b) pts.push({ x: b.x, y: b.y }, { x: b.x + b.width, y: b.y + b.height });
-    const r = boundsOf(pts) ?? { x: -50, y: -50, width: 100, height: 100 };
-    const pad = Math.max(r.width, r.height) < 20 ? 20 : 0;
-    this.viewport.fit({ x: r.x - pad / 2, y: r.y - pad / 2, width: r.width + pad, height: r.height + pad }, this.fitInsets);
+    this.viewport.fit(fitRect(this.store.doc, this.backdropRect()), this.fitInsets);
     this.keepFitted = true;
     this.emit('view');
   }
@@ -423,11 +296,8 @@ export class Editor {
   /** Select an element and, when it lies outside the view, centre the view on it. */
   reveal(id: string): void {
     this.select([id]);
-    const n = this.store.node(id);
-    const l = n ? undefined : this.store.link(id);
-    const pts = n ? [{ x: n.x_m ?? 0, y: n.y_m ?? 0 }] : l ? linkPoints(l, this.store.doc) : [];
-    if (!pts.length) return;
-    const c = pts.length === 1 ? pts[0] : polylineMidpoint(pts).point;
+    const c = elementAnchor(this.store.doc, id);
+    if (!c) return;
     const s = this.viewport.toScreen(c);
     const margin = 40;
     if (s.x < margin || s.y < margin || s.x > this.viewport.width - margin || s.y > this.viewport.height - margin) {
@@ -476,20 +346,9 @@ export class Editor {
     return id;
   }
 
-  /**
-   * Best guess of the ground elevation at a point for a new element: the nearest survey point,
-   * else the nearest existing node's elevation, else null (the kind's default).
-   */
+  /** Best guess of the ground elevation for a new element at a point (survey.ts `groundElevationAt`). */
   groundElevationAt(p: Point): number | null {
-    const survey = (this.store.doc.layout?.['survey'] as { points?: SurveyPoint[] } | undefined)?.points ?? [];
-    const near = nearestSurveyPoint(survey, p);
-    if (near) return near.point.elevation_m;
-    let best: { z: number; d: number } | null = null;
-    for (const n of this.store.doc.nodes) {
-      const d = distance(p, { x: n.x_m ?? 0, y: n.y_m ?? 0 });
-      if (!best || d < best.d) best = { z: n.elevation_m, d };
-    }
-    return best ? best.z : null;
+    return groundElevationAt(this.store.doc, p);
   }
 
   /** Add a link between two nodes; returns its id. One undo step. */
@@ -521,58 +380,28 @@ export class Editor {
     this.store.redo();
   }
 
-  /** Copy the selected nodes and the links among them (links need both ends copied). */
+  // ---- clipboard (clipboard.ts) ----
   copy(): void {
-    const doc = this.store.doc;
-    const nodes = doc.nodes.filter((n) => this.selected.has(n.id));
-    const ids = new Set(nodes.map((n) => n.id));
-    const links = doc.links.filter((l) => ids.has(l.from) && ids.has(l.to));
-    this.clipboard = structuredClone({ nodes, links });
-    this.pasteCount = 0;
-    this.flash(`Copied ${nodes.length + links.length} element(s)`);
+    const n = this.clipboard.copy(this.store.doc, this.selected);
+    this.flash(`Copied ${n} element(s)`);
   }
 
-  /** Paste the clipboard offset down-right, with new ids; the pasted elements become the selection. */
+  /** Paste offset down-right, with new ids; the pasted elements become the selection. */
   paste(): void {
-    if (this.readOnly || !this.clipboard) return;
-    this.pasteCount++;
-    const offset = Math.max(this.grid.step_m, this.viewport.metres(24)) * this.pasteCount;
-    const doc = this.store.doc;
-    const nodeIds = doc.nodes.map((n) => n.id);
-    const linkIds = doc.links.map((l) => l.id);
-    const rename = new Map<string, string>();
-    const nodes = this.clipboard.nodes.map((n) => {
-      const id = nextId(NODE_KINDS[n.kind].prefix, nodeIds);
-      nodeIds.push(id);
-      rename.set(n.id, id);
-      const name = n.name && n.name !== n.id ? n.name + ' copy' : id;
-      return { ...structuredClone(n), id, name, x_m: (n.x_m ?? 0) + offset, y_m: (n.y_m ?? 0) - offset } as NetworkNode;
-    });
-    const links = this.clipboard.links.map((l) => {
-      const id = nextId(LINK_KINDS[l.kind].prefix, linkIds);
-      linkIds.push(id);
-      const name = l.name && l.name !== l.id ? l.name + ' copy' : id;
-      return {
-        ...structuredClone(l), id, name, from: rename.get(l.from) ?? l.from, to: rename.get(l.to) ?? l.to,
-        vertices: (l.vertices ?? []).map(([x, y]) => [x + offset, y - offset] as [number, number]),
-      } as NetworkLink;
-    });
-    this.store.addMany(nodes, links);
-    this.select([...nodes.map((n) => n.id), ...links.map((l) => l.id)]);
+    if (this.readOnly) return;
+    const pasted = this.clipboard.paste(this.store.doc, Math.max(this.grid.step_m, this.viewport.metres(24)));
+    if (!pasted) return;
+    this.store.addMany(pasted.nodes, pasted.links);
+    this.select([...pasted.nodes.map((n) => n.id), ...pasted.links.map((l) => l.id)]);
   }
 
-  // ---- backdrop and scale ----
+  // ---- backdrop and scale (calibration.ts) ----
   backdrop(): Backdrop | null {
-    const b = this.store.doc.layout?.['backdrop'];
-    return b && typeof b === 'object' ? (b as Backdrop) : null;
+    return backdropOf(this.store.doc);
   }
 
   backdropRect(): Rect | null {
-    const b = this.backdrop();
-    if (!b) return null;
-    const w = b.width_px * b.m_per_px;
-    const h = b.height_px * b.m_per_px;
-    return { x: b.x_m, y: b.y_m - h, width: w, height: h };
+    return backdropRect(this.backdrop());
   }
 
   requestCalibration(a: Point, b: Point): void {
@@ -581,33 +410,15 @@ export class Editor {
 
   /**
    * The two points are `distance_m` apart in reality: rescale the backdrop about point a so they
-   * are, and with `network: true` the drawn network too (when it was drawn over the unscaled
-   * backdrop). One undo step; drawn pipe lengths follow.
+   * are, and with `network: true` the drawn network too. One undo step; drawn pipe lengths follow.
    */
   applyCalibration(a: Point, b: Point, distance_m: number, options: { network: boolean } = { network: true }): boolean {
-    const drawn = distance(a, b);
-    if (!(drawn > 0) || !(distance_m > 0) || this.readOnly) return false;
-    const f = distance_m / drawn;
-    const sc = (x: number, y: number): [number, number] => [a.x + (x - a.x) * f, a.y + (y - a.y) * f];
+    const next = this.readOnly ? null : calibratedDocument(this.store.doc, a, b, distance_m, options.network);
+    if (!next) return false;
     this.store.begin('set scale');
-    this.store.update('set scale', (d) => {
-      const nodes = !options.network ? d.nodes : d.nodes.map((n) => {
-        const [x, y] = sc(n.x_m ?? 0, n.y_m ?? 0);
-        return { ...n, x_m: x, y_m: y };
-      });
-      const links = !options.network ? d.links : d.links.map((l) => (l.vertices?.length ? { ...l, vertices: l.vertices.map(([x, y]) => sc(x, y)) } : l));
-      const layout = { ...(d.layout ?? {}) };
-      const bd = layout['backdrop'] as Backdrop | undefined;
-      const bb = sc(b.x, b.y);
-      if (bd) {
-        const [x, y] = sc(bd.x_m, bd.y_m);
-        layout['backdrop'] = { ...bd, x_m: x, y_m: y, m_per_px: bd.m_per_px * f, scale: { a: [a.x, a.y], b: bb, distance_m } };
-      }
-      return { ...d, nodes, links, layout };
-    });
+    this.store.update('set scale', () => next);
     // Re-measure drawn pipe lengths at the new scale.
-    const ids = this.store.doc.nodes.map((n) => n.id);
-    this.store.moveNodes(ids, 0, 0);
+    this.store.moveNodes(this.store.doc.nodes.map((n) => n.id), 0, 0);
     this.store.commit();
     this.setPreview({});
     this.setTool('select');
@@ -628,18 +439,4 @@ export class Editor {
     const k = this.kindOf(id);
     return k !== null && isNodeKind(k);
   }
-}
-
-/** The site backdrop image, placed in world metres (stored in doc.layout.backdrop). */
-export interface Backdrop {
-  fileId: string;
-  opacity: number;
-  /** World position of the image's top-left corner, m. */
-  x_m: number;
-  y_m: number;
-  m_per_px: number;
-  width_px: number;
-  height_px: number;
-  /** The two points and the distance typed when calibrating. */
-  scale?: { a: [number, number]; b: [number, number]; distance_m: number };
 }

@@ -42,6 +42,26 @@ export function nearestSurveyPoint(points: readonly SurveyPoint[], p: Point): { 
   return best;
 }
 
+/** The survey points kept in a document (doc.layout.survey.points), or none. */
+export function surveyPointsOf(doc: NetworkDocument): SurveyPoint[] {
+  return (doc.layout?.['survey'] as { points?: SurveyPoint[] } | undefined)?.points ?? [];
+}
+
+/**
+ * Best guess of the ground elevation at a point for a new element: the nearest survey point,
+ * else the nearest existing node's elevation, else null (the kind's default).
+ */
+export function groundElevationAt(doc: NetworkDocument, p: Point): number | null {
+  const near = nearestSurveyPoint(surveyPointsOf(doc), p);
+  if (near) return near.point.elevation_m;
+  let best: { z: number; d: number } | null = null;
+  for (const n of doc.nodes) {
+    const d = distance(p, { x: n.x_m ?? 0, y: n.y_m ?? 0 });
+    if (!best || d < best.d) best = { z: n.elevation_m, d };
+  }
+  return best ? best.z : null;
+}
+
 /**
  * Ground profile of a link from survey points within `corridor_m` of its line: pairs
  * [chainage from the `from` end (m), ground elevation (m)] sorted by chainage, starting at 0 and

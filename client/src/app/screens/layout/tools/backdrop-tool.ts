@@ -1,6 +1,5 @@
-import type { Editor } from '../editor/editor';
 import type { Point } from '../editor/geometry';
-import type { PointerInput, Tool } from './tool';
+import type { PointerInput, Tool, ToolHost } from './tool';
 
 /**
  * Move the site backdrop: drag anywhere to slide the image under the network (to line it up with
@@ -13,7 +12,7 @@ export class BackdropTool implements Tool {
   private start: Point | null = null;
   private origin: { x_m: number; y_m: number } | null = null;
 
-  constructor(private readonly ed: Editor) {}
+  constructor(private readonly ed: ToolHost) {}
 
   enter(): void {
     this.state = 'idle';

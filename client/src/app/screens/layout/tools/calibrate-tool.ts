@@ -1,6 +1,5 @@
-import type { Editor } from '../editor/editor';
 import type { Point } from '../editor/geometry';
-import type { PointerInput, Tool } from './tool';
+import type { PointerInput, Tool, ToolHost } from './tool';
 
 /**
  * Calibrate the scale: click two points whose real distance is known; the editor then asks for
@@ -11,7 +10,7 @@ export class CalibrateTool implements Tool {
   state: 'first' | 'second' | 'asking' = 'first';
   private a: Point | null = null;
 
-  constructor(private readonly ed: Editor) {}
+  constructor(private readonly ed: ToolHost) {}
 
   enter(): void {
     this.state = 'first';

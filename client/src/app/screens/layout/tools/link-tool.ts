@@ -1,7 +1,6 @@
 import type { LinkKind } from '../../../../../../engine/network-document';
-import type { Editor } from '../editor/editor';
 import type { Point } from '../editor/geometry';
-import type { PointerInput, Tool } from './tool';
+import type { PointerInput, Tool, ToolHost } from './tool';
 
 /**
  * Draw a pipe, pump or valve: click a start element, click empty space for bend points, click an
@@ -16,7 +15,7 @@ export class LinkTool implements Tool {
   private vertices: Point[] = [];
   private cursor: Point | null = null;
 
-  constructor(private readonly ed: Editor, readonly kind: LinkKind) {}
+  constructor(private readonly ed: ToolHost, readonly kind: LinkKind) {}
 
   enter(): void {
     this.reset();

@@ -1,6 +1,5 @@
-import type { Editor } from '../editor/editor';
 import type { Point } from '../editor/geometry';
-import type { PointerInput, Tool } from './tool';
+import type { PointerInput, Tool, ToolHost } from './tool';
 
 /** Pan: drag anywhere to move the view. Also used for space+drag and middle-button drags. */
 export class PanTool implements Tool {
@@ -8,7 +7,7 @@ export class PanTool implements Tool {
   state: 'idle' | 'panning' = 'idle';
   private last: Point | null = null;
 
-  constructor(private readonly ed: Editor) {}
+  constructor(private readonly ed: ToolHost) {}
 
   enter(): void {
     this.state = 'idle';

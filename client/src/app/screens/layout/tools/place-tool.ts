@@ -1,6 +1,5 @@
 import type { NodeKind } from '../../../../../../engine/network-document';
-import type { Editor } from '../editor/editor';
-import type { PointerInput, Tool } from './tool';
+import type { PointerInput, Tool, ToolHost } from './tool';
 
 /**
  * Place: a ghost of the element follows the pointer (snapped); a click places it and selects it.
@@ -10,7 +9,7 @@ export class PlaceTool implements Tool {
   readonly id = 'place' as const;
   state: 'aiming' = 'aiming';
 
-  constructor(private readonly ed: Editor, readonly kind: NodeKind) {}
+  constructor(private readonly ed: ToolHost, readonly kind: NodeKind) {}
 
   enter(): void {
     this.state = 'aiming';

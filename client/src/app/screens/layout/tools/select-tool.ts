@@ -1,7 +1,6 @@
 import type { NetworkDocument } from '../../../../../../engine/network-document';
-import type { Editor } from '../editor/editor';
 import { distance, Point, rectFromCorners } from '../editor/geometry';
-import type { PointerInput, Tool } from './tool';
+import type { PointerInput, Tool, ToolHost } from './tool';
 
 /** Pixels the pointer must travel before a press becomes a drag. */
 const DRAG_THRESHOLD_PX = 3;
@@ -23,7 +22,7 @@ export class SelectTool implements Tool {
   private dragFrom: NetworkDocument | null = null;
   private baseSelection: string[] = [];
 
-  constructor(private readonly ed: Editor) {}
+  constructor(private readonly ed: ToolHost) {}
 
   enter(): void {
     this.state = 'idle';
