@@ -117,6 +117,17 @@ export interface BrowserApp {
 }
 
 /**
+ * Asks the app for its browser-test hooks (e.g. the Layout's `window.__runnelEditor`), which
+ * production pages never load: the flag is set before any page script runs.
+ */
+export async function withTestHooks(context: BrowserContext): Promise<BrowserContext> {
+  await context.addInitScript(() => {
+    (window as unknown as { __runnelTestHooks?: boolean }).__runnelTestHooks = true;
+  });
+  return context;
+}
+
+/**
  * Registers a spec file's mocha hooks: one server and one browser for the file (skipped where
  * Chromium is missing), and a fresh context and page for each test, closed after it.
  */
@@ -142,7 +153,7 @@ export function useBrowserApp(options: { viewport?: Viewport } = {}): BrowserApp
     await app?.stop();
   });
   beforeEach(async () => {
-    context = await need(browser, 'browser').newContext({ viewport });
+    context = await withTestHooks(await need(browser, 'browser').newContext({ viewport }));
     page = await context.newPage();
   });
   afterEach(async () => {
@@ -158,7 +169,7 @@ export function useBrowserApp(options: { viewport?: Viewport } = {}): BrowserApp
     get context() { return need(context, 'context'); },
     get page() { return need(page, 'page'); },
     async newContext(size?: Viewport) {
-      const c = await need(browser, 'browser').newContext({ viewport: size ?? viewport });
+      const c = await withTestHooks(await need(browser, 'browser').newContext({ viewport: size ?? viewport }));
       extra.push(c);
       return c;
     },

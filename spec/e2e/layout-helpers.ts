@@ -16,7 +16,7 @@ export interface E2eDoc { schema: string; headloss: string; nodes: E2eNode[]; li
 export interface NetworkRecord { version: number; document: E2eDoc; results: unknown; updatedAt: string | null; updatedBy: string | null }
 
 /**
- * The editor's test hook, as client/src/app/screens/layout/layout-screen.ts declares it (RunnelEditorHook).
+ * The editor's test hook, as client/src/app/screens/layout/screen/test-hook.ts declares it (RunnelEditorHook).
  * The one declaration for every browser spec; keep the two in step.
  */
 export interface RunnelEditorHook {

@@ -1,3 +1,4 @@
+// Over 400 lines: the one facade tools and the screen talk to; each job it delegates to has its own file.
 import type { LinkKind, NetworkDocument, NodeKind } from '../../../../../../engine/network-document';
 import type { UnitSystem } from '../../../../../../engine/units';
 import { isNodeKind, LINK_KINDS, nextId, NODE_KINDS } from '../kinds';

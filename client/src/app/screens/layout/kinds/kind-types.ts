@@ -43,6 +43,14 @@ export interface NodeKindDef<N extends NetworkNode = NetworkNode> {
   /** A new record; numbers from the kind's `defaults` for `units` (round in that system), stored SI. */
   create(id: string, x_m: number, y_m: number, units?: UnitSystem): N;
   symbol(node: N): ShapeSpec[];
+  /** The fields the symbol is drawn from: the canvas redraws a symbol when this string changes. */
+  symbolKey?(node: N): string;
+  /** Label priority on a crowded plan (lower is placed first; the selection is 0). */
+  labelRank: number;
+  /** Whether the plan and the results list show this kind's pressure (else its head). */
+  showsPressure: boolean;
+  /** The pressure the element needs, m of water (0 when it needs none). */
+  requiredPressure_m?(node: N): number;
   fields: FieldSpec[];
   /** Messages for combinations of fields that are each valid alone. */
   check?(node: N, doc: NetworkDocument): string[];
@@ -57,6 +65,10 @@ export interface LinkKindDef<L extends NetworkLink = NetworkLink> {
   stroke: { colour: string; widthPx: number; dash?: number[] };
   /** Symbol drawn at the middle of the line, rotated along it (pointing from → to); empty for none. */
   midSymbol(link: L): ShapeSpec[];
+  /** Whether the plan shows a velocity beside the line (pipes; a pump or valve has no bore of its own). */
+  showsVelocity: boolean;
+  /** The results list's value for this link: flow and velocity, or what a pump adds. */
+  resultText(flow: string, velocity: string, addedHead: string): string;
   fields: FieldSpec[];
   check?(link: L, doc: NetworkDocument): string[];
 }

@@ -57,6 +57,10 @@ export const outletKind: NodeKindDef<OutletNode> = {
   label: 'Outlet',
   prefix: 'O',
   hitRadiusPx: 14,
+  labelRank: 1,
+  showsPressure: true,
+  requiredPressure_m: (o) => o.min_pressure_m ?? 0,
+  symbolKey: (o) => o.outlet_type ?? '',
   create: (id, x_m, y_m, units = 'si') => ({
     id, kind: 'outlet', name: id, elevation_m: 0, ...siDefaults(OUTLET_DEFAULTS, units), outlet_type: 'hose-bib',
     demand_model: { type: 'fixed' }, x_m, y_m,

@@ -19,6 +19,8 @@ export const pipeKind: LinkKindDef<PipeLink> = {
     ...catalogueFields(DEFAULT_PIPE.series, DEFAULT_PIPE.nominal, 'hazen-williams'),
   }),
   stroke: { colour: INK, widthPx: 2.5 },
+  showsVelocity: true,
+  resultText: (flow, velocity) => `${flow} · ${velocity}`,
   midSymbol: () => [],
   fields: [
     nameField,

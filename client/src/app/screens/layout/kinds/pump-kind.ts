@@ -23,6 +23,9 @@ export const pumpKind: LinkKindDef<PumpLink> = {
   prefix: 'Pu',
   create: (id, from, to, vertices, units = 'si') => ({ id, kind: 'pump', name: id, from, to, vertices, ...siDefaults(PUMP_DEFAULTS, units), schedule: [...DAYLIGHT_SCHEDULE] }),
   stroke: { colour: INK, widthPx: 2.5, dash: [8, 4] },
+  showsVelocity: false,
+  // A pump has no bore of its own: the results list shows the head it adds instead of a velocity.
+  resultText: (flow, _velocity, addedHead) => `${flow} · +${addedHead} head`,
   midSymbol: () => [
     { t: 'circle', r: 11, fill: PAPER, stroke: INK, sw: 2 },
     { t: 'poly', points: [-5, -6, 7, 0, -5, 6], closed: true, fill: INK },

@@ -13,6 +13,8 @@ export const sourceKind: NodeKindDef<SourceNode> = {
   label: 'Source',
   prefix: 'S',
   hitRadiusPx: 14,
+  labelRank: 2,
+  showsPressure: false,
   create: (id, x_m, y_m, units = 'si') => ({ id, kind: 'source', name: id, elevation_m: 0, ...siDefaults(SOURCE_DEFAULTS, units), source_type: 'spring', x_m, y_m }),
   symbol: () => [
     { t: 'circle', r: 12, fill: WATER, stroke: INK, sw: 2 },

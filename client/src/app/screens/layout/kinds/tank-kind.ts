@@ -16,6 +16,9 @@ export const tankKind: NodeKindDef<TankNode> = {
   label: 'Tank',
   prefix: 'T',
   hitRadiusPx: 16,
+  labelRank: 2,
+  showsPressure: false,
+  symbolKey: (t) => `${t.level_m}|${t.max_level_m}`,
   create: (id, x_m, y_m, units = 'si') => ({ id, kind: 'tank', name: id, elevation_m: 0, ...siDefaults(TANK_DEFAULTS, units), x_m, y_m }),
   symbol: (t) => {
     const fillFrac = t.max_level_m > 0 ? Math.max(0, Math.min(1, t.level_m / t.max_level_m)) : 0;

@@ -7,6 +7,8 @@ export const teeKind: NodeKindDef<TeeNode> = {
   label: 'Tee',
   prefix: 'J',
   hitRadiusPx: 10,
+  labelRank: 3,
+  showsPressure: true,
   create: (id, x_m, y_m) => ({ id, kind: 'tee', name: id, elevation_m: 0, demand_m3s: 0, x_m, y_m }),
   symbol: () => [{ t: 'poly', points: [0, -7, 7, 0, 0, 7, -7, 0], closed: true, fill: INK, stroke: INK, sw: 1 }],
   fields: [

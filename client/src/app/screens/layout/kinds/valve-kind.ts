@@ -32,6 +32,8 @@ export const valveKind: LinkKindDef<ValveLink> = {
   prefix: 'V',
   create: (id, from, to, vertices, units = 'si') => ({ id, kind: 'valve', name: id, from, to, vertices, valve_type: 'shutoff', ...siDefaults(VALVE_DEFAULTS, units), open: true }),
   stroke: { colour: INK, widthPx: 2.5 },
+  showsVelocity: false,
+  resultText: (flow, velocity) => `${flow} · ${velocity}`,
   midSymbol: body,
   fields: [
     nameField,

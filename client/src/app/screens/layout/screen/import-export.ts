@@ -1,0 +1,42 @@
+import type { NetworkDocument } from '../../../../../../engine/network-document';
+import { NETWORK_SCHEMA } from '../../../../../../engine/network-document';
+import { validateDocument } from '../../../../../../engine/index';
+import { toGeoJson } from '../editor/geojson-export';
+
+/** File ▸ Export network: the document as JSON. */
+export function exportJson(projectName: string, doc: NetworkDocument): void {
+  download(`${slug(projectName)}-network.json`, JSON.stringify(doc, null, 2), 'application/json');
+}
+
+/** File ▸ Export geometry: GeoJSON in local site metres (geojson-export.ts). */
+export function exportGeoJson(projectName: string, doc: NetworkDocument): void {
+  download(`${slug(projectName)}-network.geojson`, JSON.stringify(toGeoJson(doc), null, 2), 'application/geo+json');
+}
+
+/**
+ * Read an import file: the document, or the problems that stop it (each with the engine's
+ * message), worded for the import dialog.
+ */
+export async function readImport(file: File): Promise<{ doc: NetworkDocument } | { problems: string[] }> {
+  let parsed: unknown;
+  try {
+    parsed = JSON.parse(await file.text());
+  } catch {
+    return { problems: [`${file.name} is not valid JSON.`] };
+  }
+  const problems = validateDocument(parsed).filter((w) => w.code === 'invalid').map((w) => w.message);
+  const doc = parsed as NetworkDocument;
+  if (!problems.length && doc?.schema !== NETWORK_SCHEMA) problems.push(`schema: expected "${NETWORK_SCHEMA}"`);
+  return problems.length ? { problems } : { doc };
+}
+
+function download(filename: string, text: string, type: string): void {
+  const a = document.createElement('a');
+  a.href = `data:${type};charset=utf-8,${encodeURIComponent(text)}`;
+  a.download = filename;
+  a.click();
+}
+
+export function slug(name: string): string {
+  return name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'runnel';
+}
