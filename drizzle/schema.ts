@@ -121,6 +121,17 @@ export const networks = pgTable('networks', {
   updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
 }, (t) => [uniqueIndex('networks_project_idx').on(t.projectId)]);
 
+/** A project's water budget (runnel.budget/1, engine/budget): versioned like the network. */
+export const budgets = pgTable('budgets', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  /** Incremented on every save; a save must name the version it started from. */
+  version: integer('version').notNull(),
+  document: jsonb('document').notNull(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+}, (t) => [uniqueIndex('budgets_project_idx').on(t.projectId)]);
+
 export const files = pgTable('files', {
   id: uuid('id').primaryKey().defaultRandom(),
   projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),

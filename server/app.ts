@@ -20,6 +20,7 @@ import { apiNotFound, errorHandler, notFoundHandler } from './errors';
 import { loadProject } from './project-scope';
 import { createMailer } from './mail/mailer';
 import { startMailSink, type MailSink } from './mail/sink';
+import { budgetRoutes } from './routes/budget';
 import { authRoutes, type SigninLimit } from './routes/auth';
 import { fileRoutes } from './routes/files';
 import { networkRoutes } from './routes/network';
@@ -119,6 +120,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   teamRoutes(api, ctx);
   projectRoutes(api, ctx);
   networkRoutes(api, ctx);
+  budgetRoutes(api, ctx);
   versionRoutes(api, ctx);
   fileRoutes(api, ctx);
 

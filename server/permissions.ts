@@ -23,6 +23,8 @@ export const PERMISSION_TABLE = {
   'project.delete': DESIGNERS,
   'network.read': EVERY_MEMBER,
   'network.write': DESIGNERS,
+  'budget.read': EVERY_MEMBER,
+  'budget.write': DESIGNERS,
   'files.read': EVERY_MEMBER,
   'files.write': DESIGNERS,
   'team.read': EVERY_MEMBER,

@@ -4,11 +4,14 @@
  * project, plus a second team ("Cold Creek Growers") so cross-team isolation can be shown.
  */
 import { and, asc, eq } from 'drizzle-orm';
+import { applyBudget, planBudget } from '../engine/budget';
 import { hillSmallholding } from '../engine/examples/hill-smallholding';
+import { hillSmallholdingBudget } from '../engine/examples/hill-smallholding-budget';
 import { memberships, projects, teams, users } from '../drizzle/schema';
 import { audit } from './audit';
 import type { Db } from './db';
 import { hashPassword } from './auth/passwords';
+import { saveBudget } from './budget/budget-store';
 import { saveNetwork } from './network/network-store';
 import type { Role } from './permissions';
 
@@ -57,10 +60,13 @@ export async function seed(db: Db, { bcryptCost }: { bcryptCost: number }): Prom
     const designer = created.find((u) => u.email === 'designer@runnel.test')!;
     return { demoTeamId: team.id, demoProjectId: project.id, otherTeamId: otherTeam.id, otherProjectId: otherProject.id, designer };
   });
-  // The demo network goes through the same save path as the API, so its results are computed.
+  // The demo network goes through the same save path as the API, so its results are computed; its
+  // outlets already carry the demo budget's design flows, so saving the budget then changes nothing.
   await saveNetwork(db, {
-    projectId: ids.demoProjectId, teamId: ids.demoTeamId, user: ids.designer, expectedVersion: 0, document: hillSmallholding,
+    projectId: ids.demoProjectId, teamId: ids.demoTeamId, user: ids.designer, expectedVersion: 0,
+    document: applyBudget(hillSmallholding, planBudget(hillSmallholdingBudget, hillSmallholding)),
   });
+  await saveBudget(db, { projectId: ids.demoProjectId, teamId: ids.demoTeamId, user: ids.designer, expectedVersion: 0, document: hillSmallholdingBudget });
   return { seeded: true, demoTeamId: ids.demoTeamId, demoProjectId: ids.demoProjectId, otherTeamId: ids.otherTeamId, otherProjectId: ids.otherProjectId };
 }
 

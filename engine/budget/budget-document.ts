@@ -83,3 +83,15 @@ export interface BudgetDocument {
 export const ALL_MONTHS = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12];
 export const MONTH_NAMES = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 export const DEFAULT_HOT_MONTHS = [6, 7, 8];
+
+/**
+ * Peak-sun hours for a new budget: typical mid-latitude northern values (from memory, M); the
+ * screen asks the designer to replace them with the site's own (a solar resource map or the
+ * pump maker's tables).
+ */
+export const TYPICAL_PEAK_SUN_HOURS = [2.5, 3.3, 4.3, 5.2, 5.8, 6.2, 6.3, 5.7, 4.8, 3.7, 2.6, 2.2];
+
+/** The budget of a project that has none yet. */
+export function emptyBudget(): BudgetDocument {
+  return { schema: BUDGET_SCHEMA, uses: [], peak_factor: 3, hot_months: [...DEFAULT_HOT_MONTHS], peak_sun_hours: [...TYPICAL_PEAK_SUN_HOURS] };
+}

@@ -1,6 +1,8 @@
 import { expect } from 'chai';
 import { validateDocument } from '../../engine';
+import { applyBudget, planBudget } from '../../engine/budget';
 import { hillSmallholding } from '../../engine/examples/hill-smallholding';
+import { hillSmallholdingBudget } from '../../engine/examples/hill-smallholding-budget';
 import { insertProject, SMALL_NETWORK } from './fixtures';
 import { startTestApp, type TestApp } from './test-app';
 
@@ -21,11 +23,11 @@ describe('API: network document (optimistic version, validation, server solve)',
     });
   });
 
-  it('the seeded demo project holds the example network, saved through the same path (version 1, results stored)', async () => {
+  it('the seeded demo project holds the example network with the demo budget\'s outlet flows, saved through the same path (version 1, results stored)', async () => {
     const a = await t.signInAs('owner');
     const res = await a.get(url(t.seeded!.demoProjectId)).expect(200);
     expect(res.body.version).to.equal(1);
-    expect(res.body.document).to.deep.equal(JSON.parse(JSON.stringify(hillSmallholding)));
+    expect(res.body.document).to.deep.equal(JSON.parse(JSON.stringify(applyBudget(hillSmallholding, planBudget(hillSmallholdingBudget, hillSmallholding)))));
     expect(res.body.results).to.be.an('object').with.property('converged').that.is.a('boolean');
     expect(res.body.updatedBy).to.equal('Dana Designer');
   });

@@ -8,6 +8,7 @@
 import { randomUUID } from 'node:crypto';
 import { expect } from 'chai';
 import type { Response } from 'supertest';
+import { emptyBudget } from '../../engine/budget';
 import { PERMISSION_TABLE, ROLES, type Access, type Role } from '../../server/permissions';
 import { DEMO_PASSWORD } from '../../server/seed';
 import { insertFile, insertInvitation, insertInvitationRow, insertMember, insertProject, insertSavedProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
@@ -67,6 +68,9 @@ const CASES: Case[] = [
   { method: 'get', path: '/projects/:id/network', access: 'network.read', success: 200, call: (a, t) => a.get(`${p(t)}/network`) },
   { method: 'put', path: '/projects/:id/network', access: 'network.write', success: 200,
     call: async (a, t) => a.put(`/api/projects/${await insertProject(t.db, t.seeded!.demoTeamId)}/network`, { version: 0, document: SMALL_NETWORK }) },
+  { method: 'get', path: '/projects/:id/budget', access: 'budget.read', success: 200, call: (a, t) => a.get(`${p(t)}/budget`) },
+  { method: 'put', path: '/projects/:id/budget', access: 'budget.write', success: 200,
+    call: async (a, t) => a.put(`/api/projects/${await insertProject(t.db, t.seeded!.demoTeamId)}/budget`, { version: 0, document: emptyBudget() }) },
   { method: 'get', path: '/projects/:id/versions', access: 'network.read', success: 200, call: (a, t) => a.get(`${p(t)}/versions`) },
   { method: 'get', path: '/projects/:id/versions/:version', access: 'network.read', success: 200, call: (a, t) => a.get(`${p(t)}/versions/1`) },
   { method: 'get', path: '/projects/:id/versions/:version/compare/:other', access: 'network.read', success: 200,

@@ -1,0 +1,94 @@
+import { expect } from 'chai';
+import { emptyBudget, type BudgetDocument } from '../../engine/budget';
+import { hillSmallholdingBudget } from '../../engine/examples/hill-smallholding-budget';
+import type { NetworkDocument, OutletNode } from '../../engine/network-document';
+import { insertProject, insertSavedProject } from './fixtures';
+import { startTestApp, type TestApp } from './test-app';
+
+describe('API: water budget (versioned, validated, outlet flows carried into the network)', () => {
+  let t: TestApp;
+  before(async () => { t = await startTestApp(); });
+  after(async () => { await t.close(); });
+
+  const url = (id: string) => `/api/projects/${id}/budget`;
+  const outlet = (doc: NetworkDocument, id: string) => doc.nodes.find((n) => n.id === id) as OutletNode;
+
+  it('a project with no budget gives version 0, an empty budget and a plan', async () => {
+    const id = await insertProject(t.db, t.seeded!.demoTeamId);
+    const res = await (await t.signInAs('owner')).get(url(id)).expect(200);
+    expect(res.body.version).to.equal(0);
+    expect(res.body.document).to.deep.equal(emptyBudget());
+    expect(res.body.plan.months).to.have.length(12);
+  });
+
+  it('the demo project has its budget, with monthly verdicts against the saved network', async () => {
+    const res = await (await t.signInAs('owner')).get(url(t.seeded!.demoProjectId)).expect(200);
+    expect(res.body.version).to.equal(1);
+    expect(res.body.document.uses.map((u: { id: string }) => u.id)).to.deep.equal(hillSmallholdingBudget.uses.map((u) => u.id));
+    expect(res.body.plan.verdicts).to.have.length(12);
+    expect(res.body.networkVersion).to.equal(1);
+  });
+
+  it('raising a head count raises the linked trough\'s flow in a new network version with its own results', async () => {
+    const id = await insertProject(t.db, t.seeded!.demoTeamId);
+    const a = await t.signInAs('designer');
+    const { hillSmallholding } = await import('../../engine/examples/hill-smallholding');
+    await a.put(`/api/projects/${id}/network`, { version: 0, document: hillSmallholding }).expect(200);
+    const first = await a.put(url(id), { version: 0, document: hillSmallholdingBudget }).expect(200);
+    expect(first.body.version).to.equal(1);
+    expect(first.body.network.version).to.equal(2);
+    const net1 = (await a.get(`/api/projects/${id}/network`).expect(200)).body;
+    const tr4 = first.body.plan.outlets.find((o: { id: string }) => o.id === 'TR4').design_flow_m3s;
+    expect(outlet(net1.document, 'TR4').demand_m3s).to.be.closeTo(tr4, 1e-15);
+    // the hand-typed hydrant flow is kept ("not from budget")
+    expect(outlet(net1.document, 'HYD').demand_m3s).to.equal(outlet(hillSmallholding, 'HYD').demand_m3s);
+
+    const more: BudgetDocument = { ...hillSmallholdingBudget, uses: hillSmallholdingBudget.uses.map((u) => (u.id === 'herd' ? { ...u, count: 30 } : u)) };
+    const second = await a.put(url(id), { version: 1, document: more }).expect(200);
+    expect(second.body.network.version).to.equal(3);
+    const net2 = (await a.get(`/api/projects/${id}/network`).expect(200)).body;
+    expect(outlet(net2.document, 'TR4').demand_m3s).to.be.closeTo(outlet(net1.document, 'TR4').demand_m3s * 3, 1e-15);
+    expect(net2.results.nodes['TR4'].pressure_m).to.be.below(net1.results.nodes['TR4'].pressure_m);
+    // saving the same budget again changes no flow: no new network version
+    const third = await a.put(url(id), { version: 2, document: more }).expect(200);
+    expect(third.body.network).to.equal(null);
+    expect(third.body.networkVersion).to.equal(3);
+  });
+
+  it('a stale save → 409 with the current budget; the newer save is kept', async () => {
+    const id = await insertSavedProject(t.db, t.seeded!.demoTeamId);
+    const a = await t.signInAs('designer');
+    const b = await t.signInAs('designer');
+    await a.put(url(id), { version: 0, document: emptyBudget() }).expect(200);
+    await a.put(url(id), { version: 1, document: { ...emptyBudget(), peak_factor: 4 } }).expect(200);
+    const stale = await b.put(url(id), { version: 1, document: { ...emptyBudget(), peak_factor: 2 } });
+    expect(stale.status).to.equal(409);
+    expect(stale.body.error.message).to.match(/since you loaded version 1 \(now version 2\)/);
+    expect(stale.body.current.document.peak_factor).to.equal(4);
+  });
+
+  it('bad input is refused naming the row and field, and nothing is saved', async () => {
+    const id = await insertSavedProject(t.db, t.seeded!.demoTeamId);
+    const a = await t.signInAs('designer');
+    const use = { id: 'c', name: 'Cows', kind: 'livestock', months: [1], outlets: ['O1'] };
+    const cases: [unknown, string][] = [
+      [{ ...emptyBudget(), uses: [{ ...use, count: -3 }] }, 'uses[0] "Cows".count: must be a whole number ≥ 0 (got -3)'],
+      [{ ...emptyBudget(), uses: [{ ...use, kind: 'garden', area_m2: 0 }] }, 'uses[0] "Cows".area_m2: must be a number > 0 (got 0)'],
+      [{ ...emptyBudget(), uses: [{ ...use, count: 3, months: [13] }] }, 'uses[0] "Cows".months[0]: must be a whole month 1–12 (got 13)'],
+      [{ ...emptyBudget(), uses: [{ ...use, kind: 'barn' }] }, 'uses[0] "Cows".kind: must be livestock, garden, tunnel, orchard, household or other'],
+      [{ ...emptyBudget(), peak_sun_hours: [1] }, 'peak_sun_hours: must be 12 numbers (January first)'],
+    ];
+    for (const [document, message] of cases) {
+      const res = await a.put(url(id), { version: 0, document }).expect(400);
+      expect(res.body.error.fields.map((f: { message: string }) => f.message)).to.include(message);
+    }
+    expect((await a.get(url(id)).expect(200)).body.version).to.equal(0);
+    expect((await a.get(`/api/projects/${id}/network`).expect(200)).body.version).to.equal(1);
+  });
+
+  it('another team\'s project is 404; owners may read but not save', async () => {
+    const other = await (await t.signInAs('owner')).get(url(t.seeded!.otherProjectId));
+    expect(other.status).to.equal(404);
+    await (await t.signInAs('owner')).put(url(t.seeded!.demoProjectId), { version: 1, document: emptyBudget() }).expect(403);
+  });
+});
