@@ -2,7 +2,7 @@
 export * from './types';
 export { RULES, type Rule, type RuleId } from './rules';
 export { reviewChecklist, failingCheckCount, type ChecklistOptions } from './checklist';
-export type { SupplyInputs } from './supply-checks';
+export { supplyFromBudget, type SupplyInputs } from './supply-checks';
 export { kortewegWaveSpeed, pipeWaveSpeed } from './wave-speed';
 export { joukowskyHead, michaudHead } from './joukowsky';
 export { diffVersions, summariseDiff, compareOutlets, type VersionDiff, type OutletComparison } from './version-diff';

@@ -3,18 +3,20 @@
  * (marks as in REFERENCES.md: V read in the source, V2 secondary copy, C computed, M from memory).
  * Checks import their limits from here so a rule and its source can never drift apart.
  */
+import { DEFAULT_WASTE_ALLOWANCE, SOLAR_STORAGE_DAYS } from '../budget/index';
+import { WORKING_SHARE as PROFILE_WORKING_SHARE } from '../profile/findings';
 import { PSI_PER_METRE_OF_WATER } from '../units';
 
 export interface Rule { id: string; title: string; text: string; source: string }
 
 /** Main-line velocity limit, m/s (5 ft/s). */
 export const VELOCITY_LIMIT_MS = 1.5;
-/** Working pressure share of the rating when surge is not analysed. */
-export const WORKING_SHARE = 0.72;
-/** Days of storage for a solar or otherwise unreliable fill. */
-export const STORAGE_DAYS_UNRELIABLE = 3;
-/** Allowance added to the daily need for evaporation and waste. */
-export const WASTE_ALLOWANCE = 0.1;
+/** Working pressure share of the rating when surge is not analysed (the Profile's constant, one copy). */
+export const WORKING_SHARE = PROFILE_WORKING_SHARE;
+/** Days of storage for a solar or otherwise unreliable fill (the water budget's constant). */
+export const STORAGE_DAYS_UNRELIABLE = SOLAR_STORAGE_DAYS;
+/** Allowance added to the daily need for evaporation and waste (the water budget's constant). */
+export const WASTE_ALLOWANCE = DEFAULT_WASTE_ALLOWANCE;
 /** Trough refill: the daily need delivered within this many hours when stock drink singly. */
 export const TROUGH_REFILL_HOURS = 4;
 /** Outlet pressure margin below which a passing outlet is a caution, as a share of its requirement. */

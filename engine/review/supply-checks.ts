@@ -4,6 +4,7 @@
  * trough's refill time against the herd rule. The daily need comes from the water budget when the
  * caller passes one (`SupplyInputs`), otherwise from the outlets' design flows × their patterns.
  */
+import type { BudgetPlan } from '../budget/index';
 import type { NetworkDocument } from '../network-document';
 import { dailyFactor, nameOf, type ReviewContext } from './review-context';
 import { RULES, STORAGE_DAYS_UNRELIABLE, TROUGH_REFILL_HOURS, WASTE_ALLOWANCE } from './rules';
@@ -11,8 +12,10 @@ import type { CheckRow, CheckStatus } from './types';
 
 /** What the water budget knows better than the network (all optional). */
 export interface SupplyInputs {
-  /** The worst month's daily need, m³/day. */
+  /** The worst month's daily need (smallest fill-minus-need balance), m³/day. */
   worstDailyNeed_m3?: number;
+  /** The largest monthly daily need, m³/day: what storage must carry through cloudy days. */
+  peakDailyNeed_m3?: number;
   worstMonth?: string;
   /** The fill's daily volume in that month (flow × the month's sun hours), m³/day. */
   fillDailyVolume_m3?: number;
@@ -21,6 +24,32 @@ export interface SupplyInputs {
 }
 
 const DAY_S = 86400;
+const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
+
+/**
+ * The water budget's plan (engine/budget planBudget with the network) as supply inputs: the worst
+ * month is the one with the smallest fill-minus-need balance; troughs take their daily volume.
+ */
+export function supplyFromBudget(plan: Pick<BudgetPlan, 'verdicts' | 'outlets' | 'months' | 'peak_month'>, doc: NetworkDocument): SupplyInputs {
+  const out: SupplyInputs = {};
+  const verdicts = (plan.verdicts ?? []).filter((v) => v.daily_need_m3 > 0);
+  if (verdicts.length) {
+    const worst = verdicts.reduce((a, b) => (b.balance_m3 < a.balance_m3 ? b : a));
+    out.worstDailyNeed_m3 = worst.daily_need_m3;
+    out.fillDailyVolume_m3 = worst.daily_fill_m3;
+    out.worstMonth = MONTHS[worst.month - 1];
+    out.peakDailyNeed_m3 = Math.max(...verdicts.map((v) => v.daily_need_m3));
+  } else if (plan.peak_month > 0) {
+    out.worstDailyNeed_m3 = plan.months.find((m) => m.month === plan.peak_month)?.daily_m3;
+    out.worstMonth = MONTHS[plan.peak_month - 1];
+    out.peakDailyNeed_m3 = out.worstDailyNeed_m3;
+  }
+  const troughs = new Set(doc.nodes.filter((n) => n.kind === 'outlet' && n.outlet_type === 'trough').map((n) => n.id));
+  const need: Record<string, number> = {};
+  for (const o of plan.outlets) if (troughs.has(o.id) && o.daily_m3 > 0) need[o.id] = o.daily_m3;
+  if (Object.keys(need).length) out.troughDailyNeed_m3 = need;
+  return out;
+}
 
 /** Daily need from the outlets' (and tees') design flows, each × the mean of its pattern, m³/day. */
 export function dailyNeedFromFlows(doc: NetworkDocument): number {
@@ -66,16 +95,17 @@ export function supplyChecks(ctx: ReviewContext, inputs: SupplyInputs = {}): Che
   const pumps = doc.links.filter((l) => l.kind === 'pump');
   const unreliable = pumps.some((p) => p.kind === 'pump' && (p.schedule ?? []).some((f) => f < 1));
   const storage = usableStorage(doc);
-  if (doc.nodes.some((n) => n.kind === 'tank') && need > 0) {
+  const storageNeed = inputs.peakDailyNeed_m3 ?? need;
+  if (doc.nodes.some((n) => n.kind === 'tank') && storageNeed > 0) {
     const rule = RULES['storage-days'];
-    const days = storage / need;
+    const days = storage / storageNeed;
     const status: CheckStatus = unreliable ? storageStatus(days) : 'pass';
     rows.push({
       key: rule.id, group: 'storage', rule: rule.id, title: rule.title, element: null, status,
       measured: { value: days, quantity: 'days' }, limit: { value: STORAGE_DAYS_UNRELIABLE, quantity: 'days' },
       margin: { value: days - STORAGE_DAYS_UNRELIABLE, quantity: 'days' },
-      detail: [{ label: 'usable storage', amount: { value: storage, quantity: 'volume' } }, { label: 'daily need', amount: { value: need, quantity: 'volume-per-day' } }],
-      note: `${!unreliable ? 'The fill is not on a sun or time schedule, so the 3-day rule for unreliable sources does not apply' : status === 'pass' ? 'Enough storage to ride out cloudy days' : 'Too little storage for a solar fill: add tanks or cut the daily need'}; need from ${needText}`,
+      detail: [{ label: 'usable storage', amount: { value: storage, quantity: 'volume' } }, { label: 'daily need', amount: { value: storageNeed, quantity: 'volume-per-day' } }],
+      note: `${!unreliable ? 'The fill is not on a sun or time schedule, so the 3-day rule for unreliable sources does not apply' : status === 'pass' ? 'Enough storage to ride out cloudy days' : 'Too little storage for a solar fill: add tanks or cut the daily need'}; need from ${fromBudget ? 'the water budget\'s peak month' : needText}`,
       ruleText: rule.text, source: rule.source,
     });
   }

@@ -224,3 +224,28 @@ describe('review checklist: the demo farm', () => {
     expect(failingCheckCount(line({ rating_m: 60 }))).to.equal(reviewChecklist(line({ rating_m: 60 })).rows.filter((r) => r.status === 'fail').length);
   });
 });
+
+describe('review checklist with the water budget (engine/budget)', () => {
+  it('takes the worst month for the fill, the peak month for storage, and each trough\'s herd need for refill', async () => {
+    const { planBudget, applyBudget } = await import('../../engine/budget');
+    const { hillSmallholdingBudget } = await import('../../engine/examples/hill-smallholding-budget');
+    const { supplyFromBudget } = await import('../../engine/review');
+    const plan = planBudget(hillSmallholdingBudget, hillSmallholding);
+    const doc = applyBudget(hillSmallholding, plan);
+    const supply = supplyFromBudget(plan, doc);
+    const verdicts = plan.verdicts!.filter((v) => v.daily_need_m3 > 0);
+    const worst = verdicts.reduce((a, b) => (b.balance_m3 < a.balance_m3 ? b : a));
+    expect(supply.worstDailyNeed_m3).to.equal(worst.daily_need_m3);
+    expect(supply.fillDailyVolume_m3).to.equal(worst.daily_fill_m3);
+    expect(supply.peakDailyNeed_m3).to.equal(Math.max(...verdicts.map((v) => v.daily_need_m3)));
+    const rows = reviewChecklist(doc, { supply }).rows;
+    const fill = rows.find((r) => r.rule === 'fill-daily-volume')!;
+    expect(fill.measured!.value).to.equal(worst.daily_fill_m3);
+    expect(fill.note).to.match(new RegExp(supply.worstMonth!));
+    const tr1 = rows.find((r) => r.rule === 'trough-refill' && r.element === 'TR1')!;
+    expect(tr1.measured!.quantity).to.equal('hours');
+    // Hours to deliver the herd's daily need at the delivered flow (C).
+    const delivered = doc.nodes.find((n) => n.id === 'TR1') as { demand_m3s: number };
+    expect(tr1.measured!.value).to.be.closeTo(supply.troughDailyNeed_m3!.TR1 / delivered.demand_m3s / 3600, 0.01 * tr1.measured!.value);
+  });
+});
