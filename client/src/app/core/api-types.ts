@@ -36,13 +36,26 @@ export interface Invitation {
   id: string;
   email: string;
   roles: Role[];
+  /** Admin override: any signed-in account may accept, not only one with `email`. */
+  anyAccount: boolean;
   createdAt: string;
   acceptedAt: string | null;
   expiresAt: string;
 }
 
 /** What anyone holding an invitation link may see (GET /api/invitations/:token). */
-export interface InvitationPreview { teamName: string; email: string; roles: Role[]; expired: boolean; accepted: boolean }
+export interface InvitationPreview {
+  teamName: string;
+  email: string;
+  roles: Role[];
+  anyAccount: boolean;
+  expired: boolean;
+  accepted: boolean;
+  revoked: boolean;
+  /** Present when signed in: the account's e-mail and whether it may accept (the invited address, or anyAccount). */
+  signedInAs?: string;
+  mayAccept?: boolean;
+}
 
 export interface OutboxMail { id: string; to: string; subject: string; text: string; sentAt: string }
 

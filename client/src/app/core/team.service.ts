@@ -30,8 +30,21 @@ export class TeamService {
     return this.http.get<Invitation[]>('/api/team/invitations');
   }
 
-  invite(email: string, roles: Role[]): Observable<Invitation> {
-    return this.http.post<Invitation>('/api/team/invitations', { email, roles });
+  /** 409 (already a member, or an open invitation) is left to the caller, which shows it on the e-mail field. */
+  invite(email: string, roles: Role[], anyAccount = false): Observable<Invitation> {
+    return this.http.post<Invitation>('/api/team/invitations', { email, roles, anyAccount }, {
+      context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [409]),
+    });
+  }
+
+  /** The link stops working. */
+  revokeInvitation(id: string): Observable<void> {
+    return this.http.delete<void>(`/api/team/invitations/${encodeURIComponent(id)}`).pipe(map(() => undefined));
+  }
+
+  /** Mails a fresh link; the earlier one stops working. */
+  resendInvitation(id: string): Observable<Invitation> {
+    return this.http.post<Invitation>(`/api/team/invitations/${encodeURIComponent(id)}/resend`, {});
   }
 
   /** Public: what an invitation link offers. Errors (404 for an unknown link) are left to the caller. */
@@ -44,7 +57,7 @@ export class TeamService {
   /** `account` is required for a new user and omitted when already signed in. */
   acceptInvitation(token: string, account?: { name: string; password: string }): Observable<Me> {
     return this.http.post<Me>(`/api/invitations/${encodeURIComponent(token)}/accept`, account ?? {}, {
-      context: new HttpContext().set(SKIP_AUTH_REDIRECT, true).set(SKIP_ERROR_SNACKBAR, [400, 401, 409]),
+      context: new HttpContext().set(SKIP_AUTH_REDIRECT, true).set(SKIP_ERROR_SNACKBAR, [400, 401, 403, 409]),
     });
   }
 }

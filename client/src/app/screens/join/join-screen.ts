@@ -66,6 +66,18 @@ export class JoinScreen {
     this.accept(this.team.acceptInvitation(this.token()));
   }
 
+  /** Signed in with another address than the invited one: sign out and come back to this link. */
+  protected switchAccount(): void {
+    this.busy.set(true);
+    this.session.signOut().pipe(takeUntilDestroyed(this.destroyRef)).subscribe({
+      next: () => {
+        this.busy.set(false);
+        this.invitation.reload();
+      },
+      error: () => this.busy.set(false),
+    });
+  }
+
   private accept(request: Observable<Me>): void {
     this.busy.set(true);
     this.error.set(null);

@@ -1,8 +1,10 @@
 import { DatePipe } from '@angular/common';
-import { Component, computed, inject, signal } from '@angular/core';
-import { rxResource } from '@angular/core/rxjs-interop';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { HttpErrorResponse } from '@angular/common/http';
+import { Component, computed, inject, signal, viewChild } from '@angular/core';
+import { rxResource, toSignal } from '@angular/core/rxjs-interop';
+import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -13,7 +15,8 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router } from '@angular/router';
-import { filter, switchMap } from 'rxjs';
+import { filter, map, switchMap } from 'rxjs';
+import { apiErrorMessage } from '../../core/api-errors';
 import { Invitation, Member, ROLES, Role } from '../../core/api-types';
 import { SessionService } from '../../core/session.service';
 import { TeamService } from '../../core/team.service';
@@ -32,7 +35,7 @@ export const ROLE_DESCRIPTIONS: Record<Role, string> = {
   selector: 'rn-team-screen',
   imports: [
     DatePipe, ReactiveFormsModule, MatTableModule, MatSelectModule, MatFormFieldModule, MatInputModule,
-    MatButtonModule, MatIconModule, MatProgressBarModule, MatTooltipModule,
+    MatButtonModule, MatCheckboxModule, MatIconModule, MatProgressBarModule, MatTooltipModule,
   ],
   templateUrl: './team-screen.html',
   styleUrl: './team-screen.scss',
@@ -64,11 +67,31 @@ export class TeamScreen {
   /** Members whose role change is on its way to the server. */
   protected readonly saving = signal<ReadonlySet<string>>(new Set());
 
+  /** No role is chosen in advance: the admin picks each one, so nothing is added unseen. */
   protected readonly inviteForm = inject(NonNullableFormBuilder).group({
     email: ['', [Validators.required, Validators.email]],
-    roles: [['designer'] as Role[], Validators.required],
+    roles: [[] as Role[], Validators.required],
+    anyAccount: [false],
   });
   protected readonly inviting = signal(false);
+  /** Invitations whose resend or revoke is on its way. */
+  protected readonly invitationBusy = signal<ReadonlySet<string>>(new Set());
+  /** resetForm() also clears the form's "submitted" state, which otherwise paints the emptied field red. */
+  private readonly inviteFormDirective = viewChild.required(FormGroupDirective);
+  private readonly typedEmail = toSignal(
+    this.inviteForm.controls.email.valueChanges.pipe(map((value) => value.trim().toLowerCase())),
+    { initialValue: '' },
+  );
+  /** Said before sending: the address is already a member, or already has an open invitation. */
+  protected readonly emailWarning = computed(() => {
+    const email = this.typedEmail();
+    if (!email) return null;
+    const member = this.memberRows().find((m) => m.email.toLowerCase() === email);
+    if (member) return `${member.name} is already a member (${member.roles.join(', ')}). Change their roles above instead.`;
+    const open = this.pending().find((i) => i.email.toLowerCase() === email);
+    if (open) return `${open.email} already has an open invitation below: resend it instead.`;
+    return null;
+  });
 
   protected isSelf(member: Member): boolean {
     return member.userId === this.session.me()?.user.id;
@@ -120,20 +143,80 @@ export class TeamScreen {
   }
 
   protected invite(): void {
-    if (this.inviteForm.invalid) {
+    if (this.inviteForm.invalid || this.emailWarning()) {
       this.inviteForm.markAllAsTouched();
       return;
     }
-    const { email, roles } = this.inviteForm.getRawValue();
+    const { email, roles, anyAccount } = this.inviteForm.getRawValue();
     this.inviting.set(true);
-    this.teamApi.invite(email.trim(), roles).subscribe({
+    this.teamApi.invite(email.trim(), ROLES.filter((role) => roles.includes(role)), anyAccount).subscribe({
       next: (invitation: Invitation) => {
         this.inviting.set(false);
         this.invitations.update((list) => [invitation, ...(list ?? [])]);
-        this.inviteForm.reset({ email: '', roles: ['designer'] });
+        this.inviteFormDirective().resetForm({ email: '', roles: [], anyAccount: false });
         this.snackBar.open(`Invitation sent to ${invitation.email}.`, undefined, { duration: 4000 });
       },
-      error: () => this.inviting.set(false),
+      error: (err: unknown) => {
+        this.inviting.set(false);
+        // Already a member, or an open invitation: say it on the field, where the admin is looking.
+        if (err instanceof HttpErrorResponse && err.status === 409) {
+          this.inviteForm.controls.email.setErrors({ server: apiErrorMessage(err).split('\n')[0] });
+          this.inviteForm.controls.email.markAsTouched();
+          this.members.reload();
+          this.invitations.reload();
+        }
+      },
+    });
+  }
+
+  protected resend(invitation: Invitation): void {
+    this.markInvitation(invitation.id, true);
+    this.teamApi.resendInvitation(invitation.id).subscribe({
+      next: (renewed) => {
+        this.markInvitation(invitation.id, false);
+        this.invitations.update((list) => list?.map((i) => (i.id === renewed.id ? renewed : i)));
+        this.snackBar.open(`A new link was sent to ${renewed.email}; the earlier one no longer works.`, undefined, { duration: 5000 });
+      },
+      error: () => {
+        this.markInvitation(invitation.id, false);
+        this.invitations.reload();
+      },
+    });
+  }
+
+  protected revoke(invitation: Invitation): void {
+    confirmAction(this.dialog, {
+      title: 'Revoke invitation?',
+      message: `The link sent to ${invitation.email} will stop working. You can invite the address again later.`,
+      confirmLabel: 'Revoke',
+      destructive: true,
+    })
+      .pipe(
+        filter(Boolean),
+        switchMap(() => {
+          this.markInvitation(invitation.id, true);
+          return this.teamApi.revokeInvitation(invitation.id);
+        }),
+      )
+      .subscribe({
+        next: () => {
+          this.markInvitation(invitation.id, false);
+          this.invitations.update((list) => list?.filter((i) => i.id !== invitation.id));
+          this.snackBar.open(`Invitation for ${invitation.email} revoked.`, undefined, { duration: 4000 });
+        },
+        error: () => {
+          this.markInvitation(invitation.id, false);
+          this.invitations.reload();
+        },
+      });
+  }
+
+  private markInvitation(id: string, busy: boolean): void {
+    this.invitationBusy.update((set) => {
+      const next = new Set(set);
+      if (busy) next.add(id);
+      else next.delete(id);
+      return next;
     });
   }
 
