@@ -31,3 +31,6 @@ export { partitionNetwork, type Region, type Partition } from './sizing/regions'
 export { designChecks, pipeStaticPressures, type DesignCheck, type OutletCheck, type Failure } from './sizing/verify';
 export { twoLoop, twoLoopPrices } from './examples/two-loop';
 export { demoPipePrices, demoPriceCatalogue } from './examples/demo-prices';
+export * from './takeoff/index';
+export { demoPriceList, type PriceListRow } from './examples/demo-prices';
+export { purchaseUnit, FITTINGS, fittingCode, nominalForDiameter, type PurchaseUnit, type FittingKind } from './pipe-catalogue';

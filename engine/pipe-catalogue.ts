@@ -146,3 +146,85 @@ export function defaultRoughness(material: PipeMaterial | string, headloss: Head
   if (headloss === 'darcy-weisbach') return pe ? 0.007 : 0.0015;
   return pe ? 140 : 150;
 }
+
+/** How the trade sells a series: coils or sticks of a length, joined by couplings or by bells. */
+export interface PurchaseUnit {
+  unit: 'coil' | 'stick';
+  length_m: number;
+  /** Length as sold, in feet (what the store's label says). */
+  length_ft: number;
+  /** Joint between pieces: an insert/compression coupling, or a belled end (no fitting to buy). */
+  joint: 'coupling' | 'bell';
+}
+
+const FT = 0.3048;
+/** Nominal sizes up to 1" in coils of 300 ft, larger PE in coils of 100 ft, 3"–4" PE in 40 ft sticks (common trade practice, M). */
+const SMALL_PE = new Set(['1/2"', '3/4"', '1"']);
+
+/**
+ * Purchase unit of a catalogue item (common trade practice, M): PE (D2239, D3035) in coils of
+ * 300 ft (≤ 1") or 100 ft (1-1/4"–2"), 3"–4" PE in 40 ft sticks, all joined by couplings; PVC in
+ * 20 ft sticks, Schedule 40 plain-end (couplings), D2241 SDR belled (no coupling to buy).
+ * @example purchaseUnit('pe-sidr9', '1"') // { unit: 'coil', length_ft: 300, length_m: 91.44, joint: 'coupling' }
+ */
+export function purchaseUnit(seriesId: string, nominal: string): PurchaseUnit {
+  const series = pipeSeries.find((s) => s.id === seriesId);
+  const make = (unit: 'coil' | 'stick', ft: number, joint: 'coupling' | 'bell'): PurchaseUnit => ({ unit, length_ft: ft, length_m: Math.round(ft * FT * 1e4) / 1e4, joint });
+  if (series?.material === 'pe') {
+    if (SMALL_PE.has(nominal)) return make('coil', 300, 'coupling');
+    if (nominal === '3"' || nominal === '4"') return make('stick', 40, 'coupling');
+    return make('coil', 100, 'coupling');
+  }
+  return make('stick', 20, series?.standard === 'ASTM D2241' ? 'bell' : 'coupling');
+}
+
+export type FittingKind =
+  | 'tee' | 'reducer' | 'elbow-90' | 'elbow-45' | 'coupling' | 'tank-adapter' | 'pump-adapter'
+  | 'valve-shutoff' | 'valve-check' | 'valve-prv' | 'valve-float' | 'air-release-valve' | 'drain-valve';
+
+/**
+ * Fittings the takeoff counts, with the loss coefficient K used for a pipe's minor-loss
+ * allowance. K values are common handbook values in the form tabulated by Crane Technical Paper
+ * 410 (M, from memory; threaded/solvent fittings vary by maker): tee 0.4 along the run, 1.5 through
+ * the branch; standard 90° elbow 0.9, 45° elbow 0.4; reducer (contraction) 0.5; insert coupling
+ * 0.1; tank outlet (sharp entrance) 0.5; open gate-type shut-off 0.2; swing check 2.0; float valve
+ * wide open 3.0 (M). Air-release valves and drains sit off the flow and add none.
+ */
+export const FITTINGS: Record<FittingKind, { label: string; k: number; kBranch?: number }> = {
+  'tee': { label: 'Tee', k: 0.4, kBranch: 1.5 },
+  'reducer': { label: 'Reducer', k: 0.5 },
+  'elbow-90': { label: 'Elbow 90°', k: 0.9 },
+  'elbow-45': { label: 'Elbow 45°', k: 0.4 },
+  'coupling': { label: 'Coupling', k: 0.1 },
+  'tank-adapter': { label: 'Tank adapter (bulkhead)', k: 0.5 },
+  'pump-adapter': { label: 'Pump adapter', k: 0 },
+  'valve-shutoff': { label: 'Shut-off valve', k: 0.2 },
+  'valve-check': { label: 'Check valve', k: 2 },
+  'valve-prv': { label: 'Pressure-reducing valve', k: 0 },
+  'valve-float': { label: 'Float valve', k: 3 },
+  'air-release-valve': { label: 'Air-release valve', k: 0 },
+  'drain-valve': { label: 'Drain valve', k: 0 },
+};
+
+/**
+ * Price-list code of a fitting of a size (`tee/1"`, `reducer/1-1/2"x1"`).
+ * @example fittingCode('tee', '1"') // 'tee/1"'
+ */
+export function fittingCode(kind: FittingKind, size: string): string {
+  return `${kind}/${size}`;
+}
+
+/**
+ * Nearest catalogue nominal size to an inside diameter (for valves and custom pipes), or the
+ * diameter in millimetres when nothing is within 15 %.
+ * @example nominalForDiameter(0.0266) // '1"'
+ */
+export function nominalForDiameter(diameter_m: number): string {
+  let best = '';
+  let gap = Infinity;
+  for (const [nominal, [, id]] of Object.entries(SCH40)) {
+    const g = Math.abs(id * INCH - diameter_m) / diameter_m;
+    if (g < gap) { gap = g; best = nominal; }
+  }
+  return gap <= 0.15 ? best : `${Math.round(diameter_m * 1000)} mm`;
+}
