@@ -61,9 +61,9 @@ export function steadyChecks(model: NetworkModel, s: SteadySolution, options: Ch
       continue;
     }
     if (model.nodeKind[i] !== NODE_JUNCTION) continue;
-    if (!s.active[i]) { out.push({ code: 'disconnected', element: id, message: `${id}: no open path to a source or tank` }); continue; }
-    const pressure = s.head[i] - model.elevation[i];
-    if (pressure < 0) out.push({ code: 'negative-pressure', element: id, message: `${id}: pressure ${fmt(pressure)} m is below zero` });
+    const pressure = s.active[i] ? s.head[i] - model.elevation[i] : 0;
+    if (!s.active[i]) out.push({ code: 'disconnected', element: id, message: `${id}: no open path to a source or tank` });
+    else if (pressure < 0) out.push({ code: 'negative-pressure', element: id, message: `${id}: pressure ${fmt(pressure)} m is below zero` });
     const min = model.minPressure[i];
     if (!Number.isNaN(min) && pressure < min) out.push({ code: 'below-minimum', element: id, message: `${id}: pressure ${fmt(pressure)} m is below the outlet's minimum ${fmt(min)} m` });
     const req = s.requested[i];

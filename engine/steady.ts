@@ -1,5 +1,5 @@
 import { steadyChecks, type CheckOptions } from './checks';
-import { GradientSolver, STATUS_CLOSED as STATUS_CLOSED_, STATUS_NAMES as STATUS_NAMES_, type SolverState } from './gradient-solver';
+import { GradientSolver, STATUS_CLOSED as STATUS_CLOSED_, STATUS_ISOLATED as STATUS_ISOLATED_, STATUS_NAMES as STATUS_NAMES_, type SolverState } from './gradient-solver';
 import type { NetworkDocument } from './network-document';
 import { compileNetwork, LINK_FLOAT as LINK_FLOAT_, LINK_PUMP_CURVE as LINK_PUMP_CURVE_, LINK_PUMP_FLOW as LINK_PUMP_FLOW_, NODE_JUNCTION as NODE_JUNCTION_, type NetworkModel } from './network-model';
 import { validateDocument } from './validate';
@@ -12,6 +12,7 @@ const LINK_PUMP_FLOW = LINK_PUMP_FLOW_;
 const NODE_JUNCTION = NODE_JUNCTION_;
 const STATUS_CLOSED = STATUS_CLOSED_;
 const STATUS_NAMES = STATUS_NAMES_;
+const STATUS_ISOLATED = STATUS_ISOLATED_;
 
 /**
  * Steady-state solve of a network document: validate, compile, run the global gradient method
@@ -43,12 +44,15 @@ export interface LinkResult { flow_m3s: number; velocity_ms: number; headloss_m:
 
 export interface SteadyResult {
   converged: boolean;
+  /** When not converged: the first equation that does not hold, naming its element. */
+  reason?: string;
   iterations: number;
   /** Per node: head (m), pressure = head − elevation (m of water), delivered demand (m³/s;
    * for sources and tanks the net flow into them from the network, negative when supplying). */
   nodes: Record<string, NodeResult>;
   /** Per link: flow (m³/s, + from → to), velocity (m/s; 0 for pumps), headloss = head(from) − head(to)
-   * (m; negative across a pump), status open | closed | check-closed | active. */
+   * (m; negative across a pump), status open | closed | check-closed | active | isolated (an end
+   * has no open path to a source or tank). */
   links: Record<string, LinkResult>;
   warnings: Warning[];
 }
@@ -113,7 +117,7 @@ export function collectResult(model: NetworkModel, solver: GradientSolver): Pick
       flow_m3s: q,
       velocity_ms: isPump || model.area[k] === 0 ? 0 : q / model.area[k],
       headloss_m: solver.head[model.from[k]] - solver.head[model.to[k]],
-      status: STATUS_NAMES[solver.status[k]],
+      status: STATUS_NAMES[solver.status[k] !== STATUS_CLOSED && (!solver.active[model.from[k]] || !solver.active[model.to[k]]) ? STATUS_ISOLATED : solver.status[k]],
     };
   }
   return { nodes, links };
@@ -139,17 +143,19 @@ export function solve(doc: unknown, options: SteadyOptions = {}): SteadyResult {
     const model = compileNetwork(network, { omega: options.omega });
     const solver = new GradientSolver(model);
     const state = steadyState(solver, options);
-    const outcome = solver.solve(state, { accuracy: options.accuracy, maxIterations: options.maxIterations, headTolerance_m: options.headTolerance_m });
+    const outcome = solver.solve(state, { maxIterations: options.maxIterations, headTolerance_m: options.headTolerance_m });
     const { nodes, links } = collectResult(model, solver);
     const warnings: Warning[] = [];
     if (!outcome.converged) {
-      warnings.push({ code: 'not-converged', element: null, message: `network: the solution did not converge in ${outcome.iterations} iterations${outcome.singular ? ' (singular system)' : ''}` });
+      warnings.push({ code: 'not-converged', element: null, message: `network: the solution did not converge in ${outcome.iterations} iterations: ${outcome.reason}` });
     }
     const level = new Float64Array(model.nodeCount);
     const closed = new Uint8Array(model.linkCount);
     for (let k = 0; k < model.linkCount; k++) closed[k] = solver.status[k] === STATUS_CLOSED ? 1 : 0;
     warnings.push(...steadyChecks(model, { head: solver.head, flow: solver.flow, demand: solver.demand, requested: solver.requested, active: solver.active, level, closed }, options));
-    return { converged: outcome.converged, iterations: outcome.iterations, nodes, links, warnings };
+    const result: SteadyResult = { converged: outcome.converged, iterations: outcome.iterations, nodes, links, warnings };
+    if (!outcome.converged) result.reason = outcome.reason ?? 'not converged';
+    return result;
   } catch (error) {
     return {
       converged: false, iterations: 0, nodes: {}, links: {},
