@@ -9,7 +9,10 @@
 export * from './network-document';
 export * from './units';
 export type { Warning, WarningCode } from './warnings';
-export { validateDocument } from './validate';
+export { validateDocument, parseDocument, type DocumentParse, type DocumentProblem } from './validate';
+export { migrateDocument, documentVersion, type Migration } from './migrations';
+export { networkDocumentSchema } from './document-schema';
+export { BOUNDS, MAX_ELEMENTS, boundProblem, type Bound, type BoundName } from './bounds';
 export { solve, type SteadyResult, type SteadyOptions, type NodeResult, type LinkResult } from './steady';
 export { clearStructureCache } from './gradient-solver';
 export { simulate, type SimulateOptions, type TimeSeriesResult, type SimulationSummary } from './simulate';

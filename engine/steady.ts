@@ -2,7 +2,8 @@ import { steadyChecks, type CheckOptions } from './checks';
 import { GradientSolver, STATUS_CLOSED as STATUS_CLOSED_, STATUS_ISOLATED as STATUS_ISOLATED_, STATUS_NAMES as STATUS_NAMES_, type SolverState } from './gradient-solver';
 import type { NetworkDocument } from './network-document';
 import { compileNetwork, LINK_FLOAT as LINK_FLOAT_, LINK_PUMP_CURVE as LINK_PUMP_CURVE_, LINK_PUMP_FLOW as LINK_PUMP_FLOW_, NODE_JUNCTION as NODE_JUNCTION_, type NetworkModel } from './network-model';
-import { validateDocument } from './validate';
+import { migrateDocument } from './migrations';
+import { parseDocument } from './validate';
 import type { Warning } from './warnings';
 
 // local copies of imported constants read per element (see gradient-solver.ts)
@@ -58,11 +59,13 @@ export interface SteadyResult {
 }
 
 /**
- * Documents from JSON may omit schema/headloss; fill the defaults (Hazen-Williams).
+ * A validated document of any version as the current version (./migrations: a document without
+ * schema/headloss is version 0, Hazen-Williams).
  * @example normaliseDocument(JSON.parse(text)).headloss // 'hazen-williams' when absent
  */
 export function normaliseDocument(doc: NetworkDocument): NetworkDocument {
-  return { ...doc, schema: 'runnel.network/1', headloss: doc.headloss ?? 'hazen-williams' };
+  const migrated = migrateDocument(doc);
+  return migrated.ok ? (migrated.doc as NetworkDocument) : doc;
 }
 
 /**
@@ -130,9 +133,9 @@ export function collectResult(model: NetworkModel, solver: GradientSolver): Pick
  * @param options ω, accuracy, velocity limit (1.5 m/s), pressureDriven (false)
  */
 export function solve(doc: unknown, options: SteadyOptions = {}): SteadyResult {
-  const invalid = validateDocument(doc);
-  if (invalid.length > 0) return { converged: false, iterations: 0, nodes: {}, links: {}, warnings: invalid };
-  const network = normaliseDocument(doc as NetworkDocument);
+  const parsed = parseDocument(doc);
+  if (!parsed.ok) return { converged: false, iterations: 0, nodes: {}, links: {}, warnings: parsed.warnings };
+  const network = parsed.doc;
   if (!network.nodes.some((node) => node.kind === 'source' || node.kind === 'tank')) {
     return {
       converged: false, iterations: 0, nodes: {}, links: {},

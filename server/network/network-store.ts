@@ -4,15 +4,12 @@
  * document with the engine and stores the results beside it.
  */
 import { and, eq } from 'drizzle-orm';
-import { solve, validateDocument, type NetworkDocument, type SteadyResult } from '../../engine';
+import { emptyDocument, migrateDocument, parseDocument, solve, type NetworkDocument, type SteadyResult } from '../../engine';
 import { networks, users } from '../../drizzle/schema';
 import { audit } from '../audit';
 import type { Db, DbOrTx } from '../db';
-import { ApiError } from '../errors';
-import { engineErrors, shapeErrors } from './document-shape';
+import { ApiError, issuePath } from '../errors';
 import { recordVersion } from './versions-store';
-
-export const EMPTY_DOCUMENT: NetworkDocument = { schema: 'runnel.network/1', headloss: 'hazen-williams', nodes: [], links: [] };
 
 export interface StoredNetwork {
   version: number;
@@ -28,9 +25,11 @@ export async function loadNetwork(db: DbOrTx, projectId: string): Promise<Stored
     version: networks.version, document: networks.document, results: networks.results,
     updatedAt: networks.updatedAt, userName: users.name,
   }).from(networks).leftJoin(users, eq(users.id, networks.updatedBy)).where(eq(networks.projectId, projectId));
-  if (!row) return { version: 0, document: EMPTY_DOCUMENT, results: null, updatedAt: null, updatedBy: null };
+  if (!row) return { version: 0, document: emptyDocument(), results: null, updatedAt: null, updatedBy: null };
+  // A design saved under an older version of the format opens as the current version.
+  const migrated = migrateDocument(row.document);
   return {
-    version: row.version, document: row.document, results: row.results, updatedAt: row.updatedAt.toISOString(),
+    version: row.version, document: migrated.ok ? migrated.doc : row.document, results: row.results, updatedAt: row.updatedAt.toISOString(),
     updatedBy: row.userName ?? null,
   };
 }
@@ -50,16 +49,16 @@ export interface SaveRequest {
 export interface SaveResult { version: number; results: SteadyResult | null; updatedAt: string }
 
 /**
- * Validates (shape, then engine), solves and stores. Throws 400 naming element and field when the
+ * Validates (the engine's schema, migrating an older version), solves and stores. Throws 400 naming element and field when the
  * document is malformed, 409 with the stored network when `expectedVersion` is stale.
  */
 export async function saveNetwork(db: Db, request: SaveRequest): Promise<SaveResult> {
-  const shape = shapeErrors(request.document);
-  const problems = shape.length ? shape : engineErrors(validateDocument(request.document));
-  if (problems.length) {
-    throw new ApiError('validation', `The network document has ${problems.length} problem${problems.length === 1 ? '' : 's'}: ${problems[0].message}`, { fields: problems });
+  const parsed = parseDocument(request.document);
+  if (!parsed.ok) {
+    const fields = parsed.problems.map((p) => ({ path: issuePath(['document', ...p.path]), ...(p.element ? { element: p.element } : {}), message: p.message }));
+    throw new ApiError('validation', `The network document has ${fields.length} problem${fields.length === 1 ? '' : 's'}: ${fields[0].message}`, { fields });
   }
-  const document = request.document as NetworkDocument;
+  const document = parsed.doc;
   const results = solveSafely(document, request.log);
   const now = new Date();
   const saved = await db.transaction(async (tx) => {

@@ -1,10 +1,16 @@
 /** /api/projects/:id/network: load, and save with an optimistic version. */
+import { z } from 'zod';
 import type { ApiRoutes } from '../api-routes';
 import type { AppContext } from '../context';
 import { parseBody } from '../errors';
-import { saveNetworkBody } from '../network/document-shape';
 import { loadNetwork, saveNetwork } from '../network/network-store';
 import { projectOf } from '../project-scope';
+
+/** The body of PUT /api/projects/:id/network; the document is checked by the engine's schema (parseDocument). */
+const saveNetworkBody = z.object({
+  version: z.number({ error: 'must be a number' }).int('must be an integer').min(0, 'must be 0 or more'),
+  document: z.unknown(),
+});
 
 export function networkRoutes(api: ApiRoutes, ctx: AppContext): void {
   const { db } = ctx;

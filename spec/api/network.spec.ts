@@ -1,5 +1,6 @@
 import { expect } from 'chai';
-import { validateDocument } from '../../engine';
+import { eq } from 'drizzle-orm';
+import { networks } from '../../drizzle/schema';
 import { applyBudget, planBudget } from '../../engine/budget';
 import { hillSmallholding } from '../../engine/examples/hill-smallholding';
 import { hillSmallholdingBudget } from '../../engine/examples/hill-smallholding-budget';
@@ -104,24 +105,59 @@ describe('API: network document (optimistic version, validation, server solve)',
     };
     const res = await a.put(url(id), { version: 0, document: broken }).expect(400);
     expect(res.body.error.code).to.equal('validation');
-    expect(res.body.error.fields).to.deep.include({ path: 'document.nodes.1.elevation_m', element: 'O1', message: 'node O1: elevation_m must be a number' });
-    expect(res.body.error.message).to.include('node O1: elevation_m');
+    expect(res.body.error.fields).to.deep.include({ path: 'document.nodes.1.elevation_m', element: 'O1', message: 'O1.elevation_m: must be a number (got "high")' });
+    expect(res.body.error.message).to.include('O1.elevation_m');
     const kinds = await a.put(url(id), { version: 0, document: { ...SMALL_NETWORK, links: [{ id: 'X9', kind: 'hose', from: 'T1', to: 'O1' }] } }).expect(400);
     expect(kinds.body.error.fields[0]).to.include({ element: 'X9', path: 'document.links.0.kind' });
-    const top = await a.put(url(id), { version: 0, document: { nodes: [] } }).expect(400);
-    expect(top.body.error.fields.map((f: { path: string }) => f.path)).to.include.members(['document.schema', 'document.headloss', 'document.links']);
+    const top = await a.put(url(id), { version: 0, document: { schema: 'runnel.network/1', nodes: [] } }).expect(400);
+    expect(top.body.error.fields.map((f: { path: string }) => f.path)).to.include.members(['document.headloss', 'document.links']);
+    const future = await a.put(url(id), { version: 0, document: { ...SMALL_NETWORK, schema: 'runnel.network/99' } }).expect(400);
+    expect(future.body.error.fields[0]).to.include({ path: 'document.schema' });
+    expect(future.body.error.fields[0].message).to.match(/newer than this program/);
     const loaded = await a.get(url(id)).expect(200);
     expect(loaded.body.version).to.equal(0);
   });
 
-  it('field-level problems the engine finds (a zero pipe diameter) → 400 naming element and field', async function () {
-    const bad = { ...SMALL_NETWORK, links: [{ ...SMALL_NETWORK.links[0], diameter_m: 0 }] };
-    if (validateDocument(bad).length === 0) this.skip(); // the engine's validation is not wired in yet
+  it('field-level problems the engine finds (a zero pipe diameter, a dangling link) → 400 naming element and field', async () => {
     const id = await insertProject(t.db, t.seeded!.demoTeamId);
     const a = await t.signInAs('designer');
-    const res = await a.put(url(id), { version: 0, document: bad }).expect(400);
-    const field = res.body.error.fields.find((f: { element?: string }) => f.element === 'P1');
-    expect(field.message).to.include('diameter_m');
+    const zero = await a.put(url(id), { version: 0, document: { ...SMALL_NETWORK, links: [{ ...SMALL_NETWORK.links[0], diameter_m: 0 }] } }).expect(400);
+    expect(zero.body.error.fields).to.deep.equal([{ path: 'document.links.0.diameter_m', element: 'P1', message: 'P1.diameter_m: must be a positive number (got 0)' }]);
+    const dangling = await a.put(url(id), { version: 0, document: { ...SMALL_NETWORK, links: [{ ...SMALL_NETWORK.links[0], to: 'O9' }] } }).expect(400);
+    expect(dangling.body.error.fields).to.deep.equal([{ path: 'document.links.0.to', element: 'P1', message: 'P1.to: must name an existing node (got "O9")' }]);
+  });
+
+  it('physically impossible values → 400 naming the field (elevation −1e308, demand 1e308, junk bend points); nothing stored', async () => {
+    const id = await insertProject(t.db, t.seeded!.demoTeamId);
+    const a = await t.signInAs('designer');
+    const [tank, outlet] = SMALL_NETWORK.nodes;
+    const document = {
+      ...SMALL_NETWORK,
+      nodes: [{ ...tank, elevation_m: -1e308 }, { ...outlet, demand_m3s: 1e308 }],
+      links: [{ ...SMALL_NETWORK.links[0], vertices: [[0, 0], 'junk', [1, null]] }],
+    };
+    const res = await a.put(url(id), { version: 0, document }).expect(400);
+    expect(res.body.error.fields.map((f: { path: string; message: string }) => `${f.path} ${f.message}`)).to.deep.equal([
+      'document.nodes.0.elevation_m T1.elevation_m: must be at least -500 m (got -1e+308)',
+      'document.nodes.1.demand_m3s O1.demand_m3s: must be at most 10 m³/s (got 1e+308)',
+      'document.links.0.vertices.1 P1.vertices[1]: must be an [x_m, y_m] pair (got "junk")',
+      'document.links.0.vertices.2.1 P1.vertices[2][1]: must be a number (got null)',
+    ]);
+    expect((await a.get(url(id)).expect(200)).body.version).to.equal(0);
+  });
+
+  it('a design saved under an older version of the format (no schema tag) opens as the current version, and saves', async () => {
+    const id = await insertProject(t.db, t.seeded!.demoTeamId);
+    const designer = await t.signInAs('designer');
+    const { schema: _schema, headloss: _headloss, ...old } = SMALL_NETWORK;
+    await t.db.insert(networks).values({ projectId: id, version: 3, document: old, results: null, updatedAt: new Date() });
+    const loaded = await designer.get(url(id)).expect(200);
+    expect(loaded.body.version).to.equal(3);
+    expect(loaded.body.document).to.deep.equal({ ...old, schema: 'runnel.network/1', headloss: 'hazen-williams' });
+    const saved = await designer.put(url(id), { version: 3, document: old }).expect(200);
+    expect(saved.body.version).to.equal(4);
+    const [row] = await t.db.select({ document: networks.document }).from(networks).where(eq(networks.projectId, id));
+    expect(row.document).to.deep.equal({ ...old, schema: 'runnel.network/1', headloss: 'hazen-williams' });
   });
 
   it('the body must carry an integer version (400 naming it) and stay under 5 MB (413)', async () => {

@@ -49,29 +49,31 @@ describe('validateDocument (validate.ts): boundary checks name element and field
       'P3.kind: must be one of pipe, pump, valve (got "aqueduct")',
     ]);
   });
-  it('duplicate ids, missing numbers and bad tank levels', () => {
+  it('missing numbers first (the schema); then duplicate ids and bad tank levels (the cross-element checks)', () => {
     const doc = base();
     doc.nodes.push({ id: 'J1', kind: 'tee', elevation_m: 1, demand_m3s: 0 });
     doc.nodes.push({ id: 'T1', kind: 'tank', elevation_m: 1, diameter_m: 2, level_m: 3, min_level_m: 0.1, max_level_m: 2 });
     doc.nodes.push({ id: 'O1', kind: 'outlet', demand_m3s: 0.001 });
-    const messages = validateDocument(doc).map((w) => w.message);
-    expect(messages).to.include('J1.id: is used by another node');
-    expect(messages).to.include('T1.level_m: must not exceed max_level_m 2 (got 3)');
-    expect(messages).to.include('O1.elevation_m: must be a number (got nothing)');
+    expect(validateDocument(doc).map((w) => w.message)).to.deep.equal(['O1.elevation_m: must be a number (got nothing)']);
+    doc.nodes[4]['elevation_m'] = 3;
+    expect(validateDocument(doc).map((w) => w.message)).to.deep.equal(['J1.id: is used by another node', 'T1.level_m: must not exceed max_level_m 2 (got 3)']);
   });
   it('not an object, nodes not an array', () => {
-    expect(validateDocument(null)[0].message).to.equal('document: must be a JSON object');
-    expect(validateDocument({ nodes: 3, links: [] })[0].message).to.equal('document.nodes: must be an array');
+    expect(validateDocument(null)[0].message).to.equal('document: must be a JSON object (got null)');
+    expect(validateDocument({ nodes: 3, links: [] })[0].message).to.equal('document.nodes: must be an array (got 3)');
   });
   it('pump and valve fields: controls must name tanks, curves must fall', () => {
     const doc = base();
     doc.links.push({ id: 'PU', kind: 'pump', from: 'S1', to: 'J1', curve: [[0, 10], [0.01, 20]], control: { tank: 'J1', stop_level_m: 1, start_level_m: 2 } });
     doc.links.push({ id: 'V1', kind: 'valve', valve_type: 'gate', from: 'S1', to: 'J1', diameter_m: 0.05 });
-    const messages = validateDocument(doc).map((w) => w.message);
-    expect(messages).to.include('PU.curve: head must fall as flow rises, with distinct flows');
-    expect(messages).to.include('PU.control.tank: must name a tank (got "J1")');
-    expect(messages).to.include('PU.control.start_level_m: must be below stop_level_m 1 (got 2)');
-    expect(messages).to.include('V1.valve_type: must be shutoff, check, prv or float (got "gate")');
+    expect(validateDocument(doc).map((w) => w.message)).to.deep.equal(['V1.valve_type: must be shutoff, check, prv or float (got "gate")']);
+    doc.links[2]['valve_type'] = 'float';
+    expect(validateDocument(doc).map((w) => w.message)).to.deep.equal([
+      'PU.curve: head must fall as flow rises, with distinct flows',
+      'PU.control.tank: must name a tank (got "J1")',
+      'PU.control.start_level_m: must be below stop_level_m 1 (got 2)',
+      'V1.tank: must name a tank (got nothing)',
+    ]);
   });
 });
 

@@ -7,7 +7,7 @@ import { apiErrorBody, apiErrorMessage } from '../../core/api-errors';
 import type { Project } from '../../core/api-types';
 import { handleErrorsLocally } from '../../core/http-context';
 import type { PutOutcome, ServerCopy } from './editor/save-controller';
-import type { ParsedSurveyPoint } from './editor/survey';
+import type { SurveyParse } from '../../../../../engine/survey-point';
 
 export interface NetworkRecord { version: number; document: NetworkDocument; results: SteadyResult | null; updatedAt: string | null; updatedBy: string | null }
 export interface FileRecord { id: string; kind: string; filename: string; mime: string; size: number; createdAt: string }
@@ -73,11 +73,11 @@ export class LayoutApi {
     return `/api/projects/${encodeURIComponent(projectId)}/files/${encodeURIComponent(fileId)}`;
   }
 
-  parseSurvey(id: string, file: File): Observable<{ format: string; points: ParsedSurveyPoint[] }> {
+  parseSurvey(id: string, file: File): Observable<SurveyParse> {
     const form = new FormData();
     form.append('file', file);
     return this.http
-      .post<{ format: string; points: ParsedSurveyPoint[] }>(`/api/projects/${encodeURIComponent(id)}/survey/parse`, form, {
+      .post<SurveyParse>(`/api/projects/${encodeURIComponent(id)}/survey/parse`, form, {
         context: handleErrorsLocally(400, 413, 415),
       })
       .pipe(catchError((err: unknown) => throwError(() => toLayoutError(err))));

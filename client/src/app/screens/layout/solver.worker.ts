@@ -3,7 +3,11 @@
  * Live results: solves each document the Layout screen posts, off the main thread, so the canvas
  * never waits. Messages in: { seq, doc }; out: { seq, result, ms } or { seq, error, ms }.
  */
+import { z } from 'zod';
 import { solve } from '../../../../../engine/index';
+
+// The page's CSP forbids eval: tell zod (the document schema) not to try compiling its checks.
+z.config({ jitless: true });
 
 addEventListener('message', (event: MessageEvent<{ seq: number; doc: unknown }>) => {
   const { seq, doc } = event.data;

@@ -1,23 +1,11 @@
-import type { NetworkDocument } from '../../../../../../engine/network-document';
+import type { Backdrop, NetworkDocument } from '../../../../../../engine/network-document';
 import { distance, Point, Rect } from './geometry';
 
-/** The site backdrop image, placed in world metres (stored in doc.layout.backdrop). */
-export interface Backdrop {
-  fileId: string;
-  opacity: number;
-  /** World position of the image's top-left corner, m. */
-  x_m: number;
-  y_m: number;
-  m_per_px: number;
-  width_px: number;
-  height_px: number;
-  /** The two points and the distance typed when calibrating. */
-  scale?: { a: [number, number]; b: [number, number]; distance_m: number };
-}
+/** The site backdrop image, placed in world metres (doc.layout.backdrop; typed by the document schema). */
+export type { Backdrop };
 
 export function backdropOf(doc: NetworkDocument): Backdrop | null {
-  const b = doc.layout?.['backdrop'];
-  return b && typeof b === 'object' ? (b as Backdrop) : null;
+  return doc.layout?.backdrop ?? null;
 }
 
 /** The backdrop's world rectangle (y up: `y` is its bottom edge). */
@@ -44,10 +32,10 @@ export function calibratedDocument(doc: NetworkDocument, a: Point, b: Point, dis
   });
   const links = !network ? doc.links : doc.links.map((l) => (l.vertices?.length ? { ...l, vertices: l.vertices.map(([x, y]) => sc(x, y)) } : l));
   const layout = { ...(doc.layout ?? {}) };
-  const bd = layout['backdrop'] as Backdrop | undefined;
+  const bd = layout.backdrop;
   if (bd) {
     const [x, y] = sc(bd.x_m, bd.y_m);
-    layout['backdrop'] = { ...bd, x_m: x, y_m: y, m_per_px: bd.m_per_px * f, scale: { a: [a.x, a.y], b: sc(b.x, b.y), distance_m } };
+    layout.backdrop = { ...bd, x_m: x, y_m: y, m_per_px: bd.m_per_px * f, scale: { a: [a.x, a.y], b: sc(b.x, b.y), distance_m } };
   }
   return { ...doc, nodes, links, layout };
 }

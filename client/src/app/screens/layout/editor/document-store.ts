@@ -1,13 +1,8 @@
-import type { NetworkDocument, NetworkLink, NetworkNode } from '../../../../../../engine/network-document';
-import { NETWORK_SCHEMA } from '../../../../../../engine/network-document';
+import type { DocumentLayout, LengthSource, NetworkDocument, NetworkLink, NetworkNode } from '../../../../../../engine/network-document';
+import { emptyDocument } from '../../../../../../engine/network-document';
 import { Point, polylineLength } from './geometry';
 
-/** Editor-only fields kept on pipes (the engine ignores unknown fields). */
-export type LengthSource = 'drawing' | 'typed' | 'survey';
-
-export function emptyDocument(): NetworkDocument {
-  return { schema: NETWORK_SCHEMA, headloss: 'hazen-williams', nodes: [], links: [] };
-}
+export { emptyDocument, type LengthSource };
 
 interface HistoryEntry { before: NetworkDocument; after: NetworkDocument; label: string }
 
@@ -158,7 +153,7 @@ export class DocumentStore {
   }
 
   /** Patch editor-only layout data (backdrop, survey points, view). */
-  patchLayout(patch: Record<string, unknown>): void {
+  patchLayout(patch: Partial<DocumentLayout>): void {
     this.update('layout', (d) => ({ ...d, layout: { ...(d.layout ?? {}), ...patch } }));
   }
 
@@ -242,8 +237,7 @@ export function linkPoints(link: NetworkLink, nodesById: Map<string, NetworkNode
 
 /** How a pipe's length was decided; absent means measured from the drawing. */
 export function lengthSource(link: NetworkLink): LengthSource {
-  const v = (link as { length_source?: unknown }).length_source;
-  return v === 'typed' || v === 'survey' ? v : 'drawing';
+  return (link.kind === 'pipe' && link.length_source) || 'drawing';
 }
 
 /** A pipe whose length follows the drawing gets its measured length (at least 0.1 m). */
@@ -275,11 +269,11 @@ export function markTypedLengths(doc: NetworkDocument): NetworkDocument {
   const byId = new Map(doc.nodes.map((n) => [n.id, n]));
   let changed = false;
   const links = doc.links.map((l) => {
-    if (l.kind !== 'pipe' || (l as { length_source?: unknown }).length_source !== undefined) return l;
+    if (l.kind !== 'pipe' || l.length_source !== undefined) return l;
     const drawn = polylineLength(linkPoints(l, byId));
     if (Math.abs(drawn - l.length_m) <= Math.max(0.5, 0.01 * l.length_m)) return l;
     changed = true;
-    return { ...l, length_source: 'typed' } as NetworkLink;
+    return { ...l, length_source: 'typed' as const };
   });
   return changed ? { ...doc, links } : doc;
 }

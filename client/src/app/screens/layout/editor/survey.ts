@@ -1,12 +1,13 @@
-import type { NetworkDocument } from '../../../../../../engine/network-document';
+import type { NetworkDocument, SurveyPoint } from '../../../../../../engine/network-document';
+import type { ParsedSurveyPoint } from '../../../../../../engine/survey-point';
 import { linkPoints } from './document-store';
 import { distance, Point, polylineLength, projectOnPolyline } from './geometry';
 
-/** A point as returned by POST /api/projects/:id/survey/parse. */
-export interface ParsedSurveyPoint { label?: string; x_m?: number; y_m?: number; lat?: number; lon?: number; elevation_m: number }
+/** A point as returned by POST /api/projects/:id/survey/parse (one type, shared with the server). */
+export type { ParsedSurveyPoint };
 
-/** A survey point in local site metres (stored in doc.layout.survey.points). */
-export interface SurveyPoint { label?: string; x_m: number; y_m: number; elevation_m: number }
+/** A survey point in local site metres (stored in doc.layout.survey.points; typed by the document schema). */
+export type { SurveyPoint };
 
 /** Mean Earth radius, m (IUGG mean radius R1 = 6 371 008.8 m). */
 const EARTH_RADIUS_M = 6371008.8;
@@ -44,7 +45,7 @@ export function nearestSurveyPoint(points: readonly SurveyPoint[], p: Point): { 
 
 /** The survey points kept in a document (doc.layout.survey.points), or none. */
 export function surveyPointsOf(doc: NetworkDocument): SurveyPoint[] {
-  return (doc.layout?.['survey'] as { points?: SurveyPoint[] } | undefined)?.points ?? [];
+  return doc.layout?.survey?.points ?? [];
 }
 
 /**
