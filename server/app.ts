@@ -27,6 +27,7 @@ import { networkRoutes } from './routes/network';
 import { projectRoutes } from './routes/projects';
 import { teamRoutes } from './routes/team';
 import { versionRoutes } from './routes/versions';
+import { reviewRoutes } from './routes/review';
 import { seed as seedDemo, type SeedResult } from './seed';
 import './types';
 
@@ -122,6 +123,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   networkRoutes(api, ctx);
   budgetRoutes(api, ctx);
   versionRoutes(api, ctx);
+  reviewRoutes(api, ctx);
   fileRoutes(api, ctx);
 
   app.use('/api',

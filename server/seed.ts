@@ -13,6 +13,7 @@ import type { Db } from './db';
 import { hashPassword } from './auth/passwords';
 import { saveBudget } from './budget/budget-store';
 import { saveNetwork } from './network/network-store';
+import { markSubmitted } from './review/signoff';
 import type { Role } from './permissions';
 
 export const DEMO_PASSWORD = 'runnel-demo-2026';
@@ -67,6 +68,11 @@ export async function seed(db: Db, { bcryptCost }: { bcryptCost: number }): Prom
     document: applyBudget(hillSmallholding, planBudget(hillSmallholdingBudget, hillSmallholding)),
   });
   await saveBudget(db, { projectId: ids.demoProjectId, teamId: ids.demoTeamId, user: ids.designer, expectedVersion: 0, document: hillSmallholdingBudget });
+  // Version 1 waits for review, so the reviewer has something to approve or return.
+  await markSubmitted(db, {
+    projectId: ids.demoProjectId, teamId: ids.demoTeamId, version: 1, user: ids.designer,
+    note: 'First full layout: tanks on the ridge, gravity main, orchard PRV and four troughs. Please check the south trough line across the dip.',
+  });
   return { seeded: true, demoTeamId: ids.demoTeamId, demoProjectId: ids.demoProjectId, otherTeamId: ids.otherTeamId, otherProjectId: ids.otherProjectId };
 }
 

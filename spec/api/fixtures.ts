@@ -1,11 +1,12 @@
 /** Rows inserted straight into the test database, so a test can act on a fresh target. */
 import { randomBytes, randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
-import { files, invitations, memberships, projects, teams, users } from '../../drizzle/schema';
+import { files, invitations, memberships, projects, reviewComments, teams, users } from '../../drizzle/schema';
 import type { Db } from '../../server/db';
 import type { Role } from '../../server/permissions';
 import { hashToken } from '../../server/auth/invitation-token';
 import { saveNetwork } from '../../server/network/network-store';
+import { markSubmitted } from '../../server/review/signoff';
 import type { NetworkDocument } from '../../engine';
 
 /** The smallest PNG signature plus an IHDR start: enough for the magic-byte check. */
@@ -72,4 +73,18 @@ export async function insertSavedProject(db: Db, teamId: string, document: Netwo
   const id = await insertProject(db, teamId);
   await saveNetwork(db, { projectId: id, teamId, user: await demoUserRow(db, 'designer'), expectedVersion: 0, document });
   return id;
+}
+
+/** A fresh saved project whose version 1 is submitted by the demo designer. */
+export async function insertSubmittedProject(db: Db, teamId: string): Promise<string> {
+  const id = await insertSavedProject(db, teamId);
+  await markSubmitted(db, { projectId: id, teamId, version: 1, user: await demoUserRow(db, 'designer'), note: 'fixture' });
+  return id;
+}
+
+/** An open review thread on version 1 of a project, pinned to its first node. */
+export async function insertComment(db: Db, projectId: string): Promise<string> {
+  const [row] = await db.insert(reviewComments).values({ projectId, version: 1, element: null, xM: 0, yM: 0, body: 'fixture comment' })
+    .returning({ id: reviewComments.id });
+  return row.id;
 }

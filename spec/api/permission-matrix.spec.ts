@@ -11,7 +11,7 @@ import type { Response } from 'supertest';
 import { emptyBudget } from '../../engine/budget';
 import { PERMISSION_TABLE, ROLES, type Access, type Role } from '../../server/permissions';
 import { DEMO_PASSWORD } from '../../server/seed';
-import { insertFile, insertInvitation, insertInvitationRow, insertMember, insertProject, insertSavedProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
+import { insertFile, insertInvitation, insertInvitationRow, insertMember, insertProject, insertComment, insertSavedProject, insertSubmittedProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
 import { demoEmail, startTestApp, type ApiAgent, type TestApp } from './test-app';
 
 interface Case {
@@ -77,6 +77,17 @@ const CASES: Case[] = [
     call: (a, t) => a.get(`${p(t)}/versions/1/compare/1`) },
   { method: 'post', path: '/projects/:id/versions/:version/restore', access: 'network.write', success: 201,
     call: async (a, t) => a.post(`/api/projects/${await insertSavedProject(t.db, t.seeded!.demoTeamId)}/versions/1/restore`, { version: 1 }) },
+  { method: 'post', path: '/projects/:id/versions/:version/submit', access: 'review.submit', success: 200,
+    call: async (a, t) => a.post(`/api/projects/${await insertSavedProject(t.db, t.seeded!.demoTeamId)}/versions/1/submit`, {}) },
+  { method: 'post', path: '/projects/:id/versions/:version/approve', access: 'review.decide', success: 200,
+    call: async (a, t) => a.post(`/api/projects/${await insertSubmittedProject(t.db, t.seeded!.demoTeamId)}/versions/1/approve`, {}) },
+  { method: 'post', path: '/projects/:id/versions/:version/return', access: 'review.decide', success: 200,
+    call: async (a, t) => a.post(`/api/projects/${await insertSubmittedProject(t.db, t.seeded!.demoTeamId)}/versions/1/return`, { note: 'again' }) },
+  { method: 'get', path: '/projects/:id/comments', access: 'review.read', success: 200, call: (a, t) => a.get(`${p(t)}/comments`) },
+  { method: 'post', path: '/projects/:id/comments', access: 'review.comment', success: 201,
+    call: (a, t) => a.post(`${p(t)}/comments`, { version: 1, element: 'TR4', body: 'Matrix comment' }) },
+  { method: 'patch', path: '/projects/:id/comments/:commentId', access: 'review.comment', success: 200,
+    call: async (a, t) => a.patch(`${p(t)}/comments/${await insertComment(t.db, t.seeded!.demoProjectId)}`, { resolved: true }) },
   { method: 'get', path: '/projects/:id/files', access: 'files.read', success: 200, call: (a, t) => a.get(`${p(t)}/files`) },
   { method: 'post', path: '/projects/:id/files', access: 'files.write', success: 201,
     call: (a, t) => a.upload(`${p(t)}/files`, { bytes: PNG_BYTES, filename: 'plan.png' }, { kind: 'backdrop' }) },
