@@ -76,6 +76,9 @@ const teeNode = z.object({
   demand_m3s: quantity('demand_m3s'),
   /** Id of an hourly pattern in doc.patterns multiplying demand_m3s. */
   pattern: id.optional(),
+  /** Review: an air-release valve / a drain fitted at this tee (engine/review/profile-points.ts). */
+  air_valve: flag.optional(),
+  drain: flag.optional(),
   /** Only outlets have a demand model; a tee carrying one is a mistake the engine would ignore. */
   demand_model: z.never({ error: 'a tee has no demand model (make it an outlet)' }).optional(),
 });
@@ -151,6 +154,9 @@ const pipeLink = z.object({
   cover_m: quantity('cover_m').optional(),
   /** Initially closed (a pipe with a shut-off). */
   closed: flag.optional(),
+  /** Review: air-release valves and drains fitted along the pipe, m from `from` (engine/review/profile-points.ts). */
+  air_valves_m: z.array(quantity('distance_m'), { error: 'must be a list of distances in m' }).max(1000).optional(),
+  drains_m: z.array(quantity('distance_m'), { error: 'must be a list of distances in m' }).max(1000).optional(),
   /** Editor: how the length was decided. */
   length_source: z.enum(LENGTH_SOURCES, { error: `must be one of ${LENGTH_SOURCES.join(', ')}` }).optional(),
 });

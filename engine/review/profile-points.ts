@@ -4,10 +4,10 @@
  * A thin finder kept here until engine/profile offers its own; the review's rows only need
  * { element, at_m, kind, elevation_m }.
  *
- * Fittings are read from optional document fields (ignored by the solver): on a pipe `air_valves_m`
- * and `drains_m` (distances from its `from` end, m); on a tee `air_valve: true` / `drain: true`.
+ * Fittings are optional document fields (ignored by the solver; engine/document-schema.ts): on a pipe
+ * `air_valves_m` and `drains_m` (distances from its `from` end, m); on a tee `air_valve` / `drain`.
  */
-import type { NetworkDocument, PipeLink } from '../network-document';
+import type { NetworkDocument } from '../network-document';
 import { FITTING_REACH_M, PROFILE_PROMINENCE_M } from './rules';
 
 export interface ProfilePoint {
@@ -19,8 +19,6 @@ export interface ProfilePoint {
   /** A fitting of the right kind serves this point. */
   fitted: boolean;
 }
-
-type Fitted = PipeLink & { air_valves_m?: number[]; drains_m?: number[] };
 
 /** Interior vertices of a profile that rise (or fall) at least `prominence` above (below) the lowest (highest) ground on each side. */
 export function profileExtremes(profile: [number, number][], prominence = PROFILE_PROMINENCE_M): { kind: 'high' | 'low'; at_m: number; elevation_m: number }[] {
@@ -48,10 +46,9 @@ export function profilePoints(doc: NetworkDocument): ProfilePoint[] {
   const elevation = new Map(doc.nodes.map((n) => [n.id, n.elevation_m]));
   for (const link of doc.links) {
     if (link.kind !== 'pipe' || !link.profile || link.profile.length < 3) continue;
-    const fitted = link as Fitted;
     for (const p of profileExtremes(link.profile)) {
       const near = (list: number[] | undefined) => (list ?? []).some((d) => Math.abs(d - p.at_m) <= FITTING_REACH_M);
-      out.push({ ...p, element: link.id, fitted: p.kind === 'high' ? near(fitted.air_valves_m) : near(fitted.drains_m) });
+      out.push({ ...p, element: link.id, fitted: p.kind === 'high' ? near(link.air_valves_m) : near(link.drains_m) });
     }
   }
   // A tee is a high (low) point when the ground next to it along every line it joins is lower (higher) by the prominence.
@@ -66,11 +63,10 @@ export function profilePoints(doc: NetworkDocument): ProfilePoint[] {
       else neighbours.push(elevation.get(other) ?? node.elevation_m);
     }
     if (neighbours.length < 2) continue;
-    const flags = node as { air_valve?: boolean; drain?: boolean };
     if (neighbours.every((z) => node.elevation_m - z >= PROFILE_PROMINENCE_M)) {
-      out.push({ kind: 'high', element: node.id, elevation_m: node.elevation_m, fitted: flags.air_valve === true });
+      out.push({ kind: 'high', element: node.id, elevation_m: node.elevation_m, fitted: node.air_valve === true });
     } else if (neighbours.every((z) => z - node.elevation_m >= PROFILE_PROMINENCE_M)) {
-      out.push({ kind: 'low', element: node.id, elevation_m: node.elevation_m, fitted: flags.drain === true });
+      out.push({ kind: 'low', element: node.id, elevation_m: node.elevation_m, fitted: node.drain === true });
     }
   }
   return out;
