@@ -163,6 +163,7 @@ export function outletLawResidual(model: NetworkModel, i: number, q: number, ful
   const p0 = zeroPressure(model, i);
   const required = requiredPressure(model, i, pressureDriven);
   if (q < -flowTol || q > full + flowTol) return Infinity;
+  if (full <= flowTol) return 0;
   if (q >= full - flowTol) return Math.max(required - p, 0);
   if (q <= flowTol) return Math.max(p - p0, 0);
   return Math.abs(p0 + (required - p0) * (q / full) ** 2 - p);

@@ -301,7 +301,8 @@ export class GradientSolver {
       const emitter = model.demandType[i] === DEMAND_EMITTER;
       this.requested[i] = emitter ? Number.NaN : base;
       const isVirtual = model.demandType[i] !== DEMAND_FIXED || (state.pressureDriven && base > 0);
-      const live = emitter ? model.emitterK[i] * state.demandFactor[i] > 0 : base > 0;
+      // a full demand within the balance tolerance (under 9 mL a day) is delivered as fixed: its law would be all barrier
+      const live = emitter ? model.emitterK[i] * state.demandFactor[i] > 0 : base > BALANCE_TOLERANCE_M3S;
       this.virtualFull[i] = isVirtual && live ? (emitter ? Infinity : base) : 0;
       // start each outlet at what its own law delivers at the current pressure: a warm start may
       // carry a flow from another demand factor, and the law's steep start would overshoot from 0
@@ -347,6 +348,7 @@ export class GradientSolver {
     let reason: string | null = null;
     let meritPrev = Infinity;
     let halvings = 0;
+    let sinceReset = 0;
     let checkedAt = -1;
     let verified = false;
     while (iterations < maxIterations) {
@@ -355,6 +357,7 @@ export class GradientSolver {
       rhs.fill(0);
       pinned.fill(Number.NaN);
       let merit = 0;
+      let qScale = 0;
       for (let k = 0; k < m; k++) {
         const f = linkFrom[k];
         const t = linkTo[k];
@@ -400,6 +403,7 @@ export class GradientSolver {
         if (collapsing[k] === 1 && a >= delta[k] && kind !== LINK_PUMP_CURVE) g = hk / q;
         const resid = hk - (head[f] - head[t]);
         merit += (resid < 0 ? -resid : resid) * a;
+        qScale += a;
         if (kind !== LINK_PUMP_CURVE) {
           const memory = GRADIENT_MEMORY * gradientPrev[k];
           gradientPrev[k] = g;
@@ -443,7 +447,7 @@ export class GradientSolver {
         if (!Number.isNaN(pinned[i])) { values[pd] += PIN_WEIGHT; rhs[u] += PIN_WEIGHT * pinned[i]; }
       }
       // a step that made the laws worse by far: go back half way (continuity holds on the segment)
-      if (merit > meritPrev * (1 + 1e-9) + 1e-15 && halvings < 8 && iterations > 2) {
+      if (merit > meritPrev * (1 + 1e-6) && merit > tol.head_m * qScale && halvings < 8 && sinceReset >= 2) {
         halvings++;
         for (let k = 0; k < m; k++) flow[k] = 0.5 * (flow[k] + flowPrev[k]);
         for (let i = 0; i < n; i++) { head[i] = 0.5 * (head[i] + headPrev[i]); virtualFlow[i] = 0.5 * (virtualFlow[i] + virtualPrev[i]); }
@@ -451,6 +455,7 @@ export class GradientSolver {
         continue;
       }
       halvings = 0;
+      sinceReset++;
       meritPrev = merit;
       flowPrev.set(flow);
       headPrev.set(head);
@@ -497,6 +502,7 @@ export class GradientSolver {
       if ((relative < 1e-2 || iterations >= 10) && statusLinks.length > 0 && updateStatuses(this, statusLinks, state.linkDirection, state.pumpFactor)) {
         connect(this);
         meritPrev = Infinity;
+        sinceReset = 0; // the flows before the change do not balance under the new statuses
         continue;
       }
       if (relative < 1e-3 || iterations - checkedAt >= 8) {

@@ -134,11 +134,11 @@ export function collectResult(model: NetworkModel, solver: GradientSolver): Pick
  */
 export function solve(doc: unknown, options: SteadyOptions = {}): SteadyResult {
   const parsed = parseDocument(doc);
-  if (!parsed.ok) return { converged: false, iterations: 0, nodes: {}, links: {}, warnings: parsed.warnings };
+  if (!parsed.ok) return { converged: false, reason: 'the document is invalid (see the warnings)', iterations: 0, nodes: {}, links: {}, warnings: parsed.warnings };
   const network = parsed.doc;
   if (!network.nodes.some((node) => node.kind === 'source' || node.kind === 'tank')) {
     return {
-      converged: false, iterations: 0, nodes: {}, links: {},
+      converged: false, reason: 'no source or tank', iterations: 0, nodes: {}, links: {},
       warnings: [{ code: 'no-fixed-head', element: null, message: 'network: needs at least one source or tank to fix the head' }],
     };
   }
@@ -161,7 +161,7 @@ export function solve(doc: unknown, options: SteadyOptions = {}): SteadyResult {
     return result;
   } catch (error) {
     return {
-      converged: false, iterations: 0, nodes: {}, links: {},
+      converged: false, reason: 'the solver failed', iterations: 0, nodes: {}, links: {},
       warnings: [{ code: 'not-converged', element: null, message: `network: the solver failed (${error instanceof Error ? error.message : String(error)})` }],
     };
   }
