@@ -186,3 +186,64 @@ export const reviewComments = pgTable('review_comments', {
   createdAt: createdAt(),
   createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
 }, (t) => [index('review_comments_project_idx').on(t.projectId, t.version)]);
+
+/** A team's price list: one row per item code (engine/takeoff codes: `pe-sidr9/1"`, `tee/1"`, `other/trenching`). */
+export const priceItems = pgTable('price_items', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+  code: text('code').notNull(),
+  description: text('description').notNull().default(''),
+  unit: text('unit').notNull().default('each'),
+  /** Unit price in the team's currency; null = not priced yet (the takeoff flags it). */
+  price: doublePrecision('price'),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+}, (t) => [uniqueIndex('price_items_team_code_idx').on(t.teamId, t.code)]);
+
+/**
+ * A named variant of a project's design (pipe sizes, classes or materials changed, a tank moved),
+ * made from a saved network version. Designers edit and promote; the owner marks one preferred.
+ */
+export const designOptions = pgTable('design_options', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  name: text('name').notNull(),
+  notes: text('notes').notNull().default(''),
+  /** The network version the option was made from. */
+  baseVersion: integer('base_version').notNull(),
+  document: jsonb('document').notNull(),
+  /** The last sizing report (engine SizingResult without its document), null until sized. */
+  sizing: jsonb('sizing'),
+  createdAt: createdAt(),
+  createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+  preferred: boolean('preferred').notNull().default(false),
+  preferredAt: timestamp('preferred_at', { withTimezone: true }),
+  preferredBy: uuid('preferred_by').references(() => users.id, { onDelete: 'set null' }),
+  /** Network version created when the option was promoted to be the design. */
+  promotedVersion: integer('promoted_version'),
+  promotedAt: timestamp('promoted_at', { withTimezone: true }),
+  promotedBy: uuid('promoted_by').references(() => users.id, { onDelete: 'set null' }),
+}, (t) => [index('design_options_project_idx').on(t.projectId)]);
+
+/** The estimator's takeoff and estimate settings of a project (waste, bend angle, other list, labour, markup, tax). */
+export const takeoffSettings = pgTable('takeoff_settings', {
+  projectId: uuid('project_id').primaryKey().references(() => projects.id, { onDelete: 'cascade' }),
+  settings: jsonb('settings').notNull(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+});
+
+/** An owner's acceptance of an estimate: what was accepted (a snapshot), for which design, who and when. */
+export const estimateAcceptances = pgTable('estimate_acceptances', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  networkVersion: integer('network_version').notNull(),
+  optionId: uuid('option_id').references(() => designOptions.id, { onDelete: 'set null' }),
+  total: doublePrecision('total').notNull(),
+  currency: text('currency').notNull().default('USD'),
+  estimate: jsonb('estimate').notNull(),
+  acceptedAt: createdAt(),
+  acceptedBy: uuid('accepted_by').references(() => users.id, { onDelete: 'set null' }),
+}, (t) => [index('estimate_acceptances_project_idx').on(t.projectId)]);

@@ -37,3 +37,4 @@ export { demoPipePrices, demoPriceCatalogue } from './examples/demo-prices';
 export * from './takeoff/index';
 export { demoPriceList, type PriceListRow } from './examples/demo-prices';
 export { purchaseUnit, FITTINGS, fittingCode, nominalForDiameter, type PurchaseUnit, type FittingKind } from './pipe-catalogue';
+export { evaluateDesign, summariseDesign, designDifferences, type DesignSummary, type SummaryInputs, type DesignEvaluation } from './options/compare';

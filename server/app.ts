@@ -22,6 +22,9 @@ import { createMailer } from './mail/mailer';
 import { startMailSink, type MailSink } from './mail/sink';
 import { budgetRoutes } from './routes/budget';
 import { authRoutes, type SigninLimit } from './routes/auth';
+import { optionRoutes } from './routes/options';
+import { priceRoutes } from './routes/prices';
+import { takeoffRoutes } from './routes/takeoff';
 import { fileRoutes } from './routes/files';
 import { networkRoutes } from './routes/network';
 import { projectRoutes } from './routes/projects';
@@ -125,6 +128,9 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   versionRoutes(api, ctx);
   reviewRoutes(api, ctx);
   fileRoutes(api, ctx);
+  priceRoutes(api, ctx);
+  optionRoutes(api, ctx);
+  takeoffRoutes(api, ctx);
 
   app.use('/api',
     express.json({ limit: JSON_BODY_LIMIT }),

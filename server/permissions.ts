@@ -31,6 +31,19 @@ export const PERMISSION_TABLE = {
   'review.comment': [...DESIGNERS, 'reviewer', 'owner'],
   'files.read': EVERY_MEMBER,
   'files.write': DESIGNERS,
+  'prices.read': EVERY_MEMBER,
+  /** Only estimators (and admins) keep the team's price list. */
+  'prices.write': ['admin', 'estimator'],
+  'options.read': EVERY_MEMBER,
+  /** Make, edit, size, delete and promote options: the designers. */
+  'options.write': DESIGNERS,
+  /** Mark the preferred option: the owner (the farmer or client) decides. */
+  'options.prefer': ['owner'],
+  'takeoff.read': EVERY_MEMBER,
+  /** Waste allowance, bend angle, the "other" list, labour, markup and tax. */
+  'takeoff.write': ['admin', 'estimator'],
+  /** Accept an estimate (recorded): the owner. */
+  'estimate.accept': ['owner'],
   'team.read': EVERY_MEMBER,
   'team.manage': ['admin'],
   'outbox.read': ['admin'],

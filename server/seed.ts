@@ -14,6 +14,7 @@ import { hashPassword } from './auth/passwords';
 import { saveBudget } from './budget/budget-store';
 import { saveNetwork } from './network/network-store';
 import { markSubmitted } from './review/signoff';
+import { seedPricesAndOptions } from './options/seed-options';
 import type { Role } from './permissions';
 
 export const DEMO_PASSWORD = 'runnel-demo-2026';
@@ -73,6 +74,7 @@ export async function seed(db: Db, { bcryptCost }: { bcryptCost: number }): Prom
     projectId: ids.demoProjectId, teamId: ids.demoTeamId, version: 1, user: ids.designer,
     note: 'First full layout: tanks on the ridge, gravity main, orchard PRV and four troughs. Please check the south trough line across the dip.',
   });
+  await seedPricesAndOptions(db, { teamId: ids.demoTeamId, projectId: ids.demoProjectId, userId: ids.designer.id });
   return { seeded: true, demoTeamId: ids.demoTeamId, demoProjectId: ids.demoProjectId, otherTeamId: ids.otherTeamId, otherProjectId: ids.otherProjectId };
 }
 

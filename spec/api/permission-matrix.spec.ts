@@ -12,6 +12,7 @@ import { emptyBudget } from '../../engine/budget';
 import { PERMISSION_TABLE, ROLES, type Access, type Role } from '../../server/permissions';
 import { DEMO_PASSWORD } from '../../server/seed';
 import { insertFile, insertInvitation, insertInvitationRow, insertMember, insertProject, insertComment, insertSavedProject, insertSubmittedProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
+import { insertOption, insertPrice, PRICE_CSV } from './option-fixtures';
 import { demoEmail, startTestApp, type ApiAgent, type TestApp } from './test-app';
 
 interface Case {
@@ -97,6 +98,42 @@ const CASES: Case[] = [
     call: async (a, t) => a.delete(`${p(t)}/files/${await insertFile(t.db, t.seeded!.demoProjectId)}`) },
   { method: 'post', path: '/projects/:id/survey/parse', access: 'files.read', success: 200,
     call: (a, t) => a.upload(`${p(t)}/survey/parse`, { bytes: Buffer.from(SURVEY_CSV), filename: 'pegs.csv' }) },
+  { method: 'get', path: '/prices', access: 'prices.read', success: 200, call: (a) => a.get('/api/prices') },
+  { method: 'post', path: '/prices', access: 'prices.write', success: 201,
+    call: (a) => a.post('/api/prices', { code: `other/m-${randomUUID().slice(0, 8)}`, description: 'Matrix item', unit: 'each', price: 2 }) },
+  { method: 'patch', path: '/prices/:itemId', access: 'prices.write', success: 200,
+    call: async (a, t) => a.patch(`/api/prices/${await insertPrice(t.db, t.seeded!.demoTeamId)}`, { price: 3.25 }) },
+  { method: 'delete', path: '/prices/:itemId', access: 'prices.write', success: 204,
+    call: async (a, t) => a.delete(`/api/prices/${await insertPrice(t.db, t.seeded!.demoTeamId)}`) },
+  { method: 'post', path: '/prices/import', access: 'prices.write', success: 200,
+    call: (a) => a.upload('/api/prices/import', { bytes: Buffer.from(PRICE_CSV), filename: 'prices.csv' }) },
+  { method: 'get', path: '/projects/:id/options', access: 'options.read', success: 200, call: (a, t) => a.get(`${p(t)}/options`) },
+  { method: 'get', path: '/projects/:id/options/:optionId', access: 'options.read', success: 200,
+    call: async (a, t) => a.get(`${p(t)}/options/${await insertOption(t.db, t.seeded!.demoProjectId)}`) },
+  { method: 'post', path: '/projects/:id/options', access: 'options.write', success: 201,
+    call: async (a, t) => a.post(`/api/projects/${await insertSavedProject(t.db, t.seeded!.demoTeamId)}/options`, { name: 'Matrix option' }) },
+  { method: 'patch', path: '/projects/:id/options/:optionId', access: 'options.write', success: 200,
+    call: async (a, t) => a.patch(`${p(t)}/options/${await insertOption(t.db, t.seeded!.demoProjectId)}`, { name: 'Renamed', pipes: [{ id: 'L-TR4', series: 'pe-sidr9', nominal: '1"' }] }) },
+  { method: 'post', path: '/projects/:id/options/:optionId/size', access: 'options.write', success: 200,
+    call: async (a, t) => a.post(`${p(t)}/options/${await insertOption(t.db, t.seeded!.demoProjectId)}/size`, { pipes: ['L-TR3', 'L-TR4'] }) },
+  { method: 'post', path: '/projects/:id/options/:optionId/promote', access: 'options.write', success: 200,
+    call: async (a, t) => { const id = await insertSavedProject(t.db, t.seeded!.demoTeamId); return a.post(`/api/projects/${id}/options/${await insertOption(t.db, id)}/promote`, {}); } },
+  { method: 'post', path: '/projects/:id/options/:optionId/prefer', access: 'options.prefer', success: 200,
+    call: async (a, t) => { const id = await insertSavedProject(t.db, t.seeded!.demoTeamId); return a.post(`/api/projects/${id}/options/${await insertOption(t.db, id)}/prefer`); } },
+  { method: 'delete', path: '/projects/:id/options/:optionId', access: 'options.write', success: 204,
+    call: async (a, t) => a.delete(`${p(t)}/options/${await insertOption(t.db, t.seeded!.demoProjectId)}`) },
+  { method: 'get', path: '/projects/:id/takeoff', access: 'takeoff.read', success: 200, call: (a, t) => a.get(`${p(t)}/takeoff`) },
+  { method: 'put', path: '/projects/:id/takeoff/settings', access: 'takeoff.write', success: 200,
+    call: async (a, t) => a.put(`/api/projects/${await insertSavedProject(t.db, t.seeded!.demoTeamId)}/takeoff/settings`,
+      { waste_fraction: 0.1, bendAngle_deg: 30, other: [], labour_hours: 4, labour_rate: 40, markup_fraction: 0.1, tax_fraction: 0.05, currency: 'USD' }) },
+  { method: 'post', path: '/projects/:id/estimate/accept', access: 'estimate.accept', success: 201,
+    call: async (a, t) => {
+      const id = await insertSavedProject(t.db, t.seeded!.demoTeamId);
+      const takeoff = await a.get(`/api/projects/${id}/takeoff`);
+      return a.post(`/api/projects/${id}/estimate/accept`, { total: takeoff.body.estimate?.total ?? 0 });
+    } },
+  { method: 'get', path: '/projects/:id/takeoff.csv', access: 'takeoff.read', success: 200, call: (a, t) => a.get(`${p(t)}/takeoff.csv`) },
+  { method: 'get', path: '/projects/:id/export.xlsx', access: 'takeoff.read', success: 200, call: (a, t) => a.get(`${p(t)}/export.xlsx`) },
 ];
 
 function expectedStatus(c: Case, who: Role | null): number {

@@ -1,0 +1,144 @@
+/**
+ * Options, price list, takeoff, estimate and the workbook through the API on the seeded demo:
+ * two options with different mainlines differ in pressure and cost; sizing beats the largest
+ * design; the exported workbook read back matches the document and price list exactly; a
+ * malformed price list names row and column and imports nothing; the role rules hold.
+ */
+import { expect } from 'chai';
+import ExcelJS from 'exceljs';
+import type { Response } from 'supertest';
+import { eq } from 'drizzle-orm';
+import { priceItems } from '../../drizzle/schema';
+import type { NetworkDocument, PipeLink } from '../../engine';
+import { startTestApp, type TestApp } from './test-app';
+
+const binary = (res: Response, cb: (err: Error | null, body: Buffer) => void) => {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => cb(null, Buffer.concat(chunks)));
+};
+
+describe('API: options, prices, takeoff and export', () => {
+  let t: TestApp;
+  let base: string;
+  before(async () => { t = await startTestApp(); base = `/api/projects/${t.seeded!.demoProjectId}`; });
+  after(async () => { await t.close(); });
+
+  it('the two demo options with different mainline sizes show different pressures and costs', async () => {
+    const owner = await t.signInAs('owner');
+    const res = await owner.get(`${base}/options`).expect(200);
+    const [big, small] = ['Mainline 2 in', 'Mainline 1 in'].map((n) => res.body.options.find((o: { name: string }) => o.name === n));
+    expect(big.differences.pipes).to.include.members(['M1', 'M2', 'M3', 'M4']);
+    expect(big.summary.lowestOutlet.pressure_m).to.not.equal(small.summary.lowestOutlet.pressure_m);
+    expect(big.summary.pipeCost).to.be.above(small.summary.pipeCost);
+    expect(big.summary.total).to.be.above(small.summary.total);
+    expect(res.body.current.summary.failingChecks).to.be.a('number');
+  });
+
+  it('a designer makes an option and sizes it: every outlet passes at less than the largest-size cost', async () => {
+    const designer = await t.signInAs('designer');
+    const made = await designer.post(`${base}/options`, { name: 'Sized from the list' }).expect(201);
+    const sized = await designer.post(`${base}/options/${made.body.id}/size`, {}).expect(200);
+    expect(sized.body.feasible).to.equal(true);
+    expect(sized.body.cost).to.be.below(sized.body.largestCost);
+    expect(sized.body.check.outlets.every((o: { passes: boolean }) => o.passes)).to.equal(true);
+    expect(sized.body.regions.map((r: { method: string }) => r.method)).to.include('exact dynamic programming');
+    const option = await designer.get(`${base}/options/${made.body.id}`).expect(200);
+    const changed = (option.body.document as NetworkDocument).links.filter((l) => l.kind === 'pipe' && sized.body.choices.some((c: { pipe: string; key: string }) => c.pipe === l.id && c.key === `${(l as PipeLink).series}/${(l as PipeLink).nominal}`));
+    expect(changed).to.have.length(sized.body.choices.length);
+  });
+
+  it('owners mark the preferred option (who and when recorded) and never edit the design; reviewers read', async () => {
+    const owner = await t.signInAs('owner');
+    const list = await owner.get(`${base}/options`).expect(200);
+    const target = list.body.options[0];
+    await owner.patch(`${base}/options/${target.id}`, { name: 'Owner rename' }).expect(403);
+    await owner.put(`${base}/network`, { version: 1, document: {} }).expect(403);
+    await owner.post(`${base}/options/${target.id}/prefer`).expect(200);
+    const after = await owner.get(`${base}/options`).expect(200);
+    const marked = after.body.options.find((o: { id: string }) => o.id === target.id);
+    expect(marked).to.include({ preferred: true, preferredBy: 'Morgan Owner' });
+    expect(Date.parse(marked.preferredAt)).to.be.closeTo(Date.now(), 60000);
+    expect(after.body.options.filter((o: { preferred: boolean }) => o.preferred)).to.have.length(1);
+    const reviewer = await t.signInAs('reviewer');
+    await reviewer.get(`${base}/options`).expect(200);
+    await reviewer.post(`${base}/options/${target.id}/prefer`).expect(403);
+    await reviewer.patch('/api/prices/00000000-0000-0000-0000-000000000000', { price: 1 }).expect(403);
+    const designer = await t.signInAs('designer');
+    await designer.post('/api/prices', { code: 'other/x', price: 1 }).expect(403);
+  });
+
+  it('the owner accepts the estimate (recorded); a changed estimate is refused', async () => {
+    const owner = await t.signInAs('owner');
+    const takeoff = await owner.get(`${base}/takeoff`).expect(200);
+    await owner.post(`${base}/estimate/accept`, { total: takeoff.body.estimate.total + 1 }).expect(409);
+    const ok = await owner.post(`${base}/estimate/accept`, { total: takeoff.body.estimate.total }).expect(201);
+    expect(ok.body.total).to.equal(takeoff.body.estimate.total);
+    const again = await owner.get(`${base}/takeoff`).expect(200);
+    expect(again.body.acceptances[0]).to.include({ acceptedBy: 'Morgan Owner', total: takeoff.body.estimate.total, design: 'Current design' });
+  });
+
+  it('a malformed price list reports row and column and imports nothing (CSV and XLSX)', async () => {
+    const est = await t.signInAs('estimator');
+    const count = async () => (await t.db.select().from(priceItems).where(eq(priceItems.teamId, t.seeded!.demoTeamId))).length;
+    const before = await count();
+    const bad = await est.upload('/api/prices/import', { bytes: Buffer.from('code,description,unit,price\nother/a,A,each,2\nother/b,B,each,two\n'), filename: 'p.csv' }).expect(400);
+    expect(bad.body.error.message).to.equal('Row 3, column "price": must be a number ≥ 0 or empty (got "two"). Nothing was imported.');
+    expect(bad.body.error.line).to.equal(3);
+    const book = new ExcelJS.Workbook();
+    const ws = book.addWorksheet('Prices');
+    ws.addRows([['code', 'description', 'unit', 'price'], ['other/c', 'C', 'each', 1], ['', 'no code', 'each', 4]]);
+    const badX = await est.upload('/api/prices/import', { bytes: Buffer.from(await book.xlsx.writeBuffer()), filename: 'p.xlsx' }).expect(400);
+    expect(badX.body.error.message).to.match(/^Row 3, column "code": is empty/);
+    expect(await count()).to.equal(before);
+    const good = await est.upload('/api/prices/import', { bytes: Buffer.from('code,description,unit,price\nother/a,A,each,2\nother/b,B,each,\n'), filename: 'p.csv' }).expect(200);
+    expect(good.body).to.deep.equal({ imported: 2, created: 2, updated: 0 });
+    expect((await est.get('/api/prices').expect(200)).body.find((r: { code: string }) => r.code === 'other/b').price).to.equal(null);
+  });
+
+  it('the workbook read back has its sheets; lengths, fitting counts and totals match the document and price list exactly', async () => {
+    const est = await t.signInAs('estimator');
+    await est.put(`${base}/takeoff/settings`, { waste_fraction: 0.08, bendAngle_deg: 30, other: [{ code: 'other/trenching', description: 'Trenching', unit: 'm', per_pipe_m: 1 }], labour_hours: 24, labour_rate: 42.5, markup_fraction: 0.12, tax_fraction: 0.0625, currency: 'USD' }).expect(200);
+    const takeoff = (await est.get(`${base}/takeoff`).expect(200)).body;
+    const xlsx = await est.get(`${base}/export.xlsx`).buffer(true).parse(binary).expect(200);
+    expect(xlsx.headers['content-type']).to.match(/spreadsheetml/);
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.load(xlsx.body);
+    expect(book.worksheets.map((w) => w.name)).to.deep.equal(['Summary', 'Takeoff', 'Estimate', 'Outlets', 'Pipes', 'Tank timeline', 'Options']);
+    expect(book.getWorksheet('Summary')!.getCell('B10').value).to.match(/local codes and licensed practice/);
+    // pipe lengths per item equal the document's pipes (network length) and the waste rule
+    const network = (await est.get(`${base}/network`).expect(200)).body.document as NetworkDocument;
+    const sheet = book.getWorksheet('Takeoff')!;
+    const rows = new Map<string, ExcelJS.Row>();
+    sheet.eachRow((row, n) => { if (n > 1) rows.set(String(row.getCell(1).value), row); });
+    const byItem = new Map<string, number>();
+    for (const l of network.links) if (l.kind === 'pipe') byItem.set(`${l.series}/${l.nominal}`, (byItem.get(`${l.series}/${l.nominal}`) ?? 0) + l.length_m);
+    for (const [code, length] of byItem) {
+      expect(rows.get(code)!.getCell(6).value, code).to.be.closeTo(length, 1e-9);
+      expect(rows.get(code)!.getCell(7).value, code).to.be.closeTo(length * 1.08, 1e-3);
+    }
+    // fitting counts equal the takeoff's
+    for (const r of takeoff.takeoff.rows) expect(rows.get(r.code)!.getCell(4).value, r.code).to.equal(r.quantity);
+    // totals: every amount is ROUND(quantity × list price, 2) from the team's list, and the total adds up
+    const prices = new Map((await est.get('/api/prices').expect(200)).body.map((p: { code: string; price: number | null }) => [p.code, p.price]));
+    const estimate = book.getWorksheet('Estimate')!;
+    let materials = 0;
+    estimate.eachRow((row, n) => {
+      if (n === 1 || n > takeoff.estimate.lines.length + 1) return;
+      const code = String(row.getCell(1).value);
+      const price = prices.get(code) as number | null;
+      const amount = (row.getCell(6).value as ExcelJS.CellFormulaValue).result as number;
+      expect(amount, code).to.equal(price === null || price === undefined ? 0 : Math.round(Number(row.getCell(3).value) * price * 100 + 1e-9) / 100);
+      materials += amount;
+    });
+    const cell = (label: string) => { let v = NaN; estimate.eachRow((row) => { if (row.getCell(2).value === label) v = (row.getCell(6).value as ExcelJS.CellFormulaValue).result as number; }); return v; };
+    expect(cell('Materials')).to.equal(Math.round(materials * 100) / 100);
+    expect(cell('Labour')).to.equal(1020);
+    expect(cell('Total')).to.equal(takeoff.estimate.total);
+    expect(cell('Total')).to.equal(Math.round((cell('Materials') + cell('Labour') + cell('Markup') + cell('Tax')) * 100) / 100);
+    expect(estimate.views[0]).to.include({ state: 'frozen', ySplit: 1 });
+    const csv = await est.get(`${base}/takeoff.csv`).expect(200);
+    expect(csv.text.split('\n')[0]).to.match(/^code,description,group,quantity,unit/);
+    expect(csv.text.trim().split('\n')).to.have.length(takeoff.takeoff.rows.length + 1);
+  });
+});
