@@ -8,16 +8,15 @@ import { and, asc, eq, ne } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
 import {
-  applyCandidate, catalogueCandidate, designDifferences, evaluateDesign, sizeNetwork, validateDocument, type NetworkDocument, type PipeLink,
+  applyCandidate, catalogueCandidate, designDifferences, evaluateDesign, parseDocument, sizeNetwork, type NetworkDocument, type PipeLink,
 } from '../../engine';
 import { designOptions, users } from '../../drizzle/schema';
 import type { ApiRoutes } from '../api-routes';
 import { audit } from '../audit';
 import type { AppContext } from '../context';
 import type { DbOrTx } from '../db';
-import { ApiError, parseBody } from '../errors';
+import { ApiError, issuePath, parseBody } from '../errors';
 import { uuidParam } from '../ids';
-import { engineErrors, shapeErrors } from '../network/document-shape';
 import { loadNetwork, saveNetwork } from '../network/network-store';
 import { designInputs, pipeCandidates } from '../options/design-inputs';
 import { projectOf } from '../project-scope';
@@ -56,10 +55,12 @@ async function oneOption(db: DbOrTx, projectId: string, raw: unknown) {
 }
 
 function checkDocument(doc: unknown): NetworkDocument {
-  const problems = shapeErrors(doc);
-  const all = problems.length ? problems : engineErrors(validateDocument(doc));
-  if (all.length) throw new ApiError('validation', `The option's document has ${all.length} problem${all.length === 1 ? '' : 's'}: ${all[0].message}`, { fields: all });
-  return doc as NetworkDocument;
+  const parsed = parseDocument(doc);
+  if (!parsed.ok) {
+    const fields = parsed.problems.map((p) => ({ path: issuePath(['document', ...p.path]), ...(p.element ? { element: p.element } : {}), message: p.message }));
+    throw new ApiError('validation', `The option's document has ${fields.length} problem${fields.length === 1 ? '' : 's'}: ${fields[0].message}`, { fields });
+  }
+  return parsed.doc;
 }
 
 export function optionRoutes(api: ApiRoutes, ctx: AppContext): void {
