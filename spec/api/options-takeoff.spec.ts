@@ -21,7 +21,7 @@ const binary = (res: Response, cb: (err: Error | null, body: Buffer) => void) =>
 describe('API: options, prices, takeoff and export', () => {
   let t: TestApp;
   let base: string;
-  before(async () => { t = await startTestApp(); base = `/api/projects/${t.seeded!.demoProjectId}`; });
+  before(async function () { this.timeout(90000); t = await startTestApp(); base = `/api/projects/${t.seeded!.demoProjectId}`; });
   after(async () => { await t.close(); });
 
   it('the two demo options with different mainline sizes show different pressures and costs', async () => {
