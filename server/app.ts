@@ -18,6 +18,7 @@ import type { AppContext } from './context';
 import { openDatabase, pgliteDir, type Database, type Db } from './db';
 import { apiNotFound, errorHandler, notFoundHandler } from './errors';
 import { loadProject } from './project-scope';
+import { checkJsonText, requireJsonOrMultipart } from './request-guards';
 import { createMailer } from './mail/mailer';
 import { startMailSink, type MailSink } from './mail/sink';
 import { budgetRoutes } from './routes/budget';
@@ -133,7 +134,9 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   takeoffRoutes(api, ctx);
 
   app.use('/api',
+    requireJsonOrMultipart,
     express.json({ limit: JSON_BODY_LIMIT }),
+    checkJsonText,
     cookieParser(),
     session({
       name: 'runnel.sid',

@@ -3,6 +3,7 @@
  */
 import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { isIP } from 'node:net';
 import { join, resolve } from 'node:path';
 import { z } from 'zod';
 
@@ -20,8 +21,16 @@ const envSchema = z.object({
   MAIL_FROM: z.string().default('Runnel <no-reply@runnel.test>'),
   PUBLIC_URL: z.url().optional(),
   COOKIE_SECURE: z.enum(['true', 'false']).optional(),
-  /** Express 'trust proxy': true, a hop count or addresses; set it behind a TLS-terminating proxy. */
-  TRUST_PROXY: z.string().optional(),
+  /**
+   * Express 'trust proxy' behind a TLS-terminating proxy or load balancer: a hop count (how many
+   * proxies sit in front) or a comma-separated list of proxy addresses/subnets. `true` is refused:
+   * it would trust every X-Forwarded-For, letting any client choose its own IP (and its sign-in budget).
+   */
+  TRUST_PROXY: z.string().optional().superRefine((value, ctx) => {
+    if (value === undefined || value === '') return;
+    const problem = trustProxyProblem(value);
+    if (problem) ctx.addIssue({ code: 'custom', message: problem });
+  }),
 });
 
 export interface SmtpConfig { host: string; port: number; user?: string; pass?: string }
@@ -40,8 +49,8 @@ export interface Config {
   /** Base of links in e-mails (no trailing slash). */
   publicUrl: string;
   cookieSecure: boolean;
-  /** Express 'trust proxy' setting (absent: do not trust X-Forwarded-*). */
-  trustProxy?: boolean | number | string;
+  /** Express 'trust proxy': a hop count or a list of proxy addresses (absent: do not trust X-Forwarded-*). */
+  trustProxy?: number | string[];
 }
 
 /** Reads the session secret from the data dir, creating it on first start. */
@@ -79,8 +88,31 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   };
 }
 
-function parseTrustProxy(value: string | undefined): boolean | number | string | undefined {
-  if (value === undefined || value === '') return undefined;
-  if (value === 'true' || value === 'false') return value === 'true';
-  return /^\d+$/.test(value) ? Number(value) : value;
+/** Names Express (proxy-addr) accepts for common private ranges. */
+const PROXY_NAMES = new Set(['loopback', 'linklocal', 'uniquelocal']);
+
+function isProxyAddress(entry: string): boolean {
+  if (PROXY_NAMES.has(entry)) return true;
+  const [address, bits, ...rest] = entry.split('/');
+  if (rest.length || !(isIP(address) || false)) return false;
+  if (bits === undefined) return true;
+  const max = isIP(address) === 4 ? 32 : 128;
+  return /^\d+$/.test(bits) && Number(bits) <= max;
+}
+
+/** Why a TRUST_PROXY value is refused, or null. */
+export function trustProxyProblem(value: string): string | null {
+  if (/^(true|false|yes|no|on|off)$/i.test(value.trim())) {
+    return 'must be a hop count (e.g. 1) or a comma-separated list of proxy addresses (e.g. 10.0.0.5,10.0.1.0/24, loopback); '
+      + '"true" would trust any X-Forwarded-For and let a client choose its own IP';
+  }
+  if (/^\d+$/.test(value.trim())) return Number(value) <= 10 ? null : 'a hop count must be 10 or fewer';
+  const bad = value.split(',').map((e) => e.trim()).filter((e) => !isProxyAddress(e));
+  return bad.length ? `is not a hop count nor a list of proxy addresses: ${bad.map((b) => JSON.stringify(b)).join(', ')}` : null;
+}
+
+function parseTrustProxy(value: string | undefined): number | string[] | undefined {
+  if (value === undefined || value.trim() === '') return undefined;
+  if (/^\d+$/.test(value.trim())) return Number(value);
+  return value.split(',').map((e) => e.trim());
 }

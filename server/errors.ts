@@ -60,7 +60,13 @@ export function errorHandler(log: (line: string) => void): ErrorRequestHandler {
     if (err instanceof ApiError) apiError = err;
     else if (isBodyParserError(err, 'entity.too.large')) apiError = new ApiError('too-large', 'Request body is too large');
     else if (isBodyParserError(err, 'entity.parse.failed')) apiError = new ApiError('validation', 'Request body is not valid JSON');
-    else if (isClientError(err)) {
+    else if (err instanceof URIError && (err as { status?: number }).status === 400) {
+      // Express could not percent-decode a path parameter (e.g. /api/projects/%C0%AF).
+      apiError = new ApiError('validation', 'The address holds malformed percent-encoding', { fields: [{ path: 'url', message: 'is not valid percent-encoded UTF-8' }] });
+    } else if (databaseInputError(err)) {
+      // A backstop: input the routes let through but the database refuses is the client's, not a crash.
+      apiError = new ApiError('validation', databaseInputError(err)!);
+    } else if (isClientError(err)) {
       apiError = new ApiError(err.status === 415 ? 'unsupported-type' : err.status === 413 ? 'too-large' : 'validation', err.message);
     } else {
       log(`error ${req.method} ${req.originalUrl}: ${err instanceof Error ? err.stack ?? err.message : String(err)}`);
@@ -75,6 +81,23 @@ export function errorHandler(log: (line: string) => void): ErrorRequestHandler {
 function isClientError(err: unknown): err is { status: number; message: string } {
   if (typeof err !== 'object' || err === null || !('status' in err) || !('expose' in err)) return false;
   return err.expose === true && typeof err.status === 'number' && err.status >= 400 && err.status < 500 && 'message' in err;
+}
+
+/** PostgreSQL SQLSTATEs that mean "this input cannot be stored", with what to tell the client. */
+const INPUT_SQLSTATES: Record<string, string> = {
+  '22003': 'A number in the request is out of range',
+  '22021': 'The request holds text that is not valid UTF-8',
+  '22P05': 'The request holds text the database cannot store (a NUL character or a lone surrogate)',
+  '22001': 'A text in the request is too long',
+  '54000': 'A value in the request is too large to store',
+};
+
+function databaseInputError(err: unknown): string | null {
+  for (let e: unknown = err, i = 0; e && typeof e === 'object' && i < 3; e = (e as { cause?: unknown }).cause, i++) {
+    const code = (e as { code?: unknown }).code;
+    if (typeof code === 'string' && INPUT_SQLSTATES[code]) return INPUT_SQLSTATES[code];
+  }
+  return null;
 }
 
 function isBodyParserError(err: unknown, type: string): boolean {

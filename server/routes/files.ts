@@ -8,7 +8,7 @@ import type { ApiRoutes } from '../api-routes';
 import { audit } from '../audit';
 import type { AppContext } from '../context';
 import { ApiError, parseBody } from '../errors';
-import { detectSurveyFormat, parseSurvey, SurveyError, type SurveyFormat } from '../survey';
+import { detectSurveyFormat, parseSurvey, SurveyError, type SurveyFormat, type SurveyParse } from '../survey';
 import { uuidParam } from '../ids';
 import { projectOf } from '../project-scope';
 
@@ -32,11 +32,18 @@ function singleFile(maxBytes: number): RequestHandler {
     storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: maxBytes, files: 1, fields: 10 },
   }).single('file');
   return (req, res, next) => {
+    if (!req.is('multipart/form-data')) {
+      return next(new ApiError('unsupported-type', 'Send the file as multipart/form-data in field "file"'));
+    }
     upload(req, res, (err: unknown) => {
       if (!err) return next();
       if (err instanceof multer.MulterError) {
         if (err.code === 'LIMIT_FILE_SIZE') return next(new ApiError('too-large', `The file is larger than ${maxBytes / MB} MB`));
         return next(new ApiError('validation', `Upload rejected: ${err.message}`, { fields: [{ path: err.field ?? 'file', message: err.message }] }));
+      }
+      // busboy's own errors: no boundary, a truncated body, a malformed part header.
+      if (err instanceof Error && /^(Multipart|Unexpected end of form|Malformed)/.test(err.message)) {
+        return next(new ApiError('validation', `The multipart body is malformed: ${err.message}`, { fields: [{ path: 'file', message: 'send one file as multipart/form-data' }] }));
       }
       next(err);
     });
@@ -47,10 +54,24 @@ function singleFile(maxBytes: number): RequestHandler {
  * Content-Disposition for a stored file name (RFC 6266 §4.3): an ASCII `filename` fallback and the
  * exact name as UTF-8 in `filename*` (RFC 8187). A raw non-Latin-1 name would make Node refuse the header.
  */
-export function inlineDisposition(filename: string): string {
+export function contentDisposition(type: 'inline' | 'attachment', filename: string): string {
   const ascii = filename.replace(/[^\x20-\x7e]/g, '_').replace(/["\\]/g, '_');
   const encoded = encodeURIComponent(filename).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`);
-  return `inline; filename="${ascii}"; filename*=UTF-8''${encoded}`;
+  return `${type}; filename="${ascii}"; filename*=UTF-8''${encoded}`;
+}
+
+/**
+ * Uploads get their own CSP, stricter than the app's: a verified image may show itself and nothing
+ * else; anything else is sandboxed and loads nothing, should a browser ever render it.
+ */
+export const IMAGE_CSP = "default-src 'none'; img-src 'self'; style-src 'unsafe-inline'; sandbox";
+export const DOWNLOAD_CSP = "default-src 'none'; sandbox";
+
+/** A stored file name: no path separators, quotes, control characters or lone surrogates; at most 200 characters. */
+export function safeFilename(name: string): string {
+  const cleaned = name.replace(/[\\/"\u0000-\u001f\u007f]/g, '_')
+    .replace(/[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/g, '_');
+  return Array.from(cleaned).slice(0, 200).join('') || 'upload';
 }
 
 function requireFile(file: Express.Multer.File | undefined): Express.Multer.File {
@@ -63,6 +84,17 @@ function surveyFormatOf(file: Express.Multer.File): SurveyFormat {
   const format = detectSurveyFormat(file.buffer);
   if (!format) throw new ApiError('unsupported-type', `A survey must be a CSV or GPX text file; "${file.originalname}" is binary`);
   return format;
+}
+
+/** The survey's points, or 400 naming the line or point: only a file that parses is stored or answered. */
+function parsedSurvey(file: Express.Multer.File): SurveyParse {
+  const format = surveyFormatOf(file);
+  try {
+    return parseSurvey(file.buffer.toString('utf8'), format);
+  } catch (err) {
+    if (err instanceof SurveyError) throw new ApiError('validation', err.message, err.where);
+    throw err;
+  }
 }
 
 function fileJson(row: { id: string; kind: string; filename: string; mime: string; size: number; createdAt: Date; createdByName: string | null }) {
@@ -98,9 +130,9 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
       mime = type;
     } else {
       if (file.size > SURVEY_MAX_BYTES) throw new ApiError('too-large', `A survey file must be at most ${SURVEY_MAX_BYTES / MB} MB`);
-      mime = surveyFormatOf(file) === 'gpx' ? 'application/gpx+xml' : 'text/csv';
+      mime = parsedSurvey(file).format === 'gpx' ? 'application/gpx+xml' : 'text/csv';
     }
-    const filename = file.originalname.replace(/[\\/\r\n"]/g, '_').slice(0, 200) || 'upload';
+    const filename = safeFilename(file.originalname);
     const row = await db.transaction(async (tx) => {
       const [created] = await tx.insert(files).values({
         projectId: project.id, kind, filename, mime, size: file.size, bytes: file.buffer, createdBy: req.user!.id,
@@ -116,9 +148,13 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
     const fileId = uuidParam(req.params.fileId, 'No such file');
     const [row] = await db.select().from(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
     if (!row) throw new ApiError('not-found', 'No such file');
-    res.setHeader('Content-Type', row.mime);
-    res.setHeader('Content-Disposition', inlineDisposition(row.filename));
+    // Shown in the page only when the bytes are an image we checked; everything else downloads.
+    const image = row.kind === 'backdrop' && imageType(row.bytes) === row.mime;
+    res.setHeader('Content-Type', image ? row.mime : `${row.mime === 'text/csv' || row.mime === 'application/gpx+xml' ? row.mime : 'application/octet-stream'}`);
+    res.setHeader('Content-Disposition', contentDisposition(image ? 'inline' : 'attachment', row.filename));
+    res.setHeader('Content-Security-Policy', image ? IMAGE_CSP : DOWNLOAD_CSP);
     res.setHeader('X-Content-Type-Options', 'nosniff');
+    res.setHeader('Cross-Origin-Resource-Policy', 'same-origin');
     res.send(row.bytes);
   });
 
@@ -134,13 +170,6 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
   });
 
   api.post('/projects/:id/survey/parse', 'files.read', singleFile(SURVEY_MAX_BYTES), async (req, res) => {
-    const file = requireFile(req.file);
-    const format = surveyFormatOf(file);
-    try {
-      res.json(parseSurvey(file.buffer.toString('utf8'), format));
-    } catch (err) {
-      if (err instanceof SurveyError) throw new ApiError('validation', err.message, err.where);
-      throw err;
-    }
+    res.json(parsedSurvey(requireFile(req.file)));
   });
 }

@@ -8,7 +8,8 @@ import { projectOf } from '../project-scope';
 
 /** The body of PUT /api/projects/:id/network; the document is checked by the engine's schema (parseDocument). */
 const saveNetworkBody = z.object({
-  version: z.number({ error: 'must be a number' }).int('must be an integer').min(0, 'must be 0 or more'),
+  // versions is an int4 column: 2^31 and above would be a database error, not a stale save.
+  version: z.number({ error: 'must be a number' }).int('must be an integer').min(0, 'must be 0 or more').max(2 ** 31 - 1, 'must be below 2^31'),
   document: z.unknown(),
 });
 

@@ -23,12 +23,26 @@ function localName(node: Node): string {
   return (node as Element).localName ?? node.nodeName;
 }
 
-function collectPoints(node: Node, out: Element[]): void {
-  for (let c = node.firstChild; c; c = c.nextSibling) {
+/** Deeper nesting than any GPX needs (gpx › trk › trkseg › trkpt › extensions…): refused, not recursed into. */
+export const GPX_MAX_DEPTH = 64;
+
+/** Point elements in document order; iterative, so a 20,000-deep file cannot overflow the stack. */
+function collectPoints(root: Node): Element[] {
+  const out: Element[] = [];
+  const stack: { node: Node | null; depth: number }[] = [{ node: root.firstChild, depth: 1 }];
+  while (stack.length) {
+    const top = stack[stack.length - 1];
+    const c = top.node;
+    if (!c) { stack.pop(); continue; }
+    top.node = c.nextSibling;
     if (c.nodeType !== ELEMENT_NODE) continue;
-    if (POINT_TAGS.has(localName(c))) out.push(c as Element);
-    else collectPoints(c, out);
+    if (POINT_TAGS.has(localName(c))) { out.push(c as Element); continue; }
+    if (top.depth >= GPX_MAX_DEPTH) {
+      throw new SurveyError(`point 0: the GPX file nests elements more than ${GPX_MAX_DEPTH} levels deep`, { point: 0 });
+    }
+    stack.push({ node: c.firstChild, depth: top.depth + 1 });
   }
+  return out;
 }
 
 export function parseSurveyGpx(text: string): SurveyParse {
@@ -45,8 +59,7 @@ export function parseSurveyGpx(text: string): SurveyParse {
   if (failure || !root || localName(root) !== 'gpx') {
     throw new SurveyError(`point 0: not a GPX file${failure ? ` (${failure.split('\n')[0]})` : ''}`, { point: 0 });
   }
-  const elements: Element[] = [];
-  collectPoints(root, elements);
+  const elements = collectPoints(root);
   if (elements.length === 0) throw new SurveyError('point 1: the GPX file has no wpt, rtept or trkpt points', { point: 1 });
   const points = elements.map((el, i): SurveyPoint => {
     const n = i + 1;

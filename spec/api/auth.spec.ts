@@ -1,5 +1,7 @@
 import { expect } from 'chai';
+import { openDatabase } from '../../server/db';
 import supertest from 'supertest';
+import { permissionsFor } from '../../server/permissions';
 import { DEMO_PASSWORD } from '../../server/seed';
 import { startTestApp, type TestApp } from './test-app';
 
@@ -32,7 +34,10 @@ describe('API: auth, CSRF, errors', () => {
     const a = await t.signInAs('reviewer');
     const me = await a.get('/api/auth/me').expect(200);
     expect(me.body.roles).to.deep.equal(['reviewer']);
-    expect(me.body.permissions).to.deep.equal(['project.read', 'network.read', 'files.read', 'team.read']);
+    // Exactly what the one table grants a reviewer (features add permissions; the matrix checks each route).
+    expect(me.body.permissions).to.deep.equal(permissionsFor(['reviewer']));
+    expect(me.body.permissions).to.include.members(['project.read', 'network.read', 'files.read', 'team.read']);
+    for (const write of ['project.create', 'network.write', 'team.manage']) expect(me.body.permissions).to.not.include(write);
     await a.post('/api/auth/signout').expect(204);
     await a.get('/api/auth/me').expect(401);
   });
@@ -136,11 +141,18 @@ describe('API: auth, CSRF, errors', () => {
   });
 
   it('an unexpected error → 500 with a generic message and no stack trace', async () => {
-    const a = await t.signInAs('designer');
-    // PostgreSQL refuses a NUL character in text, so this insert fails inside the database.
-    const res = await a.post('/api/projects', { name: 'bad\u0000name' });
-    expect(res.status).to.equal(500);
-    expect(res.body).to.deep.equal({ error: { code: 'internal', message: 'Something went wrong on the server; it has been logged.' } });
+    // An app whose database has gone away: every query throws something no route expects.
+    const database = await openDatabase({ kind: 'pglite' });
+    const broken = await startTestApp({ database });
+    try {
+      const a = await broken.signInAs('designer');
+      await database.close();
+      const res = await a.get('/api/projects');
+      expect(res.status).to.equal(500);
+      expect(res.body).to.deep.equal({ error: { code: 'internal', message: 'Something went wrong on the server; it has been logged.' } });
+    } finally {
+      await broken.close().catch(() => undefined);
+    }
   });
 
   it('switches current team only to a team the user belongs to (404 otherwise)', async () => {

@@ -44,4 +44,15 @@ describe('server config (environment, validated once)', () => {
     expect(() => loadConfig({ RUNNEL_DATA_DIR: dir, PORT: 'eighty', DATABASE_URL: 'mysql://x', SESSION_SECRET: 'short' }))
       .to.throw(/Invalid environment:[\s\S]*PORT[\s\S]*DATABASE_URL: must start with postgres:\/\/[\s\S]*SESSION_SECRET: must be at least 16/);
   });
+
+  it('TRUST_PROXY takes a hop count or a list of proxy addresses, and refuses true (a client would choose its IP)', () => {
+    expect(loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: '2' }).trustProxy).to.equal(2);
+    expect(loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: '10.0.0.5, 10.0.1.0/24,loopback,::1' }).trustProxy)
+      .to.deep.equal(['10.0.0.5', '10.0.1.0/24', 'loopback', '::1']);
+    expect(() => loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: 'true' })).to.throw(/TRUST_PROXY: must be a hop count[\s\S]*choose its own IP/);
+    expect(() => loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: 'TRUE' })).to.throw(/TRUST_PROXY/);
+    expect(() => loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: 'false' })).to.throw(/TRUST_PROXY/);
+    expect(() => loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: '10.0.0.5,everyone' })).to.throw(/"everyone"/);
+    expect(() => loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: '10.0.0.0/99' })).to.throw(/"10.0.0.0\/99"/);
+  });
 });

@@ -74,8 +74,11 @@ describe('API: files and survey parsing', () => {
   it('missing kind or file → 400 naming the field', async () => {
     const noKind = await designer.upload(files, { bytes: PNG_BYTES, filename: 'a.png' }).expect(400);
     expect(noKind.body.error.fields[0].path).to.equal('kind');
-    const noFile = await designer.post(files, {}).expect(400);
-    expect(noFile.body.error.fields.map((f: { path: string }) => f.path)).to.include('kind');
+    const noFile = await designer.agent.post(files).set('x-csrf-token', designer.token).field('kind', 'backdrop').expect(400);
+    expect(noFile.body.error.fields.map((f: { path: string }) => f.path)).to.include('file');
+    // JSON where a file is expected is the wrong content type.
+    const json = await designer.post(files, { kind: 'backdrop' }).expect(415);
+    expect(json.body.error.code).to.equal('unsupported-type');
   });
 
   it('an estimator may list files but not upload (403)', async () => {
