@@ -60,6 +60,11 @@ export function contentDisposition(type: 'inline' | 'attachment', filename: stri
   return `${type}; filename="${ascii}"; filename*=UTF-8''${encoded}`;
 }
 
+/** `contentDisposition('inline', …)`; kept for existing callers (takeoff exports). */
+export function inlineDisposition(filename: string): string {
+  return contentDisposition('inline', filename);
+}
+
 /**
  * Uploads get their own CSP, stricter than the app's: a verified image may show itself and nothing
  * else; anything else is sandboxed and loads nothing, should a browser ever render it.
