@@ -136,7 +136,8 @@ export function virtualLaw(model: NetworkModel, i: number, q: number, full: numb
     return;
   }
   const span = requiredPressure(model, i, pressureDriven) - zeroPressure(model, i);
-  if (q > full) { out[0] = span + DEMAND_BARRIER_SLOPE * (q - full); out[1] = DEMAND_BARRIER_SLOPE; return; }
+  // at full delivery the outlet is capped: a step may only leave the cap if the pressure falls below required
+  if (q >= full) { out[0] = span + DEMAND_BARRIER_SLOPE * (q - full); out[1] = DEMAND_BARRIER_SLOPE; return; }
   const s = q / full;
   out[0] = span * s * s;
   out[1] = (2 * span * Math.max(s, VIRTUAL_FLOW_FLOOR)) / full;

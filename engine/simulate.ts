@@ -1,24 +1,29 @@
 import { GradientSolver, STATUS_CLOSED } from './gradient-solver';
-import type { NetworkDocument } from './network-document';
-import { compileNetwork, LINK_FLOAT, LINK_PUMP_CURVE, LINK_PUMP_FLOW, NODE_JUNCTION, NODE_TANK, patternFactor } from './network-model';
-import { normaliseDocument } from './steady';
-import { validateDocument } from './validate';
+import { compileNetwork, NODE_JUNCTION, NODE_TANK, patternFactor } from './network-model';
+import { Controls, SWITCH_SNAP_M } from './simulate-controls';
+import { TANK_EMPTY, TANK_FULL, TANK_NORMAL, TankStepper } from './simulate-step';
+import { parseDocument } from './validate';
 import type { Warning } from './warnings';
 
+export { FLOAT_VALVE_DEADBAND_M, LOW_CUTOFF_RELEASE_M } from './simulate-controls';
+
 /**
- * Extended-period simulation: each time step is one implicit (backward Euler) solve in which the
- * tanks are unknowns with storage A/Δt (./gradient-solver), so tanks joined by short headers stay
- * stable at any step. Steps end at report times and hour boundaries (patterns, pump schedules) and
- * are cut where a tank reaches its max, min or a control level, so controls act on time; volumes
- * are the end-of-step flows times the step (exact for flows constant within a step). Behaviour:
+ * Extended-period simulation. Tank levels follow A·dh/dt = Σ flows in + inflow, integrated with
+ * error control (./simulate-step: backward Euler whole and halved, extrapolated, each stage a
+ * network solve with the tanks as unknowns, so tank banks joined by short headers stay stable):
+ * sub-steps inside a report step shrink until each adds less than tolerance_m of level error and
+ * grow again when it is quiet. Steps end at report times and hour boundaries (patterns, pump
+ * schedules), and events are located exactly (to 0.1 µm of level): a tank filling to its max or
+ * draining to its min, an empty tank refilled by 1 cm, a pump's stop/start and cut-off levels, a
+ * float valve's shut/reopen levels. So levels, volumes and switching times do not depend on the
+ * report step. Behaviour:
  * - demands follow their hourly patterns and are pressure-driven (an outlet cut off from water
  *   delivers nothing; the shortfall is counted as unmet);
- * - pumps follow their 24-hour schedule (a solar pump's daylight factors scale its flow), stop when
- *   the control tank reaches stop_level_m, restart at start_level_m, and stop while the tank they
- *   draw from is at its low-water cut-off (restart 0.1 m above it) or empty;
+ * - pumps and float valves switch by the rules of ./simulate-controls;
  * - a full tank overflows (level held at max, the surplus counted); an empty tank (level at
- *   min_level_m) supplies nothing until it has refilled by 1 cm;
- * - float valves shut when the tank they feed is full and reopen 2 cm below.
+ *   min_level_m) supplies nothing until it has refilled by EMPTY_TANK_HYSTERESIS_M.
+ * Reported pressures and flows are those at the end of the last half step (within tolerance_m of
+ * the reported levels).
  *
  * @param doc network document (validated here)
  * @param options duration_s and step_s (report interval), both seconds
@@ -34,6 +39,8 @@ export interface SimulateOptions {
   step_s: number;
   /** Hazen-Williams ω (default 10.67). */
   omega?: number;
+  /** Largest level error a step may add, m (default 1e-4: levels to well under 1 mm at any report step). */
+  tolerance_m?: number;
 }
 
 export interface SimulationSummary {
@@ -57,93 +64,63 @@ export interface TimeSeriesResult {
 
 /** Refill an empty tank must gain before it supplies again, m. */
 export const EMPTY_TANK_HYSTERESIS_M = 0.01;
-/** Float valves reopen this far below the tank's max level, m. */
-export const FLOAT_VALVE_DEADBAND_M = 0.02;
-/** Low-water cut-offs release this far above their level, m. */
-export const LOW_CUTOFF_RELEASE_M = 0.1;
-/** Levels this close to an event level count as having reached it, m (steps are cut at events). */
-const SNAP_M = 1e-7;
-const LEVEL_EPS = 1e-9;
-
-const TANK_NORMAL = 0;
-const TANK_FULL = 1;
-const TANK_EMPTY = 2;
+/** Default largest level error added per step, m. */
+export const STEP_TOLERANCE_M = 1e-4;
 
 function emptyResult(warnings: Warning[]): TimeSeriesResult {
   return { times_s: [], tanks: {}, nodes: {}, links: {}, pumps: {}, summary: { outlets: {}, pumps: {}, tanks: {} }, warnings };
 }
 
+/** The earliest level a tank crosses in the last step: tank, target level and linear time fraction. */
+interface Crossing { tank: number; target: number; fraction: number }
+
 /** Run an extended-period simulation (see module doc). Never throws on bad input. */
 export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResult {
-  const invalid = validateDocument(doc);
+  const parsed = parseDocument(doc);
+  const invalid = parsed.ok ? [] : parsed.warnings;
   if (!(options.duration_s >= 0) || !(options.step_s > 0)) {
     invalid.push({ code: 'invalid', element: null, message: `options.step_s: must be a positive number and duration_s ≥ 0 (got ${options.step_s}, ${options.duration_s})` });
   }
-  if (invalid.length > 0) return emptyResult(invalid);
-  const network: NetworkDocument = normaliseDocument(doc as NetworkDocument);
+  if (!parsed.ok || invalid.length > 0) return emptyResult(invalid);
+  const network = parsed.doc;
   if (!network.nodes.some((node) => node.kind === 'source' || node.kind === 'tank')) {
     return emptyResult([{ code: 'no-fixed-head', element: null, message: 'network: needs at least one source or tank to fix the head' }]);
   }
+  const tol = options.tolerance_m ?? STEP_TOLERANCE_M;
   const model = compileNetwork(network, { omega: options.omega });
   const solver = new GradientSolver(model);
   const state = solver.createState();
   state.pressureDriven = true;
   const n = model.nodeCount;
   const m = model.linkCount;
-  const nodes = network.nodes;
-  const links = network.links;
 
   const tanks: number[] = [];
   for (let i = 0; i < n; i++) if (model.nodeKind[i] === NODE_TANK) tanks.push(i);
   const level = new Float64Array(n);
   const minLevel = new Float64Array(n);
   const maxLevel = new Float64Array(n);
-  const inflow = new Float64Array(n);
-  const tankState = new Uint8Array(n);
   for (const i of tanks) {
-    const t = nodes[i];
+    const t = network.nodes[i];
     if (t.kind !== 'tank') continue;
-    level[i] = t.level_m; minLevel[i] = t.min_level_m; maxLevel[i] = t.max_level_m; inflow[i] = t.inflow_m3s ?? 0;
-    tankState[i] = level[i] >= maxLevel[i] - LEVEL_EPS ? TANK_FULL : level[i] <= minLevel[i] + LEVEL_EPS ? TANK_EMPTY : TANK_NORMAL;
+    level[i] = t.level_m; minLevel[i] = t.min_level_m; maxLevel[i] = t.max_level_m; state.tankInflow[i] = t.inflow_m3s ?? 0;
   }
-  const idx = (id: string | undefined): number => (id === undefined ? -1 : model.nodeIndex.get(id) ?? -1);
-  const pumpLinks: number[] = [];
-  const controlTank = new Int32Array(m).fill(-1);
-  const stopLevel = new Float64Array(m);
-  const startLevel = new Float64Array(m);
-  const cutoffTank = new Int32Array(m).fill(-1);
-  const cutoffLevel = new Float64Array(m);
-  const controlOn = new Uint8Array(m).fill(1);
-  const cutoffOk = new Uint8Array(m).fill(1);
-  const floatTank = new Int32Array(m).fill(-1);
-  const floatOpen = new Uint8Array(m).fill(1);
-  const schedules: (number[] | undefined)[] = new Array(m);
-  links.forEach((link, k) => {
-    if (link.kind === 'pump') {
-      pumpLinks.push(k);
-      schedules[k] = link.schedule;
-      if (link.control) {
-        controlTank[k] = idx(link.control.tank); stopLevel[k] = link.control.stop_level_m; startLevel[k] = link.control.start_level_m;
-        controlOn[k] = level[controlTank[k]] < stopLevel[k] - LEVEL_EPS ? 1 : 0;
-      }
-      if (link.low_cutoff) {
-        cutoffTank[k] = idx(link.low_cutoff.tank); cutoffLevel[k] = link.low_cutoff.level_m;
-        cutoffOk[k] = level[cutoffTank[k]] > cutoffLevel[k] + LEVEL_EPS ? 1 : 0;
-      }
-    } else if (link.kind === 'valve' && model.linkKind[k] === LINK_FLOAT) {
-      floatTank[k] = idx(link.tank);
-      floatOpen[k] = level[floatTank[k]] < maxLevel[floatTank[k]] - LEVEL_EPS ? 1 : 0;
-    }
-  });
+  const controls = new Controls(model, level, maxLevel);
   const demandNodes: number[] = [];
   for (let i = 0; i < n; i++) if (model.nodeKind[i] === NODE_JUNCTION && (model.demandBase[i] > 0 || model.demandType[i] !== 0)) demandNodes.push(i);
+  const stepper = new TankStepper(model, solver, state, tanks, demandNodes, controls.pumpLinks);
+  const mode = stepper.mode;
+  const empty = new Uint8Array(n);
+  for (const i of tanks) {
+    mode[i] = level[i] >= maxLevel[i] ? TANK_FULL : level[i] <= minLevel[i] ? TANK_EMPTY : TANK_NORMAL;
+    empty[i] = mode[i] === TANK_EMPTY ? 1 : 0;
+  }
 
   // outputs
   const times: number[] = [];
   const levelSeries = tanks.map(() => [] as number[]);
   const pressureSeries = Array.from({ length: n }, () => [] as number[]);
   const flowSeries = Array.from({ length: m }, () => [] as number[]);
-  const onSeries = pumpLinks.map(() => [] as boolean[]);
+  const onSeries = controls.pumpLinks.map(() => [] as boolean[]);
   const delivered = new Float64Array(n);
   const unmet = new Float64Array(n);
   const pumped = new Float64Array(m);
@@ -152,128 +129,114 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
   const lowestAt = new Float64Array(n);
   const everEmpty = new Float64Array(n).fill(-1);
   let failedSolves = 0;
-  const netIn = new Float64Array(n);
 
-  const applyState = (t: number, dt: number): void => {
-    for (const i of tanks) {
-      const pinned = dt <= 0 || tankState[i] !== TANK_NORMAL;
-      state.tankStorage[i] = pinned ? 0 : model.tankArea[i] / dt;
-      state.tankInflow[i] = inflow[i];
-      state.fixedHead[i] = model.elevation[i] + level[i];
-    }
+  const applyState = (t: number): void => {
     for (let i = 0; i < n; i++) if (model.nodeKind[i] === NODE_JUNCTION) state.demandFactor[i] = patternFactor(model, model.nodePattern[i], t);
-    const hour = Math.floor(t / 3600 + 1e-9) % 24;
-    for (let k = 0; k < m; k++) {
-      const f = model.from[k];
-      const to = model.to[k];
-      let closed = model.closedInDocument[k];
-      let dir = 0;
-      // empty tanks only receive
-      if (tankState[f] === TANK_EMPTY && model.nodeKind[f] === NODE_TANK) dir = -1;
-      if (tankState[to] === TANK_EMPTY && model.nodeKind[to] === NODE_TANK) dir = dir === -1 ? 0 : 1;
-      const kind = model.linkKind[k];
-      if (kind === LINK_PUMP_FLOW || kind === LINK_PUMP_CURVE) {
-        const sched = schedules[k];
-        const factor = sched ? sched[hour] : 1;
-        const drawsFromEmpty = model.nodeKind[f] === NODE_TANK && tankState[f] === TANK_EMPTY;
-        state.pumpFactor[k] = controlOn[k] && cutoffOk[k] && !drawsFromEmpty ? factor : 0;
-        dir = 0;
-      } else if (kind === LINK_FLOAT && !floatOpen[k]) closed = 1;
-      state.linkClosed[k] = closed;
-      state.linkDirection[k] = dir;
-    }
+    for (const i of tanks) empty[i] = mode[i] === TANK_EMPTY ? 1 : 0;
+    controls.apply(state, Math.floor(t / 3600 + 1e-9) % 24, empty);
+    stepper.setDirections();
   };
-
   const record = (t: number): void => {
     times.push(t);
     tanks.forEach((i, j) => levelSeries[j].push(level[i]));
-    for (let i = 0; i < n; i++) pressureSeries[i].push(solver.head[i] - model.elevation[i]);
+    for (let i = 0; i < n; i++) pressureSeries[i].push(model.nodeKind[i] === NODE_TANK ? level[i] : solver.head[i] - model.elevation[i]);
     for (let k = 0; k < m; k++) flowSeries[k].push(solver.flow[k]);
-    pumpLinks.forEach((k, j) => onSeries[j].push(solver.status[k] !== STATUS_CLOSED && solver.flow[k] > 0));
+    controls.pumpLinks.forEach((k, j) => onSeries[j].push(solver.status[k] !== STATUS_CLOSED && solver.flow[k] > 0));
+  };
+  // the levels the last step crosses, earliest first by linear interpolation
+  const switching: number[] = [];
+  const crossing = (): Crossing | null => {
+    let best: Crossing | null = null;
+    for (const i of tanks) {
+      const before = stepper.level0[i];
+      const after = stepper.level[i];
+      switching.length = 0;
+      if (mode[i] === TANK_NORMAL) { switching.push(maxLevel[i], minLevel[i]); controls.switchLevels(i, switching); }
+      else if (mode[i] === TANK_EMPTY) { switching.push(minLevel[i] + EMPTY_TANK_HYSTERESIS_M); controls.switchLevels(i, switching); }
+      else continue;
+      for (const target of switching) {
+        const crosses = (before < target - SWITCH_SNAP_M && after > target + SWITCH_SNAP_M) || (before > target + SWITCH_SNAP_M && after < target - SWITCH_SNAP_M);
+        if (!crosses) continue;
+        const fraction = (target - before) / (after - before);
+        if (!best || fraction < best.fraction) best = { tank: i, target, fraction };
+      }
+    }
+    return best;
+  };
+  /** Shorten the step to where `c` is reached (Illinois regula falsi on the step length). */
+  const locate = (c: Crossing, dt: number): number => {
+    let lo = 0;
+    let glo = stepper.level0[c.tank] - c.target;
+    let hi = dt;
+    let ghi = stepper.level[c.tank] - c.target;
+    let side = 0;
+    let d = dt * c.fraction;
+    let stepped = -1;
+    for (let it = 0; it < 40; it++) {
+      stepper.step(d);
+      stepped = d;
+      const g = stepper.level[c.tank] - c.target;
+      if (Math.abs(g) <= SWITCH_SNAP_M / 2 || hi - lo < 1e-9 * Math.max(1, dt)) break;
+      if (Math.sign(g) === Math.sign(ghi)) { hi = d; ghi = g; if (side === -1) glo /= 2; side = -1; } else { lo = d; glo = g; if (side === 1) ghi /= 2; side = 1; }
+      d = (lo * ghi - hi * glo) / (ghi - glo);
+    }
+    if (stepped !== d) stepper.step(d);
+    return d;
   };
 
   const duration = options.duration_s;
-  const oldLevel = new Float64Array(n);
-  // the state at t = 0: tanks at their levels
-  applyState(0, 0);
-  if (!solver.solve(state, { accuracy: 1e-8 }).converged) failedSolves++;
+  applyState(0);
+  if (!stepper.snapshot(level)) failedSolves++;
   record(0);
   let t = 0;
   let nextReport = options.step_s;
+  let suggest = Math.min(options.step_s, 3600);
   while (t < duration - 1e-6) {
     const nextHour = (Math.floor(t / 3600 + 1e-9) + 1) * 3600;
-    let dt = Math.min(nextReport, duration, nextHour) - t;
-    oldLevel.set(level);
-    // implicit step; cut it at the first tank event (max, min, control levels) and redo
-    for (let attempt = 0; attempt < 4; attempt++) {
-      applyState(t, dt);
-      if (!solver.solve(state, { warmStart: true, accuracy: 1e-8 }).converged) failedSolves++;
-      netIn.fill(0);
-      for (let k = 0; k < m; k++) { netIn[model.to[k]] += solver.flow[k]; netIn[model.from[k]] -= solver.flow[k]; }
-      let fraction = 1;
-      for (const i of tanks) {
-        if (tankState[i] !== TANK_NORMAL) continue;
-        const after = solver.head[i] - model.elevation[i];
-        const before = oldLevel[i];
-        const cross = (target: number): void => {
-          if ((before < target - LEVEL_EPS && after > target + LEVEL_EPS) || (before > target + LEVEL_EPS && after < target - LEVEL_EPS)) {
-            fraction = Math.min(fraction, (target - before) / (after - before));
-          }
-        };
-        cross(maxLevel[i]);
-        cross(minLevel[i]);
-        for (const k of pumpLinks) {
-          if (controlTank[k] === i) { cross(stopLevel[k]); cross(startLevel[k]); }
-          if (cutoffTank[k] === i) { cross(cutoffLevel[k]); cross(cutoffLevel[k] + LOW_CUTOFF_RELEASE_M); }
-        }
-        for (let k = 0; k < m; k++) if (floatTank[k] === i) cross(maxLevel[i] - FLOAT_VALVE_DEADBAND_M);
-      }
-      if (fraction >= 1 - 1e-9 || attempt === 3 || dt * fraction < 1e-3) break;
-      dt *= fraction;
+    const boundary = Math.min(nextReport, duration, nextHour);
+    let dt = Math.min(suggest, boundary - t);
+    if (boundary - t - dt < 1e-6) dt = boundary - t;
+    applyState(t);
+    stepper.level0.set(level);
+    // error control: shrink until the step adds less than tol of level error
+    let err = stepper.step(dt);
+    while (err > tol && dt > 1e-3) {
+      dt *= Math.max(0.2, 0.9 * Math.sqrt(tol / err));
+      err = stepper.step(dt);
     }
-    // accept the step: levels, volumes
+    const full = boundary - t;
+    suggest = err > 0 ? Math.min(dt * Math.min(4, 0.9 * Math.sqrt(tol / err)), 3600) : Math.max(dt * 4, full);
+    // event location: end the step where the first tank crosses a level that switches something
+    for (let round = 0; round < 8; round++) {
+      const c = crossing();
+      if (!c) break;
+      dt = locate(c, dt);
+      const reached = stepper.level[c.tank];
+      if (Math.abs(reached - c.target) < 1e-5) stepper.level[c.tank] = c.target;
+    }
+    failedSolves += stepper.failed;
+    // accept: levels and volumes
     for (const i of tanks) {
-      const q = netIn[i] + inflow[i];
-      if (tankState[i] === TANK_NORMAL) level[i] = solver.head[i] - model.elevation[i];
-      else if (tankState[i] === TANK_FULL) { if (q > 0) overflow[i] += q * dt; else level[i] += (q * dt) / model.tankArea[i]; }
-      else if (q > 0) level[i] += (q * dt) / model.tankArea[i];
+      const v = stepper.tankVolume[i];
+      if (mode[i] === TANK_FULL) {
+        if (v >= 0) overflow[i] += v; else { level[i] = maxLevel[i] + v / model.tankArea[i]; mode[i] = TANK_NORMAL; }
+      } else level[i] = stepper.level[i];
     }
-    for (const i of demandNodes) {
-      delivered[i] += solver.demand[i] * dt;
-      const req = solver.requested[i];
-      if (req > 0) unmet[i] += Math.max(req - solver.demand[i], 0) * dt;
-    }
-    for (const k of pumpLinks) pumped[k] += Math.max(solver.flow[k], 0) * dt;
+    for (const i of demandNodes) { delivered[i] += stepper.delivered[i]; unmet[i] += Math.max(stepper.unmet[i], 0); }
+    for (const k of controls.pumpLinks) pumped[k] += stepper.pumped[k];
     t += dt;
-    // state transitions at t (levels within a millimetre of a target snap to it)
+    // tank modes and switches at t
     for (const i of tanks) {
-      if (level[i] >= maxLevel[i] - SNAP_M && tankState[i] === TANK_NORMAL && level[i] > oldLevel[i]) { level[i] = maxLevel[i]; tankState[i] = TANK_FULL; }
-      else if (tankState[i] === TANK_FULL && level[i] < maxLevel[i] - LEVEL_EPS) tankState[i] = TANK_NORMAL;
-      if (level[i] <= minLevel[i] + SNAP_M && tankState[i] === TANK_NORMAL && level[i] < oldLevel[i]) {
-        level[i] = minLevel[i]; tankState[i] = TANK_EMPTY;
+      const before = stepper.level0[i];
+      if (mode[i] === TANK_NORMAL && level[i] >= maxLevel[i] - SWITCH_SNAP_M && level[i] > before) { level[i] = maxLevel[i]; mode[i] = TANK_FULL; }
+      if (mode[i] === TANK_NORMAL && level[i] <= minLevel[i] + SWITCH_SNAP_M && level[i] < before) {
+        level[i] = minLevel[i]; mode[i] = TANK_EMPTY;
         if (everEmpty[i] < 0) everEmpty[i] = t;
       }
-      if (tankState[i] === TANK_EMPTY && level[i] >= minLevel[i] + EMPTY_TANK_HYSTERESIS_M - LEVEL_EPS) tankState[i] = TANK_NORMAL;
+      if (mode[i] === TANK_EMPTY && level[i] >= minLevel[i] + EMPTY_TANK_HYSTERESIS_M - SWITCH_SNAP_M) mode[i] = TANK_NORMAL;
       if (level[i] < lowest[i] - 1e-12) { lowest[i] = level[i]; lowestAt[i] = t; }
     }
-    for (const k of pumpLinks) {
-      const c = controlTank[k];
-      if (c >= 0) {
-        if (controlOn[k] && level[c] >= stopLevel[k] - SNAP_M) controlOn[k] = 0;
-        else if (!controlOn[k] && level[c] <= startLevel[k] + SNAP_M) controlOn[k] = 1;
-      }
-      const w = cutoffTank[k];
-      if (w >= 0) {
-        if (cutoffOk[k] && level[w] <= cutoffLevel[k] + SNAP_M) cutoffOk[k] = 0;
-        else if (!cutoffOk[k] && level[w] >= cutoffLevel[k] + LOW_CUTOFF_RELEASE_M - SNAP_M) cutoffOk[k] = 1;
-      }
-    }
-    for (let k = 0; k < m; k++) {
-      const f = floatTank[k];
-      if (f < 0) continue;
-      if (floatOpen[k] && level[f] >= maxLevel[f] - SNAP_M) floatOpen[k] = 0;
-      else if (!floatOpen[k] && level[f] <= maxLevel[f] - FLOAT_VALVE_DEADBAND_M + SNAP_M) floatOpen[k] = 1;
-    }
+    controls.update(level);
     if (t >= nextReport - 1e-6 || t >= duration - 1e-6) {
       record(t);
       nextReport += options.step_s;
@@ -291,7 +254,7 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
   });
   for (let i = 0; i < n; i++) result.nodes[model.nodeIds[i]] = { pressure_m: pressureSeries[i] };
   for (let k = 0; k < m; k++) result.links[model.linkIds[k]] = { flow_m3s: flowSeries[k] };
-  pumpLinks.forEach((k, j) => {
+  controls.pumpLinks.forEach((k, j) => {
     result.pumps[model.linkIds[k]] = { on: onSeries[j] };
     result.summary.pumps[model.linkIds[k]] = { pumped_m3: pumped[k] };
   });
@@ -301,7 +264,7 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
     const total = delivered[i] + unmet[i];
     if (unmet[i] > 0.01 * total && unmet[i] > 1e-6) result.warnings.push({ code: 'unmet-demand', element: id, message: `${id}: ${round(unmet[i] * 1000)} L of ${round(total * 1000)} L requested was not delivered` });
   }
-  if (failedSolves > 0) result.warnings.push({ code: 'not-converged', element: null, message: `network: ${failedSolves} time steps did not converge` });
+  if (failedSolves > 0) result.warnings.push({ code: 'not-converged', element: null, message: `network: ${failedSolves} network solves in the time steps did not converge` });
   return result;
 }
 

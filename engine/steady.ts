@@ -3,6 +3,7 @@ import { GradientSolver, STATUS_CLOSED as STATUS_CLOSED_, STATUS_ISOLATED as STA
 import type { NetworkDocument } from './network-document';
 import { compileNetwork, LINK_FLOAT as LINK_FLOAT_, LINK_PUMP_CURVE as LINK_PUMP_CURVE_, LINK_PUMP_FLOW as LINK_PUMP_FLOW_, NODE_JUNCTION as NODE_JUNCTION_, type NetworkModel } from './network-model';
 import { migrateDocument } from './migrations';
+import { Controls } from './simulate-controls';
 import { parseDocument } from './validate';
 import type { Warning } from './warnings';
 
@@ -76,19 +77,10 @@ export function steadyState(solver: GradientSolver, options: SteadyOptions = {})
   const model = solver.model;
   const state = solver.createState();
   state.pressureDriven = options.pressureDriven ?? false;
-  const level = (id: string): number => {
-    const node = model.doc.nodes[model.nodeIndex.get(id) ?? -1];
-    return node && node.kind === 'tank' ? node.level_m : Number.NaN;
-  };
-  model.doc.links.forEach((link, k) => {
-    if (link.kind === 'pump') {
-      if (link.control && level(link.control.tank) >= link.control.stop_level_m) state.linkClosed[k] = 1;
-      if (link.low_cutoff && level(link.low_cutoff.tank) <= link.low_cutoff.level_m) state.linkClosed[k] = 1;
-    } else if (link.kind === 'valve' && model.linkKind[k] === LINK_FLOAT && link.tank) {
-      const tank = model.doc.nodes[model.nodeIndex.get(link.tank) ?? -1];
-      if (tank && tank.kind === 'tank' && tank.level_m >= tank.max_level_m) state.linkClosed[k] = 1;
-    }
-  });
+  const level = new Float64Array(model.nodeCount);
+  const max = new Float64Array(model.nodeCount);
+  model.doc.nodes.forEach((node, i) => { if (node.kind === 'tank') { level[i] = node.level_m; max[i] = node.max_level_m; } });
+  new Controls(model, level, max).apply(state, null);
   return state;
 }
 
