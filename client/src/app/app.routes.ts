@@ -50,7 +50,11 @@ export const routes: Routes = [
       placeholder('budget', 'Water budget', 'Adds up each use’s daily and peak need and checks that storage and fill keep the tanks from running dry overnight or through cloudy days.'),
       placeholder('profile', 'Profile', 'Draws the ground, the pipe and the hydraulic grade line along a chosen route so high points and low-point pressures stand out.'),
       placeholder('timeline', 'Timeline', 'Plays tank levels over a simulated day or week of pumping and use.'),
-      placeholder('review', 'Review', 'Lets a second person check every outlet and pipe, then approve the design or return it with comments.'),
+      {
+        path: 'review',
+        title: 'Review · Runnel',
+        loadComponent: () => import('./screens/review/review-screen').then((m) => m.ReviewScreen),
+      },
       placeholder('options', 'Options', 'Compares pipe-size choices side by side on pressure, velocity and cost.'),
       placeholder('takeoff', 'Takeoff', 'Lists the materials with quantities and prices from the team price list, ready to export as a spreadsheet.'),
       placeholder('files', 'Files', 'Holds uploaded backdrops and survey files (CSV, GPX) for the project.'),

@@ -13,6 +13,10 @@ import type { LinkKind, NetworkDocument, NodeKind } from '../../../../../engine/
 import type { SteadyResult } from '../../../../../engine/index';
 import { formatQuantity, UnitSystem } from '../../../../../engine/units';
 import { SessionService } from '../../core/session.service';
+import { Router } from '@angular/router';
+import { LayoutReview } from '../review/layout-review';
+import { ReviewApi } from '../review/review-api.service';
+import { VersionBanner } from '../review/version-banner';
 import { CanvasView, scaleBar } from './canvas/canvas-view';
 import { PlanMarkers } from './canvas/markers';
 import { createEditor } from './create-editor';
@@ -50,7 +54,7 @@ interface ToolButton { id: ToolId; option?: LinkKind; label: string; testid: str
  */
 @Component({
   selector: 'rn-layout-screen',
-  imports: [CdkDrag, MatButtonModule, MatButtonToggleModule, MatMenuModule, MatSliderModule, MatTooltipModule, PropertiesPanel, ResultsList],
+  imports: [CdkDrag, MatButtonModule, MatButtonToggleModule, MatMenuModule, MatSliderModule, MatTooltipModule, PropertiesPanel, ResultsList, VersionBanner],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './layout-screen.html',
   styleUrl: './layout-screen.scss',
@@ -64,6 +68,9 @@ interface ToolButton { id: ToolId; option?: LinkKind; label: string; testid: str
 })
 export class LayoutScreen {
   readonly projectId = input.required<string>();
+  /** Review links: `?version=N` shows that saved version read-only; `?select=ID` selects an element. */
+  readonly versionParam = input<string | undefined>(undefined, { alias: 'version' });
+  readonly selectParam = input<string | undefined>(undefined, { alias: 'select' });
 
   private readonly api = inject(LayoutApi);
   private readonly session = inject(SessionService);
@@ -78,7 +85,16 @@ export class LayoutScreen {
   private view: CanvasView | null = null;
   private readonly solver = new SolverClient();
 
-  readonly canEdit = computed(() => this.session.can('network.write'));
+  /** The earlier version shown read-only (review link), or null for the current network. */
+  readonly shownVersion = signal<number | null>(null);
+  private readonly wantedVersion = computed(() => { const n = Number(this.versionParam()); return Number.isInteger(n) && n > 0 ? n : null; });
+  readonly canRestore = computed(() => this.session.can('network.write'));
+  readonly canEdit = computed(() => this.session.can('network.write') && this.wantedVersion() === null);
+  private loadSeq = 0;
+  private loadingSeen = -1;
+  private readonly review = new LayoutReview({
+    editor: this.editor, markers: this.markers, router: inject(Router), api: inject(ReviewApi), shown: (v) => this.shownVersion.set(v),
+  });
   readonly doc = signal<NetworkDocument>(this.editor.store.doc);
   readonly selection = signal<string[]>([]);
   readonly tool = signal<{ id: ToolId; option?: string }>({ id: 'select' });
@@ -180,7 +196,11 @@ export class LayoutScreen {
 
     effect(() => {
       const id = this.projectId();
-      untracked(() => this.sync.load(id));
+      this.wantedVersion(); // a review link's version change reloads, then the review shows that version
+      untracked(() => {
+        this.loadSeq++;
+        this.sync.load(id);
+      });
     });
     effect(() => {
       const ro = !this.canEdit();
@@ -206,11 +226,26 @@ export class LayoutScreen {
     effect(() => {
       if (this.status() === 'conflict') untracked(() => this.sync.askAboutConflict());
     });
+    // Review: comment pins, and a version or element asked for by a review link once the network is in.
+    effect(() => {
+      const id = this.projectId();
+      untracked(() => void this.review.loadPins(id));
+    });
+    effect(() => {
+      const id = this.projectId();
+      const version = this.wantedVersion();
+      const select = this.selectParam() ?? null;
+      // Only once the load started for this request has answered (not on the previous document).
+      if (this.status() === 'loading') { this.loadingSeen = this.loadSeq; return; }
+      if (this.loadingSeen !== this.loadSeq) return;
+      untracked(() => { if (this.sync.project === id) void this.review.afterLoad(id, version, select); });
+    });
 
     afterNextRender(() => this.attachCanvas());
 
     this.destroyRef.onDestroy(() => {
       off();
+      this.review.dispose();
       this.sync.dispose();
       this.solver.dispose();
       this.view?.dispose();
