@@ -90,8 +90,6 @@ export class LayoutScreen {
   private readonly wantedVersion = computed(() => { const n = Number(this.versionParam()); return Number.isInteger(n) && n > 0 ? n : null; });
   readonly canRestore = computed(() => this.session.can('network.write'));
   readonly canEdit = computed(() => this.session.can('network.write') && this.wantedVersion() === null);
-  private loadSeq = 0;
-  private loadingSeen = -1;
   private readonly review = new LayoutReview({
     editor: this.editor, markers: this.markers, router: inject(Router), api: inject(ReviewApi), shown: (v) => this.shownVersion.set(v),
   });
@@ -120,6 +118,7 @@ export class LayoutScreen {
     },
     serverResults: (r) => this.serverResults.set(r),
     loadError: (m) => this.loadError.set(m),
+    loaded: (id) => void this.review.afterLoad(id, this.wantedVersion(), this.selectParam() ?? null),
   });
   readonly site = new SiteFiles({
     api: this.api, dialog: this.dialog, snack: this.snack, editor: this.editor,
@@ -197,10 +196,7 @@ export class LayoutScreen {
     effect(() => {
       const id = this.projectId();
       this.wantedVersion(); // a review link's version change reloads, then the review shows that version
-      untracked(() => {
-        this.loadSeq++;
-        this.sync.load(id);
-      });
+      untracked(() => this.sync.load(id));
     });
     effect(() => {
       const ro = !this.canEdit();
@@ -226,19 +222,14 @@ export class LayoutScreen {
     effect(() => {
       if (this.status() === 'conflict') untracked(() => this.sync.askAboutConflict());
     });
-    // Review: comment pins, and a version or element asked for by a review link once the network is in.
+    // Review: comment pins; a review link's version and element are applied when the network has loaded (sync `loaded`).
     effect(() => {
       const id = this.projectId();
       untracked(() => void this.review.loadPins(id));
     });
     effect(() => {
-      const id = this.projectId();
-      const version = this.wantedVersion();
-      const select = this.selectParam() ?? null;
-      // Only once the load started for this request has answered (not on the previous document).
-      if (this.status() === 'loading') { this.loadingSeen = this.loadSeq; return; }
-      if (this.loadingSeen !== this.loadSeq) return;
-      untracked(() => { if (this.sync.project === id) void this.review.afterLoad(id, version, select); });
+      const select = this.selectParam();
+      untracked(() => { if (select && this.sync.project === this.projectId()) this.editor.reveal(select); });
     });
 
     afterNextRender(() => this.attachCanvas());

@@ -20,8 +20,6 @@ export interface LayoutReviewHost {
  * an earlier saved version read-only in place of the current one.
  */
 export class LayoutReview {
-  private applied = '';
-
   constructor(private readonly host: LayoutReviewHost) {}
 
   async loadPins(projectId: string): Promise<void> {
@@ -41,13 +39,10 @@ export class LayoutReview {
   }
 
   /**
-   * Call once the current network has loaded: shows version `version` read-only (when given) and
-   * selects `select`. Runs once per distinct request.
+   * Call each time the current network has loaded: shows version `version` read-only (when given)
+   * in its place, and selects `select`.
    */
   async afterLoad(projectId: string, version: number | null, select: string | null): Promise<void> {
-    const key = `${projectId}|${version}|${select}`;
-    if (key === this.applied) return;
-    this.applied = key;
     const { editor } = this.host;
     if (version !== null) {
       const stored = await firstValueFrom(this.host.api.version(projectId, version));

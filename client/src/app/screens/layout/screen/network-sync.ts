@@ -23,6 +23,8 @@ export interface SyncHost {
   project(p: { units: UnitSystem; name: string }): void;
   serverResults(r: SteadyResult | null): void;
   loadError(message: string): void;
+  /** After a project's network is in the editor (the review shows a linked version or element then). */
+  loaded?(projectId: string): void;
 }
 
 /**
@@ -95,6 +97,7 @@ export class NetworkSync {
           this.freshness.setVisible(document.visibilityState === 'visible');
         } else this.saver.setReadOnly();
         editor.fitToView();
+        this.host.loaded?.(projectId);
       },
       error: () => this.host.loadError('The network could not be loaded. Reload the page to try again.'),
     });
