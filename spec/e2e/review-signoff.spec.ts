@@ -35,6 +35,16 @@ describe('review sign-off in a real browser', function () {
     expect(await reviewer.getByTestId('check-profile-high-point:L-TR4@240').getAttribute('data-status')).to.equal('caution');
     await shot(reviewer, 'checklist-desktop');
 
+    // Every single failure runs in the review worker; the main below the tanks starves every outlet.
+    await reviewer.getByTestId('whatif-section').locator('mat-expansion-panel-header').click();
+    await reviewer.getByTestId('whatif-run').click();
+    await reviewer.getByTestId('whatif-table').waitFor();
+    const worst = reviewer.getByTestId('whatif-table').locator('tr.mat-mdc-row').first();
+    expect(await worst.textContent()).to.match(/no supply/);
+    await reviewer.getByTestId('whatif-table').scrollIntoViewIfNeeded();
+    await shot(reviewer, 'whatifs-desktop');
+    await reviewer.getByTestId('whatif-section').locator('mat-expansion-panel-header').click();
+
     // Pin a comment to the line and return the design.
     await reviewer.getByTestId('comment-element').click();
     await reviewer.getByRole('option', { name: /^L-TR4/ }).click();
