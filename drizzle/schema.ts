@@ -135,7 +135,7 @@ export const budgets = pgTable('budgets', {
 export const files = pgTable('files', {
   id: uuid('id').primaryKey().defaultRandom(),
   projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  kind: text('kind', { enum: ['backdrop', 'survey'] }).notNull(),
+  kind: text('kind', { enum: ['backdrop', 'survey', 'photo'] }).notNull(),
   filename: text('filename').notNull(),
   mime: text('mime').notNull(),
   size: integer('size').notNull(),
@@ -247,3 +247,20 @@ export const estimateAcceptances = pgTable('estimate_acceptances', {
   acceptedAt: createdAt(),
   acceptedBy: uuid('accepted_by').references(() => users.id, { onDelete: 'set null' }),
 }, (t) => [index('estimate_acceptances_project_idx').on(t.projectId)]);
+
+/**
+ * What a phone recorded on a walk (points and track fixes), keyed by the id the phone generated,
+ * so a retried sync inserts nothing twice and two phones never overwrite each other.
+ * The walk's survey file (files row with id = walk_id) is rebuilt from these rows on every sync.
+ */
+export const walkPoints = pgTable('walk_points', {
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  id: uuid('id').notNull(),
+  walkId: uuid('walk_id').notNull(),
+  type: text('type', { enum: ['point', 'track'] }).notNull(),
+  recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull(),
+  /** lat, lon, elevation_m, elevation_source, accuracy_m, label, kind, note, photo_id, poor_fix. */
+  data: jsonb('data').notNull(),
+  createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+}, (t) => [primaryKey({ columns: [t.projectId, t.id] }), index('walk_points_walk_idx').on(t.projectId, t.walkId)]);

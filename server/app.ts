@@ -27,6 +27,7 @@ import { optionRoutes } from './routes/options';
 import { priceRoutes } from './routes/prices';
 import { takeoffRoutes } from './routes/takeoff';
 import { fileRoutes } from './routes/files';
+import { walkRoutes } from './routes/walks';
 import { networkRoutes } from './routes/network';
 import { projectRoutes } from './routes/projects';
 import { teamRoutes } from './routes/team';
@@ -132,6 +133,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   priceRoutes(api, ctx);
   optionRoutes(api, ctx);
   takeoffRoutes(api, ctx);
+  walkRoutes(api, ctx);
 
   app.use('/api',
     requireJsonOrMultipart,

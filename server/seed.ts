@@ -16,6 +16,7 @@ import { saveNetwork } from './network/network-store';
 import { markSubmitted } from './review/signoff';
 import { seedPricesAndOptions } from './options/seed-options';
 import type { Role } from './permissions';
+import { seedDemoWalk } from './walk/demo-walk';
 
 export const DEMO_PASSWORD = 'runnel-demo-2026';
 export const DEMO_TEAM = 'Ridgeback Water Co-op';
@@ -75,6 +76,7 @@ export async function seed(db: Db, { bcryptCost }: { bcryptCost: number }): Prom
     note: 'First full layout: tanks on the ridge, gravity main, orchard PRV and four troughs. Please check the south trough line across the dip.',
   });
   await seedPricesAndOptions(db, { teamId: ids.demoTeamId, projectId: ids.demoProjectId, userId: ids.designer.id });
+  await db.transaction((tx) => seedDemoWalk(tx, { id: ids.demoProjectId, teamId: ids.demoTeamId, name: DEMO_PROJECT }, ids.designer));
   return { seeded: true, demoTeamId: ids.demoTeamId, demoProjectId: ids.demoProjectId, otherTeamId: ids.otherTeamId, otherProjectId: ids.otherProjectId };
 }
 

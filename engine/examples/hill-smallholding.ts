@@ -41,6 +41,8 @@ export const hillSmallholding: NetworkDocument = {
   schema: 'runnel.network/1',
   headloss: 'hazen-williams',
   title: 'Hill smallholding: sheep and cider orchard (demo)',
+  // Where the plan's origin lies (an invented hillside; plan north is true north), for GPS walks and GeoJSON.
+  layout: { geo: { lat: 44.2183, lon: -122.8417, x0_m: 0, y0_m: 0, rotation_rad: 0, scale: 1, source: 'demo' } },
   patterns: {
     house: [0.02, 0.02, 0.02, 0.02, 0.02, 0.05, 0.3, 0.35, 0.2, 0.08, 0.06, 0.06, 0.1, 0.08, 0.05, 0.05, 0.06, 0.12, 0.2, 0.15, 0.1, 0.06, 0.03, 0.02],
     stock: [0.05, 0.05, 0.05, 0.05, 0.05, 0.1, 0.2, 0.3, 0.3, 0.25, 0.25, 0.3, 0.3, 0.25, 0.25, 0.3, 0.3, 0.25, 0.15, 0.1, 0.05, 0.05, 0.05, 0.05],

@@ -26,7 +26,7 @@ export function imageType(bytes: Buffer): 'image/png' | 'image/jpeg' | null {
 }
 
 /** One file in field `file`, at most `maxBytes`, kept in memory; 413 above the limit. */
-function singleFile(maxBytes: number): RequestHandler {
+export function singleFile(maxBytes: number): RequestHandler {
   // Browsers send the filename as raw UTF-8 (WHATWG multipart form-data encoding); multer's default reads it as latin1.
   const upload = multer({
     storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: maxBytes, files: 1, fields: 10 },
@@ -79,7 +79,7 @@ export function safeFilename(name: string): string {
   return Array.from(cleaned).slice(0, 200).join('') || 'upload';
 }
 
-function requireFile(file: Express.Multer.File | undefined): Express.Multer.File {
+export function requireFile(file: Express.Multer.File | undefined): Express.Multer.File {
   if (!file) throw new ApiError('validation', 'No file uploaded', { fields: [{ path: 'file', message: 'is required (multipart field "file")' }] });
   return file;
 }

@@ -8,6 +8,7 @@
 import { randomUUID } from 'node:crypto';
 import { expect } from 'chai';
 import type { Response } from 'supertest';
+import { walkPoints } from '../../drizzle/schema';
 import { emptyBudget } from '../../engine/budget';
 import { PERMISSION_TABLE, ROLES, type Access, type Role } from '../../server/permissions';
 import { DEMO_PASSWORD } from '../../server/seed';
@@ -27,6 +28,16 @@ interface Case {
 }
 
 const p = (t: TestApp) => `/api/projects/${t.seeded!.demoProjectId}`;
+
+/** A walk with one track fix, written straight to the table; returns its id. */
+async function insertWalk(t: TestApp): Promise<string> {
+  const walkId = randomUUID();
+  await t.db.insert(walkPoints).values({
+    projectId: t.seeded!.demoProjectId, id: randomUUID(), walkId, type: 'track', recordedAt: new Date(),
+    data: { lat: 45, lon: -120, accuracy_m: 4, elevation_m: null },
+  });
+  return walkId;
+}
 
 const CASES: Case[] = [
   { method: 'get', path: '/csrf', access: 'public', success: 200, call: (a) => a.get('/api/csrf') },
@@ -134,6 +145,13 @@ const CASES: Case[] = [
     } },
   { method: 'get', path: '/projects/:id/takeoff.csv', access: 'takeoff.read', success: 200, call: (a, t) => a.get(`${p(t)}/takeoff.csv`) },
   { method: 'get', path: '/projects/:id/export.xlsx', access: 'takeoff.read', success: 200, call: (a, t) => a.get(`${p(t)}/export.xlsx`) },
+  { method: 'put', path: '/projects/:id/walks/:walkId', access: 'files.write', success: 200,
+    call: (a, t) => a.put(`${p(t)}/walks/${randomUUID()}`, { name: 'Matrix walk', points: [], track: [] }) },
+  { method: 'get', path: '/projects/:id/walks/:walkId', access: 'files.read', success: 200,
+    call: async (a, t) => a.get(`${p(t)}/walks/${await insertWalk(t)}`) },
+  { method: 'put', path: '/projects/:id/walks/:walkId/photos/:photoId', access: 'files.write', success: 201,
+    call: (a, t) => a.agent.put(`${p(t)}/walks/${randomUUID()}/photos/${randomUUID()}`).set('x-csrf-token', a.token)
+      .attach('file', PNG_BYTES, { filename: 'peg.png', contentType: 'image/png' }) },
 ];
 
 function expectedStatus(c: Case, who: Role | null): number {

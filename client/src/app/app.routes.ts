@@ -47,6 +47,11 @@ export const routes: Routes = [
         title: 'Layout · Runnel',
         loadComponent: () => import('./screens/layout/layout-screen').then((m) => m.LayoutScreen),
       },
+      {
+        path: 'walk',
+        title: 'Walk · Runnel',
+        loadComponent: () => import('./screens/walk/walk-screen').then((m) => m.WalkScreen),
+      },
       placeholder('budget', 'Water budget', 'Adds up each use’s daily and peak need and checks that storage and fill keep the tanks from running dry overnight or through cloudy days.'),
       placeholder('profile', 'Profile', 'Draws the ground, the pipe and the hydraulic grade line along a chosen route so high points and low-point pressures stand out.'),
       placeholder('timeline', 'Timeline', 'Plays tank levels over a simulated day or week of pumping and use.'),

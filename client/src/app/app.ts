@@ -11,6 +11,7 @@ import { MatToolbarModule } from '@angular/material/toolbar';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { NavigationEnd, Router, RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
 import { filter, map } from 'rxjs';
+import { AppUpdates } from './core/app-updates';
 import { SessionService } from './core/session.service';
 
 interface NavItem { path: string; label: string; icon: string; permission: string; testId: string }
@@ -62,6 +63,7 @@ export class App {
 
   constructor() {
     this.session.load().pipe(takeUntilDestroyed()).subscribe();
+    inject(AppUpdates).watch();
   }
 
   protected toggleNav(): void {

@@ -23,6 +23,7 @@ export const PROJECT_TABS: readonly ProjectTab[] = [
   { path: 'options', label: 'Options' },
   { path: 'takeoff', label: 'Takeoff' },
   { path: 'files', label: 'Files' },
+  { path: 'walk', label: 'Walk' },
 ];
 
 /** Frame of an open project: a compact header and the tab bar; the tab's screen fills the rest. */
