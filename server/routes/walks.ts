@@ -12,12 +12,14 @@ import { ApiError, parseBody } from '../errors';
 import { readWalk, syncWalk } from '../walk/walk-store';
 import { walkBodySchema } from '../walk/walk-types';
 import { imageType, requireFile, singleFile } from './files';
-import { isUuid, projectOfTeam } from './projects';
+import { isUuid } from '../ids';
+import { projectOf } from '../project-scope';
 
 /** A phone compresses photos to well under this (client/src/app/screens/walk/photo.ts). */
 export const PHOTO_MAX_BYTES = 2 * 1024 * 1024;
 
-function uuidParam(value: unknown, what: string): string {
+/** An id the phone made: a UUID, or 400 naming the parameter. */
+function clientId(value: unknown, what: string): string {
   const id = String(value);
   if (!isUuid(id)) throw new ApiError('validation', `${what} must be a UUID`, { fields: [{ path: what, message: 'must be a UUID' }] });
   return id;
@@ -27,15 +29,15 @@ export function walkRoutes(api: ApiRoutes, ctx: AppContext): void {
   const { db } = ctx;
 
   api.put('/projects/:id/walks/:walkId', 'files.write', async (req, res) => {
-    const project = await projectOfTeam(db, req);
-    const walkId = uuidParam(req.params.walkId, 'walkId');
+    const project = projectOf(req);
+    const walkId = clientId(req.params.walkId, 'walkId');
     const body = parseBody(walkBodySchema, req.body, 'The walk could not be synced');
     const result = await db.transaction((tx) => syncWalk(tx, { project, walkId, body, user: req.user! }));
     res.json(result);
   });
 
   api.get('/projects/:id/walks/:walkId', 'files.read', async (req, res) => {
-    const project = await projectOfTeam(db, req);
+    const project = projectOf(req);
     const walkId = String(req.params.walkId);
     if (!isUuid(walkId)) throw new ApiError('not-found', 'No such walk');
     const walk = await readWalk(db, project.id, walkId);
@@ -44,9 +46,9 @@ export function walkRoutes(api: ApiRoutes, ctx: AppContext): void {
   });
 
   api.put('/projects/:id/walks/:walkId/photos/:photoId', 'files.write', singleFile(PHOTO_MAX_BYTES), async (req, res) => {
-    const project = await projectOfTeam(db, req);
-    uuidParam(req.params.walkId, 'walkId');
-    const photoId = uuidParam(req.params.photoId, 'photoId');
+    const project = projectOf(req);
+    clientId(req.params.walkId, 'walkId');
+    const photoId = clientId(req.params.photoId, 'photoId');
     const file = requireFile(req.file);
     const mime = imageType(file.buffer);
     if (!mime) throw new ApiError('unsupported-type', `A photo must be a JPEG or PNG image; "${file.originalname}" is neither`);

@@ -168,7 +168,7 @@ export function buildFromWalk(
   next = { ...next, links: [...next.links, pipe] };
   const prof = profileAlong(next, pipe.id, survey, PROFILE_CORRIDOR_M);
   if (prof) {
-    const surveyed = { ...pipe, profile: prof.profile, length_m: prof.groundLength_m, length_source: 'survey' };
+    const surveyed: PipeLink = { ...pipe, profile: prof.profile, length_m: prof.groundLength_m, length_source: 'survey' };
     next = { ...next, links: next.links.map((l) => (l.id === pipe.id ? surveyed : l)) };
     summary.pipe = { id: pipe.id, groundLength_m: prof.groundLength_m, profilePoints: prof.profile.length };
   }
