@@ -91,6 +91,8 @@ export interface SolveOptions {
   maxIterations?: number;
   /** Start from the last solution (default false: fresh start). */
   warmStart?: boolean;
+  /** With warmStart: first test whether the start already solves the state (no factorisation then). */
+  checkStart?: boolean;
   /** Largest law residual accepted, m (default 1e-6). */
   headTolerance_m?: number;
   /** Largest node imbalance accepted, m³/s (default 1e-10). */
@@ -245,16 +247,19 @@ export class GradientSolver {
   }
 
   /**
-   * Start the next solve from given heads and flows (a previous answer of this layout or of an
-   * edited copy): statuses are re-derived by the iteration. Entries that are not finite are
-   * ignored. Call solve with warmStart: true afterwards.
+   * Start the next solve from given heads, flows and (optionally) statuses: a previous answer of
+   * this layout or of an edited copy. Entries that are not finite (statuses: not a STATUS_* code)
+   * are left at the cold start; the iteration re-derives every status anyway. Call solve with
+   * warmStart: true afterwards.
    */
-  setStart(head: ArrayLike<number>, flow: ArrayLike<number>, state: SolverState): void {
+  setStart(head: ArrayLike<number>, flow: ArrayLike<number>, state: SolverState, status?: ArrayLike<number>): void {
+    const model = this.model;
     this.initialise(state);
-    for (let i = 0; i < this.model.nodeCount; i++) if (Number.isFinite(head[i]) && this.model.nodeKind[i] === NODE_JUNCTION) this.head[i] = head[i];
-    for (let k = 0; k < this.model.linkCount; k++) {
-      const kind = this.model.linkKind[k];
-      if (Number.isFinite(flow[k]) && kind !== LINK_PUMP_FLOW) this.flow[k] = flow[k];
+    for (let i = 0; i < model.nodeCount; i++) if (Number.isFinite(head[i]) && model.nodeKind[i] === NODE_JUNCTION) this.head[i] = head[i];
+    for (let k = 0; k < model.linkCount; k++) {
+      if (Number.isFinite(flow[k]) && model.linkKind[k] !== LINK_PUMP_FLOW) this.flow[k] = flow[k];
+      const st = status ? status[k] : -1;
+      if (st === STATUS_OPEN || st === STATUS_ACTIVE || st === STATUS_CHECK_CLOSED || st === STATUS_SHUT) this.status[k] = st;
     }
   }
 
@@ -344,14 +349,20 @@ export class GradientSolver {
     const statusLinks = hasBlocks ? this.allLinks : this.logicLinks;
 
     let iterations = 0;
+    let verified = false;
     let singular = false;
     let reason: string | null = null;
     let meritPrev = Infinity;
     let halvings = 0;
     let sinceReset = 0;
     let checkedAt = -1;
-    let verified = false;
-    while (iterations < maxIterations) {
+    // a warm start that already solves this state needs no factorisation at all
+    if (options.warmStart && options.checkStart) {
+      for (let i = 0; i < n; i++) this.demand[i] = model.nodeKind[i] !== NODE_JUNCTION || !active[i] ? 0 : virtualFull[i] > 0 ? virtualFlow[i] : this.requested[i] || 0;
+      for (let k = 0; k < m; k++) if (isShut(status[k]) || !active[linkFrom[k]] || !active[linkTo[k]]) flow[k] = 0;
+      verified = firstViolation(this, state, tol, netOut, this.scratch) === null;
+    }
+    while (!verified && iterations < maxIterations) {
       iterations++;
       values.fill(0);
       rhs.fill(0);
