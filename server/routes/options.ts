@@ -10,6 +10,7 @@ import { z } from 'zod';
 import {
   applyCandidate, catalogueCandidate, designDifferences, evaluateDesign, parseDocument, sizeNetwork, type NetworkDocument, type PipeLink,
 } from '../../engine';
+import { WORKING_SHARE } from '../../engine/profile';
 import { designOptions, users } from '../../drizzle/schema';
 import type { ApiRoutes } from '../api-routes';
 import { audit } from '../audit';
@@ -35,6 +36,8 @@ const sizeBody = z.object({
   pipes: z.array(z.string().min(1)).max(2000).optional(),
   minPressure_m: z.number().finite().min(0).max(200).optional(),
   sameSeries: z.boolean().default(false),
+  /** Share of the rating static pressure may use: the review's working limit (72 %, ASAE S376.1) unless told otherwise. */
+  ratingFraction: z.number().finite().min(0.3).max(1).default(WORKING_SHARE),
 });
 const promoteBody = z.object({ version: z.number().int().min(0).optional() });
 
@@ -141,7 +144,7 @@ export function optionRoutes(api: ApiRoutes, ctx: AppContext): void {
     const candidates = pipeCandidates(inputs.prices, doc.headloss);
     if (candidates.length === 0) throw new ApiError('conflict', 'The team price list has no priced pipe: an estimator adds pipe prices first');
     for (const id of body.pipes ?? []) if (!doc.links.some((l) => l.id === id && l.kind === 'pipe')) throw new ApiError('validation', `pipes: ${id} is not a pipe of this option`, { fields: [{ path: 'pipes', message: `${id} is not a pipe` }] });
-    const result = sizeNetwork(doc, candidates, { pipes: body.pipes, minPressure_m: body.minPressure_m, sameSeries: body.sameSeries });
+    const result = sizeNetwork(doc, candidates, { pipes: body.pipes, minPressure_m: body.minPressure_m, sameSeries: body.sameSeries, ratingFraction: body.ratingFraction });
     const { document, ...report } = result;
     const sizing = { ...report, at: new Date().toISOString(), request: body };
     await db.transaction(async (tx) => {

@@ -60,8 +60,16 @@ export const routes: Routes = [
         title: 'Review · Runnel',
         loadComponent: () => import('./screens/review/review-screen').then((m) => m.ReviewScreen),
       },
-      placeholder('options', 'Options', 'Compares pipe-size choices side by side on pressure, velocity and cost.'),
-      placeholder('takeoff', 'Takeoff', 'Lists the materials with quantities and prices from the team price list, ready to export as a spreadsheet.'),
+      {
+        path: 'options',
+        title: 'Options · Runnel',
+        loadComponent: () => import('./screens/options/options-screen').then((m) => m.OptionsScreen),
+      },
+      {
+        path: 'takeoff',
+        title: 'Takeoff · Runnel',
+        loadComponent: () => import('./screens/takeoff/takeoff-screen').then((m) => m.TakeoffScreen),
+      },
       placeholder('files', 'Files', 'Holds uploaded backdrops and survey files (CSV, GPX) for the project.'),
     ],
   },
