@@ -37,12 +37,15 @@ describe('Options and Takeoff (Chromium, real server)', function () {
     await page.getByTestId('option-Sized by the designer').waitFor();
     await page.getByTestId('size-Sized by the designer').click();
     const report = page.getByTestId('option-Sized by the designer').getByTestId('sizing-report');
-    await report.waitFor({ timeout: 30000 });
+    await report.waitFor({ timeout: 60000 });
     expect(await report.textContent()).to.contain('Sized: every outlet passes.');
     expect(await report.textContent()).to.contain('exact dynamic programming');
     // current design + two demo options + the new one, each with a plan
+    // the plans appear once every design's document has loaded
+    await page.getByTestId('options-compare').locator('rn-mini-plan svg').nth(3).waitFor();
     expect(await page.getByTestId('options-compare').locator('thead th').count()).to.equal(5);
     expect(await page.getByTestId('options-compare').locator('rn-mini-plan svg').count()).to.equal(4);
+    await page.waitForFunction(() => document.querySelectorAll('[data-testid="total-estimate"]').length === 4);
     const totals = await page.getByTestId('total-estimate').allTextContents();
     expect(new Set(totals).size, 'the designs cost different amounts').to.be.greaterThan(2);
     await shot(page, 'options-designer-desktop');
