@@ -10,4 +10,4 @@
 export { findRoutes, longestSupplyRoute, RouteError, type Route } from './routes';
 export { profileRoute, type RouteProfile, type ProfilePoint, type ProfileElement, type ProfileSegment, type ProfileOptions, type StaticMargin } from './profile-line';
 export { profileFindings, WORKING_SHARE, FINDING_TEXT, type ProfileFinding, type FindingKind } from './findings';
-export { pressureState, VACUUM_HEAD_M, type PressureState } from './pressure-state';
+export { pressureState, pressureText, unsuppliedIds, PRESSURE_STATE_TEXT, VACUUM_HEAD_M, type PressureState } from './pressure-state';

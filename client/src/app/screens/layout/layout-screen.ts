@@ -12,6 +12,7 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import type { LinkKind, NetworkDocument, NodeKind } from '../../../../../engine/network-document';
 import type { SteadyResult } from '../../../../../engine/index';
 import { formatQuantity, UnitSystem } from '../../../../../engine/units';
+import { ProjectContext } from '../../core/project-context';
 import { SessionService } from '../../core/session.service';
 import { Router } from '@angular/router';
 import { LayoutReview } from '../review/layout-review';
@@ -77,6 +78,8 @@ export class LayoutScreen {
   private readonly dialog = inject(MatDialog);
   private readonly snack = inject(MatSnackBar);
   private readonly destroyRef = inject(DestroyRef);
+  /** The project page's unit switch (absent when the screen runs outside the project shell). */
+  private readonly projectContext = inject(ProjectContext, { optional: true });
   private readonly canvasRef = viewChild.required<ElementRef<HTMLDivElement>>('canvas');
 
   readonly editor = createEditor();
@@ -113,7 +116,7 @@ export class LayoutScreen {
     canEdit: () => this.canEdit(),
     status: (s) => this.status.set(s),
     project: (p) => {
-      this.units.set(p.units);
+      this.units.set(this.projectContext?.project() ? this.projectContext.units() : p.units);
       this.projectName.set(p.name);
     },
     serverResults: (r) => this.serverResults.set(r),
@@ -176,6 +179,10 @@ export class LayoutScreen {
   private quickSolve = false;
 
   constructor() {
+    effect(() => {
+      const ctx = this.projectContext;
+      if (ctx?.project()) this.units.set(ctx.units());
+    });
     const ed = this.editor;
     const off = ed.subscribe((what) => {
       if (what === 'document') {

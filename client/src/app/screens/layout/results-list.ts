@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
 import type { NetworkDocument } from '../../../../../engine/network-document';
 import type { SteadyResult } from '../../../../../engine/index';
+import { pressureText, unsuppliedIds } from '../../../../../engine/profile/pressure-state';
 import { formatQuantity, UnitSystem } from '../../../../../engine/units';
 import { marginColour } from './editor/colour-scale';
 import { documentWarnings } from './editor/result-checks';
@@ -68,6 +69,7 @@ export class ResultsList {
     if (!res) return [];
     const u = this.units();
     const warn = this.warnings();
+    const cutOff = unsuppliedIds(res);
     const rows: Row[] = [];
     for (const n of this.doc().nodes) {
       const r = res.nodes[n.id];
@@ -76,8 +78,9 @@ export class ResultsList {
       const showsPressure = n.kind === 'outlet' || n.kind === 'tee';
       rows.push({
         id: n.id, name: n.name || n.id, kind: n.kind,
-        value: showsPressure ? formatQuantity('pressure', r.pressure_m, u) : formatQuantity('head', r.head_m, u) + ' head',
-        colour: showsPressure ? marginColour(r.pressure_m - min) : null, warnings: warn.get(n.id) ?? [],
+        value: cutOff.has(n.id) ? 'no supply'
+          : showsPressure ? pressureText(r.pressure_m, true, (p) => formatQuantity('pressure', p, u)) : formatQuantity('head', r.head_m, u) + ' head',
+        colour: showsPressure && !cutOff.has(n.id) ? marginColour(r.pressure_m - min) : null, warnings: warn.get(n.id) ?? [],
       });
     }
     for (const l of this.doc().links) {

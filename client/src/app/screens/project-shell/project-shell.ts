@@ -1,6 +1,7 @@
 import { Component, computed, effect, inject, input } from '@angular/core';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTabsModule } from '@angular/material/tabs';
@@ -29,14 +30,15 @@ export const PROJECT_TABS: readonly ProjectTab[] = [
 /** Frame of an open project: a compact header and the tab bar; the tab's screen fills the rest. */
 @Component({
   selector: 'rn-project-shell',
-  imports: [RouterOutlet, RouterLink, RouterLinkActive, MatTabsModule, MatButtonModule, MatIconModule, MatTooltipModule, MatProgressBarModule],
+  imports: [RouterOutlet, RouterLink, RouterLinkActive, MatTabsModule, MatButtonModule, MatButtonToggleModule, MatIconModule, MatTooltipModule, MatProgressBarModule],
   providers: [ProjectContext],
   templateUrl: './project-shell.html',
   styleUrl: './project-shell.scss',
 })
 export class ProjectShell {
   private readonly projectsApi = inject(ProjectsService);
-  private readonly context = inject(ProjectContext);
+  protected readonly context = inject(ProjectContext);
+  protected readonly units = this.context.units;
 
   readonly projectId = input.required<string>();
 

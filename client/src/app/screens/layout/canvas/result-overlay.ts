@@ -1,5 +1,6 @@
 import Konva from 'konva';
 import type { NetworkLink, NetworkNode } from '../../../../../../engine/network-document';
+import { pressureState, pressureText } from '../../../../../../engine/profile/pressure-state';
 import { formatQuantity } from '../../../../../../engine/units';
 import { marginColour } from '../editor/colour-scale';
 import { LINK_KINDS, NODE_KINDS } from '../kinds';
@@ -43,8 +44,10 @@ export class ResultOverlay {
     const w = warnings.get(n.id);
     const hasPressure = show && r && def.showsPressure;
     const min = def.requiredPressure_m?.(n) ?? 0;
-    const text = hasPressure ? formatQuantity('pressure', r.pressure_m, units) : '';
-    const colour = hasPressure ? marginColour(r.pressure_m - min) : '';
+    // no honest number for a cut-off node or a column that separates: words instead (engine/profile/pressure-state)
+    const supplied = !results?.warnings.some((x) => x.code === 'disconnected' && x.element === n.id);
+    const text = hasPressure ? pressureText(r.pressure_m, supplied, (p) => formatQuantity('pressure', p, units)) : '';
+    const colour = hasPressure ? (supplied && pressureState(r.pressure_m, true) !== 'below-vacuum' ? marginColour(r.pressure_m - min) : '#8a8f94') : '';
     // Rebuild only what changed: most solves move few labels.
     const warned = show && !!w?.length;
     const key = `${text}|${colour}|${warned}`;
