@@ -52,9 +52,21 @@ export const routes: Routes = [
         title: 'Walk · Runnel',
         loadComponent: () => import('./screens/walk/walk-screen').then((m) => m.WalkScreen),
       },
-      placeholder('budget', 'Water budget', 'Adds up each use’s daily and peak need and checks that storage and fill keep the tanks from running dry overnight or through cloudy days.'),
-      placeholder('profile', 'Profile', 'Draws the ground, the pipe and the hydraulic grade line along a chosen route so high points and low-point pressures stand out.'),
-      placeholder('timeline', 'Timeline', 'Plays tank levels over a simulated day or week of pumping and use.'),
+      {
+        path: 'budget',
+        title: 'Water budget · Runnel',
+        loadComponent: () => import('./screens/budget/budget-screen').then((m) => m.BudgetScreen),
+      },
+      {
+        path: 'profile',
+        title: 'Profile · Runnel',
+        loadComponent: () => import('./screens/profile/profile-screen').then((m) => m.ProfileScreen),
+      },
+      {
+        path: 'timeline',
+        title: 'Timeline · Runnel',
+        loadComponent: () => import('./screens/timeline/timeline-screen').then((m) => m.TimelineScreen),
+      },
       {
         path: 'review',
         title: 'Review · Runnel',
