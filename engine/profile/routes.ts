@@ -40,31 +40,81 @@ function graph(doc: NetworkDocument): { index: Map<string, number>; adj: Edge[][
   return { index, adj };
 }
 
-/** Dijkstra from s to t avoiding banned nodes and links; null when t is unreachable. */
-function shortest(adj: Edge[][], s: number, t: number, bannedNodes: Set<number>, bannedLinks: Set<number>): { nodes: number[]; links: number[]; w: number } | null {
+/** Min-heap of (distance, node) pairs for Dijkstra. */
+class Heap {
+  private d: number[] = [];
+  private v: number[] = [];
+  get size(): number { return this.d.length; }
+  push(dist: number, node: number): void {
+    let i = this.d.length;
+    this.d.push(dist); this.v.push(node);
+    while (i > 0) {
+      const p = (i - 1) >> 1;
+      if (this.d[p] <= this.d[i]) break;
+      this.swap(i, p); i = p;
+    }
+  }
+  pop(): [number, number] {
+    const top: [number, number] = [this.d[0], this.v[0]];
+    const lastD = this.d.pop() as number;
+    const lastV = this.v.pop() as number;
+    if (this.d.length > 0) {
+      this.d[0] = lastD; this.v[0] = lastV;
+      let i = 0;
+      for (;;) {
+        const l = 2 * i + 1;
+        const r = l + 1;
+        let m = i;
+        if (l < this.d.length && this.d[l] < this.d[m]) m = l;
+        if (r < this.d.length && this.d[r] < this.d[m]) m = r;
+        if (m === i) break;
+        this.swap(i, m); i = m;
+      }
+    }
+    return top;
+  }
+  private swap(a: number, b: number): void {
+    [this.d[a], this.d[b]] = [this.d[b], this.d[a]];
+    [this.v[a], this.v[b]] = [this.v[b], this.v[a]];
+  }
+}
+
+interface Tree { dist: Float64Array; prevNode: Int32Array; prevLink: Int32Array }
+
+/** Dijkstra from the sources (all at distance 0), avoiding banned nodes and links; stops at t when given. */
+function dijkstra(adj: Edge[][], sources: number[], t: number, bannedNodes: Set<number>, bannedLinks: Set<number>): Tree {
   const n = adj.length;
   const dist = new Float64Array(n).fill(Infinity);
   const prevNode = new Int32Array(n).fill(-1);
   const prevLink = new Int32Array(n).fill(-1);
   const done = new Uint8Array(n);
-  dist[s] = 0;
-  // networks here are small (hundreds of elements): a linear scan beats a heap's bookkeeping
-  for (;;) {
-    let u = -1;
-    for (let i = 0; i < n; i++) if (!done[i] && dist[i] < Infinity && (u < 0 || dist[i] < dist[u])) u = i;
-    if (u < 0 || u === t) break;
+  const heap = new Heap();
+  for (const s of sources) { dist[s] = 0; heap.push(0, s); }
+  while (heap.size > 0) {
+    const [d, u] = heap.pop();
+    if (done[u] || d > dist[u]) continue;
     done[u] = 1;
+    if (u === t) break;
     for (const e of adj[u]) {
       if (bannedNodes.has(e.to) || bannedLinks.has(e.link) || done[e.to]) continue;
-      const d = dist[u] + e.w;
-      if (d < dist[e.to]) { dist[e.to] = d; prevNode[e.to] = u; prevLink[e.to] = e.link; }
+      const nd = d + e.w;
+      if (nd < dist[e.to]) { dist[e.to] = nd; prevNode[e.to] = u; prevLink[e.to] = e.link; heap.push(nd, e.to); }
     }
   }
-  if (dist[t] === Infinity) return null;
+  return { dist, prevNode, prevLink };
+}
+
+function pathTo(tree: Tree, t: number): { nodes: number[]; links: number[]; w: number } {
   const nodes = [t];
   const links: number[] = [];
-  for (let v = t; v !== s; v = prevNode[v]) { links.push(prevLink[v]); nodes.push(prevNode[v]); }
-  return { nodes: nodes.reverse(), links: links.reverse(), w: dist[t] };
+  for (let v = t; tree.prevNode[v] >= 0; v = tree.prevNode[v]) { links.push(tree.prevLink[v]); nodes.push(tree.prevNode[v]); }
+  return { nodes: nodes.reverse(), links: links.reverse(), w: tree.dist[t] };
+}
+
+/** Dijkstra from s to t avoiding banned nodes and links; null when t is unreachable. */
+function shortest(adj: Edge[][], s: number, t: number, bannedNodes: Set<number>, bannedLinks: Set<number>): { nodes: number[]; links: number[]; w: number } | null {
+  const tree = dijkstra(adj, [s], t, bannedNodes, bannedLinks);
+  return tree.dist[t] === Infinity ? null : pathTo(tree, t);
 }
 
 /**
@@ -111,23 +161,22 @@ export function findRoutes(doc: NetworkDocument, from: string, to: string, count
 
 /**
  * The longest of the shortest routes from any source or tank to any outlet (the demo's "longest
- * route"): for each outlet the shortest route from the nearest source or tank, then the longest.
+ * route"): one Dijkstra from every source and tank at once over pipes and valves (a fill pump's
+ * rising main is not a supply route), then the outlet farthest from its nearest supply.
  * @returns null when no outlet is connected to a source or tank
  */
 export function longestSupplyRoute(doc: NetworkDocument): Route | null {
-  const supplies = doc.nodes.filter((n) => n.kind === 'tank' || n.kind === 'source');
-  let best: Route | null = null;
-  for (const outlet of doc.nodes.filter((n) => n.kind === 'outlet')) {
-    let nearest: Route | null = null;
-    for (const s of supplies) {
-      try {
-        const [r] = findRoutes(doc, s.id, outlet.id, 1);
-        // a route through the fill pump is not a supply route for the outlet
-        if (r.links.some((id) => doc.links.find((l) => l.id === id)?.kind === 'pump')) continue;
-        if (!nearest || r.length_m < nearest.length_m) nearest = r;
-      } catch { /* not connected to this supply */ }
-    }
-    if (nearest && (!best || nearest.length_m > best.length_m)) best = nearest;
+  const { index, adj } = graph(doc);
+  const pumps = new Set(doc.links.flatMap((l, k) => (l.kind === 'pump' ? [k] : [])));
+  const supplies = doc.nodes.flatMap((n, i) => (n.kind === 'tank' || n.kind === 'source' ? [i] : []));
+  if (supplies.length === 0) return null;
+  const tree = dijkstra(adj, supplies, -1, new Set(), pumps);
+  let far = -1;
+  for (const n of doc.nodes) {
+    const i = index.get(n.id) as number;
+    if (n.kind === 'outlet' && tree.dist[i] < Infinity && (far < 0 || tree.dist[i] > tree.dist[far])) far = i;
   }
-  return best;
+  if (far < 0) return null;
+  const p = pathTo(tree, far);
+  return { nodes: p.nodes.map((i) => doc.nodes[i].id), links: p.links.map((k) => doc.links[k].id), length_m: p.w };
 }

@@ -1,5 +1,7 @@
 import { Component, computed, effect, inject, input, signal } from '@angular/core';
-import { rxResource } from '@angular/core/rxjs-interop';
+import { BreakpointObserver } from '@angular/cdk/layout';
+import { rxResource, toSignal } from '@angular/core/rxjs-interop';
+import { map } from 'rxjs';
 import { HttpErrorResponse } from '@angular/common/http';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -108,9 +110,11 @@ export class BudgetScreen {
   });
   protected readonly pumpFlagged = computed(() => (this.plan()?.verdicts ?? []).filter((v) => v.status === 'short' || v.status === 'short-and-storage-low'));
 
-  protected readonly useColumns = ['name', 'amount', 'rate', 'season', 'outlets', 'window', 'peak', 'actions'];
-  protected readonly monthColumns = ['month', 'need', 'peakFlow', 'psh', 'fill', 'reserve', 'verdict'];
-  protected readonly outletColumns = ['outlet', 'flow', 'daily', 'rule', 'now', 'mode'];
+  /** Phone widths keep the columns that answer "is there enough" and drop the detail. */
+  private readonly narrow = toSignal(inject(BreakpointObserver).observe('(max-width: 700px)').pipe(map((s) => s.matches)), { initialValue: false });
+  protected readonly useColumns = computed(() => (this.narrow() ? ['name', 'amount', 'peak', 'actions'] : ['name', 'amount', 'rate', 'season', 'outlets', 'window', 'peak', 'actions']));
+  protected readonly monthColumns = computed(() => (this.narrow() ? ['month', 'need', 'fill', 'verdict'] : ['month', 'need', 'peakFlow', 'psh', 'fill', 'reserve', 'verdict']));
+  protected readonly outletColumns = computed(() => (this.narrow() ? ['outlet', 'flow', 'mode'] : ['outlet', 'flow', 'daily', 'rule', 'now', 'mode']));
 
   constructor() {
     effect(() => {

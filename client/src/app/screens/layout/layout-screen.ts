@@ -13,6 +13,8 @@ import type { LinkKind, NetworkDocument, NodeKind } from '../../../../../engine/
 import type { SteadyResult } from '../../../../../engine/index';
 import { formatQuantity, UnitSystem } from '../../../../../engine/units';
 import { ProjectContext } from '../../core/project-context';
+import { profileMarkers } from '../profile/profile-markers';
+import { ProfileSelection } from '../profile/profile-selection';
 import { SessionService } from '../../core/session.service';
 import { Router } from '@angular/router';
 import { LayoutReview } from '../review/layout-review';
@@ -80,6 +82,7 @@ export class LayoutScreen {
   private readonly destroyRef = inject(DestroyRef);
   /** The project page's unit switch (absent when the screen runs outside the project shell). */
   private readonly projectContext = inject(ProjectContext, { optional: true });
+  private readonly profileSelection = inject(ProfileSelection);
   private readonly canvasRef = viewChild.required<ElementRef<HTMLDivElement>>('canvas');
 
   readonly editor = createEditor();
@@ -179,6 +182,8 @@ export class LayoutScreen {
   private quickSolve = false;
 
   constructor() {
+    // the Profile tab's findings as marks on the plan (screens/profile/profile-markers.ts)
+    effect(() => this.markers.set('profile', profileMarkers(this.doc(), this.results(), this.profileSelection.get(this.projectId()))));
     effect(() => {
       const ctx = this.projectContext;
       if (ctx?.project()) this.units.set(ctx.units());

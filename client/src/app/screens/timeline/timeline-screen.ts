@@ -17,6 +17,8 @@ import { downloadDataUrl, downloadText } from '../../shared/chart/download';
 import { QuantityPipe } from '../../shared/quantity.pipe';
 import { TimelineRun } from './timeline-run';
 
+/** Time-axis ticks fall on whole hours, days or half-days. */
+const HOUR_STEPS = [1, 2, 3, 6, 12, 24, 48];
 const COLOURS = ['#17677a', '#a8692e', '#5b7f3a', '#7a4a8c', '#b5485d', '#3d5a80'];
 const EVENT_COLOURS: Record<TimelineEvent['kind'], string> = {
   'tank-low': '#c77d1a', 'tank-empty': '#b3261e', 'tank-full': '#2e7d4f', overflow: '#3d5a80', 'pump-stop': '#6b6b6b', 'pump-start': '#2e7d4f',
@@ -107,7 +109,7 @@ export class TimelineScreen {
     if (!r) return null;
     const tanks = Object.entries(r.series.tanks);
     return {
-      x: this.x(), xLabel: 'time', xFormat: this.xFormat, yLabel: `level (${label('head', this.units())})`, y2Label: `stored (${label('volume', this.units())})`,
+      x: this.x(), xLabel: 'time', xFormat: this.xFormat, xIncrs: HOUR_STEPS, yLabel: `level (${label('head', this.units())})`, y2Label: `stored (${label('volume', this.units())})`,
       series: [
         ...tanks.map(([id, t], i) => ({ label: `${this.names().get(id) ?? id} level`, values: this.conv('head', t.level_m), colour: COLOURS[i % COLOURS.length], format: this.fmt('head', 2) })),
         { label: 'Bank volume', values: this.conv('volume', r.series.bank_volume_m3), colour: '#8a8f94', dash: [5, 4], scale: 'y2' as const, format: this.fmt('volume') },
@@ -121,7 +123,7 @@ export class TimelineScreen {
     if (!r) return null;
     const pumps = Object.entries(r.series.pumps);
     return {
-      x: this.x(), xLabel: 'time', xFormat: this.xFormat, yLabel: `flow (${label('flow', this.units())})`, y2Label: 'sun (0–1)',
+      x: this.x(), xLabel: 'time', xFormat: this.xFormat, xIncrs: HOUR_STEPS, yLabel: `flow (${label('flow', this.units())})`, y2Label: 'sun (0–1)',
       series: [
         ...pumps.map(([id, p], i) => ({ label: `${this.names().get(id) ?? id} flow`, values: this.conv('flow', p.flow_m3s.map((q) => Math.max(q, 0))), colour: COLOURS[(i + 1) % COLOURS.length], stepped: true, format: this.fmt('flow') })),
         ...pumps.map(([id, p]) => ({ label: `${this.names().get(id) ?? id} sun`, values: p.sun, colour: '#e0a800', scale: 'y2' as const, dash: [3, 3], stepped: true, format: (v: number) => `${Math.round(v * 100)} %` })),
@@ -136,7 +138,7 @@ export class TimelineScreen {
     if (!r || !id) return null;
     const o = r.series.outlets[id];
     return {
-      x: this.x(), xLabel: 'time', xFormat: this.xFormat, yLabel: `flow (${label('flow', this.units())})`,
+      x: this.x(), xLabel: 'time', xFormat: this.xFormat, xIncrs: HOUR_STEPS, yLabel: `flow (${label('flow', this.units())})`,
       series: [
         { label: 'requested', values: this.conv('flow', o.requested_m3s), colour: '#8a8f94', dash: [5, 4], stepped: true, format: this.fmt('flow') },
         { label: 'delivered', values: this.conv('flow', o.delivered_m3s), colour: '#17677a', format: this.fmt('flow') },

@@ -33,6 +33,8 @@ export interface ChartSpec {
   x: number[];
   xLabel: string;
   xFormat: (v: number) => string;
+  /** Tick steps to choose from on the x axis (e.g. hours 1, 2, 3, 6, 12, 24). */
+  xIncrs?: number[];
   series: ChartSeries[];
   yLabel?: string;
   y2Label?: string;
@@ -103,7 +105,7 @@ export class LineChart {
       scales: { x: { time: false } },
       legend: { live: true },
       axes: [
-        { label: spec.xLabel, values: (_u, ticks) => ticks.map((t) => spec.xFormat(t)), size: 36, labelSize: 18 },
+        { label: spec.xLabel, values: (_u, ticks) => ticks.map((t) => spec.xFormat(t)), size: 36, labelSize: 18, space: 84, ...(spec.xIncrs ? { incrs: spec.xIncrs } : {}) },
         { label: spec.yLabel, scale: 'y', size: 64, labelSize: 18, values: (_u, ticks) => ticks.map((t) => trim(t)) },
         ...(spec.series.some((s) => s.scale === 'y2') ? [{ label: spec.y2Label, scale: 'y2', side: 1 as const, grid: { show: false }, size: 64, labelSize: 18, values: (_u: uPlot, ticks: number[]) => ticks.map((t) => trim(t)) }] : []),
       ],
