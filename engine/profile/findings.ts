@@ -34,6 +34,8 @@ export interface ProfileFinding {
   limit_m?: number;
   caution: string;
   source: string;
+  /** High and low points: an air valve (drain) within reach is already in the document. */
+  fitted?: boolean;
 }
 
 /** Working share of a pipe's rating when surge is not analysed (ASAE S376.1, V2). */
@@ -140,3 +142,9 @@ function turningPoints(out: ProfileFinding[], points: ProfilePoint[], relief: nu
     }
   }
 }
+
+/** Caution text once the fitting is in the document. */
+export const FITTED_TEXT: Record<'high-point' | 'low-point', string> = {
+  'high-point': 'High point: an air-release valve is fitted here. Check it is an air-vacuum type where the line drains.',
+  'low-point': 'Low point: a drain is fitted here.',
+};

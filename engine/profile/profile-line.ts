@@ -2,7 +2,8 @@ import { DEFAULT_COVER_M, staticHeads } from '../checks';
 import type { NetworkDocument, PipeLink } from '../network-document';
 import { compileNetwork } from '../network-model';
 import { normaliseDocument, solve, type SteadyResult } from '../steady';
-import { profileFindings, WORKING_SHARE, type ProfileFinding } from './findings';
+import { FITTING_REACH_M, PROFILE_PROMINENCE_M } from '../review/rules';
+import { FITTED_TEXT, profileFindings, WORKING_SHARE, type ProfileFinding } from './findings';
 import type { Route } from './routes';
 
 /**
@@ -143,13 +144,36 @@ export function profileRoute(input: NetworkDocument, route: Route, options: Prof
     addElement(b, linkId);
   });
   const share = options.working_share ?? WORKING_SHARE;
-  const findings = profileFindings(points, segments, { working_share: share, min_relief_m: options.min_relief_m ?? 0.3 });
+  const findings = markFitted(doc, route, segments, profileFindings(points, segments, { working_share: share, min_relief_m: options.min_relief_m ?? PROFILE_PROMINENCE_M }));
   const pipeSegs = segments.filter((s) => s.kind === 'pipe');
   const kinds = new Set(pipeSegs.map((s) => s.ground));
   return {
     route, points, elements, segments, findings, static_margin: staticMargin(points, segments, share),
     ground: kinds.size === 1 ? (kinds.has('survey') ? 'survey' : 'straight') : kinds.size === 0 ? 'straight' : 'mixed',
   };
+}
+
+/**
+ * High and low points with the document's fittings: a pipe's air_valves_m / drains_m (from its
+ * `from` end) within FITTING_REACH_M, or a tee's air_valve / drain at the point (engine/review/rules).
+ */
+function markFitted(doc: NetworkDocument, route: Route, segments: ProfileSegment[], findings: ProfileFinding[]): ProfileFinding[] {
+  return findings.map((f) => {
+    if (f.kind !== 'high-point' && f.kind !== 'low-point') return f;
+    const high = f.kind === 'high-point';
+    const seg = segments.find((s) => s.link === f.link);
+    const link = doc.links.find((l) => l.id === f.link);
+    let fitted = false;
+    const node = doc.nodes.find((n, _i) => n.kind === 'tee' && seg && (Math.abs(f.at_m - seg.from_m) < 1e-9 || Math.abs(f.at_m - seg.to_m) < 1e-9)
+      && route.nodes[route.links.indexOf(f.link) + (Math.abs(f.at_m - seg.from_m) < 1e-9 ? 0 : 1)] === n.id);
+    if (node?.kind === 'tee') fitted = high ? node.air_valve === true : node.drain === true;
+    if (!fitted && seg && link?.kind === 'pipe') {
+      const forward = route.nodes[route.links.indexOf(link.id)] === link.from;
+      const local = forward ? f.at_m - seg.from_m : seg.to_m - f.at_m;
+      fitted = ((high ? link.air_valves_m : link.drains_m) ?? []).some((d) => Math.abs(d - local) <= FITTING_REACH_M);
+    }
+    return fitted ? { ...f, fitted, caution: FITTED_TEXT[f.kind] } : { ...f, fitted };
+  });
 }
 
 /** Surveyed ground points strictly inside the pipe, as [distance from the route's side, elevation]. */

@@ -138,3 +138,23 @@ describe('profile: pressures that cannot be', () => {
     expect(pressureState(p.elements[2].pressure_m, p.elements[2].supplied)).to.equal('no-supply');
   });
 });
+
+describe('profile: fittings already in the document', () => {
+  it('an air valve within reach of the high point (10 m, engine/review/rules) marks it fitted', () => {
+    const doc: NetworkDocument = {
+      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      nodes: [
+        { id: 'T', kind: 'tank', elevation_m: 100, diameter_m: 2, level_m: 1, min_level_m: 0, max_level_m: 2 },
+        { id: 'O', kind: 'outlet', elevation_m: 60, demand_m3s: 0 },
+      ],
+      links: [{ id: 'P', kind: 'pipe', from: 'T', to: 'O', length_m: 1000, diameter_m: 0.05, roughness: 150,
+        profile: [[0, 100], [250, 96], [500, 103], [750, 55], [1000, 60]], air_valves_m: [505], drains_m: [100] } as NetworkLink],
+    };
+    // walked from the outlet end, the hump is 500 m from O but the valve is measured from T: still the same point
+    const p = profileRoute(doc, findRoutes(doc, 'O', 'T')[0]);
+    const high = p.findings.find((f) => f.kind === 'high-point')!;
+    expect(high.fitted).to.equal(true);
+    expect(high.caution).to.match(/is fitted here/);
+    expect(p.findings.filter((f) => f.kind === 'low-point').map((f) => f.fitted)).to.deep.equal([false, false]);
+  });
+});
