@@ -51,7 +51,10 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     await herd.getByTestId('use-edit').click();
     await page.getByTestId('use-amount').fill('30');
     await page.getByTestId('use-save').click();
-    const after = await page.getByTestId('budget-outlets').locator('tr', { hasText: 'South trough' }).getByTestId('outlet-flow').textContent();
+    const flowCell = page.getByTestId('budget-outlets').locator('tr', { hasText: 'South trough' }).getByTestId('outlet-flow');
+    // the table re-renders its rows: read through the locator until the new flow shows (bounded)
+    let after = before;
+    for (let i = 0; i < 50 && after === before; i++) { await page.waitForTimeout(100); after = await flowCell.textContent(); }
     expect(parseFloat(after ?? '')).to.be.closeTo(parseFloat(before ?? '') * 3, 0.01);
     await page.getByTestId('budget-save').click();
     await page.getByText(/Budget saved \(version 2\); outlet flows carried into the network \(version 2\)/).waitFor();
