@@ -33,6 +33,7 @@ import { projectRoutes } from './routes/projects';
 import { teamRoutes } from './routes/team';
 import { versionRoutes } from './routes/versions';
 import { reviewRoutes } from './routes/review';
+import { warmEnginePool } from './engine-pool/pool';
 import { seed as seedDemo, type SeedResult } from './seed';
 import './types';
 
@@ -71,6 +72,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   const { config } = options;
   const log = options.log === false ? () => undefined : options.log ?? ((line: string) => console.log(line));
   const bcryptCost = options.bcryptCost ?? DEFAULT_BCRYPT_COST;
+  warmEnginePool();
 
   const database = options.database ?? await openDatabase(
     config.databaseUrl ? { kind: 'postgres', url: config.databaseUrl } : { kind: 'pglite', dir: pgliteDir(config.dataDir) });

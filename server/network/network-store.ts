@@ -4,10 +4,12 @@
  * document with the engine and stores the results beside it.
  */
 import { and, eq } from 'drizzle-orm';
-import { emptyDocument, migrateDocument, parseDocument, solve, type NetworkDocument, type SteadyResult } from '../../engine';
+import { emptyDocument, migrateDocument, parseDocument, type NetworkDocument, type SteadyResult } from '../../engine';
 import { networks, users } from '../../drizzle/schema';
 import { audit } from '../audit';
 import type { Db, DbOrTx } from '../db';
+import { EngineTimeout, runEngine } from '../engine-pool/pool';
+import type { CheckedSolve } from '../engine-pool/tasks';
 import { ApiError, issuePath } from '../errors';
 import { recordVersion } from './versions-store';
 
@@ -44,22 +46,34 @@ export interface SaveRequest {
   log?: (line: string) => void;
   /** Set when the document is an earlier version being restored (recorded in the version history). */
   restoredFrom?: number;
+  /** Time limit of the save-time check and solve, ms (default SAVE_SOLVE_TIMEOUT_MS). */
+  solveTimeout_ms?: number;
 }
+
+/** A save-time solve running longer than this is stopped; the save goes through with a result saying so. */
+export const SAVE_SOLVE_TIMEOUT_MS = 10_000;
 
 export interface SaveResult { version: number; results: SteadyResult | null; updatedAt: string }
 
+/** What a save answers over HTTP: no megabytes of results echoed back (GET …/network has them). */
+export function saveSummary(saved: SaveResult): { version: number; updatedAt: string; solved: { converged: boolean; iterations: number; warnings: number } | null } {
+  const r = saved.results;
+  return { version: saved.version, updatedAt: saved.updatedAt, solved: r ? { converged: r.converged, iterations: r.iterations, warnings: r.warnings.length } : null };
+}
+
 /**
- * Validates (the engine's schema, migrating an older version), solves and stores. Throws 400 naming element and field when the
- * document is malformed, 409 with the stored network when `expectedVersion` is stale.
+ * Validates (the engine's schema, migrating an older version) and solves in the engine pool, off
+ * the request thread, then stores. Throws 400 naming element and field when the document is
+ * malformed, 409 with the stored network when `expectedVersion` is stale.
  */
 export async function saveNetwork(db: Db, request: SaveRequest): Promise<SaveResult> {
-  const parsed = parseDocument(request.document);
-  if (!parsed.ok) {
-    const fields = parsed.problems.map((p) => ({ path: issuePath(['document', ...p.path]), ...(p.element ? { element: p.element } : {}), message: p.message }));
+  const checked = await checkAndSolve(request.document, request.solveTimeout_ms ?? SAVE_SOLVE_TIMEOUT_MS, request.log);
+  if (!checked.ok) {
+    const fields = checked.problems.map((p) => ({ path: issuePath(['document', ...p.path]), ...(p.element ? { element: p.element } : {}), message: p.message }));
     throw new ApiError('validation', `The network document has ${fields.length} problem${fields.length === 1 ? '' : 's'}: ${fields[0].message}`, { fields });
   }
-  const document = parsed.doc;
-  const results = solveSafely(document, request.log);
+  const document = checked.migrated ?? (request.document as NetworkDocument);
+  const results = checked.results;
   const now = new Date();
   const saved = await db.transaction(async (tx) => {
     // The document this save replaces, for the version history's one-line summary.
@@ -91,12 +105,22 @@ export async function saveNetwork(db: Db, request: SaveRequest): Promise<SaveRes
   return { version: saved, results, updatedAt: now.toISOString() };
 }
 
-/** The engine must never lose a save: a solver failure stores no results and is logged. */
-function solveSafely(document: NetworkDocument, log?: (line: string) => void): SteadyResult | null {
+/**
+ * The schema check and the solve, in a worker thread. The engine must never lose a save: past the
+ * time limit the result says the solve was stopped; if the worker fails, the results are null
+ * (logged). Either way the document is then checked here, so nothing invalid is stored.
+ */
+async function checkAndSolve(raw: unknown, timeout_ms: number, log?: (line: string) => void): Promise<CheckedSolve | { ok: true; migrated: NetworkDocument; results: SteadyResult | null }> {
   try {
-    return solve(document);
+    return await runEngine('checkAndSolve', [raw], { timeout_ms });
   } catch (err) {
-    log?.(`solve failed: ${err instanceof Error ? err.stack ?? err.message : String(err)}`);
-    return null;
+    log?.(`save-time solve failed: ${err instanceof Error ? err.stack ?? err.message : String(err)}`);
+    const parsed = parseDocument(raw);
+    if (!parsed.ok) return { ok: false, problems: parsed.problems };
+    const stopped: SteadyResult = {
+      converged: false, iterations: 0, nodes: {}, links: {},
+      warnings: [{ code: 'not-converged', element: null, message: `network: the server stopped the solve after ${timeout_ms / 1000} s` }],
+    };
+    return { ok: true, migrated: parsed.doc, results: err instanceof EngineTimeout ? stopped : null };
   }
 }

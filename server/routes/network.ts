@@ -3,7 +3,7 @@ import { z } from 'zod';
 import type { ApiRoutes } from '../api-routes';
 import type { AppContext } from '../context';
 import { parseBody } from '../errors';
-import { loadNetwork, saveNetwork } from '../network/network-store';
+import { loadNetwork, saveNetwork, saveSummary } from '../network/network-store';
 import { projectOf } from '../project-scope';
 
 /** The body of PUT /api/projects/:id/network; the document is checked by the engine's schema (parseDocument). */
@@ -24,9 +24,9 @@ export function networkRoutes(api: ApiRoutes, ctx: AppContext): void {
   api.put('/projects/:id/network', 'network.write', async (req, res) => {
     const body = parseBody(saveNetworkBody, req.body);
     const project = projectOf(req);
-    res.json(await saveNetwork(db, {
+    res.json(saveSummary(await saveNetwork(db, {
       projectId: project.id, teamId: project.teamId, user: req.user!, expectedVersion: body.version,
       document: body.document, log: ctx.log,
-    }));
+    })));
   });
 }
