@@ -8,7 +8,7 @@ import { and, asc, eq, ne } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
 import {
-  applyCandidate, catalogueCandidate, designDifferences, evaluateDesign, parseDocument, sizeNetwork, type NetworkDocument, type PipeLink,
+  applyCandidate, applyMinorLossAllowance, catalogueCandidate, countFittings, minorLossAllowance, designDifferences, evaluateDesign, parseDocument, sizeNetwork, type NetworkDocument, type PipeLink,
 } from '../../engine';
 import { WORKING_SHARE } from '../../engine/profile';
 import { designOptions, users } from '../../drizzle/schema';
@@ -31,6 +31,8 @@ const editBody = z.object({
   /** Move tanks up or down (tank floor elevation, m). */
   tanks: z.array(z.object({ id: z.string().min(1), elevation_m: z.number().finite() })).max(50).optional(),
   document: z.unknown().optional(),
+  /** Replace every pipe's typed minor-loss K by the allowance of its counted fittings (engine/takeoff). */
+  countedMinorLoss: z.boolean().optional(),
 });
 const sizeBody = z.object({
   pipes: z.array(z.string().min(1)).max(2000).optional(),
@@ -126,11 +128,15 @@ export function optionRoutes(api: ApiRoutes, ctx: AppContext): void {
       });
       doc = checkDocument(doc);
     }
+    if (body.countedMinorLoss) {
+      const inputs = await designInputs(db, project.teamId, project.id);
+      doc = applyMinorLossAllowance(doc, minorLossAllowance(doc, countFittings(doc, { bendAngle_deg: inputs.settings.bendAngle_deg }), inputs.settings.waste_fraction));
+    }
     await db.transaction(async (tx) => {
       await tx.update(designOptions).set({ name: body.name ?? row.name, notes: body.notes ?? row.notes, document: doc, updatedAt: new Date(), updatedBy: req.user!.id,
-        sizing: body.pipes || body.tanks || body.document !== undefined ? null : row.sizing }).where(eq(designOptions.id, row.id));
+        sizing: body.pipes || body.tanks || body.document !== undefined || body.countedMinorLoss ? null : row.sizing }).where(eq(designOptions.id, row.id));
       await audit(tx, { teamId: project.teamId, user: req.user!, action: 'option.update', target: `${project.name} / ${body.name ?? row.name}`,
-        detail: { pipes: body.pipes?.length ?? 0, tanks: body.tanks?.length ?? 0, document: body.document !== undefined } });
+        detail: { pipes: body.pipes?.length ?? 0, tanks: body.tanks?.length ?? 0, document: body.document !== undefined, countedMinorLoss: body.countedMinorLoss ?? false } });
     });
     res.json({ id: row.id, name: body.name ?? row.name, document: doc });
   });

@@ -9,7 +9,7 @@ import ExcelJS from 'exceljs';
 import type { Response } from 'supertest';
 import { eq } from 'drizzle-orm';
 import { priceItems } from '../../drizzle/schema';
-import type { NetworkDocument, PipeLink } from '../../engine';
+import { countFittings, minorLossAllowance, type NetworkDocument, type PipeLink } from '../../engine';
 import { startTestApp, type TestApp } from './test-app';
 
 const binary = (res: Response, cb: (err: Error | null, body: Buffer) => void) => {
@@ -46,6 +46,18 @@ describe('API: options, prices, takeoff and export', () => {
     const option = await designer.get(`${base}/options/${made.body.id}`).expect(200);
     const changed = (option.body.document as NetworkDocument).links.filter((l) => l.kind === 'pipe' && sized.body.choices.some((c: { pipe: string; key: string }) => c.pipe === l.id && c.key === `${(l as PipeLink).series}/${(l as PipeLink).nominal}`));
     expect(changed).to.have.length(sized.body.choices.length);
+  });
+
+  it('an option can take its minor losses from the counted fittings, and move a tank', async () => {
+    const designer = await t.signInAs('designer');
+    const made = await designer.post(`${base}/options`, { name: 'Counted losses' }).expect(201);
+    await designer.patch(`${base}/options/${made.body.id}`, { countedMinorLoss: true, tanks: [{ id: 'T1', elevation_m: 160 }] }).expect(200);
+    const doc = (await designer.get(`${base}/options/${made.body.id}`).expect(200)).body.document as NetworkDocument;
+    const expected = minorLossAllowance(doc, countFittings(doc, { bendAngle_deg: 30 }), 0.05);
+    for (const l of doc.links) if (l.kind === 'pipe') expect((l as PipeLink).minor_loss, l.id).to.equal(expected[l.id].k);
+    expect(doc.nodes.find((n) => n.id === 'T1')!.elevation_m).to.equal(160);
+    const bad = await designer.patch(`${base}/options/${made.body.id}`, { pipes: [{ id: 'NOPE', series: 'pe-sidr9', nominal: '1"' }] }).expect(400);
+    expect(bad.body.error.message).to.equal('pipes.0.id: NOPE is not a pipe of this option');
   });
 
   it('owners mark the preferred option (who and when recorded) and never edit the design; reviewers read', async () => {

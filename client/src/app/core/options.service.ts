@@ -35,7 +35,7 @@ export class OptionsService {
   list(projectId: string): Observable<OptionList> { return this.http.get<OptionList>(this.base(projectId)); }
   get(projectId: string, id: string): Observable<OptionDetail> { return this.http.get<OptionDetail>(`${this.base(projectId)}/${id}`); }
   create(projectId: string, name: string, notes = ''): Observable<{ id: string }> { return this.http.post<{ id: string }>(this.base(projectId), { name, notes }); }
-  edit(projectId: string, id: string, body: { name?: string; notes?: string; pipes?: { id: string; series: string; nominal: string }[]; tanks?: { id: string; elevation_m: number }[] }): Observable<unknown> {
+  edit(projectId: string, id: string, body: { name?: string; notes?: string; pipes?: { id: string; series: string; nominal: string }[]; tanks?: { id: string; elevation_m: number }[]; countedMinorLoss?: boolean }): Observable<unknown> {
     return this.http.patch(`${this.base(projectId)}/${id}`, body);
   }
   size(projectId: string, id: string, body: SizeRequest): Observable<SizingReport> { return this.http.post<SizingReport>(`${this.base(projectId)}/${id}/size`, body); }

@@ -77,6 +77,9 @@ export class OptionsScreen {
   protected minPressure: number | null = null;
   protected sameSeries = false;
   protected edit: { option: string; pipe: string; series: string; nominal: string } = { option: '', pipe: '', series: '', nominal: '' };
+  protected tankEdit: { tank: string; elevation: number | null } = { tank: '', elevation: null };
+  protected readonly tanks = computed(() => this.columns()[0]?.document?.nodes.filter((n) => n.kind === 'tank') ?? []);
+  protected elevationUnit(): string { return unitLabel('elevation', this.units()); }
   protected readonly lastSizing = signal<{ option: string; report: SizingReport } | null>(null);
 
   protected pressureUnit(): string { return unitLabel('pressure', this.units()); }
@@ -110,6 +113,18 @@ export class OptionsScreen {
     const e = this.edit;
     if (!e.pipe || !e.series || !e.nominal) { this.error.set('Choose a pipe, a series and a size.'); return; }
     this.run(this.service.edit(this.projectId(), option.id, { pipes: [{ id: e.pipe, series: e.series, nominal: e.nominal }] }), () => `${e.pipe} in “${option.name}” is now ${e.series} ${e.nominal}.`);
+  }
+
+  protected moveTank(option: OptionRow): void {
+    const t = this.tankEdit;
+    if (!t.tank || t.elevation === null || `${t.elevation}` === '') { this.error.set('Choose a tank and its new floor elevation.'); return; }
+    const elevation_m = fromDisplay('elevation', Number(t.elevation), this.units());
+    this.run(this.service.edit(this.projectId(), option.id, { tanks: [{ id: t.tank, elevation_m }] }), () => `${t.tank} in “${option.name}” moved to its new elevation.`);
+  }
+
+  protected countedLosses(option: OptionRow): void {
+    this.run(this.service.edit(this.projectId(), option.id, { countedMinorLoss: true }),
+      () => `Every pipe in “${option.name}” now uses the minor-loss K of its counted fittings (tees, reducers, elbows, couplings, tank outlets).`);
   }
 
   protected promote(option: OptionRow): void {
