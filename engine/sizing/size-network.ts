@@ -11,6 +11,8 @@ import { designDemand, pipeHeadloss, profileHeadFloor, requiredPressure, type Hy
 import { type EdgeOption, solveTree, type TreeEdge } from './tree-dp';
 import { type CheckSettings, type DesignCheck, designChecks, pipeStaticPressures } from './verify';
 import { GRAVITY_MS2 } from '../constants';
+import { joukowskyHead } from '../review/joukowsky';
+import { pipeWaveSpeed } from '../review/wave-speed';
 
 /**
  * "Size the lines": the cheapest choice from a priced catalogue for the chosen pipes (or all) such
@@ -35,6 +37,13 @@ export interface SizingOptions extends CheckSettings {
   omega?: number;
   /** Keep each pipe's own series (material and class) and change only its size (default false). */
   sameSeries?: boolean;
+  /**
+   * Tree regions: also require static pressure plus the Joukowsky surge of stopping the design flow
+   * at once (wave speed by Korteweg from the candidate's material and wall, ../review) to stay within
+   * the rating, as the review's surge check does (NRCS Standard 430: pressure including transients
+   * below the rating, V2). Default true.
+   */
+  surge?: boolean;
   /** Looped regions: budget of hydraulic solves (default 40,000). */
   maxEvaluations?: number;
   seed?: number;
@@ -195,10 +204,16 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
         const up = upstreamIsFrom.get(l.id) ?? true;
         const downNode = nodeById.get(child);
         if (l.kind === 'pipe' && sized.has(l.id)) {
-          const list = prune(filterByRating(l).filter((c) => q / ((Math.PI * c.diameter_m ** 2) / 4) <= limit + 1e-12));
+          const ps = statics.get(l.id) ?? -Infinity;
+          const list = prune(filterByRating(l).filter((c) => {
+            const v = q / ((Math.PI * c.diameter_m ** 2) / 4);
+            if (v > limit + 1e-12) return false;
+            if (options.surge === false || c.rating_m === undefined || !Number.isFinite(ps)) return true;
+            return ps + joukowskyHead(pipeWaveSpeed(applyCandidate(l, c)).waveSpeed_ms, v) <= c.rating_m + 1e-9;
+          }));
           lists.set(l.id, list);
           allowed.set(l.id, list);
-          if (list.length === 0) problem ||= `${l.id}: no catalogue pipe meets the rating and velocity checks at ${Math.round(q * 1e5) / 100} L/s`;
+          if (list.length === 0) problem ||= `${l.id}: no catalogue pipe meets the rating, surge and velocity checks at ${Math.round(q * 1e5) / 100} L/s`;
           return { link: l.id, child, options: list.map((c, j) => { const hl = pipeHeadloss(l, c, q, hyd); return { tag: j, cost: c.price_per_m * l.length_m, headloss: hl, floor: profileHeadFloor(l, hl, up), cap: Infinity }; }) };
         }
         let option: EdgeOption;

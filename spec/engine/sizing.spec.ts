@@ -12,6 +12,7 @@ import { parsePriceCatalogue, type SizingCandidate } from '../../engine/sizing/p
 import { partitionNetwork } from '../../engine/sizing/regions';
 import { sizeNetwork } from '../../engine/sizing/size-network';
 import { solve } from '../../engine/steady';
+import { reviewChecklist } from '../../engine/review';
 import { pipeSizes } from '../../engine/pipe-catalogue';
 
 const demoCandidates = parsePriceCatalogue(demoPriceCatalogue()).candidates;
@@ -75,6 +76,16 @@ describe('pipe sizing (engine/sizing)', () => {
     }) };
     expect(solve(largest).warnings.filter((w) => w.code === 'below-minimum')).to.deep.equal([]);
     expect(r.cost).to.be.below(largestCost);
+  });
+
+  it('with the review\'s working share, the sized demo passes the review\'s rating, share and surge checks on every sized pipe (engine/review)', () => {
+    const r = sizeNetwork(hillSmallholding, demoCandidates, { ratingFraction: 0.72 });
+    const sized = new Set(r.choices.map((c) => c.pipe));
+    const failing = reviewChecklist(r.document).rows.filter((row) => row.status === 'fail' && row.element && sized.has(row.element));
+    expect(failing.map((row) => row.key)).to.deep.equal([]);
+    // without the surge requirement the cheapest design is allowed to fail it somewhere
+    const loose = sizeNetwork(hillSmallholding, demoCandidates, { ratingFraction: 0.72, surge: false });
+    expect(loose.cost).to.be.at.most(r.cost);
   });
 
   it('a higher --min-pressure-m costs at least as much; an impossible one is reported, not faked', () => {
