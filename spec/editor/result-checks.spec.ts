@@ -34,8 +34,18 @@ describe('Layout editor: result warnings', () => {
       { code: 'not-converged', element: null, message: 'The solver did not converge' },
     ] as SteadyResult['warnings']), 'si');
     expect(w.get('P1')?.[0]).to.match(/pressure rating \(49 kPa\).*follow local codes/);
-    expect(w.get('O1')).to.deep.equal(['O1: not connected to a source or tank']);
+    expect(w.get('O1')).to.deep.equal(['not connected to a source or tank']);
     expect(documentWarnings(result([{ code: 'not-converged', element: null, message: 'The solver did not converge' }] as SteadyResult['warnings']))).to.deep.equal(['The solver did not converge']);
+  });
+
+  it('shows names, not ids: the leading id goes (the warning sits under the element\'s name) and ids inside a message become names', () => {
+    const named: NetworkDocument = { ...doc, nodes: doc.nodes.map((n) => ({ ...n, name: n.id === 'T1' ? 'Ridge tank' : 'Garden tap' })) };
+    const res = result([
+      { code: 'disconnected', element: 'O1', message: 'O1: no open path to a source or tank' },
+      { code: 'tank-empty', element: null, message: 'T1 and O1 are not joined (T10 is not an element)' },
+    ] as SteadyResult['warnings']);
+    expect(resultWarnings(named, res, 'si').get('O1')).to.deep.equal(['no open path to a source or tank']);
+    expect(documentWarnings(res, named)).to.deep.equal(['Ridge tank and Garden tap are not joined (T10 is not an element)']);
   });
 
   it('gives nothing without results', () => {

@@ -15,6 +15,8 @@ import { formatQuantity, UnitSystem } from '../../../../../engine/units';
 import { ProjectContext } from '../../core/project-context';
 import { profileMarkers } from '../profile/profile-markers';
 import { ProfileSelection } from '../profile/profile-selection';
+import { serviceStates } from '../../../../../engine/service-state';
+import type { UnitSystem } from '../../../../../engine/units';
 import { SessionService } from '../../core/session.service';
 import { Router } from '@angular/router';
 import { LayoutReview } from '../review/layout-review';
@@ -24,7 +26,6 @@ import { CanvasView, scaleBar } from './canvas/canvas-view';
 import { PlanMarkers } from './canvas/markers';
 import { createEditor } from './create-editor';
 import { backdropOf } from './editor/calibration';
-import { legendStops } from './editor/colour-scale';
 import { markTypedLengths } from './editor/document-store';
 import { resultWarnings } from './editor/result-checks';
 import type { SaveStatus } from './editor/save-controller';
@@ -136,6 +137,11 @@ export class LayoutScreen {
   readonly solveMs = computed(() => this.solver.lastMs());
   readonly solveError = computed(() => this.solver.error());
   readonly warnings = computed(() => resultWarnings(this.doc(), this.results(), this.units()));
+  /** What the results mean per element: outlet verdicts, rating shares, tank water, pipe work. */
+  readonly service = computed(() => {
+    const r = this.results();
+    return r ? serviceStates(this.doc(), r) : null;
+  });
   readonly selectedElement = computed(() => {
     const sel = this.selection();
     if (sel.length !== 1) return null;
@@ -148,9 +154,6 @@ export class LayoutScreen {
     this.viewTick();
     return scaleBar(1 / this.editor.viewport.scale, this.units());
   });
-  readonly legend = computed(() =>
-    legendStops(6).map((s) => ({ colour: s.colour, label: formatQuantity('pressure', s.margin_m, this.units(), 0) })),
-  );
   readonly toolHint = computed(() => {
     const t = this.tool();
     if (t.id === 'link') return `Click the start element, click for bends, click the end element. Esc cancels, Backspace removes a bend.`;
@@ -256,7 +259,7 @@ export class LayoutScreen {
   }
 
   private overlayInput() {
-    return { results: this.results(), units: this.units(), warnings: this.warnings(), show: this.showResults() };
+    return { results: this.results(), service: this.service(), units: this.units(), warnings: this.warnings(), show: this.showResults() };
   }
 
   /** Hand the committed document to the panels and autosave. */
@@ -276,10 +279,10 @@ export class LayoutScreen {
     this.view = view;
     view.setOverlay(this.overlayInput());
     view.setSurvey(this.survey());
-    // Labels keep clear of the legend and the scale bar drawn over the canvas corners.
+    // Labels keep clear of the scale bar drawn over the canvas corner.
     view.setReservedAreas(() => {
       const r = el.getBoundingClientRect();
-      return Array.from(el.parentElement?.querySelectorAll('.scale-bar, .legend') ?? []).map((e) => {
+      return Array.from(el.parentElement?.querySelectorAll('.scale-bar') ?? []).map((e) => {
         const b = e.getBoundingClientRect();
         return { x: b.left - r.left - 4, y: b.top - r.top - 4, w: b.width + 8, h: b.height + 8 };
       });

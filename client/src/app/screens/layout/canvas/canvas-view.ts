@@ -9,6 +9,7 @@ import type { SurveyPoint } from '../editor/survey';
 import { LINK_KINDS, NODE_KINDS } from '../kinds';
 import { BackdropLayer } from './backdrop-layer';
 import { BankHeaders } from './bank-headers';
+import { CrossingMarks } from './crossing-marks';
 import { drawShapes, FONT, LABEL, SELECT } from './draw';
 import { drawGrid } from './grid';
 import { LabelLayout } from './label-layout';
@@ -38,6 +39,7 @@ export class CanvasView {
   private readonly dragLayer = new Konva.Layer({ listening: false });
   private readonly views: SceneViews = { nodes: new Map<string, NodeView>(), links: new Map<string, LinkView>() };
   private readonly headers: BankHeaders;
+  private readonly crossings: CrossingMarks;
   private readonly backdrop: BackdropLayer;
   private readonly overlayMarks: ResultOverlay;
   private readonly labels: LabelLayout;
@@ -50,7 +52,7 @@ export class CanvasView {
   private viewVersion = 0;
   private renderedView = -1;
   private selectionShown = new Set<string>();
-  private overlay: OverlayInput = { results: null, units: 'us', warnings: new Map(), show: true };
+  private overlay: OverlayInput = { results: null, service: null, units: 'us', warnings: new Map(), show: true };
   private overlayDirty = true;
   private lifted = new Set<string>();
   private survey: SurveyPoint[] = [];
@@ -60,6 +62,7 @@ export class CanvasView {
   constructor(container: HTMLDivElement, private readonly editor: Editor, backdropSrc: (fileId: string) => string, markers = new PlanMarkers()) {
     this.stage = new Konva.Stage({ container, width: container.clientWidth || 800, height: container.clientHeight || 600, listening: false });
     this.headers = new BankHeaders(editor);
+    this.crossings = new CrossingMarks(editor.viewport, this.views);
     this.backdrop = new BackdropLayer(backdropSrc, () => {
       this.viewVersion++;
       this.schedule();
@@ -74,6 +77,8 @@ export class CanvasView {
     this.contentLayer.add(this.linkLayer, this.nodeLayer);
     this.overlayLayer.add(this.labels.bankBadges);
     this.linkLayer.add(this.headers.group);
+    // Crossing marks sit over every line and under every node symbol.
+    this.nodeLayer.add(this.crossings.group);
     this.baseLayer.add(this.backdrop.group);
     this.baseLayer.add(new Konva.Shape({ listening: false, perfectDrawEnabled: false, sceneFunc: (ctx) => drawGrid(ctx, editor.viewport, editor.grid.step_m) }));
     editor.resize(this.stage.width(), this.stage.height());
@@ -97,7 +102,7 @@ export class CanvasView {
 
   setOverlay(o: OverlayInput): void {
     const was = this.overlay;
-    if (was.results === o.results && was.units === o.units && was.warnings === o.warnings && was.show === o.show) return;
+    if (was.results === o.results && was.service === o.service && was.units === o.units && was.warnings === o.warnings && was.show === o.show) return;
     this.overlay = o;
     this.overlayDirty = true;
     this.schedule();
@@ -152,6 +157,8 @@ export class CanvasView {
     this.selectionShown = new Set(selection);
     const overlayChanged = this.overlayDirty && this.overlayMarks.draw(doc.nodes, doc.links, this.overlay);
     if (overlayChanged) {
+      // Line widths say how hard each pipe works: the content layer changes with the results.
+      dirty.add(this.contentLayer);
       dirty.add(this.overlayLayer);
       this.labelsDirty = true;
     }
@@ -164,8 +171,8 @@ export class CanvasView {
     const geometryChanged = (viewChanged && !panOnly) || doc.nodes !== this.labelledNodes || doc.links !== this.labelledLinks || selection !== this.labelledSelection;
     if ((this.labelsDirty || geometryChanged) && ed.dragging.length === 0) {
       if (overlayChanged && !geometryChanged) {
-        // New results only: the rings, arrows and tags (kept where they were) show this frame;
-        // the labels are placed again on the next one, so colours never wait for placement.
+        // New results only: the badges and line widths (badges kept where they were) show this
+        // frame; the labels are placed again on the next one, so states never wait for placement.
         this.schedule();
       } else {
         this.scaleSymbols(doc.nodes);
@@ -179,6 +186,7 @@ export class CanvasView {
       }
     }
     if (this.headers.draw(doc.nodes, viewChanged)) dirty.add(this.contentLayer);
+    if (dirty.has(this.contentLayer) || dirty.has(this.dragLayer)) this.crossings.draw(doc, ed.dragging.length > 0);
     if (viewChanged) {
       dirty.add(this.baseLayer);
       dirty.add(this.overlayLayer);
@@ -245,6 +253,7 @@ export class CanvasView {
       const pts = linkPoints(l, byId).map((p) => ed.viewport.toScreen(p));
       const flat = pts.flatMap((p) => [p.x, p.y]);
       v.line.points(flat);
+      v.hatch.points(flat);
       v.halo.points(flat);
       v.halo.visible(selected);
       const mid = polylineMidpoint(pts);
@@ -264,7 +273,7 @@ export class CanvasView {
     dirty.add(this.contentLayer);
   }
 
-  /** Draw each node's symbol, halo and pressure ring at its crowding- and zoom-dependent scale. */
+  /** Draw each node's symbol, halo and state marks at its crowding- and zoom-dependent scale. */
   private scaleSymbols(nodes: NetworkNode[]): void {
     for (const n of nodes) {
       const v = this.views.nodes.get(n.id);
@@ -314,7 +323,7 @@ export class CanvasView {
     overlay.add(marks);
     this.overlayLayer.add(overlay);
     this.nodeLayer.add(group);
-    const v: NodeView = { rec: n, group, symbol, halo, label, overlay, marks, tag: null, tagText: '', scale: 1, symbolKey: '' };
+    const v: NodeView = { rec: n, group, symbol, halo, label, overlay, marks, tag: null, tagText: '', scale: 1, symbolKey: '', urgent: false };
     this.rebuildSymbol(v, n);
     return v;
   }
@@ -332,13 +341,14 @@ export class CanvasView {
     const group = new Konva.Group({ listening: false });
     const halo = new Konva.Line({ stroke: SELECT, strokeWidth: 9, opacity: 0.35, lineCap: 'round', lineJoin: 'round', visible: false, listening: false, perfectDrawEnabled: false });
     const line = new Konva.Line({ stroke: def.stroke.colour, strokeWidth: def.stroke.widthPx, dash: def.stroke.dash, lineCap: 'round', lineJoin: 'round', listening: false, perfectDrawEnabled: false });
+    const hatch = new Konva.Line({ stroke: '#ffffff', strokeWidth: 2, dash: [5, 4], lineCap: 'butt', lineJoin: 'round', visible: false, listening: false, perfectDrawEnabled: false });
     const mid = new Konva.Group({ listening: false });
     mid.add(...drawShapes(def.midSymbol(l)));
-    group.add(halo, line, mid);
+    group.add(halo, line, hatch, mid);
     const overlay = new Konva.Group({ listening: false });
     this.overlayLayer.add(overlay);
     this.linkLayer.add(group);
-    return { rec: l, from: undefined, to: undefined, group, line, halo, mid, overlay, speed: null, speedText: '', arrowAt: null };
+    return { rec: l, from: undefined, to: undefined, group, line, halo, hatch, mid, overlay, note: null, noteText: '' };
   }
 }
 

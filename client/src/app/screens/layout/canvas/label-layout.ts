@@ -7,18 +7,18 @@ import type { Viewport } from '../editor/viewport';
 import { NODE_KINDS } from '../kinds';
 import type { BankView } from './bank-headers';
 import { FONT, LABEL, SYMBOL_HALF, textWidth } from './draw';
-import { RING_R, SPEED_FONT, TAG_FONT, TAG_PAD } from './result-overlay';
+import { SIZE_FONT, TAG_FONT, TAG_PAD } from './result-overlay';
 import type { SceneViews } from './views';
 
 const NAME_FONT = 11;
 const NAME_H = 13;
-/** Links shorter than this on screen show no mid-line symbol, arrow or velocity. */
+/** Links shorter than this on screen show no mid-line symbol or size. */
 const MIN_MARKED_LINK_PX = 30;
 
 /**
- * Places names, pressure tags, bank badges and velocities (`label-placement.ts`): selected
+ * Places names, state badges, bank badges and pipe sizes (`label-placement.ts`): selected
  * elements first, then by the kind's label rank (outlets, tanks and sources, tees), pipe
- * velocities last. Each label keeps clear of every symbol, ring, mid-line symbol and arrow, of
+ * sizes last. Each label keeps clear of every symbol, state mark and mid-line symbol, of
  * the reserved screen areas (legend, scale bar) and of labels already placed; one that fits
  * nowhere is hidden (hover shows it).
  */
@@ -57,7 +57,7 @@ export class LabelLayout {
       const p = vp.toScreen({ x: n.x_m ?? 0, y: n.y_m ?? 0 });
       screenOf.set(n.id, p);
       if (!onScreen(p)) continue;
-      const r = (v.tag !== null ? RING_R + 2.5 : SYMBOL_HALF + 1) * v.scale;
+      const r = (v.tag !== null ? SYMBOL_HALF + 5 : SYMBOL_HALF + 1) * v.scale;
       obstacles.push(symbolBox(p, r));
       const nameW = textWidth(n.name || n.id, NAME_FONT);
       const variants: { w: number; h: number }[] = [];
@@ -69,7 +69,7 @@ export class LabelLayout {
       else if (showName) variants.push({ w: nameW, h: NAME_H });
       if (!variants.length) continue;
       const sides: readonly Side[] = v.tag ? POINT_SIDES : ['below', 'right', 'left', 'above', 'below-right', 'below-left', 'above-right', 'above-left'];
-      requests.push({ id: n.id, priority: selection.has(n.id) ? 0 : NODE_KINDS[n.kind].labelRank, candidates: around(p, r, variants, sides) });
+      requests.push({ id: n.id, priority: selection.has(n.id) ? 0 : v.urgent ? 0.5 : NODE_KINDS[n.kind].labelRank, candidates: around(p, r, variants, sides) });
     }
     for (const [bank, b] of banks) {
       const w = textWidth(b.text, 10) + 8;
@@ -85,20 +85,18 @@ export class LabelLayout {
       if (!onScreen(mid)) continue;
       const pts = linkPoints(l, byId).map((q) => vp.toScreen(q));
       lines.push(...lineBoxes(pts));
-      // Mid-line symbols and arrows only where the line is long enough on screen to hold them.
+      // Mid-line symbols and sizes only where the line is long enough on screen to hold them.
       const roomy = polylineScreenLength(pts) >= MIN_MARKED_LINK_PX;
       v.mid.visible(roomy);
-      v.overlay.findOne('.arrow')?.visible(roomy);
       if (!roomy) {
-        v.speed?.visible(false);
+        v.note?.visible(false);
         continue;
       }
-      if (v.mid.hasChildren()) obstacles.push(symbolBox(mid, 11));
-      if (v.arrowAt) obstacles.push(symbolBox({ x: mid.x + v.arrowAt.x, y: mid.y + v.arrowAt.y }, 6));
-      if (!v.speed) continue;
+      if (v.mid.hasChildren()) obstacles.push(symbolBox(mid, 13));
+      if (!v.note) continue;
       const seg = segmentAtMiddle(pts);
       if (!seg) continue;
-      const size = { w: textWidth(v.speedText, SPEED_FONT) + 2, h: 12 };
+      const size = { w: textWidth(v.noteText, SIZE_FONT) + 2, h: 12 };
       requests.push({ id: l.id, priority: selection.has(l.id) ? 0 : 4, candidates: besideLine(seg[0], seg[1], size) });
     }
     this.placed = placeLabels(requests, obstacles, { x: 2, y: 2, w: vp.width - 4, h: vp.height - 4 }, 2, lines);
@@ -133,12 +131,12 @@ export class LabelLayout {
     }
     for (const l of links) {
       const v = this.views.links.get(l.id);
-      if (!v?.speed) continue;
+      if (!v?.note) continue;
       const at = this.placed.get(l.id);
-      v.speed.visible(!!at);
+      v.note.visible(!!at);
       if (!at) continue;
       const mid = v.mid.position();
-      v.speed.position({ x: at.box.x - mid.x + 1, y: at.box.y - mid.y + 1 });
+      v.note.position({ x: at.box.x - mid.x + 1, y: at.box.y - mid.y + 1 });
     }
     this.bankBadges.destroyChildren();
     for (const [bank, b] of banks) {
@@ -158,7 +156,7 @@ function polylineScreenLength(pts: Point[]): number {
   return total;
 }
 
-/** The screen segment holding the middle of a polyline (where the flow arrow sits). */
+/** The screen segment holding the middle of a polyline (where the size is written). */
 function segmentAtMiddle(pts: Point[]): [Point, Point] | null {
   const total = polylineScreenLength(pts);
   let walked = 0;

@@ -5,21 +5,47 @@ import { formatQuantity } from '../../../../../../engine/units';
 import { marginColour } from '../editor/colour-scale';
 import { LINK_KINDS, NODE_KINDS } from '../kinds';
 import { badge, FONT, LABEL, SELECT } from './draw';
+import type { ServiceStates } from '../../../../../../engine/service-state';
+import { BadgeTone, nodeBadge, pipeSizeText, workStroke } from '../editor/plan-words';
+import { LINK_KINDS } from '../kinds';
+import { badge, FONT } from './draw';
 import type { OverlayInput, SceneViews } from './views';
 
-/** Pressure ring radius at full symbol size, px (5 px stroke). */
-export const RING_R = 17;
 export const TAG_FONT = 11;
 export const TAG_PAD = 3;
-export const SPEED_FONT = 10;
+export const SIZE_FONT = 10;
+
+/** Ink of each badge tone: fill, border, text. Fine is quiet; only trouble is loud. */
+export const TONES: Record<BadgeTone, { fill: string; stroke: string; text: string; dash?: number[] }> = {
+  ok: { fill: '#f1f7f2', stroke: '#3f7d4e', text: '#1f4d29' },
+  close: { fill: '#fff5dc', stroke: '#8a6100', text: '#5c4100' },
+  short: { fill: '#b3261e', stroke: '#7a1712', text: '#ffffff' },
+  'near-rating': { fill: '#fbeef8', stroke: '#7b2266', text: '#6b1d5c', dash: [3, 2] },
+  'over-rating': { fill: '#6b1d5c', stroke: '#4a1040', text: '#ffffff' },
+  tank: { fill: '#eef4f8', stroke: '#5b7486', text: '#24323d' },
+  quiet: { fill: '#ffffff', stroke: '#9aa6b0', text: '#24323d' },
+};
+
+/** The mark on the symbol itself (bottom right), so an outlet's state reads even where its badge has no room. */
+function stateMark(tone: BadgeTone): Konva.Shape[] {
+  const t = TONES[tone];
+  const at = { x: 11, y: 11 };
+  const disc = new Konva.Circle({ ...at, radius: 5.5, fill: t.fill, stroke: t.stroke, strokeWidth: 1.5, listening: false });
+  const glyph =
+    tone === 'ok' ? new Konva.Line({ points: [at.x - 2.6, at.y, at.x - 0.6, at.y + 2, at.x + 2.8, at.y - 2], stroke: t.text, strokeWidth: 1.6, lineCap: 'round', lineJoin: 'round', listening: false })
+    : tone === 'close' ? new Konva.Line({ points: [at.x - 2.6, at.y, at.x + 2.6, at.y], stroke: t.text, strokeWidth: 1.8, lineCap: 'round', listening: false })
+    : new Konva.Text({ x: at.x - 4, y: at.y - 4.5, width: 8, align: 'center', text: '!', fontFamily: FONT, fontStyle: 'bold', fontSize: 9, fill: t.text, listening: false });
+  return [disc, glyph];
+}
 
 /**
- * The results drawn over the plan: a ring in the margin colour and a pressure tag on each node
- * whose kind shows pressure, a flow arrow and velocity on links, a badge on warned elements.
- * Keeps what each element shows so a new solve touches only what changed.
+ * The results drawn over the plan: each element's badge in the farm's words (plan-words.ts), a
+ * state mark on outlet symbols, pipes drawn as wide as they work hard with their size beside them,
+ * and a warning badge on warned elements. No colour ramp, no arrows: the plan answers "is each
+ * outlet OK, close or short?" directly. Keeps what each element shows so a new solve touches
+ * only what changed.
  */
 export class ResultOverlay {
-  /** What each element's overlay shows now, to skip unchanged ones. */
   private readonly keys = new Map<string, string>();
 
   constructor(private readonly views: SceneViews) {}
@@ -28,7 +54,7 @@ export class ResultOverlay {
     this.keys.delete(id);
   }
 
-  /** Refresh result labels, arrows and badges; returns whether any element's overlay changed. */
+  /** Refresh badges, marks and line widths; returns whether any element's overlay changed. */
   draw(nodes: NetworkNode[], links: NetworkLink[], input: OverlayInput): boolean {
     let changed = false;
     for (const n of nodes) changed = this.drawNode(n, input) || changed;
@@ -36,7 +62,7 @@ export class ResultOverlay {
     return changed;
   }
 
-  private drawNode(n: NetworkNode, { results, units, warnings, show }: OverlayInput): boolean {
+  private drawNode(n: NetworkNode, { service, units, warnings, show }: OverlayInput): boolean {
     const v = this.views.nodes.get(n.id);
     if (!v) return false;
     const def = NODE_KINDS[n.kind];
@@ -51,77 +77,66 @@ export class ResultOverlay {
     // Rebuild only what changed: most solves move few labels.
     const warned = show && !!w?.length;
     const key = `${text}|${colour}|${warned}`;
+    const b = show ? nodeBadge(n, service?.nodes[n.id], units) : null;
+    const warned = show && !!warnings.get(n.id)?.length;
+    const key = `${b?.text ?? ''}|${b?.tone ?? ''}|${warned}`;
     const before = this.keys.get(n.id);
     if (before === key) return false;
     this.keys.set(n.id, key);
-    // Same marks, new numbers (most solves): recolour the ring and retext the tag in place.
-    if (hasPressure && v.tag && before?.endsWith(`|${warned}`) && before.split('|')[0]) {
-      (v.marks.findOne('.ring') as Konva.Circle | undefined)?.stroke(colour);
-      v.tag.getTag().stroke(colour);
-      v.tag.getText().text(text);
-      v.tagText = text;
+    // Same tone, new numbers (most solves): retext in place; the tag keeps its place until the
+    // labels are placed again (next frame).
+    v.urgent = !!b && (b.tone === 'short' || b.tone === 'near-rating' || b.tone === 'over-rating');
+    if (b && v.tag && before?.split('|')[1] === b.tone && before.endsWith(`|${warned}`)) {
+      v.tag.getText().text(b.text);
+      v.tagText = b.text;
       return true;
     }
     v.marks.destroyChildren();
-    // A new tag takes the old one's place until the labels are placed again (next frame).
-    const was = v.tag ? { x: v.tag.x(), y: v.tag.y(), visible: v.tag.visible() } : { x: 19, y: -22, visible: false };
+    const was = v.tag ? { x: v.tag.x(), y: v.tag.y(), visible: v.tag.visible() } : { x: 16, y: -22, visible: false };
     v.tag?.destroy();
     v.tag = null;
-    v.tagText = text;
-    if (hasPressure) {
-      v.marks.add(new Konva.Circle({ name: 'ring', radius: RING_R, stroke: colour, strokeWidth: 5, listening: false, perfectDrawEnabled: false }));
+    v.tagText = b?.text ?? '';
+    if (b) {
+      const t = TONES[b.tone];
       v.tag = new Konva.Label({ ...was, listening: false }).add(
-        new Konva.Tag({ fill: '#ffffff', stroke: colour, strokeWidth: 1.5, cornerRadius: 3, listening: false }),
-        new Konva.Text({ text, padding: TAG_PAD, fontFamily: FONT, fontSize: TAG_FONT, fontStyle: 'bold', fill: LABEL, listening: false }),
+        new Konva.Tag({ fill: t.fill, stroke: t.stroke, strokeWidth: 1.2, dash: t.dash, cornerRadius: 8, listening: false }),
+        new Konva.Text({ text: b.text, padding: TAG_PAD, fontFamily: FONT, fontSize: TAG_FONT, fontStyle: 'bold', fill: t.text, listening: false }),
       );
       v.overlay.add(v.tag);
+      if (n.kind === 'outlet' || b.tone === 'near-rating' || b.tone === 'over-rating' || b.tone === 'short') v.marks.add(...stateMark(b.tone));
     }
     if (warned) v.marks.add(...badge(-15, -17));
     return true;
   }
 
-  private drawLink(l: NetworkLink, { results, units, warnings, show }: OverlayInput): boolean {
+  private drawLink(l: NetworkLink, { service, units, warnings, show }: OverlayInput): boolean {
     const v = this.views.links.get(l.id);
     if (!v) return false;
-    const r = results?.links[l.id];
-    const w = warnings.get(l.id);
-    const flows = show && r && Math.abs(r.flow_m3s) > 1e-9;
-    const angle = flows ? v.mid.rotation() + (r.flow_m3s < 0 ? 180 : 0) : 0;
-    const speed = flows && LINK_KINDS[l.kind].showsVelocity ? formatQuantity('velocity', Math.abs(r.velocity_ms), units) : '';
-    const warned = show && !!w?.length;
-    const key = `${flows}|${angle.toFixed(1)}|${speed}|${warned}`;
-    const before = this.keys.get(l.id);
-    if (before === key) return false;
+    const s = show ? service?.links[l.id] : undefined;
+    const isPipe = LINK_KINDS[l.kind].showsVelocity;
+    const stroke = isPipe && s ? workStroke(s.work) : null;
+    const size = isPipe && show ? pipeSizeText(l, units) : '';
+    const warned = show && !!warnings.get(l.id)?.length;
+    const key = `${s?.work ?? ''}|${size}|${warned}`;
+    if (this.keys.get(l.id) === key) return false;
     this.keys.set(l.id, key);
-    // Same arrow, new speed: retext in place.
-    const [bf, ba, bs, bw] = before?.split('|') ?? [];
-    if (speed && v.speed && bs && bf === String(flows) && ba === angle.toFixed(1) && bw === String(warned)) {
-      v.speed.text(speed);
-      v.speedText = speed;
-      return true;
-    }
-    const wasSpeed = v.speed ? { x: v.speed.x(), y: v.speed.y(), visible: v.speed.visible() } : { x: 0, y: 0, visible: false };
+    const def = LINK_KINDS[l.kind].stroke;
+    v.line.strokeWidth(stroke?.width ?? def.widthPx);
+    v.line.dash(stroke?.dash ?? def.dash ?? []);
+    v.hatch.visible(!!stroke?.hatch);
+    v.hatch.strokeWidth(Math.max(1, (stroke?.width ?? 2) - 3.5));
+    const wasNote = v.note ? { x: v.note.x(), y: v.note.y(), visible: v.note.visible() } : { x: 0, y: 0, visible: false };
     v.overlay.destroyChildren();
-    v.speed = null;
-    v.speedText = speed;
-    v.arrowAt = null;
-    if (flows) {
-      // Beside the mid-line symbol when there is one, else on the line's middle.
-      const offset = v.mid.hasChildren() ? 18 : 0;
-      const rad = (angle * Math.PI) / 180;
-      const arrow = new Konva.Line({
-        name: 'arrow', points: [-6, -5, 4, 0, -6, 5], closed: true, fill: SELECT, listening: false, perfectDrawEnabled: false,
-        x: Math.cos(rad) * offset, y: Math.sin(rad) * offset, rotation: angle,
-      });
-      v.overlay.add(arrow);
-      v.arrowAt = { x: arrow.x(), y: arrow.y() };
-      if (speed) {
-        // Placed beside the line by the label layout, or hidden when the pipe is short on screen.
-        v.speed = new Konva.Text({ text: speed, fontFamily: FONT, fontSize: SPEED_FONT, fill: SELECT, listening: false, ...wasSpeed });
-        v.overlay.add(v.speed);
-      }
+    v.note = null;
+    v.noteText = size;
+    if (size) {
+      // Placed beside the line by the label layout, or hidden when the pipe is short on screen.
+      v.note = new Konva.Text({ text: size, fontFamily: FONT, fontSize: SIZE_FONT, fill: '#3d4b55', listening: false, ...wasNote });
+      v.overlay.add(v.note);
     }
     if (warned) v.overlay.add(...badge(10, -20));
     return true;
   }
 }
+
+export type { ServiceStates };

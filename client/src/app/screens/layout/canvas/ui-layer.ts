@@ -7,7 +7,6 @@ import type { Placement } from '../editor/label-placement';
 import type { SurveyPoint } from '../editor/survey';
 import { NODE_KINDS } from '../kinds';
 import { drawShapes, FONT, LABEL, SELECT, SYMBOL_HALF } from './draw';
-import { RING_R } from './result-overlay';
 import type { SceneViews } from './views';
 
 const SURVEY = '#6a4c93';
@@ -76,7 +75,7 @@ export class UiLayer {
     }
   }
 
-  /** A small card with the name and pressure of a hovered node whose labels are not all shown. */
+  /** A small card with the name and state of a hovered node whose labels are not all shown. */
   private hoverCard(n: NetworkNode, p: Point, k: number, placed: ReadonlyMap<string, Placement>): void {
     const v = this.views.nodes.get(n.id);
     if (!v) return;
@@ -84,7 +83,7 @@ export class UiLayer {
     const full = at && at.variant === 0 && v.label.visible();
     if (full || this.editor.dragging.length) return;
     const text = v.tagText ? `${n.name || n.id}\n${v.tagText}` : n.name || n.id;
-    const r = (v.tag ? RING_R + 3 : SYMBOL_HALF + 2) * k;
+    const r = (SYMBOL_HALF + 6) * k;
     const card = new Konva.Label({ x: p.x + r + 4, y: p.y - r, listening: false });
     card.add(
       new Konva.Tag({ fill: '#ffffff', stroke: '#9aa6b0', strokeWidth: 1, cornerRadius: 4, shadowColor: 'rgba(0,0,0,0.18)', shadowBlur: 6, shadowOffsetY: 2, listening: false }),

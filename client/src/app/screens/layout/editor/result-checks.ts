@@ -19,7 +19,8 @@ export function resultWarnings(doc: NetworkDocument, res: SteadyResult | null, u
     const lr = res.links[w.element];
     const node = nodes.get(w.element);
     const link = links.get(w.element);
-    let text = w.message;
+    // Listed under the element's name, so the engine's leading "id:" goes; other ids become names.
+    let text = namesForIds(w.message.replace(new RegExp(`^${escapeRe(w.element)}:\\s*`), ''), doc);
     if (w.code === 'below-minimum' && nr && node?.kind === 'outlet' && node.min_pressure_m !== undefined) {
       text = `Below minimum pressure: ${p(nr.pressure_m)} < ${p(node.min_pressure_m)}`;
     } else if (w.code === 'negative-pressure' && nr) {
@@ -34,7 +35,20 @@ export function resultWarnings(doc: NetworkDocument, res: SteadyResult | null, u
   return out;
 }
 
-/** Warnings about the whole document (not converged, no fixed head…). */
-export function documentWarnings(res: SteadyResult | null): string[] {
-  return res ? res.warnings.filter((w) => !w.element).map((w) => w.message) : [];
+/** Warnings about the whole document (not converged, no fixed head…), with element names for ids. */
+export function documentWarnings(res: SteadyResult | null, doc?: NetworkDocument): string[] {
+  return res ? res.warnings.filter((w) => !w.element).map((w) => (doc ? namesForIds(w.message, doc) : w.message)) : [];
+}
+
+/** Replace each element id standing alone in a message by the element's name (ids stay where no name is set). */
+export function namesForIds(message: string, doc: NetworkDocument): string {
+  const names = new Map<string, string>();
+  for (const e of [...doc.nodes, ...doc.links]) if (e.name && e.name !== e.id) names.set(e.id, e.name);
+  if (!names.size) return message;
+  const ids = [...names.keys()].sort((a, b) => b.length - a.length).map(escapeRe);
+  return message.replace(new RegExp(`(?<![\\w-])(${ids.join('|')})(?![\\w-])`, 'g'), (id) => names.get(id) ?? id);
+}
+
+function escapeRe(s: string): string {
+  return s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 }

@@ -14,16 +14,47 @@ const VALVE_TYPES: { value: ValveType; label: string }[] = [
   { value: 'float', label: 'Float (fills a tank)' },
 ];
 
-/** Valve: two triangles meeting at their tips; a mark on top tells the type apart. */
+const FLOAT = '#cfe6f3';
+
+/**
+ * Valves drawn from the hardware on a farm line (the line runs along x, downstream to the right):
+ * - shut-off: a ball valve, its lever along the pipe when open and across it when shut;
+ * - check: a body with the hinged flap inside, hanging from its pin, that lets water one way;
+ * - pressure reducer: a body with the adjusting spring on top;
+ * - float: a body with the lever arm out to a ball float.
+ */
 function body(v: ValveLink): ShapeSpec[] {
-  const closed = v.valve_type === 'shutoff' && v.open === false;
-  const base: ShapeSpec[] = [
-    { t: 'poly', points: [-10, -7, 0, 0, -10, 7], closed: true, fill: closed ? INK : PAPER, stroke: INK, sw: 2 },
-    { t: 'poly', points: [10, -7, 0, 0, 10, 7], closed: true, fill: v.valve_type === 'check' || closed ? INK : PAPER, stroke: INK, sw: 2 },
-  ];
-  if (v.valve_type === 'prv') base.push({ t: 'rect', x: -4, y: -15, w: 8, h: 7, fill: PAPER, stroke: INK, sw: 1.5 });
-  if (v.valve_type === 'float') base.push({ t: 'circle', y: -12, r: 4, fill: PAPER, stroke: INK, sw: 1.5 });
-  return base;
+  switch (v.valve_type) {
+    case 'check':
+      return [
+        { t: 'rect', x: -9, y: -6.5, w: 18, h: 13, fill: PAPER, stroke: INK, sw: 2, corner: 2 },
+        { t: 'poly', points: [-3.5, -4.5, 3.5, 4], stroke: INK, sw: 2.2 },
+        { t: 'circle', x: -3.5, y: -4.5, r: 1.6, fill: INK },
+        { t: 'poly', points: [4.5, -4.5, 4.5, 1], stroke: INK, sw: 1 },
+      ];
+    case 'prv':
+      return [
+        { t: 'rect', x: -8, y: -6, w: 16, h: 12, fill: PAPER, stroke: INK, sw: 2, corner: 2 },
+        { t: 'poly', points: [0, -6, -3, -8, 3, -10, -3, -12, 3, -14, 0, -16], stroke: INK, sw: 1.3 },
+        { t: 'rect', x: -4, y: -19, w: 8, h: 3, fill: INK },
+        { t: 'poly', points: [-4, 2, 4, 2], stroke: INK, sw: 1.2 },
+      ];
+    case 'float':
+      return [
+        { t: 'rect', x: -7, y: -6, w: 14, h: 12, fill: PAPER, stroke: INK, sw: 2, corner: 2 },
+        { t: 'poly', points: [0, -6, 9, -13], stroke: INK, sw: 1.6 },
+        { t: 'circle', x: 12, y: -14, r: 4.5, fill: FLOAT, stroke: INK, sw: 1.5 },
+      ];
+    default: {
+      const shut = v.open === false;
+      return [
+        { t: 'circle', r: 7, fill: shut ? INK : PAPER, stroke: INK, sw: 2 },
+        { t: 'poly', points: shut ? [0, -4, 0, 4] : [-4, 0, 4, 0], stroke: shut ? PAPER : INK, sw: 2 },
+        { t: 'poly', points: shut ? [0, -7, 0, -17] : [-1, -9.5, 12, -9.5], stroke: INK, sw: 2.6 },
+        { t: 'circle', x: 0, y: -8.5, r: 1.8, fill: INK },
+      ];
+    }
+  }
 }
 
 export const valveKind: LinkKindDef<ValveLink> = {
