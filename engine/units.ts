@@ -11,7 +11,7 @@
 export type UnitSystem = 'us' | 'si';
 export type Quantity =
   | 'length' | 'elevation' | 'diameter' | 'flow' | 'pressure' | 'head' | 'velocity'
-  | 'volume' | 'area' | 'headloss-gradient' | 'daily-volume' | 'depth-rate' | 'duration';
+  | 'volume' | 'area' | 'headloss-gradient' | 'daily-volume' | 'depth-rate' | 'duration' | 'emitter-flow';
 
 const FOOT_M = 0.3048; // exact
 const INCH_M = 0.0254; // exact
@@ -72,6 +72,11 @@ const TABLE: Record<Quantity, Record<UnitSystem, UnitDef>> = {
   duration: {
     us: { label: 'h', fromSi: (v) => v / 3600, toSi: (v) => v * 3600, digits: 1 },
     si: { label: 'h', fromSi: (v) => v / 3600, toSi: (v) => v * 3600, digits: 1 },
+  },
+  /** A drip emitter's flow: m³/s inside, shown per hour (gph, L/h) as emitters are sold. */
+  'emitter-flow': {
+    us: { label: 'gph', fromSi: (v) => (v / US_GALLON_M3) * 3600, toSi: (v) => (v * US_GALLON_M3) / 3600, digits: 2 },
+    si: { label: 'L/h', fromSi: (v) => v * 3.6e6, toSi: (v) => v / 3.6e6, digits: 2 },
   },
   'headloss-gradient': {
     us: { label: 'ft/100 ft', fromSi: (v) => v * 100, toSi: (v) => v / 100, digits: 2 },

@@ -4,6 +4,7 @@
  */
 import { expect } from 'chai';
 import type { Editor } from '../../client/src/app/screens/layout/editor/editor';
+import { unsetElevations } from '../../client/src/app/screens/layout/editor/survey';
 import { createEditor } from '../../client/src/app/screens/layout/create-editor';
 import type { PointerInput } from '../../client/src/app/screens/layout/tools/tool';
 import type { PipeLink, TankNode } from '../../engine/network-document';
@@ -280,18 +281,33 @@ describe('Layout editor: scaling the backdrop only', () => {
 });
 
 describe('Layout editor: elevation of new elements', () => {
-  it('takes the nearest survey point, else the nearest node, else the kind default', () => {
+  const source = (ed: ReturnType<typeof editor>, id: string) => (ed.store.node(id) as { elevation_source?: string; elevation_from?: string } | undefined);
+
+  it('newcomer item 1: the first element has an unset elevation (marked, asked for), and so does one placed beside an unset one', () => {
+    const ed = editor();
+    ed.placeNode('tank', { x: 0, y: 0 });
+    expect(source(ed, 'T1')?.elevation_source).to.equal('unset');
+    expect(ed.message).to.match(/What is the ground elevation at T1\?/);
+    ed.placeNode('tee', { x: 20, y: 0 });
+    expect(source(ed, 'J1')?.elevation_source).to.equal('unset');
+    expect(unsetElevations(ed.store.doc)).to.deep.equal(['T1', 'J1']);
+  });
+
+  it('takes the nearest survey point, else the nearest node (marked with where it came from), else leaves it unset', () => {
     const ed = editor();
     ed.placeNode('tank', { x: 0, y: 0 });
     expect(ed.store.node('T1')?.elevation_m).to.equal(0);
-    ed.store.patchElement('T1', { elevation_m: 41 });
+    // What the Elevation field writes when a value is typed (kinds/kind-types.ts elevationField).
+    ed.store.patchElement('T1', { elevation_m: 41, elevation_source: undefined });
     ed.placeNode('tee', { x: 20, y: 0 });
     expect(ed.store.node('J1')?.elevation_m).to.equal(41);
+    expect(source(ed, 'J1')).to.include({ elevation_source: 'nearest', elevation_from: 'T1' });
     ed.store.patchLayout({ survey: { points: [{ x_m: 100, y_m: 0, elevation_m: 18 }] } });
     ed.placeNode('source', { x: 90, y: 0 });
     const s = ed.store.node('S1');
     expect(s?.elevation_m).to.equal(18);
     expect(s?.kind === 'source' && s.head_m).to.be.closeTo(18.3, 1e-9); // water surface keeps its 0.3 m over the box
+    expect(source(ed, 'S1')?.elevation_source).to.equal('survey');
   });
 });
 

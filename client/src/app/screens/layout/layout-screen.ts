@@ -29,7 +29,7 @@ import { backdropOf } from './editor/calibration';
 import { markTypedLengths } from './editor/document-store';
 import { resultWarnings } from './editor/result-checks';
 import type { SaveStatus } from './editor/save-controller';
-import { surveyPointsOf } from './editor/survey';
+import { surveyPointsOf, unsetElevations } from './editor/survey';
 import type { ToolId } from './tools/tool';
 import { NODE_KINDS, ShapeSpec } from './kinds';
 import { MessagesDialog, ShortcutsDialog } from './layout-dialogs';
@@ -138,9 +138,15 @@ export class LayoutScreen {
   readonly solveError = computed(() => this.solver.error());
   readonly warnings = computed(() => resultWarnings(this.doc(), this.results(), this.units()));
   /** What the results mean per element: outlet verdicts, rating shares, tank water, pipe work. */
+  /** Elements whose elevation nobody has given: asked for, and no pressures shown until then. */
+  readonly unset = computed(() => unsetElevations(this.doc()));
+  readonly unsetNames = computed(() => {
+    const ids = new Set(this.unset());
+    return this.doc().nodes.filter((n) => ids.has(n.id)).map((n) => n.name || n.id);
+  });
   readonly service = computed(() => {
     const r = this.results();
-    return r ? serviceStates(this.doc(), r) : null;
+    return r && !this.unset().length ? serviceStates(this.doc(), r) : null;
   });
   readonly selectedElement = computed(() => {
     const sel = this.selection();

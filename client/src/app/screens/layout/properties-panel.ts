@@ -7,6 +7,11 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import type { NetworkDocument, NetworkLink, NetworkNode, OutletNode } from '../../../../../engine/network-document';
+import type { SteadyResult } from '../../../../../engine/index';
+import type { ServiceStates } from '../../../../../engine/service-state';
+import { countFittings, minorLossAllowance } from '../../../../../engine/takeoff/index';
+import { FITTINGS } from '../../../../../engine/pipe-catalogue';
+import { ownResults } from './editor/own-results';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel, UnitSystem } from '../../../../../engine/units';
 import { lengthSource } from './editor/document-store';
 import { FieldSpec, fieldsFor, isNodeKind, LINK_KINDS, NODE_KINDS, patchForPath, readPath } from './kinds';
@@ -36,6 +41,8 @@ export class PropertiesPanel {
   readonly units = input<UnitSystem>('us');
   readonly readOnly = input(false);
   readonly surveyAvailable = input(false);
+  readonly results = input<SteadyResult | null>(null);
+  readonly service = input<ServiceStates | null>(null);
   readonly patch = output<ElementPatch>();
   readonly snapElevation = output<string>();
   readonly profileFromSurvey = output<string>();
@@ -59,6 +66,21 @@ export class PropertiesPanel {
     if (!el) return [];
     const def = isNodeKind(el.kind) ? NODE_KINDS[el.kind as NetworkNode['kind']] : LINK_KINDS[el.kind as NetworkLink['kind']];
     return (def.check as ((e: unknown, d: NetworkDocument) => string[]) | undefined)?.(el, this.doc()) ?? [];
+  });
+  /** The element's own results: its pressure, what it needs and its margin, its water, its flow. */
+  readonly own = computed(() => {
+    const el = this.element();
+    return el ? ownResults(el, this.doc(), this.results(), this.service(), this.units()) : [];
+  });
+  /** The pipe's fittings as the takeoff counts them, and the loss allowance they add up to. */
+  readonly fittings = computed(() => {
+    const el = this.element();
+    if (el?.kind !== 'pipe') return null;
+    const doc = this.doc();
+    const a = minorLossAllowance(doc, countFittings(doc))[el.id];
+    if (!a) return null;
+    const parts = a.parts.map((p) => `${p.count} × ${FITTINGS[p.fitting].label.toLowerCase()} (K ${p.k})`);
+    return { k: a.k, text: parts.length ? `${parts.join(' + ')} = K ${a.k}` : 'No fittings counted on this pipe (K 0)' };
   });
   readonly series = computed(() => catalogueSeries());
   readonly sizes = computed(() => {
@@ -93,6 +115,22 @@ export class PropertiesPanel {
     });
   }
 
+  label(f: FieldSpec): string {
+    const el = this.element();
+    return el && f.labelFor ? f.labelFor(el) : f.label;
+  }
+
+  hint(f: FieldSpec): string {
+    const el = this.element();
+    return (el && f.hintFor?.(el)) || f.hint || '';
+  }
+
+  useFittings(): void {
+    const el = this.element();
+    const f = this.fittings();
+    if (el && f) this.patch.emit({ id: el.id, patch: { minor_loss: f.k } });
+  }
+
   unit(f: FieldSpec): string {
     return f.quantity ? unitLabel(f.quantity, this.units()) : (f.suffix ?? '');
   }
@@ -100,7 +138,7 @@ export class PropertiesPanel {
   errorText(f: FieldSpec): string {
     const c = this.form.controls[controlName(f)];
     if (!c?.errors) return '';
-    if (c.errors['required']) return `${f.label} is required`;
+    if (c.errors['required']) return f.key === 'elevation_m' ? 'Not set yet: type the ground elevation here' : `${this.label(f)} is required`;
     if (c.errors['number']) return 'Enter a number';
     if (c.errors['min']) return `At least ${c.errors['min']}`;
     if (c.errors['max']) return `At most ${c.errors['max']}`;
@@ -109,7 +147,7 @@ export class PropertiesPanel {
   }
 
   private shown(el: NetworkNode | NetworkLink, f: FieldSpec, units: UnitSystem): unknown {
-    const v = readPath(el, f.key);
+    const v = f.read ? f.read(el) : readPath(el, f.key);
     if (f.type === 'checkbox') return f.key === 'open' ? v !== false : v === true;
     if (f.type === 'number' || f.type === 'length') {
       if (typeof v !== 'number') return '';
@@ -133,6 +171,8 @@ export class PropertiesPanel {
           { validators: [this.validator(f, units)], updateOn: text ? 'blur' : 'change' },
         );
         c.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe((v) => this.commit(f, c, v));
+        // An unset elevation is asked for at once, not after the field is visited.
+        if (c.invalid) c.markAsTouched();
         controls[controlName(f)] = c;
       }
     }
@@ -170,8 +210,10 @@ export class PropertiesPanel {
       this.patch.emit({ id: el.id, patch: { demand_model: defaultDemandModel(String(v), el as OutletNode) } });
       return;
     }
-    const patch = patchForPath(el, f.key, value);
+    const patch = f.write ? f.write(el, value as number | undefined) : patchForPath(el, f.key, value);
     if (f.type === 'length') patch['length_source'] = 'typed';
+    // A typed elevation is the designer's own: no longer unset or a guess.
+    if (f.key === 'elevation_m') Object.assign(patch, { elevation_source: undefined, elevation_from: undefined });
     this.patch.emit({ id: el.id, patch });
   }
 

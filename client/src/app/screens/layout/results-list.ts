@@ -5,7 +5,7 @@ import { pressureText, unsuppliedIds } from '../../../../../engine/profile/press
 import type { ServiceStates } from '../../../../../engine/service-state';
 import { formatQuantity, UnitSystem } from '../../../../../engine/units';
 import { TONES } from './canvas/result-overlay';
-import { BadgeTone, linkStateWords, nodeBadge, pipeSizeText, workStroke } from './editor/plan-words';
+import { BadgeTone, linkStateWords, nodeBadge, workStroke } from './editor/plan-words';
 import { documentWarnings } from './editor/result-checks';
 import { LINK_KINDS, NODE_KINDS } from './kinds';
 
@@ -48,6 +48,9 @@ const KEY_LINES: { work: 'light' | 'working' | 'hard' | 'over' | 'idle'; means: 
           }
         </ul>
       </details>
+      @if (unset().length) {
+        <p class="ask" data-testid="results-unset">Set the elevation of {{ unset().join(', ') }} to see pressures: until every element has its ground height, pressures would be guesses.</p>
+      }
       @for (m of general(); track $index) { <p class="warn" data-testid="results-general-warning">{{ m }}</p> }
       @if (!results()!.converged && rows().length) { <p class="warn">The solver did not converge; values are provisional.</p> }
       <ul data-testid="results-list">
@@ -73,26 +76,30 @@ const KEY_LINES: { work: 'light' | 'working' | 'hard' | 'over' | 'idle'; means: 
     .ms { font-weight: 400; font-size: 12px; color: #5b6770; margin-left: 6px; }
     .empty { color: #5b6770; font-size: 13px; }
     .warn { color: #8a1c14; font-size: 13px; }
+    .ask { color: #0f4c8a; background: #eef5fc; border: 1px dashed #1769c2; border-radius: 6px; padding: 6px 8px; font-size: 13px; }
     .key { font-size: 12px; color: #3d4b55; margin-bottom: 6px; }
     .key summary { cursor: pointer; color: #1769c2; }
     .key ul { margin: 4px 0 0; }
     .key li { display: flex; align-items: center; gap: 6px; padding: 2px 0; }
     .chip { border: 1px solid; border-radius: 8px; padding: 0 6px; font-weight: 600; font-size: 11px; white-space: nowrap; }
     ul { list-style: none; margin: 0; padding: 0; }
-    button { all: unset; box-sizing: border-box; cursor: pointer; width: 100%; display: grid; grid-template-columns: 1fr auto; gap: 1px 8px;
-      align-items: center; padding: 3px 6px; border-radius: 6px; font-size: 13px; }
+    button { all: unset; box-sizing: border-box; cursor: pointer; width: 100%; display: grid; grid-template-columns: minmax(0, 1fr) auto auto; gap: 1px 6px;
+      align-items: center; padding: 2px 6px; border-radius: 6px; font-size: 13px; line-height: 18px; }
+    .name { overflow: hidden; text-overflow: ellipsis; white-space: nowrap; }
     button:hover { background: #eef1f4; }
     button:focus-visible { outline: 2px solid #1769c2; }
     button.selected { background: #e3eefa; }
-    .value { font-variant-numeric: tabular-nums; color: #24323d; text-align: right; }
-    .state { grid-column: 1 / 3; justify-self: start; font-size: 11px; font-weight: 600; border: 1px solid #c5ccd2; border-radius: 8px; padding: 0 6px; color: #3d4b55; }
-    .w { grid-column: 1 / 3; color: #8a1c14; font-size: 12px; }
+    .value { grid-column: 3; font-variant-numeric: tabular-nums; color: #24323d; text-align: right; white-space: nowrap; }
+    .state { grid-column: 2; grid-row: 1; font-size: 11px; line-height: 15px; font-weight: 600; border: 1px solid #c5ccd2; border-radius: 8px; padding: 0 5px; color: #3d4b55; white-space: nowrap; }
+    .w { grid-column: 1 / 4; color: #8a1c14; font-size: 12px; }
   `,
 })
 export class ResultsList {
   readonly doc = input.required<NetworkDocument>();
   readonly results = input<SteadyResult | null>(null);
   readonly service = input<ServiceStates | null>(null);
+  /** Names of elements with no elevation yet: their pressures (and everyone's) wait for them. */
+  readonly unset = input<string[]>([]);
   readonly warnings = input<Map<string, string[]>>(new Map());
   readonly units = input<UnitSystem>('us');
   readonly selected = input<string[]>([]);
@@ -126,7 +133,8 @@ export class ResultsList {
         colour: showsPressure && !cutOff.has(n.id) ? marginColour(r.pressure_m - min) : null, warnings: warn.get(n.id) ?? [],
       });
       const badge = nodeBadge(n, svc?.nodes[n.id], u);
-      const value = n.kind === 'tank' && badge ? badge.text
+      const value = this.unset().length ? '—'
+        : n.kind === 'tank' && badge ? badge.text
         : NODE_KINDS[n.kind].showsPressure ? formatQuantity('pressure', r.pressure_m, u)
         : formatQuantity('head', r.head_m, u) + ' head';
       const state = badge && n.kind !== 'tank' ? badge.text : '';
@@ -136,12 +144,13 @@ export class ResultsList {
       const r = res.links[l.id];
       if (!r) continue;
       const flow = formatQuantity('flow', Math.abs(r.flow_m3s), u);
-      const size = pipeSizeText(l, u);
       const value = LINK_KINDS[l.kind].resultText(flow, formatQuantity('velocity', Math.abs(r.velocity_ms), u), formatQuantity('head', Math.max(0, -r.headloss_m), u));
       const s = svc?.links[l.id];
-      const state = linkStateWords(l, r.status, s);
       const tone: BadgeTone | null = r.status === 'check-closed' ? 'quiet' : s?.work === 'over' ? 'short' : s?.work === 'hard' ? 'close' : null;
-      rows.push({ id: l.id, name: l.name || l.id, kind: l.kind, value: size ? `${size} · ${value}` : value, state, tone, warnings: warn.get(l.id) ?? [] });
+      const state = tone === 'close' ? 'working hard' : tone === 'short' ? 'too fast' : linkStateWords(l, r.status, s);
+      // Only what deserves a look: a shut or check-held line, a pipe working hard or too hard.
+      const shown = tone !== null || r.status === 'closed';
+      rows.push({ id: l.id, name: l.name || l.id, kind: l.kind, value, state: shown ? state : '', tone, warnings: warn.get(l.id) ?? [] });
     }
     // Warned first, then trouble (short, over rating), then the rest in document order.
     const rank = (r: Row) => (r.warnings.length ? 0 : r.tone === 'short' || r.tone === 'over-rating' ? 1 : r.tone === 'near-rating' || r.tone === 'close' ? 2 : 3);

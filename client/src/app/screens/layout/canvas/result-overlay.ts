@@ -23,6 +23,7 @@ export const TONES: Record<BadgeTone, { fill: string; stroke: string; text: stri
   'near-rating': { fill: '#fbeef8', stroke: '#7b2266', text: '#6b1d5c', dash: [3, 2] },
   'over-rating': { fill: '#6b1d5c', stroke: '#4a1040', text: '#ffffff' },
   tank: { fill: '#eef4f8', stroke: '#5b7486', text: '#24323d' },
+  unset: { fill: '#ffffff', stroke: '#1769c2', text: '#0f4c8a', dash: [3, 2] },
   quiet: { fill: '#ffffff', stroke: '#9aa6b0', text: '#24323d' },
 };
 
@@ -78,6 +79,7 @@ export class ResultOverlay {
     const warned = show && !!w?.length;
     const key = `${text}|${colour}|${warned}`;
     const b = show ? nodeBadge(n, service?.nodes[n.id], units) : null;
+    const b = show || (n as { elevation_source?: string }).elevation_source === 'unset' ? nodeBadge(n, service?.nodes[n.id], units) : null;
     const warned = show && !!warnings.get(n.id)?.length;
     const key = `${b?.text ?? ''}|${b?.tone ?? ''}|${warned}`;
     const before = this.keys.get(n.id);

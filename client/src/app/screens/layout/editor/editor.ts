@@ -11,7 +11,7 @@ import { elementAnchor, fitRect } from './fitting';
 import { Point, projectOnPolyline, Rect, snapPoint } from './geometry';
 import { HitTester, SegmentHandle } from './hit-test';
 import { handleEditorKey } from './keys';
-import { groundElevationAt } from './survey';
+import { groundElevationAt, groundGuess } from './survey';
 import { Insets, Viewport } from './viewport';
 
 export type { Backdrop } from './calibration';
@@ -336,14 +336,22 @@ export class Editor implements ToolHost {
     const id = nextId(def.prefix, doc.nodes.map((n) => n.id));
     const p = this.snap(at);
     const node = def.create(id, p.x, p.y, this.units);
-    const z = this.groundElevationAt(p);
-    if (z !== null) {
-      const lift = z - node.elevation_m;
-      node.elevation_m = z;
+    // The elevation is guessed (survey, nearest element) and marked so, or left unset and asked for.
+    const guess = groundGuess(doc, p);
+    if (guess.z !== null) {
+      const lift = guess.z - node.elevation_m;
+      node.elevation_m = guess.z;
       if (node.kind === 'source') node.head_m += lift;
     }
+    Object.assign(node, { elevation_source: guess.source, ...(guess.from ? { elevation_from: guess.from } : {}) });
     this.store.addNode(node);
     this.select([id]);
+    const name = node.name || id;
+    this.flash(
+      guess.source === 'unset' ? `What is the ground elevation at ${name}? Type it in Elevation: pressures show once every elevation is set.`
+      : guess.source === 'survey' ? `${name}: elevation from survey point ${guess.from ?? ''} — check it.`
+      : `${name}: elevation copied from ${guess.from} — type the real one if the ground differs.`,
+    );
     return id;
   }
 

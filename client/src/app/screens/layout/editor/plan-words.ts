@@ -3,7 +3,7 @@ import type { LinkService, NodeService, PipeWork } from '../../../../../../engin
 import { formatQuantity, toDisplay, unitLabel, UnitSystem } from '../../../../../../engine/units';
 
 /** How a badge looks: the state decides the ink, never a colour ramp. */
-export type BadgeTone = 'ok' | 'close' | 'short' | 'near-rating' | 'over-rating' | 'tank' | 'quiet';
+export type BadgeTone = 'ok' | 'close' | 'short' | 'near-rating' | 'over-rating' | 'tank' | 'quiet' | 'unset';
 
 export interface PlanBadge { text: string; tone: BadgeTone }
 
@@ -29,6 +29,7 @@ export function groupedVolume(m3: number, units: UnitSystem): string {
  * Null when the element has nothing to say (a healthy tee, a source).
  */
 export function nodeBadge(n: NetworkNode, s: NodeService | undefined, units: UnitSystem): PlanBadge | null {
+  if ((n as { elevation_source?: string }).elevation_source === 'unset') return { text: 'elevation?', tone: 'unset' };
   if (!s) return null;
   if (n.kind === 'tank') {
     if (s.volume_m3 === undefined || s.capacity_m3 === undefined) return null;

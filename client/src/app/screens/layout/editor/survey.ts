@@ -48,19 +48,39 @@ export function surveyPointsOf(doc: NetworkDocument): SurveyPoint[] {
   return doc.layout?.survey?.points ?? [];
 }
 
+/** Where a node's elevation came from (editor-only `elevation_source`; absent means typed). */
+export type ElevationSource = 'unset' | 'survey' | 'nearest';
+
+/** A node's elevation provenance as stored. */
+export function elevationSource(n: object): ElevationSource | 'typed' {
+  return ((n as { elevation_source?: ElevationSource }).elevation_source) ?? 'typed';
+}
+
+/** Nodes whose elevation nobody has given yet (the plan asks for them and shows no pressures). */
+export function unsetElevations(doc: NetworkDocument): string[] {
+  return doc.nodes.filter((n) => elevationSource(n) === 'unset').map((n) => n.id);
+}
+
 /**
- * Best guess of the ground elevation at a point for a new element: the nearest survey point,
- * else the nearest existing node's elevation, else null (the kind's default).
+ * Best guess of the ground elevation at a point for a new element, and where it came from: the
+ * nearest survey point, else the nearest existing node's elevation (unset when that one is unset
+ * too), else nothing to go on (unset).
  */
-export function groundElevationAt(doc: NetworkDocument, p: Point): number | null {
+export function groundGuess(doc: NetworkDocument, p: Point): { z: number | null; source: ElevationSource; from?: string } {
   const near = nearestSurveyPoint(surveyPointsOf(doc), p);
-  if (near) return near.point.elevation_m;
-  let best: { z: number; d: number } | null = null;
+  if (near) return { z: near.point.elevation_m, source: 'survey', from: near.point.label };
+  let best: { n: NetworkDocument['nodes'][number]; d: number } | null = null;
   for (const n of doc.nodes) {
     const d = distance(p, { x: n.x_m ?? 0, y: n.y_m ?? 0 });
-    if (!best || d < best.d) best = { z: n.elevation_m, d };
+    if (!best || d < best.d) best = { n, d };
   }
-  return best ? best.z : null;
+  if (!best || elevationSource(best.n) === 'unset') return { z: null, source: 'unset' };
+  return { z: best.n.elevation_m, source: 'nearest', from: best.n.name || best.n.id };
+}
+
+/** Best guess of the ground elevation at a point (see `groundGuess`), or null. */
+export function groundElevationAt(doc: NetworkDocument, p: Point): number | null {
+  return groundGuess(doc, p).z;
 }
 
 /**

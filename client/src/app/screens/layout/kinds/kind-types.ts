@@ -31,6 +31,16 @@ export interface FieldSpec {
   testid: string;
   hint?: string;
   when?: (element: NetworkNode | NetworkLink) => boolean;
+  /** A hint that depends on the element (where its elevation came from). */
+  hintFor?: (element: NetworkNode | NetworkLink) => string | undefined;
+  /** The label for this element when it depends on it (a hose bib "gives", a trough "refills"). */
+  labelFor?: (element: NetworkNode | NetworkLink) => string;
+  /**
+   * A field worded in farm terms over stored physics (farm-terms.ts): `read` gives the SI value
+   * shown, `write` the patch that stores a typed SI value. Without them the field is `key` itself.
+   */
+  read?: (element: NetworkNode | NetworkLink) => number | undefined;
+  write?: (element: NetworkNode | NetworkLink, si: number | undefined) => Record<string, unknown>;
 }
 
 export interface NodeKindDef<N extends NetworkNode = NetworkNode> {
@@ -81,6 +91,18 @@ export const nameField: FieldSpec = { key: 'name', label: 'Name', type: 'text', 
 export const elevationField: FieldSpec = {
   key: 'elevation_m', label: 'Elevation', type: 'number', quantity: 'elevation', required: true, min: -500, max: 9000,
   testid: 'prop-elevation',
+  // Unset shows empty (and is asked for); a guess says where it came from. A source's water
+  // surface moves with a first typed elevation (it keeps its height over the ground).
+  write: (e, v) => {
+    const n = e as NetworkNode & { elevation_source?: string };
+    const lift = n.kind === 'source' && n.elevation_source && v !== undefined ? { head_m: v + (n.head_m - n.elevation_m) } : {};
+    return { elevation_m: v, elevation_source: undefined, elevation_from: undefined, ...lift };
+  },
+  read: (e) => ((e as { elevation_source?: string }).elevation_source === 'unset' ? undefined : (e as NetworkNode).elevation_m),
+  hintFor: (e) => {
+    const { elevation_source: src, elevation_from: from } = e as { elevation_source?: string; elevation_from?: string };
+    return src === 'nearest' ? `Copied from ${from ?? 'the nearest element'}: check it` : src === 'survey' ? `From survey point ${from ?? ''}`.trim() : undefined;
+  },
 };
 export const notesField: FieldSpec = { key: 'notes', label: 'Notes', type: 'text', testid: 'prop-notes' };
 

@@ -1,4 +1,5 @@
 import type { OutletNode, OutletType } from '../../../../../../engine/network-document';
+import { dripFields, troughFields } from './farm-terms';
 import { DefaultTable, elevationField, INK, nameField, NodeKindDef, notesField, PAPER, ShapeSpec, siDefaults, WATER } from './kind-types';
 
 /**
@@ -18,6 +19,14 @@ const OUTLET_TYPES: { value: OutletType; label: string }[] = [
   { value: 'house', label: 'House' },
   { value: 'other', label: 'Other' },
 ];
+
+/** What an outlet's design flow is called, by type: a hose bib gives 5 gpm at 8 psi. */
+const FLOW_WORDS: Record<OutletType, string> = {
+  'hose-bib': 'Gives', trough: 'Fills at', 'drip-zone': 'Whole zone draws', sprinkler: 'Gives', house: 'Draws at peak', other: 'Draws',
+};
+const PRESSURE_WORDS: Record<OutletType, string> = {
+  'hose-bib': 'at', trough: 'Float valve needs', 'drip-zone': 'Emitters rated at', sprinkler: 'at', house: 'Needs at the taps', other: 'Needs at least',
+};
 
 /** One glyph per outlet type, all about 24 px across, white body with dark outline. */
 function glyph(type: OutletType): ShapeSpec[] {
@@ -70,26 +79,34 @@ export const outletKind: NodeKindDef<OutletNode> = {
     nameField,
     elevationField,
     { key: 'outlet_type', label: 'Outlet type', type: 'select', options: OUTLET_TYPES, fallback: 'other', testid: 'prop-outlet-type' },
-    { key: 'demand_m3s', label: 'Design flow', type: 'number', quantity: 'flow', required: true, min: 0, max: 1, testid: 'prop-demand' },
-    { key: 'min_pressure_m', label: 'Minimum pressure', type: 'number', quantity: 'pressure', min: 0, max: 200, testid: 'prop-min-pressure' },
+    ...troughFields,
+    ...dripFields,
     {
-      key: 'demand_model.type', label: 'Demand model', type: 'select', testid: 'prop-demand-model', fallback: 'fixed',
+      key: 'demand_m3s', label: 'Design flow', type: 'number', quantity: 'flow', required: true, min: 0, max: 1, testid: 'prop-demand',
+      labelFor: (o) => FLOW_WORDS[(o as OutletNode).outlet_type ?? 'other'],
+    },
+    {
+      key: 'min_pressure_m', label: 'Needs at least', type: 'number', quantity: 'pressure', min: 0, max: 200, testid: 'prop-min-pressure',
+      labelFor: (o) => PRESSURE_WORDS[(o as OutletNode).outlet_type ?? 'other'],
+    },
+    {
+      key: 'demand_model.type', label: 'When pressure drops', type: 'select', testid: 'prop-demand-model', fallback: 'fixed',
       options: [
-        { value: 'fixed', label: 'Fixed flow' },
-        { value: 'pressure-dependent', label: 'Falls off with pressure' },
-        { value: 'emitter', label: 'Emitter (q = k·pˣ)' },
+        { value: 'fixed', label: 'Still draws its flow (tap, float valve)' },
+        { value: 'pressure-dependent', label: 'Weakens below full-flow pressure' },
+        { value: 'emitter', label: 'Flows like emitters (with the square root of pressure)' },
       ],
     },
     {
-      key: 'demand_model.required_pressure_m', label: 'Pressure for full flow', type: 'number', quantity: 'pressure', min: 0, max: 200,
+      key: 'demand_model.required_pressure_m', label: 'Full flow from', type: 'number', quantity: 'pressure', min: 0, max: 200,
       testid: 'prop-required-pressure', when: (o) => (o as OutletNode).demand_model?.type === 'pressure-dependent',
     },
     {
-      key: 'demand_model.k', label: 'Emitter coefficient k', type: 'number', min: 0, max: 1, testid: 'prop-emitter-k',
+      key: 'demand_model.k', label: 'Flow at 1 m of water (law constant)', type: 'number', min: 0, max: 1, testid: 'prop-emitter-k',
       hint: 'm³/s per m^x of pressure', when: (o) => (o as OutletNode).demand_model?.type === 'emitter',
     },
     {
-      key: 'demand_model.exponent', label: 'Emitter exponent', type: 'number', min: 0, max: 2, testid: 'prop-emitter-exponent',
+      key: 'demand_model.exponent', label: 'Pressure exponent (0.5 plain, near 0 compensating)', type: 'number', min: 0, max: 2, testid: 'prop-emitter-exponent',
       when: (o) => (o as OutletNode).demand_model?.type === 'emitter',
     },
     {

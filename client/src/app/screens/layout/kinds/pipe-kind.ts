@@ -29,7 +29,10 @@ export const pipeKind: LinkKindDef<PipeLink> = {
     { key: 'roughness', label: 'Roughness (C or mm)', type: 'number', required: true, min: 0, max: 200, testid: 'prop-roughness' },
     { key: 'rating_m', label: 'Pressure rating', type: 'number', quantity: 'pressure', min: 0, max: 2000, testid: 'prop-rating' },
     { key: 'length_m', label: 'Length', type: 'length', quantity: 'length', required: true, min: 0.1, max: 100000, testid: 'prop-length' },
-    { key: 'minor_loss', label: 'Minor loss K', type: 'number', suffix: 'K', min: 0, max: 1000, testid: 'prop-minor-loss' },
+    {
+      key: 'minor_loss', label: 'Fittings loss allowance', type: 'number', suffix: 'K', min: 0, max: 1000, testid: 'prop-minor-loss',
+      hint: 'Elbows, tees and couplings add up here (Count the fittings)',
+    },
     { key: 'closed', label: 'Closed', type: 'checkbox', testid: 'prop-closed' },
     notesField,
   ],

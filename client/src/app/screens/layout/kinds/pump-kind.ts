@@ -1,4 +1,5 @@
 import type { PumpLink } from '../../../../../../engine/network-document';
+import { sunHoursField } from './farm-terms';
 import { DefaultTable, INK, LinkKindDef, nameField, notesField, PAPER, ShapeSpec, siDefaults } from './kind-types';
 
 /** A new pump: a small solar fill pump's delivered flow, round in each system. */
@@ -50,8 +51,10 @@ export const pumpKind: LinkKindDef<PumpLink> = {
   midSymbol: body,
   fields: [
     nameField,
-    { key: 'flow_m3s', label: 'Delivered flow', type: 'number', quantity: 'flow', required: true, min: 0, max: 1, testid: 'prop-pump-flow' },
-    { key: 'schedule', label: 'Hourly availability', type: 'schedule', testid: 'prop-schedule' },
+    { key: 'flow_m3s', label: 'Pumps in full sun', type: 'number', quantity: 'flow', required: true, min: 0, max: 1, testid: 'prop-pump-flow',
+      when: (p) => !(p as PumpLink).curve?.length },
+    sunHoursField(DAYLIGHT_SCHEDULE),
+    { key: 'schedule', label: 'Daylight curve', type: 'schedule', testid: 'prop-schedule' },
     notesField,
   ],
 };

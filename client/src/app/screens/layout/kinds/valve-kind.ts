@@ -76,7 +76,7 @@ export const valveKind: LinkKindDef<ValveLink> = {
       testid: 'prop-valve-setting', when: (v) => (v as ValveLink).valve_type === 'prv',
     },
     { key: 'tank', label: 'Tank it fills (id)', type: 'text', testid: 'prop-valve-tank', when: (v) => (v as ValveLink).valve_type === 'float' },
-    { key: 'minor_loss', label: 'Minor loss K', type: 'number', suffix: 'K', min: 0, max: 1000, testid: 'prop-minor-loss' },
+    { key: 'minor_loss', label: 'Loss through it', type: 'number', suffix: 'K', min: 0, max: 1000, testid: 'prop-minor-loss' },
     notesField,
   ],
   check: (v, doc) => {

@@ -103,7 +103,7 @@ export class SiteFiles {
     const n = store.node(id);
     const near = n ? nearestSurveyPoint(surveyPointsOf(store.doc), { x: n.x_m ?? 0, y: n.y_m ?? 0 }) : null;
     if (!n || !near) return;
-    store.patchElement(id, { elevation_m: near.point.elevation_m });
+    store.patchElement(id, { elevation_m: near.point.elevation_m, elevation_source: 'survey', elevation_from: near.point.label });
     const u = this.host.units();
     this.host.say(
       `Elevation set to ${formatQuantity('elevation', near.point.elevation_m, u)} from survey point ${near.point.label ?? ''} ` +
