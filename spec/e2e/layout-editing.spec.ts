@@ -89,7 +89,9 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
     const kPa = valueOf((await value.textContent()) ?? '');
     expect(kPa).to.be.greaterThan(staticKPa * 0.5);
     expect(await editorHook.solveMs(page), 'the worker reported its solve time').to.be.greaterThan(0);
-    expect(await page.getByTestId('pressure-legend').isVisible()).to.equal(true);
+    // The outlet's state in words, readable without hovering: on its results row and on the plan.
+    expect(await page.getByTestId(`result-${outlet.id}`).locator('.state').textContent()).to.match(/^(OK|close|short) [+−±]/);
+    expect((await editorHook.labels(page)).map((l) => l.id)).to.include(outlet.id);
 
     await waitSavedAfterEdit(page);
     const before = await editorHook.doc(page);

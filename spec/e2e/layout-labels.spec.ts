@@ -1,6 +1,6 @@
 /**
  * The demo plan ("Hillside smallholding") as a designer first sees it, in a real browser at two
- * common laptop sizes: every element inside the canvas and clear of the legend and scale bar, no
+ * common laptop sizes: every element inside the canvas and clear of the scale bar, no
  * two labels printed over each other or over the overlays, and the elements that nearly touch at
  * whole-site zoom (the two ridge tanks of a bank, the well and its wellhead) each picked by a click.
  */
@@ -18,7 +18,7 @@ function intersect(a: Box, b: Box): boolean {
 async function openDemo(page: Page, base: string): Promise<void> {
   await signIn(page, base, 'designer');
   await openLayout(page, base, await findProject(page, base, 'Hillside smallholding'));
-  await page.getByTestId('pressure-legend').waitFor();
+  await page.getByTestId('results-key').waitFor();
   await page.waitForFunction(() => window.__runnelEditor!.labelBoxes().length > 10);
 }
 
@@ -26,13 +26,12 @@ describe('Layout screen: the demo plan at first sight', function () {
   const ui = useBrowserApp();
 
   for (const [width, height] of [[1440, 900], [1366, 768]]) {
-    it(`${width}×${height}: fitted inside the canvas clear of legend and scale bar; labels never overlap; near neighbours each clickable`, async () => {
+    it(`${width}×${height}: fitted inside the canvas clear of the scale bar; labels never overlap; every outlet's state shown; near neighbours each clickable`, async () => {
       const page = await (await ui.newContext({ width, height })).newPage();
       await openDemo(page, ui.app.baseUrl);
       const canvas = (await page.getByTestId('layout-canvas').boundingBox())!;
-      const legend = (await page.getByTestId('pressure-legend').boundingBox())!;
       const scale = (await page.getByTestId('scale-bar').boundingBox())!;
-      const overlays = [legend, scale].map((b) => ({ x: b.x, y: b.y, w: b.width, h: b.height }));
+      const overlays = [scale].map((b) => ({ x: b.x, y: b.y, w: b.width, h: b.height }));
       const doc = await editorHook.doc(page);
       for (const n of doc.nodes) {
         const p = await editorHook.toClient(page, n.x_m, n.y_m);
@@ -47,6 +46,9 @@ describe('Layout screen: the demo plan at first sight', function () {
         for (const o of overlays) expect(intersect(labels[i], o), `${labels[i].id} under an overlay`).to.equal(false);
       }
       expect(labels.map((l) => l.id)).to.include('bank:ridge');
+      // Every outlet's state reads without hovering: each outlet has its badge placed on the plan.
+      const placed = new Set(labels.map((l) => l.id));
+      for (const n of doc.nodes.filter((m) => m.kind === 'outlet')) expect(placed.has(n.id), `${n.id}'s badge is on the plan`).to.equal(true);
       for (const id of ['T1', 'T2', 'W', 'WH']) {
         const n = doc.nodes.find((m) => m.id === id)!;
         const p = await editorHook.toClient(page, n.x_m, n.y_m);

@@ -143,18 +143,19 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     }
   });
 
-  // Found by this suite and fixed: Fit kept a 48 px margin while the legend is 58 px tall and 12 px
-  // from the corner, so the lower-right outlet and its pressure label were drawn under it.
-  it('after Fit no element sits under the pressure legend or the scale bar', async () => {
+  // Found by this suite and fixed: Fit kept a 48 px margin while an overlay in the corner was taller,
+  // so the lower-right outlet and its label were drawn under it. The scale bar is the corner overlay now.
+  it('after Fit no element sits under the scale bar, and the plan has no colour-band legend (its key is in the results panel)', async () => {
     const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
-    const projectId = await createProject(page, app.baseUrl, 'Fit clear of the legend');
-    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('legend') })).status()).to.equal(200);
+    const projectId = await createProject(page, app.baseUrl, 'Fit clear of the scale bar');
+    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('scale') })).status()).to.equal(200);
     await openLayout(page, app.baseUrl, projectId);
-    await page.getByTestId('pressure-legend').waitFor();
+    await page.getByTestId('results-key').waitFor();
+    expect(await page.getByTestId('pressure-legend').count()).to.equal(0);
     await page.getByTestId('fit-button').click();
-    const boxes = { legend: (await page.getByTestId('pressure-legend').boundingBox())!, 'scale bar': (await page.getByTestId('scale-bar').boundingBox())! };
-    const symbolRadiusPx = 14; // outlet glyph and its pressure ring
+    const boxes = { 'scale bar': (await page.getByTestId('scale-bar').boundingBox())! };
+    const symbolRadiusPx = 14; // outlet glyph and its state mark
     for (const n of (await editorHook.doc(page)).nodes) {
       const p = await editorHook.toClient(page, n.x_m, n.y_m);
       for (const [what, b] of Object.entries(boxes)) {
@@ -177,7 +178,7 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     await page.getByTestId('import-file').setInputFiles({ name: 'big-grid.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(doc)) });
     expect(await snackText(page)).to.contain('Imported 250 nodes and 250 links');
     await waitForNodeCount(page, 250, 30000);
-    const far = doc.nodes[doc.nodes.length - 1].id;
+    const far = doc.nodes.filter((n) => n.kind === 'outlet').at(-1)!.id;
     await page.getByTestId(`result-${far}`).waitFor({ timeout: 30000 });
     await waitSolved(page, 30000);
     await shot(page, '6-grid-500');
@@ -213,17 +214,20 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     await waitSavedAfterEdit(page);
     expect(puts, 'saves sent for one drag (plus its undo and redo inside the autosave delay)').to.equal(1);
 
-    // Property edit → results: lowering the tank from 90 m to 50 m brings the far tee's pressure
-    // (≈ 580 kPa, past the top of the colour ramp) down into the ramp, so both the results list
-    // and the ring drawn on the canvas change. Timed from leaving the field to each change.
+    // Property edit → results: lowering the tank from 90 m to 50 m lowers the far outlet's margin,
+    // so both the results list and the outlet's badge on the canvas ("OK +… kPa") change. Timed
+    // from leaving the field to each change.
     await clickNode(page, 'T1');
     expect(await editorHook.selection(page)).to.deep.equal(['T1']);
     await page.waitForFunction(() => !!document.querySelector('[data-testid=prop-elevation]'));
     const farNode = doc.nodes.find((n) => n.id === far)!;
-    const ring = await editorHook.toClient(page, farNode.x_m, farNode.y_m);
+    const centre = await editorHook.toClient(page, farNode.x_m, farNode.y_m);
+    // The badge's placed box, else a wide patch around the outlet (the badge sits beside it).
+    const placed = (await editorHook.labels(page)).find((l) => l.id === far);
+    const ring = placed ? { x: placed.x, y: placed.y, w: placed.w, h: placed.h } : { x: centre.x - 100, y: centre.y - 40, w: 200, h: 80 };
     // Plain script text: the test runner's transpiler would wrap named inner functions in a helper the page lacks.
     // `__e2eArm()` watches the next blur of the field: the results row and a 24 px square around
-    // the far node's ring (read from every layer canvas) are compared with what they were before.
+    // the far outlet's badge (read from every layer canvas) are compared with what they were before.
     await page.evaluate(`(() => {
       const id = ${JSON.stringify(far)};
       const at = ${JSON.stringify(ring)};
@@ -231,7 +235,7 @@ describe('Layout screen end to end (Chromium, real server)', function () {
       const patch = () => [...document.querySelectorAll('[data-testid=layout-canvas] canvas')].map((c) => {
         const r = c.getBoundingClientRect();
         const k = c.width / r.width;
-        const d = c.getContext('2d').getImageData(Math.round((at.x - 12 - r.left) * k), Math.round((at.y - 12 - r.top) * k), Math.round(24 * k), Math.round(24 * k)).data;
+        const d = c.getContext('2d').getImageData(Math.round((at.x - r.left) * k), Math.round((at.y - r.top) * k), Math.max(1, Math.round(at.w * k)), Math.max(1, Math.round(at.h * k))).data;
         let h = 0;
         for (let i = 0; i < d.length; i++) h = (h * 31 + d[i]) | 0;
         return h;
@@ -258,8 +262,8 @@ describe('Layout screen end to end (Chromium, real server)', function () {
       };
     })()`);
     const solveBefore = await editorHook.solveMs(page);
-    // Five edits, 90 → 50 → 46 → 50 → 46 → 50 m: each moves the far tee's margin by 4 m or more,
-    // which changes the ring's colour. Medians logged.
+    // Five edits, 90 → 50 → 46 → 50 → 46 → 50 m: each moves the far outlet's margin by 4 m or
+    // more, which changes its badge. Medians logged.
     const listMs: number[] = [];
     const canvasMs: number[] = [];
     for (const elevation of ['50', '46', '50', '46', '50']) {
@@ -277,8 +281,8 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     expect((await editorHook.doc(page)).nodes[0].elevation_m).to.equal(50);
     const fmt = (v: number[]) => v.map((x) => x.toFixed(0)).join(', ');
     const canvasText = canvasMs.length ? `median ${percentile(canvasMs, 50).toFixed(0)} ms (${fmt(canvasMs)})` : 'no change seen within 5 s';
-    console.log(`      500-element property edit ×5: results list median ${percentile(listMs, 50).toFixed(0)} ms (${fmt(listMs)}), canvas ring ${canvasText} after the field was left; worker solve ${solveMs.toFixed(1)} ms (previous solve ${solveBefore.toFixed(1)} ms)`);
-    expect(canvasMs.length, 'the canvas ring changed after every edit').to.equal(5);
+    console.log(`      500-element property edit ×5: results list median ${percentile(listMs, 50).toFixed(0)} ms (${fmt(listMs)}), canvas badge ${canvasText} after the field was left; worker solve ${solveMs.toFixed(1)} ms (previous solve ${solveBefore.toFixed(1)} ms)`);
+    expect(canvasMs.length, 'the canvas badge changed after every edit').to.equal(5);
     await shot(page, '6-grid-after-edit');
   });
 });

@@ -1,8 +1,8 @@
 import { HttpErrorResponse, HttpInterceptorFn, HttpRequest } from '@angular/common/http';
 import { inject } from '@angular/core';
 import { MatSnackBar } from '@angular/material/snack-bar';
-import { Router } from '@angular/router';
-import { catchError, switchMap, throwError } from 'rxjs';
+import { NavigationStart, Router } from '@angular/router';
+import { catchError, filter, switchMap, take, takeUntil, throwError } from 'rxjs';
 import { apiErrorBody, apiErrorMessage } from './api-errors';
 import { CsrfService } from './csrf.service';
 import { SKIP_AUTH_REDIRECT, SKIP_ERROR_SNACKBAR } from './http-context';
@@ -57,7 +57,9 @@ export const errorInterceptor: HttpInterceptorFn = (req, next) => {
       const skip = req.context.get(SKIP_ERROR_SNACKBAR);
       const skipped = skip === true || (Array.isArray(skip) && skip.includes(err.status));
       if (!skipped && !(err.status === 401 && req.context.get(SKIP_AUTH_REDIRECT))) {
-        snackBar.open(apiErrorMessage(err), 'Close', { duration: 8000, panelClass: ['rn-snack-error', 'rn-snack-lines'] });
+        const ref = snackBar.open(apiErrorMessage(err), 'Close', { duration: 8000, panelClass: ['rn-snack-error', 'rn-snack-lines'] });
+        // An error belongs to the page it happened on: leaving that page clears it.
+        router.events.pipe(filter((e) => e instanceof NavigationStart), take(1), takeUntil(ref.afterDismissed())).subscribe(() => ref.dismiss());
       }
       return throwError(() => err);
     }),

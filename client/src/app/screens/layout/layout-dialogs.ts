@@ -134,3 +134,31 @@ export class CalibrateDialog {
 export class MessagesDialog {
   readonly data = inject<{ title: string; messages: string[] }>(MAT_DIALOG_DATA);
 }
+
+/** Preview of "apply survey elevations to all": what each element would change to; Apply is one undo step. */
+@Component({
+  selector: 'rn-survey-apply-dialog',
+  imports: [MatDialogModule, MatButtonModule],
+  template: `
+    <h2 mat-dialog-title>Elevations from the survey</h2>
+    <mat-dialog-content>
+      @if (data.rows.length) {
+        <p>Each element within 25 m of a survey point takes that point's elevation:</p>
+        <table class="survey-preview" data-testid="survey-preview">
+          <tr><th>Element</th><th>Now</th><th>From survey</th><th>Point</th></tr>
+          @for (r of data.rows; track r.id) { <tr><td>{{ r.name }}</td><td>{{ r.now }}</td><td>{{ r.next }}</td><td>{{ r.point }}</td></tr> }
+        </table>
+      } @else {
+        <p data-testid="survey-preview-empty">No element is within 25 m of a survey point with a different elevation.</p>
+      }
+    </mat-dialog-content>
+    <mat-dialog-actions align="end">
+      <button mat-button mat-dialog-close>Cancel</button>
+      @if (data.rows.length) { <button mat-flat-button [mat-dialog-close]="true" data-testid="survey-apply">Apply to {{ data.rows.length }}</button> }
+    </mat-dialog-actions>
+  `,
+  styles: `.survey-preview { border-collapse: collapse; font-size: 13px; } .survey-preview td, .survey-preview th { padding: 3px 10px 3px 0; text-align: left; }`,
+})
+export class SurveyApplyDialog {
+  readonly data = inject<{ rows: { id: string; name: string; now: string; next: string; point: string }[] }>(MAT_DIALOG_DATA);
+}

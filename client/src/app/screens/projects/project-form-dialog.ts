@@ -30,7 +30,8 @@ export class ProjectFormDialog {
   protected readonly editing = !!this.data.project;
   protected readonly unitChoices = Object.entries(UNIT_SYSTEM_LABELS) as [UnitSystem, string][];
   protected readonly form = inject(NonNullableFormBuilder).group({
-    name: [this.data.project?.name ?? '', [Validators.required, Validators.maxLength(200)]],
+    // A name of spaces only is no name: refused here, before the server has to say so.
+    name: [this.data.project?.name ?? '', [Validators.required, Validators.pattern(/\S/), Validators.maxLength(200)]],
     siteName: [this.data.project?.siteName ?? '', Validators.maxLength(200)],
     notes: [this.data.project?.notes ?? '', Validators.maxLength(4000)],
     units: [this.data.project?.units ?? ('us' as UnitSystem)],

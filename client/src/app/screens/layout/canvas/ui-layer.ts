@@ -30,7 +30,9 @@ export class UiLayer {
       const p = vp.toScreen({ x: s.x_m, y: s.y_m });
       if (p.x < -20 || p.y < -20 || p.x > vp.width + 20 || p.y > vp.height + 20) continue;
       add(new Konva.Line({ points: [p.x - 4, p.y - 4, p.x + 4, p.y + 4, p.x, p.y, p.x + 4, p.y - 4, p.x - 4, p.y + 4], stroke: SURVEY, strokeWidth: 1.5, listening: false }));
-      if (vp.scale > 2) add(new Konva.Text({ x: p.x + 5, y: p.y - 12, text: formatQuantity('elevation', s.elevation_m, units), fontSize: 9, fontFamily: FONT, fill: SURVEY, listening: false }));
+      // The point's name (when the survey gave one) from farm zoom, its elevation when closer.
+      const words = [vp.scale > 0.8 ? s.label : '', vp.scale > 2 ? formatQuantity('elevation', s.elevation_m, units) : ''].filter(Boolean).join(' · ');
+      if (words) add(new Konva.Text({ x: p.x + 5, y: p.y - 12, text: words, fontSize: 9, fontFamily: FONT, fill: SURVEY, listening: false }));
     }
     const hovered = ed.hover ? byId.get(ed.hover) : undefined;
     if (hovered) {

@@ -11,7 +11,7 @@ import { elementAnchor, fitRect } from './fitting';
 import { Point, projectOnPolyline, Rect, snapPoint } from './geometry';
 import { HitTester, SegmentHandle } from './hit-test';
 import { handleEditorKey } from './keys';
-import { groundElevationAt, groundGuess } from './survey';
+import { groundElevationAt, groundGuess, surveySnap } from './survey';
 import { Insets, Viewport } from './viewport';
 
 export type { Backdrop } from './calibration';
@@ -249,7 +249,10 @@ export class Editor implements ToolHost {
   }
 
   // ---- view ----
+  /** Snap a point: onto a survey point within 10 px, else to the grid when snapping is on. */
   snap(p: Point): Point {
+    const s = surveySnap(this.store.doc, p, this.viewport.metres(1));
+    if (s) return { x: s.x_m, y: s.y_m };
     return this.grid.snap ? snapPoint(p, this.grid.step_m) : p;
   }
 

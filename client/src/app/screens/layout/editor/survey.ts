@@ -83,6 +83,47 @@ export function groundElevationAt(doc: NetworkDocument, p: Point): number | null
   return groundGuess(doc, p).z;
 }
 
+/** One element whose elevation the survey would change, for the preview before applying. */
+export interface SurveyChange { id: string; name: string; from_m: number; to_m: number; point: string; distance_m: number }
+
+/**
+ * What "apply survey elevations to all" would do: each node within `reach_m` of a survey point
+ * takes the nearest point's elevation (a source's water surface moves with it). Nodes already at
+ * that elevation are left out of the preview.
+ */
+export function surveyElevationChanges(doc: NetworkDocument, reach_m = 25): SurveyChange[] {
+  const points = surveyPointsOf(doc);
+  const out: SurveyChange[] = [];
+  for (const n of doc.nodes) {
+    const near = nearestSurveyPoint(points, { x: n.x_m ?? 0, y: n.y_m ?? 0 });
+    if (!near || near.distance_m > reach_m) continue;
+    const unset = elevationSource(n) === 'unset';
+    if (!unset && Math.abs(near.point.elevation_m - n.elevation_m) < 0.005) continue;
+    out.push({ id: n.id, name: n.name || n.id, from_m: unset ? NaN : n.elevation_m, to_m: near.point.elevation_m, point: near.point.label ?? '', distance_m: near.distance_m });
+  }
+  return out;
+}
+
+/** The document with the previewed survey elevations applied (marked as from the survey). */
+export function withSurveyElevations(doc: NetworkDocument, changes: readonly SurveyChange[]): NetworkDocument {
+  const by = new Map(changes.map((c) => [c.id, c]));
+  return {
+    ...doc,
+    nodes: doc.nodes.map((n) => {
+      const c = by.get(n.id);
+      if (!c) return n;
+      const lift = n.kind === 'source' ? { head_m: n.head_m + (c.to_m - n.elevation_m) } : {};
+      return { ...n, ...lift, elevation_m: c.to_m, elevation_source: 'survey', elevation_from: c.point || undefined } as typeof n;
+    }),
+  };
+}
+
+/** The survey point within `px` screen pixels of a point (given metres per pixel), or null: elements snap onto it. */
+export function surveySnap(doc: NetworkDocument, p: Point, metresPerPx: number, px = 10): SurveyPoint | null {
+  const near = nearestSurveyPoint(surveyPointsOf(doc), p);
+  return near && near.distance_m <= px * metresPerPx ? near.point : null;
+}
+
 /**
  * Ground profile of a link from survey points within `corridor_m` of its line: pairs
  * [chainage from the `from` end (m), ground elevation (m)] sorted by chainage, starting at 0 and

@@ -5,8 +5,8 @@ import { formatQuantity, UnitSystem } from '../../../../../../engine/units';
 import type { Backdrop } from '../editor/calibration';
 import type { Editor } from '../editor/editor';
 import type { Point } from '../editor/geometry';
-import { nearestSurveyPoint, profileAlong, surveyPointsOf, toLocalPoints } from '../editor/survey';
-import { CalibrateDialog, MessagesDialog } from '../layout-dialogs';
+import { nearestSurveyPoint, profileAlong, surveyElevationChanges, surveyPointsOf, toLocalPoints, withSurveyElevations } from '../editor/survey';
+import { CalibrateDialog, MessagesDialog, SurveyApplyDialog } from '../layout-dialogs';
 import { LayoutApi, LayoutApiError } from '../layout-api.service';
 
 /** What the site tools need from the screen. */
@@ -96,6 +96,22 @@ export class SiteFiles {
 
   clearSurvey(): void {
     this.host.editor.store.patchLayout({ survey: undefined });
+  }
+
+  /** Site ▸ Elevations from survey: preview every change, then apply them as one undo step. */
+  applySurveyElevations(): void {
+    const store = this.host.editor.store;
+    const changes = surveyElevationChanges(store.doc);
+    const u = this.host.units();
+    const rows = changes.map((c) => ({
+      id: c.id, name: c.name, now: Number.isNaN(c.from_m) ? 'not set' : formatQuantity('elevation', c.from_m, u),
+      next: formatQuantity('elevation', c.to_m, u), point: `${c.point || 'unnamed'} (${formatQuantity('length', c.distance_m, u)} away)`,
+    }));
+    this.host.dialog.open(SurveyApplyDialog, { data: { rows }, width: '560px' }).afterClosed().subscribe((ok?: boolean) => {
+      if (!ok) return;
+      store.update('elevations from survey', (d) => withSurveyElevations(d, changes));
+      this.host.say(`Elevations from the survey applied to ${changes.length} element(s). Undo puts them back.`);
+    });
   }
 
   snapElevation(id: string): void {
