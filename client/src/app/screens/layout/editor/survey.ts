@@ -113,7 +113,7 @@ export function withSurveyElevations(doc: NetworkDocument, changes: readonly Sur
       const c = by.get(n.id);
       if (!c) return n;
       const lift = n.kind === 'source' ? { head_m: n.head_m + (c.to_m - n.elevation_m) } : {};
-      return { ...n, ...lift, elevation_m: c.to_m, elevation_source: 'survey', elevation_from: c.point || undefined } as typeof n;
+      return { ...n, ...lift, elevation_m: c.to_m, elevation_source: 'survey', elevation_from: c.point || undefined } as unknown as typeof n;
     }),
   };
 }
