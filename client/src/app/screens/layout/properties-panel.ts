@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, DestroyRef, effect, inject, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, DestroyRef, effect, inject, input, output, signal } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { AbstractControl, FormControl, FormGroup, ReactiveFormsModule, ValidationErrors, ValidatorFn } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -11,6 +11,7 @@ import type { SteadyResult } from '../../../../../engine/index';
 import type { ServiceStates } from '../../../../../engine/service-state';
 import { countFittings, minorLossAllowance } from '../../../../../engine/takeoff/index';
 import { FITTINGS } from '../../../../../engine/pipe-catalogue';
+import { fitPumpCurve } from '../../../../../engine/pump-curve';
 import { ownResults } from './editor/own-results';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel, UnitSystem } from '../../../../../engine/units';
 import { lengthSource } from './editor/document-store';
@@ -125,6 +126,52 @@ export class PropertiesPanel {
     return (el && f.hintFor?.(el)) || f.hint || '';
   }
 
+  readonly flowUnit = computed(() => unitLabel('flow', this.units()));
+  readonly headUnit = computed(() => unitLabel('head', this.units()));
+  readonly curvePlaceholder = computed(() => (this.units() === 'us' ? '0, 160; 10, 140; 20, 95' : '0, 50; 0.6, 43; 1.2, 29'));
+  /** The typed points of a pump's curve (editor-only `curve_points`, else the stored curve), in display units. */
+  readonly curveText = computed(() => {
+    const el = this.element();
+    if (el?.kind !== 'pump') return '';
+    const pts = (el as { curve_points?: [number, number][] }).curve_points ?? el.curve ?? [];
+    const u = this.units();
+    const n = (q: 'flow' | 'head', v: number) => Number(toDisplay(q, v, u).toPrecision(4));
+    return pts.map(([q, h]) => `${n('flow', q)}, ${n('head', h)}`).join('; ');
+  });
+  readonly curveError = signal('');
+  /** What the fit says: shut-off head, flow at run-out, how closely it follows the points. */
+  readonly curveFit = computed(() => {
+    const err = this.curveError();
+    if (err) return err;
+    const el = this.element();
+    const pts = el?.kind === 'pump' ? ((el as { curve_points?: [number, number][] }).curve_points ?? el.curve) : undefined;
+    if (!pts || pts.length < 2) return '';
+    const fit = fitPumpCurve(pts);
+    const u = this.units();
+    const run = Number.isFinite(fit.runout_m3s) ? `, no flow above ${formatQuantity('flow', fit.runout_m3s, u)}` : '';
+    const words = `Fitted: ${formatQuantity('head', fit.shutoff_m, u)} at shut-off${run}; follows the points within ${formatQuantity('head', fit.worst_m, u)}.`;
+    return fit.problems.length ? `${words} ${fit.problems.join('; ')}.` : words;
+  });
+
+  commitCurve(text: string): void {
+    const el = this.element();
+    if (el?.kind !== 'pump' || this.readOnly()) return;
+    const u = this.units();
+    const rows = text.split(';').map((r) => r.trim()).filter(Boolean).map((r) => r.split(/[,\s]+/).filter(Boolean).map(Number));
+    const bad = rows.findIndex((r) => r.length !== 2 || !r.every(Number.isFinite) || r[0] < 0);
+    if (bad >= 0) return this.curveError.set(`Point ${bad + 1}: type a flow and a head, e.g. "${this.curvePlaceholder().split(';')[1].trim()}"`);
+    if (rows.length < 2) return this.curveError.set('Type at least two points: the head at no flow and at one flow, or more.');
+    this.curveError.set('');
+    const pts = rows.map(([q, h]) => [fromDisplay('flow', q, u), fromDisplay('head', h, u)] as [number, number]);
+    this.patch.emit({ id: el.id, patch: { curve_points: pts, curve: fitPumpCurve(pts).samples } });
+  }
+
+  clearCurve(): void {
+    const el = this.element();
+    this.curveError.set('');
+    if (el) this.patch.emit({ id: el.id, patch: { curve: undefined, curve_points: undefined } });
+  }
+
   useFittings(): void {
     const el = this.element();
     const f = this.fittings();
@@ -164,7 +211,7 @@ export class PropertiesPanel {
     const controls: Record<string, FormControl<unknown>> = {};
     if (el) {
       for (const f of fields) {
-        if (f.type === 'pipe-size') continue;
+        if (f.type === 'pipe-size' || f.type === 'curve') continue;
         const text = f.type === 'text' || f.type === 'number' || f.type === 'length' || f.type === 'schedule';
         const c = new FormControl<unknown>(
           { value: this.shown(el, f, units), disabled: ro },

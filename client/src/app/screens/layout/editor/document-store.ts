@@ -241,7 +241,7 @@ export function lengthSource(link: NetworkLink): LengthSource {
 }
 
 /** A pipe whose length follows the drawing gets its measured length (at least 0.1 m). */
-function withDrawnLength(link: NetworkLink, nodes: NetworkDocument | Map<string, NetworkNode>): NetworkLink {
+export function withDrawnLength(link: NetworkLink, nodes: NetworkDocument | Map<string, NetworkNode>): NetworkLink {
   if (link.kind !== 'pipe' || lengthSource(link) !== 'drawing') return link;
   const measured = Math.max(0.1, Math.round(polylineLength(linkPoints(link, nodes)) * 100) / 100);
   return measured === link.length_m ? link : { ...link, length_m: measured };

@@ -11,6 +11,7 @@ import { elementAnchor, fitRect } from './fitting';
 import { Point, projectOnPolyline, Rect, snapPoint } from './geometry';
 import { HitTester, SegmentHandle } from './hit-test';
 import { handleEditorKey } from './keys';
+import { risingMain } from './rising-main';
 import { groundElevationAt, groundGuess, surveySnap } from './survey';
 import { Insets, Viewport } from './viewport';
 
@@ -363,11 +364,18 @@ export class Editor implements ToolHost {
     return groundElevationAt(this.store.doc, p);
   }
 
-  /** Add a link between two nodes; returns its id. One undo step. */
+  /**
+   * Add a link between two nodes; returns its id. One undo step. A pump drawn from a source
+   * becomes the pump at the source and a rising main: a real pipe (with friction, along the drawn
+   * line) from a pump-outlet tee to the end (rising-main.ts).
+   */
   addLink(kind: LinkKind, from: string, to: string, vertices: [number, number][] = []): string {
     const def = LINK_KINDS[kind];
     const id = nextId(def.prefix, this.store.doc.links.map((l) => l.id));
-    this.store.addLink(def.create(id, from, to, vertices, this.units));
+    const link = def.create(id, from, to, vertices, this.units);
+    const main = kind === 'pump' ? risingMain(this.store.doc, link, this.units) : null;
+    if (main) this.store.update('add pump and rising main', (d) => main.apply(d));
+    else this.store.addLink(link);
     return id;
   }
 

@@ -15,7 +15,7 @@ export type ShapeSpec =
 export interface FieldSpec {
   key: string;
   label: string;
-  type: 'text' | 'number' | 'select' | 'checkbox' | 'pipe-size' | 'schedule' | 'length';
+  type: 'text' | 'number' | 'select' | 'checkbox' | 'pipe-size' | 'schedule' | 'length' | 'curve';
   /** Display conversion through engine/units.ts; absent means a plain number. */
   quantity?: Quantity;
   /** Plain-number unit label (e.g. "K"). */

@@ -53,6 +53,7 @@ export const pumpKind: LinkKindDef<PumpLink> = {
     nameField,
     { key: 'flow_m3s', label: 'Pumps in full sun', type: 'number', quantity: 'flow', required: true, min: 0, max: 1, testid: 'prop-pump-flow',
       when: (p) => !(p as PumpLink).curve?.length },
+    { key: 'curve', label: 'Head–flow curve from the maker\'s chart', type: 'curve', testid: 'prop-pump-curve' },
     sunHoursField(DAYLIGHT_SCHEDULE),
     { key: 'schedule', label: 'Daylight curve', type: 'schedule', testid: 'prop-schedule' },
     notesField,
