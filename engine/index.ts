@@ -39,4 +39,4 @@ export { demoPriceList, type PriceListRow } from './examples/demo-prices';
 export { purchaseUnit, FITTINGS, fittingCode, nominalForDiameter, type PurchaseUnit, type FittingKind } from './pipe-catalogue';
 export { evaluateDesign, summariseDesign, designDifferences, type DesignSummary, type SummaryInputs, type DesignEvaluation } from './options/compare';
 export { serviceStates, outletState, ratingState, pipeWork, tankVolume, type ServiceStates, type NodeService, type LinkService, type OutletState, type RatingState, type PipeWork } from './service-state';
-export { fitPumpCurve, CURVE_SAMPLES, type PumpCurveFit } from './pump-curve';
+export { fitPumpCurve, CURVE_SAMPLES, type PumpCurveFit } from './pump-curve/index';

@@ -105,12 +105,21 @@ describe('Layout screen: a newcomer\'s first network (Chromium, real server)', f
     expect(posts, 'nothing sent to the server').to.equal(0);
     await page.keyboard.press('Escape');
 
-    // A server error's message (a project that does not exist) is cleared on leaving the page.
-    await page.goto(`${app.baseUrl}/projects/00000000-0000-4000-8000-000000000000/layout`);
+    // A server's refusal shows in the snack bar, and is cleared on leaving the page (here the
+    // server is made to refuse the next new project, the way it refused a name of spaces before).
+    await page.route('**/api/projects', (route) => (route.request().method() === 'POST'
+      ? route.fulfill({ status: 400, contentType: 'application/json', body: JSON.stringify({ error: { code: 'invalid', message: 'name: refused by the server' } }) })
+      : route.continue()));
+    await page.getByTestId('new-project').click();
+    await page.getByTestId('project-form-name').fill('North paddocks');
+    await page.getByTestId('project-form-save').click();
     const snack = page.locator('.rn-snack-error');
     await snack.first().waitFor({ timeout: 10000 });
-    await page.evaluate(() => history.back());
-    await page.waitForURL(/\/projects$/);
+    await page.keyboard.press('Escape');
+    await page.getByTestId('project-form-name').waitFor({ state: 'detached' });
+    await page.unroute('**/api/projects');
+    await page.getByRole('link', { name: 'Hillside smallholding' }).first().click();
+    await page.waitForURL(/\/projects\/[^/]+/);
     await snack.first().waitFor({ state: 'detached', timeout: 5000 });
   });
 });

@@ -1,30 +1,10 @@
 /** Pure helpers of the Layout editor: colour scale, survey maths, GeoJSON export, kinds. */
 import { expect } from 'chai';
-import { legendStops, luminance, marginColour, rampColour } from '../../client/src/app/screens/layout/editor/colour-scale';
 import { createEditor } from '../../client/src/app/screens/layout/create-editor';
 import { toGeoJson } from '../../client/src/app/screens/layout/editor/geojson-export';
 import { niceStep, projectOnPolyline } from '../../client/src/app/screens/layout/editor/geometry';
 import { nearestSurveyPoint, profileAlong, toLocalPoints } from '../../client/src/app/screens/layout/editor/survey';
 import { LINK_KINDS, NODE_KINDS, nextId, patchForPath, readPath } from '../../client/src/app/screens/layout/kinds';
-
-describe('Layout editor: colour scale', () => {
-  it('lightness rises monotonically along the ramp (readable in greyscale and for colour-vision deficiency)', () => {
-    // The design rule of perceptually ordered maps such as cividis (Nuñez et al. 2018): monotonic luminance.
-    let prev = -1;
-    for (let i = 0; i <= 50; i++) {
-      const l = luminance(rampColour(i / 50));
-      expect(l).to.be.greaterThan(prev);
-      prev = l;
-    }
-  });
-
-  it('clamps outside the range and gives a legend from low to high margin', () => {
-    expect(marginColour(-100)).to.equal(rampColour(0));
-    expect(marginColour(1000)).to.equal(rampColour(1));
-    const stops = legendStops(4);
-    expect(stops.map((s) => s.margin_m)).to.deep.equal([-5, 5, 15, 25]);
-  });
-});
 
 describe('Layout editor: geometry and survey', () => {
   it('nice steps are 1, 2 or 5 times a power of ten', () => {

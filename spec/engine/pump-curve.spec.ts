@@ -3,7 +3,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fitPumpCurve } from '../../engine/pump-curve';
+import { fitPumpCurve } from '../../engine/pump-curve/index';
 import { solve } from '../../engine/index';
 import type { NetworkDocument } from '../../engine/network-document';
 
@@ -73,7 +73,7 @@ describe('Pump curve: least-squares fit through typed points (newcomer item 3)',
     const bad = join(dir, 'bad.json');
     writeFileSync(good, JSON.stringify([[0, 40], [0.002, 30]]));
     writeFileSync(bad, JSON.stringify([[0, 40], [-1, 30]]));
-    const run = (f: string) => spawnSync(process.execPath, ['--import', 'tsx', 'engine/pump-curve-cli.ts', f], { encoding: 'utf8' });
+    const run = (f: string) => spawnSync(process.execPath, ['--import', 'tsx', 'engine/pump-curve/cli.ts', f], { encoding: 'utf8' });
     const ok = run(good);
     expect(ok.status).to.equal(0);
     expect(JSON.parse(ok.stdout).shutoff_m).to.be.closeTo(40, 1e-9);

@@ -11,7 +11,7 @@ import type { SteadyResult } from '../../../../../engine/index';
 import type { ServiceStates } from '../../../../../engine/service-state';
 import { countFittings, minorLossAllowance } from '../../../../../engine/takeoff/index';
 import { FITTINGS } from '../../../../../engine/pipe-catalogue';
-import { fitPumpCurve } from '../../../../../engine/pump-curve';
+import { fitPumpCurve } from '../../../../../engine/pump-curve/index';
 import { ownResults } from './editor/own-results';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel, UnitSystem } from '../../../../../engine/units';
 import { lengthSource } from './editor/document-store';

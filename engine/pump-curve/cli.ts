@@ -4,7 +4,7 @@
  * naming the row on bad input.
  */
 import { readFileSync } from 'node:fs';
-import { fitPumpCurve } from './pump-curve';
+import { fitPumpCurve } from './fit';
 
 function fail(message: string): never {
   process.stderr.write(`${message}\n`);

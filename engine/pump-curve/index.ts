@@ -1,0 +1,1 @@
+export { fitPumpCurve, CURVE_SAMPLES, type PumpCurveFit } from './fit';
