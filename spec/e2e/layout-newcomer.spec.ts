@@ -8,7 +8,7 @@
 import { expect } from 'chai';
 import type { Page } from 'playwright-core';
 import { signIn, useBrowserApp } from './harness';
-import { canvasPoint, clickNode, createProject, dragFromPalette, editorHook, openLayout, setProperty, shot, waitSolved } from './layout-helpers';
+import { canvasPoint, clickNode, createProject, dragFromPalette, editorHook, findProject, openLayout, setProperty, shot, waitSolved } from './layout-helpers';
 
 /** Every pressure the screen shows now, in kPa: results rows, the properties' own results and the plan's badges. */
 async function shownPressures(page: Page): Promise<number[]> {
@@ -91,6 +91,31 @@ describe('Layout screen: a newcomer\'s first network (Chromium, real server)', f
     expect(kPa).to.be.within(150, 208);
     await expectNoNegative(page, 'the finished network');
     await shot(page, 'newcomer-first-network');
+  });
+
+  it('newcomer items 7 and 9: an element\'s own pressure, need and margin sit in its properties, a tank\'s water too, and the list still shows many rows', async () => {
+    const { app, page } = ui;
+    await signIn(page, app.baseUrl, 'designer');
+    await openLayout(page, app.baseUrl, await findProject(page, app.baseUrl, 'Hillside smallholding'));
+    await waitSolved(page);
+    await clickNode(page, 'HYD');
+    await page.getByTestId('prop-results').waitFor();
+    expect(await page.getByTestId('prop-result-pressure').textContent()).to.match(/^\d+ kPa$|^[\d.]+ psi$/);
+    expect(await page.getByTestId('prop-result-needs').textContent()).to.match(/^\d+ kPa$|^[\d.]+ psi$/);
+    expect(await page.getByTestId('prop-result-margin').textContent()).to.match(/^OK \+/);
+    // With an element selected the results list still shows at least ten whole rows.
+    const visible = await page.evaluate(() => {
+      const box = document.querySelector('.results-scroll')!.getBoundingClientRect();
+      return Array.from(document.querySelectorAll('[data-testid=results-list] li')).filter((li) => {
+        const r = li.getBoundingClientRect();
+        return r.top >= box.top && r.bottom <= box.bottom;
+      }).length;
+    });
+    expect(visible).to.be.at.least(10);
+    await clickNode(page, 'T1');
+    expect(await page.getByTestId('prop-result-volume').textContent()).to.match(/^[\d,]+ (L|gal)$/);
+    expect(await page.getByTestId('prop-result-capacity').textContent()).to.match(/^[\d,]+ (L|gal)$/);
+    await shot(page, 'newcomer-own-results');
   });
 
   it('newcomer item 11: a name of spaces is refused in the form itself, and an error message does not follow the user to the next page', async () => {
