@@ -36,6 +36,8 @@ const flag = z.boolean({ error: 'must be true or false' });
 const point = z.tuple([quantity('coordinate_m'), quantity('coordinate_m')], { error: 'must be an [x_m, y_m] pair' });
 const hourly = (bound: BoundName, what: string) => z.array(quantity(bound), { error: `must be a list of 24 ${what}` }).length(24, `must be a list of 24 ${what} (one per hour)`);
 
+export const ELEVATION_SOURCES = ['unset', 'survey', 'nearest'] as const;
+
 /** Fields every node may carry. x_m/y_m are site-plan coordinates (metres, y up) used by the editor. */
 const nodeBase = {
   id,
@@ -44,6 +46,10 @@ const nodeBase = {
   x_m: quantity('coordinate_m').optional(),
   y_m: quantity('coordinate_m').optional(),
   notes: notes.optional(),
+  /** Editor: where the elevation came from (absent: typed); 'unset' asks for it and holds back pressures. */
+  elevation_source: z.enum(ELEVATION_SOURCES, { error: `must be one of ${ELEVATION_SOURCES.join(', ')}` }).optional(),
+  /** Editor: the survey point or element an elevation was taken from. */
+  elevation_from: name.optional(),
 };
 
 /** A fixed water surface: spring box, creek intake or well (head_m = water surface elevation). */
@@ -112,6 +118,10 @@ const outletNode = z.object({
    * (patterned) demand_m3s like any outlet; the flag is descriptive (takeoff, review).
    */
   float_valve: flag.optional(),
+  /** Editor wording: a trough's refill volume (its design flow is this over the refill time). */
+  refill_m3: quantity('refill_m3').optional(),
+  /** Editor wording: a drip zone's emitter count (its design flow is this times each emitter's flow). */
+  emitters: quantity('emitters').optional(),
 });
 
 const node = z.discriminatedUnion('kind', [sourceNode, tankNode, teeNode, outletNode], {
@@ -185,6 +195,9 @@ const pumpLink = z.object({
    */
   schedule: z.array(z.number().min(0).max(1), { error: 'must be 24 hourly factors between 0 and 1' })
     .length(24, 'must be 24 hourly factors between 0 and 1').optional(),
+  /** Editor: the head–flow points typed from the maker's chart; `curve` is their least-squares fit (engine/pump-curve). */
+  curve_points: z.array(z.tuple([quantity('flow_m3s'), quantity('pump_head_m')]), { error: 'must be a list of [flow_m3s, head_m] pairs' })
+    .max(100).optional(),
   control: pumpControl.optional(),
   /** Low-water cut-off on the tank the pump draws from: stop below this level, m. */
   low_cutoff: z.object({ tank: id, level_m: quantity('tank_level_m') }, { error: 'must be an object { tank, level_m }' }).optional(),
