@@ -18,8 +18,8 @@ describe('Layout: editor fields in the document schema', () => {
       outlet: { refill_m3: 0.15, emitters: 240 },
       pump: { curve_points: [[0, 31], [0.0005, 27], [0.001, 19]] },
     }));
-    expect(r.ok, JSON.stringify(r.problems)).to.equal(true);
-    const n = r.doc!.nodes[0] as { elevation_source?: string };
+    if (!r.ok) throw new Error(JSON.stringify(r.problems));
+    const n = r.doc.nodes[0] as { elevation_source?: string };
     expect(n.elevation_source).to.equal('nearest');
   });
 
