@@ -11,7 +11,6 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import type { LinkKind, NetworkDocument, NodeKind } from '../../../../../engine/network-document';
 import type { SteadyResult } from '../../../../../engine/index';
-import { formatQuantity, UnitSystem } from '../../../../../engine/units';
 import { ProjectContext } from '../../core/project-context';
 import { profileMarkers } from '../profile/profile-markers';
 import { ProfileSelection } from '../profile/profile-selection';

@@ -118,24 +118,18 @@ export class ResultsList {
     if (!res) return [];
     const u = this.units();
     const warn = this.warnings();
-    const cutOff = unsuppliedIds(res);
     const svc = this.service();
+    const cutOff = unsuppliedIds(res);
     const rows: Row[] = [];
     for (const n of this.doc().nodes) {
       const r = res.nodes[n.id];
       if (!r) continue;
-      const min = n.kind === 'outlet' ? (n.min_pressure_m ?? 0) : 0;
-      const showsPressure = n.kind === 'outlet' || n.kind === 'tee';
-      rows.push({
-        id: n.id, name: n.name || n.id, kind: n.kind,
-        value: cutOff.has(n.id) ? 'no supply'
-          : showsPressure ? pressureText(r.pressure_m, true, (p) => formatQuantity('pressure', p, u)) : formatQuantity('head', r.head_m, u) + ' head',
-        colour: showsPressure && !cutOff.has(n.id) ? marginColour(r.pressure_m - min) : null, warnings: warn.get(n.id) ?? [],
-      });
       const badge = nodeBadge(n, svc?.nodes[n.id], u);
       const value = this.unset().length ? '—'
         : n.kind === 'tank' && badge ? badge.text
-        : NODE_KINDS[n.kind].showsPressure ? formatQuantity('pressure', r.pressure_m, u)
+        : cutOff.has(n.id) ? 'no supply'
+        // No honest number for a column that separates: words instead (engine/profile/pressure-state).
+        : NODE_KINDS[n.kind].showsPressure ? pressureText(r.pressure_m, true, (p) => formatQuantity('pressure', p, u))
         : formatQuantity('head', r.head_m, u) + ' head';
       const state = badge && n.kind !== 'tank' ? badge.text : '';
       rows.push({ id: n.id, name: n.name || n.id, kind: n.kind, value, state, tone: state ? badge!.tone : null, warnings: warn.get(n.id) ?? [] });

@@ -1,10 +1,5 @@
 import Konva from 'konva';
 import type { NetworkLink, NetworkNode } from '../../../../../../engine/network-document';
-import { pressureState, pressureText } from '../../../../../../engine/profile/pressure-state';
-import { formatQuantity } from '../../../../../../engine/units';
-import { marginColour } from '../editor/colour-scale';
-import { LINK_KINDS, NODE_KINDS } from '../kinds';
-import { badge, FONT, LABEL, SELECT } from './draw';
 import type { ServiceStates } from '../../../../../../engine/service-state';
 import { BadgeTone, nodeBadge, pipeSizeText, workStroke } from '../editor/plan-words';
 import { LINK_KINDS } from '../kinds';
@@ -66,19 +61,6 @@ export class ResultOverlay {
   private drawNode(n: NetworkNode, { service, units, warnings, show }: OverlayInput): boolean {
     const v = this.views.nodes.get(n.id);
     if (!v) return false;
-    const def = NODE_KINDS[n.kind];
-    const r = results?.nodes[n.id];
-    const w = warnings.get(n.id);
-    const hasPressure = show && r && def.showsPressure;
-    const min = def.requiredPressure_m?.(n) ?? 0;
-    // no honest number for a cut-off node or a column that separates: words instead (engine/profile/pressure-state)
-    const supplied = !results?.warnings.some((x) => x.code === 'disconnected' && x.element === n.id);
-    const text = hasPressure ? pressureText(r.pressure_m, supplied, (p) => formatQuantity('pressure', p, units)) : '';
-    const colour = hasPressure ? (supplied && pressureState(r.pressure_m, true) !== 'below-vacuum' ? marginColour(r.pressure_m - min) : '#8a8f94') : '';
-    // Rebuild only what changed: most solves move few labels.
-    const warned = show && !!w?.length;
-    const key = `${text}|${colour}|${warned}`;
-    const b = show ? nodeBadge(n, service?.nodes[n.id], units) : null;
     const b = show || (n as { elevation_source?: string }).elevation_source === 'unset' ? nodeBadge(n, service?.nodes[n.id], units) : null;
     const warned = show && !!warnings.get(n.id)?.length;
     const key = `${b?.text ?? ''}|${b?.tone ?? ''}|${warned}`;

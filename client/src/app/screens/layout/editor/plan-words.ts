@@ -1,5 +1,6 @@
 import type { NetworkLink, NetworkNode } from '../../../../../../engine/network-document';
 import type { LinkService, NodeService, PipeWork } from '../../../../../../engine/service-state';
+import { PRESSURE_STATE_TEXT, pressureState } from '../../../../../../engine/profile/pressure-state';
 import { formatQuantity, toDisplay, unitLabel, UnitSystem } from '../../../../../../engine/units';
 
 /** How a badge looks: the state decides the ink, never a colour ramp. */
@@ -41,12 +42,15 @@ export function nodeBadge(n: NetworkNode, s: NodeService | undefined, units: Uni
   const ratingTone: BadgeTone | null = s.rating === 'over' ? 'over-rating' : s.rating === 'near' ? 'near-rating' : null;
   if (n.kind === 'outlet') {
     if (s.state === 'no-supply') return { text: 'no supply', tone: 'short' };
+    if (pressureState(s.pressure_m, true) === 'below-vacuum') return { text: PRESSURE_STATE_TEXT['below-vacuum'], tone: 'short' };
     const verdict =
       s.state === 'unknown' || s.margin_m === undefined ? formatQuantity('pressure', s.pressure_m, units)
       : `${s.state === 'ok' ? 'OK' : s.state} ${signedPressure(s.margin_m, units)}`;
     const tone: BadgeTone = s.state === 'short' ? 'short' : ratingTone ?? (s.state === 'close' ? 'close' : s.state === 'ok' ? 'ok' : 'quiet');
     return { text: rating ? `${verdict} · ${rating}` : verdict, tone };
   }
+  if (s.state === 'no-supply') return { text: 'no supply', tone: 'short' };
+  if (pressureState(s.pressure_m, true) === 'below-vacuum') return { text: PRESSURE_STATE_TEXT['below-vacuum'], tone: 'short' };
   if (s.pressure_m < 0) return { text: `below zero ${signedPressure(s.pressure_m, units)}`, tone: 'short' };
   return ratingTone ? { text: rating, tone: ratingTone } : null;
 }
