@@ -36,6 +36,8 @@ import { LayoutApi } from './layout-api.service';
 import { ElementPatch, PropertiesPanel } from './properties-panel';
 import { ResultsList } from './results-list';
 import { attachCanvasInput, isTyping } from './screen/canvas-input';
+import { PhoneSheet } from './screen/phone-sheet';
+import { attachTouchGestures } from './screen/touch-gestures';
 import { exportGeoJson, exportJson, readImport } from './screen/import-export';
 import { NetworkSync } from './screen/network-sync';
 import { SiteFiles } from './screen/site-files';
@@ -60,7 +62,7 @@ interface ToolButton { id: ToolId; option?: LinkKind; label: string; testid: str
   imports: [CdkDrag, MatButtonModule, MatButtonToggleModule, MatMenuModule, MatSliderModule, MatTooltipModule, PropertiesPanel, ResultsList, VersionBanner],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './layout-screen.html',
-  styleUrl: './layout-screen.scss',
+  styleUrls: ['./layout-screen.scss', './layout-phone.scss'],
   host: {
     '(document:keydown)': 'onKeyDown($event)',
     '(document:keyup)': 'onKeyUp($event)',
@@ -101,6 +103,8 @@ export class LayoutScreen {
   });
   readonly doc = signal<NetworkDocument>(this.editor.store.doc);
   readonly selection = signal<string[]>([]);
+  /** Phones: the side panel as a bottom sheet (screen/phone-sheet.ts, layout-phone.scss). */
+  protected readonly sheet = new PhoneSheet(this.selection);
   readonly tool = signal<{ id: ToolId; option?: string }>({ id: 'select' });
   readonly status = signal<SaveStatus>('loading');
   readonly units = signal<UnitSystem>('us');
@@ -299,6 +303,7 @@ export class LayoutScreen {
       resized: (w, h) => view.resize(w, h),
     });
     this.destroyRef.onDestroy(detach);
+    this.destroyRef.onDestroy(attachTouchGestures(el, this.editor));
     // Browser tests only: the hook is a lazy chunk fetched when the test page asks for it.
     if (window.__runnelTestHooks) {
       void import('./screen/test-hook').then(({ installTestHook }) => {
