@@ -46,6 +46,7 @@ describe('review sign-off in a real browser', function () {
     await reviewer.getByTestId('whatif-section').locator('mat-expansion-panel-header').click();
 
     // Pin a comment to the line and return the design.
+    await reviewer.getByTestId('comments-section').locator('mat-expansion-panel-header').click();
     await reviewer.getByTestId('comment-element').click();
     await reviewer.getByRole('option', { name: /^L-TR4/ }).click();
     await reviewer.getByTestId('comment-body').fill('L-TR4 works above 72 % of its rating at the bottom of the dip: use SIDR 9.');
@@ -61,6 +62,8 @@ describe('review sign-off in a real browser', function () {
     await signIn(designer, app.baseUrl, 'designer');
     await designer.goto(`${app.baseUrl}/projects/${projectId}/review`);
     await designer.getByTestId('returned-banner').waitFor();
+    await designer.getByTestId('thread-L-TR4').scrollIntoViewIfNeeded();
+    await shot(designer, 'returned-comments-desktop');
     await designer.getByTestId('thread-L-TR4').getByTestId('thread-element').click();
     await designer.waitForURL(/\/layout\?select=L-TR4/);
     await waitForLayout(designer);

@@ -40,7 +40,7 @@ import { ReviewApi, type ReviewThread } from './review-api.service';
         <li class="rn-thread" [class.rn-resolved]="t.resolved" [attr.data-testid]="'thread-' + (t.element ?? 'point')">
           <div class="rn-thread-head">
             <button mat-button type="button" (click)="t.element && selectElement.emit(t.element)" [disabled]="!t.element" data-testid="thread-element">
-              📍 {{ t.element ?? ('plan point ' + t.x_m?.toFixed(1) + ', ' + t.y_m?.toFixed(1) + ' m') }}
+              {{ t.element ? 'Show ' + t.element : ('plan point ' + t.x_m?.toFixed(1) + ', ' + t.y_m?.toFixed(1) + ' m') }}
             </button>
             <span class="rn-muted rn-small">version {{ t.version }} · {{ t.createdBy }} · {{ t.createdAt | date: 'short' }}</span>
             <span class="rn-verdict" [class.rn-verdict-pass]="t.resolved" [class.rn-verdict-caution]="!t.resolved">{{ t.resolved ? 'resolved' : 'open' }}</span>

@@ -58,6 +58,8 @@ export class ReviewScreen implements OnDestroy {
   readonly error = signal('');
   readonly note = signal('');
   readonly busy = signal(false);
+  /** The comments panel opens by itself when a version is loaded with open comments. */
+  readonly commentsOpen = signal(false);
   readonly statusText = STATUS_TEXT;
 
   readonly latest = computed(() => this.versions()[0]?.version ?? 0);
@@ -89,6 +91,7 @@ export class ReviewScreen implements OnDestroy {
       this.versions.set(versions);
       const pick = wanted !== null && versions.some((v) => v.version === wanted) ? wanted : versions[0]?.version ?? null;
       await Promise.all([this.open(pick), this.loadThreads()]);
+      this.commentsOpen.set(this.openCount() > 0);
     } catch {
       this.error.set('The versions of this project could not be loaded.');
     } finally {
