@@ -31,7 +31,7 @@ export function profileMarkers(doc: NetworkDocument, steady: SteadyResult | null
   if (!route || !steady || Object.keys(steady.nodes).length === 0) return [];
   const profile = profileRoute(doc, route, { steady });
   const segments = new Map(profile.segments.map((s) => [s.link, s]));
-  return profile.findings.map((f, i): PlanMarker => {
+  const marks = profile.findings.map((f, i): PlanMarker => {
     const seg = segments.get(f.link);
     const link = doc.links.find((l) => l.id === f.link);
     let at: PlanMarker['at'] = { element: f.link };
@@ -44,6 +44,18 @@ export function profileMarkers(doc: NetworkDocument, steady: SteadyResult | null
     }
     return { id: `profile-${i}`, at, kind: KIND[f.kind], label: LABEL[f.kind] };
   });
+  return mergeSamePlace(marks);
+}
+
+/** Findings at the same spot (a low point that is also the worst static pressure) share one mark. */
+function mergeSamePlace(marks: PlanMarker[]): PlanMarker[] {
+  const out: PlanMarker[] = [];
+  for (const m of marks) {
+    const same = out.find((o) => 'point' in o.at && 'point' in m.at && Math.hypot(o.at.point.x - m.at.point.x, o.at.point.y - m.at.point.y) < 1);
+    if (same) same.label = `${same.label} · ${m.label}`;
+    else out.push({ ...m });
+  }
+  return out;
 }
 
 /** The point at `fraction` (0–1) of a polyline's length. */
