@@ -7,8 +7,9 @@ import { startTestApp, type TestApp } from './test-app';
 
 describe('API: water budget (versioned, validated, outlet flows carried into the network)', () => {
   let t: TestApp;
-  before(async () => { t = await startTestApp(); });
-  after(async () => { await t.close(); });
+  // a PGlite database with migrations and the seed: slow to start on a busy machine
+  before(async function () { this.timeout(90000); t = await startTestApp(); });
+  after(async function () { this.timeout(30000); await t?.close(); });
 
   const url = (id: string) => `/api/projects/${id}/budget`;
   const outlet = (doc: NetworkDocument, id: string) => doc.nodes.find((n) => n.id === id) as OutletNode;
