@@ -68,6 +68,7 @@ export class BudgetScreen {
 
   protected readonly doc = computed<NetworkDocument | null>(() => (this.network.hasValue() ? this.network.value().document : null));
   protected readonly outletOptions = computed(() => (this.doc()?.nodes ?? []).filter((n): n is OutletNode => n.kind === 'outlet').map((n) => ({ id: n.id, name: n.name || n.id })));
+  protected readonly pumps = computed(() => (this.doc()?.links ?? []).filter((l) => l.kind === 'pump').map((l) => ({ id: l.id, name: l.name || l.id })));
   private readonly outletName = computed(() => new Map(this.outletOptions().map((o) => [o.id, o.name])));
 
   /** The engine's plan of the draft against the saved network, or the problems that stop it. */
@@ -167,6 +168,14 @@ export class BudgetScreen {
 
   protected setPeakFactor(value: string): void {
     this.change((b) => ({ ...b, peak_factor: Number(value) }));
+  }
+
+  protected setHotMonths(months: number[]): void {
+    this.change((b) => ({ ...b, hot_months: [...months].sort((x, y) => x - y) }));
+  }
+
+  protected setFillPump(id: string): void {
+    this.change((b) => ({ ...b, fill_pump: id }));
   }
 
   protected setStorageDays(value: string): void {
