@@ -1,5 +1,5 @@
 import type { HeadlossModel } from './network-document';
-import { PSI_PER_METRE_OF_WATER } from './units';
+import { FOOT_M, INCH_M, PSI_PER_METRE_OF_WATER } from './units';
 
 /**
  * Plastic pipe catalogue: dimensions and pressure ratings of the common farm-water series.
@@ -49,7 +49,7 @@ export interface PipeSize {
   rating_m: number;
 }
 
-const INCH = 0.0254;
+const INCH = INCH_M;
 
 /** Iron-pipe-size outside diameters, in (ASTM D1785/D2241/D3035 share them). */
 export const IPS_OD_IN: Record<string, number> = {
@@ -157,7 +157,7 @@ export interface PurchaseUnit {
   joint: 'coupling' | 'bell';
 }
 
-const FT = 0.3048;
+const FT = FOOT_M;
 /** Nominal sizes up to 1" in coils of 300 ft, larger PE in coils of 100 ft, 3"–4" PE in 40 ft sticks (common trade practice, M). */
 const SMALL_PE = new Set(['1/2"', '3/4"', '1"']);
 

@@ -13,9 +13,12 @@ export type Quantity =
   | 'length' | 'elevation' | 'diameter' | 'flow' | 'pressure' | 'head' | 'velocity'
   | 'volume' | 'area' | 'headloss-gradient' | 'daily-volume' | 'depth-rate' | 'duration' | 'emitter-flow';
 
-const FOOT_M = 0.3048; // exact
-const INCH_M = 0.0254; // exact
-const US_GALLON_M3 = 3.785411784e-3; // exact
+/** International foot, m (exact). Other files take unit factors from here, never retyped. */
+export const FOOT_M = 0.3048;
+/** Inch, m (exact). */
+export const INCH_M = 0.0254;
+/** US gallon, m³ (exact). */
+export const US_GALLON_M3 = 3.785411784e-3;
 /** psi per metre of water column at about 4–20 °C: 1 m H2O = 9806.65 Pa; 1 psi = 6894.757 Pa. */
 const PSI_PER_M_WATER = 9806.65 / 6894.757293168;
 

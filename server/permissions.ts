@@ -3,10 +3,10 @@
  * every /api route goes through. Roles come from the membership of the session's current team.
  */
 import type { RequestHandler } from 'express';
+import { ROLES, type Role } from '../shared/accounts';
 import { ApiError } from './errors';
 
-export const ROLES = ['admin', 'designer', 'reviewer', 'estimator', 'owner'] as const;
-export type Role = (typeof ROLES)[number];
+export { ROLES, type Role };
 
 const EVERY_MEMBER: readonly Role[] = ROLES;
 /**

@@ -1,3 +1,4 @@
+import { FOOT_M, INCH_M, US_GALLON_M3 } from '../units';
 import type { UseKind } from './budget-document';
 
 /**
@@ -11,11 +12,11 @@ import type { UseKind } from './budget-document';
  * DEFAULT_RATES['sheep'].hot_rate // 0.014 m³/day (14 L/day, AAFC, V)
  */
 
-const GAL = 3.785411784e-3; // US gallon, m³ (exact)
+const GAL = US_GALLON_M3;
 const L = 1e-3;
-const INCH = 0.0254;
+const INCH = INCH_M;
 /** 1 US gal over 1 ft² as a depth, m (3.785411784e-3 m³ / 0.09290304 m²). */
-const GAL_PER_FT2 = GAL / 0.09290304;
+const GAL_PER_FT2 = GAL / (FOOT_M * FOOT_M);
 
 /** What one unit of a use is counted in. */
 export type RateUnit = 'per-head' | 'per-tree' | 'per-person' | 'depth' | 'fixed';

@@ -1,4 +1,5 @@
 import type { NetworkDocument } from '../network-document';
+import { INCH_M } from '../units';
 
 /**
  * The two-loop network of Alperovits & Shamir (1977), Water Resources Research 13(6):885–900, as
@@ -28,7 +29,7 @@ export function twoLoop(diameters_in: number[] = TWO_LOOP_LEAST_COST_IN): Networ
       ...ELEVATION.map((e, i) => ({ id: String(i + 2), kind: 'tee' as const, elevation_m: e, demand_m3s: DEMAND_M3H[i] / 3600 })),
     ],
     links: PIPES.map(([a, b], k) => ({
-      id: `P${k + 1}`, kind: 'pipe' as const, from: String(a), to: String(b), length_m: 1000, diameter_m: diameters_in[k] * 0.0254, roughness: 130,
+      id: `P${k + 1}`, kind: 'pipe' as const, from: String(a), to: String(b), length_m: 1000, diameter_m: diameters_in[k] * INCH_M, roughness: 130,
     })),
   };
 }
@@ -36,5 +37,5 @@ export function twoLoop(diameters_in: number[] = TWO_LOOP_LEAST_COST_IN): Networ
 /** The published cost table as a priced catalogue (the `--catalogue` JSON format). */
 export const twoLoopPrices = {
   currency: 'USD',
-  items: Object.entries(TWO_LOOP_COST_PER_M).map(([d, cost]) => ({ id: `${d}in`, label: `${d} in`, diameter_m: Number(d) * 0.0254, price_per_m: cost })),
+  items: Object.entries(TWO_LOOP_COST_PER_M).map(([d, cost]) => ({ id: `${d}in`, label: `${d} in`, diameter_m: Number(d) * INCH_M, price_per_m: cost })),
 };

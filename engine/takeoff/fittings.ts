@@ -1,5 +1,6 @@
 import type { NetworkDocument, NetworkLink, NetworkNode } from '../network-document';
 import { type FittingKind, IPS_OD_IN, nominalForDiameter } from '../pipe-catalogue';
+import { INCH_M } from '../units';
 
 /**
  * Fittings counted from the network's topology and geometry (never typed):
@@ -37,7 +38,7 @@ export function linkSize(link: NetworkLink): string {
 /** Rank of a size label for "larger than" (inches by catalogue order, millimetres by value). */
 export function sizeRank(size: string): number {
   const i = ORDER.indexOf(size);
-  if (i >= 0) return IPS_OD_IN[size] * 25.4;
+  if (i >= 0) return IPS_OD_IN[size] * INCH_M * 1000;
   const mm = Number.parseFloat(size);
   return Number.isFinite(mm) ? mm : 0;
 }

@@ -5,6 +5,7 @@ import rateLimit, { ipKeyGenerator } from 'express-rate-limit';
 import type passport from 'passport';
 import { z } from 'zod';
 import { memberships, teams, users } from '../../drizzle/schema';
+import { MIN_PASSWORD_LENGTH } from '../../shared/accounts';
 import type { ApiRoutes } from '../api-routes';
 import { audit } from '../audit';
 import { buildMe, loadMe, teamsOf } from '../auth/me';
@@ -15,7 +16,7 @@ import type { AppContext } from '../context';
 import { ApiError, parseBody } from '../errors';
 import type { SessionUser } from '../types';
 
-export const PASSWORD_MIN = 10;
+export const PASSWORD_MIN = MIN_PASSWORD_LENGTH;
 export const emailField = z.email('must be an e-mail address').max(254);
 export const passwordField = z.string().min(PASSWORD_MIN, `must be at least ${PASSWORD_MIN} characters`).max(200);
 export const nameField = z.string().trim().min(1, 'is required').max(120);

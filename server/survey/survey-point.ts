@@ -8,5 +8,5 @@ export class SurveyError extends Error {
   }
 }
 
-/** International foot (exact, NIST SP 811). */
-export const METRES_PER_FOOT = 0.3048;
+/** International foot (exact, NIST SP 811), from engine/units.ts where unit factors live. */
+export { FOOT_M as METRES_PER_FOOT } from '../../engine/units';

@@ -1,6 +1,10 @@
 /** Shapes of the API's responses (see server/API.md). */
-export type Role = 'admin' | 'designer' | 'reviewer' | 'estimator' | 'owner';
-export type UnitSystem = 'us' | 'si';
+import type { Role } from '../../../../shared/accounts';
+import type { UnitSystem } from '../../../../engine/units';
+
+// Kept once: roles and the password rule in shared/accounts.ts, unit systems in engine/units.ts.
+export { MIN_PASSWORD_LENGTH, ROLES, type Role } from '../../../../shared/accounts';
+export type { UnitSystem };
 
 export interface TeamRef { id: string; name: string; roles: Role[] }
 
@@ -74,11 +78,6 @@ export interface SignUpRequest { email: string; name: string; password: string; 
 export interface ProjectCreate { name: string; siteName?: string; notes?: string; units?: UnitSystem }
 
 export type ProjectPatch = Partial<Pick<Project, 'name' | 'siteName' | 'notes' | 'units' | 'archived'>>;
-
-/** Minimum password length, as the server enforces it (server/API.md, sign-up and invitation accept). */
-export const MIN_PASSWORD_LENGTH = 10;
-
-export const ROLES: readonly Role[] = ['admin', 'designer', 'reviewer', 'estimator', 'owner'];
 
 /** Label shown for each unit system. */
 export const UNIT_SYSTEM_LABELS: Record<UnitSystem, string> = { us: 'US customary', si: 'SI (metric)' };
