@@ -76,3 +76,8 @@ function fmt(ms: number): string {
 export function runIfMain(url: string, c: BenchCase): void {
   if (process.argv[1] && url === pathToFileURL(process.argv[1]).href) printTable([measure(c)]);
 }
+
+/** Run `main` when the module at `url` is the script being run (for scripts that print their own report). */
+export function runIfMainScript(url: string, main: () => void): void {
+  if (process.argv[1] && url === pathToFileURL(process.argv[1]).href) main();
+}

@@ -13,6 +13,8 @@ import { gridSquare10k } from './grid-square-10k';
 import { gridSquare20k } from './grid-square-20k';
 import { sizingDemo } from './sizing-demo';
 import { sizingTwoLoop } from './sizing-two-loop';
+import { coldProcess } from './cold-process';
+import { factorisationRatio } from './factorisation-ratio';
 import { measure, pairedRatio, printTable, type BenchResult } from './harness';
 import { reviewWhatIfs } from './review-what-ifs';
 import { printChart10k } from './chart-10k';
@@ -31,3 +33,5 @@ const ratio = (a: string, b: string): string => {
 console.log(`\nratio 20k/10k from the medians, long grids: ${ratio('10,000 tees (40×250)', '20,000 tees (40×500)')} (target ≤ 2.5); first solves: ${ratio('10,000 tees (40×250), first', '20,000 tees (40×500), first')}; square grids: ${ratio('10,000 tees (100', '20,022 tees')}`);
 console.log(`ratio 20k/10k from 9 interleaved pairs (steadier under load), long grids: ${pairedRatio(grid10k, grid20k, 9).toFixed(2)}; first solves: ${pairedRatio(grid10kCold, grid20kCold, 9).toFixed(2)}`);
 await printChart10k();
+console.log(`\n${factorisationRatio()}`);
+console.log(`\n${coldProcess()}`);
