@@ -1,3 +1,4 @@
+// Over 400 lines: one Newton loop and the arrays it iterates; its other jobs live in gradient-solver-*.ts.
 import { HW_FLOW_EXPONENT as HW_FLOW_EXPONENT_, hazenWilliamsSecant as hazenWilliamsSecant_ } from './hazen-williams';
 import { linkLaw, outletFlow, virtualLaw, zeroFlowSlope, zeroFlowSpan, zeroPressure } from './gradient-solver-laws';
 import { firstViolation, type Tolerances } from './gradient-solver-residuals';
