@@ -29,7 +29,7 @@ export interface RunnelEditorHook {
   /** Labels shown on the canvas now (element id, or bank:<id>), as page (client) boxes. */
   labelBoxes(): LabelBox[];
 }
-export interface LabelBox { id: string; x: number; y: number; w: number; h: number }
+export interface LabelBox { id: string; x: number; y: number; w: number; h: number; /** Content variant placed: for a node with a badge 0 badge over name, 1 badge and name on a line, 2 badge alone. */ variant?: number }
 
 declare global {
   interface Window { __runnelEditor?: RunnelEditorHook }

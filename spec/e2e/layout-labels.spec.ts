@@ -49,6 +49,9 @@ describe('Layout screen: the demo plan at first sight', function () {
       // Every outlet's state reads without hovering: each outlet has its badge placed on the plan.
       const placed = new Set(labels.map((l) => l.id));
       for (const n of doc.nodes.filter((m) => m.kind === 'outlet')) expect(placed.has(n.id), `${n.id}'s badge is on the plan`).to.equal(true);
+      // ...with its name under or beside the badge, not the badge alone (item 8: no outlet's name waits for a hover).
+      const badgeOnly = labels.filter((b) => b.variant === 2).map((b) => b.id);
+      for (const n of doc.nodes.filter((m) => m.kind === 'outlet')) expect(badgeOnly, `${n.id} shows its name`).to.not.include(n.id);
       for (const id of ['T1', 'T2', 'W', 'WH']) {
         const n = doc.nodes.find((m) => m.id === id)!;
         const p = await editorHook.toClient(page, n.x_m, n.y_m);

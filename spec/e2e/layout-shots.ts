@@ -20,7 +20,12 @@ try {
     for (const units of ['us', 'si'] as const) {
       if (w < 500 && units === 'si') continue;
       await apiCall(page, app.baseUrl, 'PATCH', `/api/projects/${id}`, { units });
-      await openLayout(page, app.baseUrl, id);
+      try {
+        await openLayout(page, app.baseUrl, id);
+      } catch (e) {
+        await page.screenshot({ path: `${dir}/${tag}-${w}-${units}-failed.png` });
+        throw e;
+      }
       await page.waitForFunction(() => (window.__runnelEditor?.lastSolveMs() ?? 0) > 0);
       await page.waitForTimeout(600);
       await page.screenshot({ path: `${dir}/${tag}-${w}-${units}-site.png` });

@@ -12,6 +12,8 @@ import type { SceneViews } from './views';
 
 const NAME_FONT = 11;
 const NAME_H = 13;
+/** Space between a badge and the name beside it, px. */
+const INLINE_GAP = 4;
 /** Links shorter than this on screen show no mid-line symbol or size. */
 const MIN_MARKED_LINK_PX = 30;
 
@@ -63,8 +65,13 @@ export class LabelLayout {
       const variants: { w: number; h: number }[] = [];
       const tagW = v.tag ? textWidth(v.tagText, TAG_FONT, true) + 2 * TAG_PAD : 0;
       const tagH = TAG_FONT + 2 * TAG_PAD;
-      const showName = !inCrowdedBank.has(n.id) || selection.has(n.id);
+      // At whole-site zoom a plain junction gives up its name (hover and the results list have it),
+      // so every outlet, tank and source keeps both its state and its name on a crowded plan.
+      const quietJunction = n.kind === 'tee' && !v.tag && v.scale < 1;
+      const showName = ((!inCrowdedBank.has(n.id) && !quietJunction) || selection.has(n.id));
       if (v.tag && showName) variants.push({ w: Math.max(tagW, nameW), h: tagH + NAME_H });
+      // Then the badge and the name on one line, then the badge alone.
+      if (v.tag && showName) variants.push({ w: tagW + INLINE_GAP + nameW, h: tagH });
       if (v.tag) variants.push({ w: tagW, h: tagH });
       else if (showName) variants.push({ w: nameW, h: NAME_H });
       if (!variants.length) continue;
@@ -110,15 +117,25 @@ export class LabelLayout {
       const p = screenOf.get(n.id);
       if (!v || !p) continue;
       const at = this.placed.get(n.id);
-      const withName = !!at && (at.variant === 0 && (!v.tag || at.box.h > TAG_FONT + 2 * TAG_PAD + 1));
+      const tagH = TAG_FONT + 2 * TAG_PAD;
+      const tagW = v.tag ? textWidth(v.tagText, TAG_FONT, true) + 2 * TAG_PAD : 0;
+      const inline = !!at && !!v.tag && at.box.h <= tagH + 1 && at.box.w > tagW + 1;
+      const withName = !!at && ((at.variant === 0 && (!v.tag || at.box.h > tagH + 1)) || inline);
       v.label.visible(withName);
       v.tag?.visible(!!at && !!v.tag);
       if (!at) continue;
       const { box, side } = at;
       const align = side.endsWith('left') ? 'right' : side.endsWith('right') ? 'left' : 'center';
       let y = box.y - p.y;
+      if (inline && v.tag) {
+        // Badge first, name after it on the same line (the name's box starts past the badge).
+        v.tag.position({ x: box.x - p.x, y });
+        v.label.position({ x: box.x + tagW + INLINE_GAP - p.x, y: y + (tagH - NAME_H) / 2 + 1 });
+        v.label.width(box.w - tagW - INLINE_GAP);
+        v.label.align('left');
+        continue;
+      }
       if (v.tag) {
-        const tagW = textWidth(v.tagText, TAG_FONT, true) + 2 * TAG_PAD;
         const x = align === 'left' ? box.x : align === 'right' ? box.x + box.w - tagW : box.x + (box.w - tagW) / 2;
         v.tag.position({ x: x - p.x, y });
         y += TAG_FONT + 2 * TAG_PAD;

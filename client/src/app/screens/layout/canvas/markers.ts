@@ -80,7 +80,11 @@ export class PlanMarkers {
   }
 }
 
-interface Drawn { marker: PlanMarker; at: Point; r: number; box: Box }
+interface Drawn { marker: PlanMarker; at: Point; r: number; box: Box; label?: Box }
+
+function overlaps(a: Box | undefined, b: Box): boolean {
+  return !!a && a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
+}
 
 /**
  * Draws the markers on their own layer above the results. An element's markers sit at the
@@ -114,8 +118,16 @@ export class MarkerLayer {
       let box: Box = { x: at.x - 8, y: at.y - 22, w: 16, h: 24 };
       if (m.label) {
         const w = textWidth(m.label, 10, true);
-        g.add(new Konva.Text({ x: 8, y: -20, text: m.label, fontFamily: FONT, fontSize: 10, fontStyle: 'bold', fill: LABEL, listening: false }));
-        box = { ...box, w: box.w + w + 2 };
+        // Marks at the same place keep their words apart: each label steps down past the ones drawn.
+        let dy = 0;
+        const labelBox = () => ({ x: at!.x + 8, y: at!.y - 20 + dy, w: w + 2, h: 12 });
+        for (let i = 0; i < 6 && this.drawn.some((d) => overlaps(d.label, labelBox())); i++) dy += 12;
+        g.add(new Konva.Text({ x: 8, y: -20 + dy, text: m.label, fontFamily: FONT, fontSize: 10, fontStyle: 'bold', fill: LABEL, listening: false }));
+        const lb = labelBox();
+        box = { x: box.x, y: Math.min(box.y, lb.y), w: lb.x + lb.w - box.x, h: Math.max(box.y + box.h, lb.y + lb.h) - Math.min(box.y, lb.y) };
+        this.layer.add(g);
+        this.drawn.push({ marker: m, at, r: def.hitRadiusPx, box, label: lb });
+        continue;
       }
       this.layer.add(g);
       this.drawn.push({ marker: m, at, r: def.hitRadiusPx, box });

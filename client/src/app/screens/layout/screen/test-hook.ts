@@ -15,8 +15,8 @@ export interface RunnelEditorHook {
   frameTimes(): number[];
   /** Page (client) coordinates of a site point, for driving the canvas with a real mouse. */
   worldToClient(x_m: number, y_m: number): { x: number; y: number };
-  /** Labels shown on the canvas now (element id, or bank:<id>), as page (client) boxes. */
-  labelBoxes(): { id: string; x: number; y: number; w: number; h: number }[];
+  /** Labels shown on the canvas now (element id, or bank:<id>), as page (client) boxes, with the content variant placed (0 fullest). */
+  labelBoxes(): { id: string; x: number; y: number; w: number; h: number; variant: number }[];
 }
 
 declare global {
@@ -65,7 +65,7 @@ export function installTestHook(src: HookSource): () => void {
     },
     labelBoxes: () => {
       const r = client();
-      return [...src.placedLabels().values()].map((p) => ({ id: p.id, x: r.left + p.box.x, y: r.top + p.box.y, w: p.box.w, h: p.box.h }));
+      return [...src.placedLabels().values()].map((p) => ({ id: p.id, x: r.left + p.box.x, y: r.top + p.box.y, w: p.box.w, h: p.box.h, variant: p.variant }));
     },
   };
   return () => {
