@@ -29,7 +29,7 @@ let pool: Piscina | null = null;
  */
 function enginePool(): Piscina {
   pool ??= new Piscina({
-    filename: new URL('./worker.ts', import.meta.url).href,
+    filename: new URL('./worker-entry.mjs', import.meta.url).href,
     minThreads: 1,
     maxThreads: Math.max(1, availableParallelism() - 1),
     idleTimeout: 30_000,
