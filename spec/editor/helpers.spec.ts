@@ -1,7 +1,6 @@
 /** Pure helpers of the Layout editor: colour scale, survey maths, GeoJSON export, kinds. */
 import { expect } from 'chai';
 import { createEditor } from '../../client/src/app/screens/layout/create-editor';
-import { toGeoJson } from '../../client/src/app/screens/layout/editor/geojson-export';
 import { niceStep, projectOnPolyline } from '../../client/src/app/screens/layout/editor/geometry';
 import { nearestSurveyPoint, profileAlong, toLocalPoints } from '../../client/src/app/screens/layout/editor/survey';
 import { LINK_KINDS, NODE_KINDS, nextId, patchForPath, readPath } from '../../client/src/app/screens/layout/kinds';
@@ -42,18 +41,6 @@ describe('Layout editor: geometry and survey', () => {
 });
 
 describe('Layout editor: export and kinds', () => {
-  it('GeoJSON: nodes as Points, links as LineStrings through their bend points, fields as properties', () => {
-    const ed = createEditor();
-    ed.placeNode('tank', { x: 0, y: 0 });
-    ed.placeNode('tee', { x: 10, y: 10 });
-    ed.addLink('pipe', 'T1', 'J1', [[10, 0]]);
-    const g = toGeoJson(ed.store.doc);
-    expect(g.type).to.equal('FeatureCollection');
-    expect(g.features[0].geometry).to.deep.equal({ type: 'Point', coordinates: [0, 0] });
-    expect(g.features[2].geometry).to.deep.equal({ type: 'LineString', coordinates: [[0, 0], [10, 0], [10, 10]] });
-    expect(g.features[2].properties).to.include({ kind: 'pipe', from: 'T1', to: 'J1', length_m: 20 });
-  });
-
   it('every kind creates a record of its kind, draws a symbol and has a name field with a test id', () => {
     for (const def of Object.values(NODE_KINDS)) {
       const n = def.create('X1', 1, 2);

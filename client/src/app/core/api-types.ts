@@ -67,7 +67,9 @@ export interface OutboxMail { id: string; to: string; subject: string; text: str
 export interface AuditEntry {
   id: string | number;
   at: string;
-  userEmail: string;
+  /** A name (the user's, or Runnel for the demo set-up), never an id. */
+  who: string;
+  userEmail: string | null;
   action: string;
   target: string;
   detail: string | Record<string, unknown> | null;

@@ -23,7 +23,7 @@ import { AuditService } from '../../core/audit.service';
           </ng-container>
           <ng-container matColumnDef="userEmail">
             <th mat-header-cell *matHeaderCellDef>Who</th>
-            <td mat-cell *matCellDef="let e">{{ e.userEmail }}</td>
+            <td mat-cell *matCellDef="let e" [attr.title]="e.userEmail" data-testid="audit-who">{{ e.who }}</td>
           </ng-container>
           <ng-container matColumnDef="action">
             <th mat-header-cell *matHeaderCellDef>Action</th>

@@ -393,7 +393,8 @@ export class LayoutScreen {
   }
 
   exportGeoJson(): void {
-    exportGeoJson(this.projectName(), this.editor.store.doc);
+    const problem = exportGeoJson(this.projectName(), this.editor.store.doc, this.results());
+    if (problem) this.message.set(problem);
   }
 
   async importJson(input: HTMLInputElement): Promise<void> {

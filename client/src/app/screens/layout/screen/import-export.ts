@@ -1,5 +1,6 @@
 import type { NetworkDocument } from '../../../../../../engine/network-document';
 import { parseDocument } from '../../../../../../engine/index';
+import type { SteadyResult } from '../../../../../../engine/steady';
 import { toGeoJson } from '../editor/geojson-export';
 
 /** File ▸ Export network: the document as JSON. */
@@ -7,9 +8,12 @@ export function exportJson(projectName: string, doc: NetworkDocument): void {
   download(`${slug(projectName)}-network.json`, JSON.stringify(doc, null, 2), 'application/json');
 }
 
-/** File ▸ Export geometry: GeoJSON in local site metres (geojson-export.ts). */
-export function exportGeoJson(projectName: string, doc: NetworkDocument): void {
-  download(`${slug(projectName)}-network.geojson`, JSON.stringify(toGeoJson(doc), null, 2), 'application/geo+json');
+/** File ▸ Export geometry: GeoJSON in WGS 84 with results (geojson-export.ts); the reason when it cannot. */
+export function exportGeoJson(projectName: string, doc: NetworkDocument, results?: SteadyResult | null): string | null {
+  const out = toGeoJson(doc, results);
+  if ('message' in out) return out.message;
+  download(`${slug(projectName)}-network.geojson`, JSON.stringify(out.collection, null, 2), 'application/geo+json');
+  return null;
 }
 
 /**

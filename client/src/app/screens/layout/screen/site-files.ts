@@ -1,3 +1,4 @@
+import { geoReferenceOf, referenceAt, toLocal } from '../../../../../../engine/geo-reference';
 import type { MatDialog } from '@angular/material/dialog';
 import type { MatSnackBar } from '@angular/material/snack-bar';
 import { firstValueFrom } from 'rxjs';
@@ -84,8 +85,16 @@ export class SiteFiles {
     if (!file) return;
     try {
       const parsed = await firstValueFrom(this.host.api.parseSurvey(this.host.projectId(), file));
-      const points = toLocalPoints(parsed.points);
-      this.host.editor.store.patchLayout({ survey: { filename: file.name, format: parsed.format, points } });
+      // Geographic points place the plan on the Earth (GeoJSON export, Walk): through the plan's
+      // reference when it has one, else the first point becomes the reference's origin.
+      const existing = geoReferenceOf(this.host.editor.store.doc.layout);
+      const first = parsed.points.find((p) => p.lat !== undefined && p.lon !== undefined);
+      const geo = existing ?? (first ? referenceAt(first.lat!, first.lon!, 'gpx') : null);
+      const points = existing
+        ? parsed.points.flatMap((p) => p.x_m !== undefined && p.y_m !== undefined ? [{ label: p.label, x_m: p.x_m, y_m: p.y_m, elevation_m: p.elevation_m }]
+          : p.lat !== undefined && p.lon !== undefined ? [{ label: p.label, ...toLocal(existing, p.lat, p.lon), elevation_m: p.elevation_m }] : [])
+        : toLocalPoints(parsed.points);
+      this.host.editor.store.patchLayout({ survey: { filename: file.name, format: parsed.format, points }, ...(geo && !existing ? { geo } : {}) });
       this.host.snack.open(`${points.length} survey point(s) from ${file.name}. Select an element to apply them.`, 'OK', { duration: 6000 });
     } catch (err) {
       const e = err instanceof LayoutApiError ? err : null;
