@@ -11,7 +11,8 @@ import helmet from 'helmet';
 import { ApiRoutes, type RouteSpec } from './api-routes';
 import { createCsrf } from './auth/csrf';
 import { createPassport, currentMember } from './auth/passport';
-import { DEFAULT_BCRYPT_COST } from './auth/passwords';
+import { DEFAULT_PASSWORD_BUDGET, passwordBudget, type PasswordBudget } from './auth/password-budget';
+import { DEFAULT_BCRYPT_COST, sharedPasswordPool, type PasswordPool } from './auth/passwords';
 import { DrizzleSessionStore } from './auth/session-store';
 import type { Config } from './config';
 import type { AppContext } from './context';
@@ -45,6 +46,10 @@ export interface AppOptions {
   bcryptCost?: number;
   /** Failed sign-ins allowed per IP and e-mail per window; default 10 per 15 minutes. */
   signinLimit?: SigninLimit;
+  /** Password checks (sign-in, sign-up, invitation accept) allowed per IP per window; default 50 per 15 minutes. */
+  passwordBudget?: PasswordBudget;
+  /** Worker threads for bcrypt; default the process-wide pool (1 worker, 16 waiting). */
+  passwordPool?: PasswordPool;
   /** Insert the demo data when missing (server/seed.ts); default true. */
   seed?: boolean;
   /** Where request and error lines go; false for silence. Default console.log. */
@@ -82,11 +87,16 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   if (!config.smtp) sink = await startMailSink(db);
   const mailer = createMailer(config.smtp ?? { host: '127.0.0.1', port: sink!.port }, config.mailFrom);
 
-  const seeded = options.seed === false ? null : await seedDemo(db, { bcryptCost });
-  const ctx: AppContext = { db, config, mailer, bcryptCost, log };
+  const seeded = options.seed === false ? null : await database.exclusive(() => seedDemo(db, { bcryptCost }));
+  const passwords = options.passwordPool ?? sharedPasswordPool();
+  const ctx: AppContext = {
+    db, config, mailer, bcryptCost, log, passwords,
+    passwordBudget: passwordBudget(db, options.passwordBudget
+      ?? { ...DEFAULT_PASSWORD_BUDGET, max: config.passwordChecksPerIp ?? DEFAULT_PASSWORD_BUDGET.max }),
+  };
 
   const store = new DrizzleSessionStore(db);
-  const passport = createPassport(db, bcryptCost);
+  const passport = createPassport(db, bcryptCost, passwords);
   const csrf = createCsrf(config.sessionSecret, config.cookieSecure);
 
   const app = express();

@@ -26,6 +26,8 @@ const envSchema = z.object({
    * proxies sit in front) or a comma-separated list of proxy addresses/subnets. `true` is refused:
    * it would trust every X-Forwarded-For, letting any client choose its own IP (and its sign-in budget).
    */
+  /** Password checks (sign-in, sign-up) allowed per client IP per 15 minutes. */
+  PASSWORD_CHECKS_PER_IP: z.coerce.number().int().min(1).max(1_000_000).default(50),
   TRUST_PROXY: z.string().optional().superRefine((value, ctx) => {
     if (value === undefined || value === '') return;
     const problem = trustProxyProblem(value);
@@ -49,6 +51,8 @@ export interface Config {
   /** Base of links in e-mails (no trailing slash). */
   publicUrl: string;
   cookieSecure: boolean;
+  /** Password checks allowed per client IP per 15 minutes (server/auth/password-budget.ts). */
+  passwordChecksPerIp?: number;
   /** Express 'trust proxy': a hop count or a list of proxy addresses (absent: do not trust X-Forwarded-*). */
   trustProxy?: number | string[];
 }
@@ -85,6 +89,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     publicUrl: (e.PUBLIC_URL ?? `http://localhost:${e.PORT}`).replace(/\/+$/, ''),
     cookieSecure: e.COOKIE_SECURE ? e.COOKIE_SECURE === 'true' : production,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
+    passwordChecksPerIp: e.PASSWORD_CHECKS_PER_IP,
   };
 }
 

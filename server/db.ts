@@ -29,21 +29,54 @@ export type DatabaseTarget =
   | { kind: 'pglite'; dir?: string; lock?: DataLock }
   | { kind: 'postgres'; url: string };
 
-export interface Database { db: Db; target: DatabaseTarget; close(): Promise<void> }
+export interface Database {
+  db: Db;
+  target: DatabaseTarget;
+  /**
+   * Runs `fn` while no other instance on the same database runs its own (a PostgreSQL advisory
+   * lock; PGlite has one process per folder anyway): migrations and the demo seed, so instances
+   * started together behind a load balancer do not race each other.
+   */
+  exclusive<T>(fn: () => Promise<T>): Promise<T>;
+  close(): Promise<void>;
+}
+
+/** Our advisory lock key ("runnel" in ASCII, fits an int8). */
+const STARTUP_LOCK = 0x72756e6e656c;
+
+const direct = <T>(fn: () => Promise<T>) => fn();
 
 /** Opens the database and applies pending migrations. */
 export async function openDatabase(target: DatabaseTarget): Promise<Database> {
   if (target.kind === 'postgres') {
     const pool = new pg.Pool({ connectionString: target.url, max: 10 });
     const db = drizzlePg(pool, { schema });
-    await migratePg(db, { migrationsFolder: MIGRATIONS_DIR });
-    return { db, target, close: () => pool.end() };
+    const exclusive = async <T>(fn: () => Promise<T>): Promise<T> => {
+      const holder = await pool.connect();
+      try {
+        await holder.query('select pg_advisory_lock($1)', [STARTUP_LOCK]);
+        try {
+          return await fn();
+        } finally {
+          await holder.query('select pg_advisory_unlock($1)', [STARTUP_LOCK]);
+        }
+      } finally {
+        holder.release();
+      }
+    };
+    try {
+      await exclusive(() => migratePg(db, { migrationsFolder: MIGRATIONS_DIR }));
+    } catch (err) {
+      await pool.end();
+      throw err;
+    }
+    return { db, target, exclusive, close: () => pool.end() };
   }
   if (!target.dir) {
     const client = new PGlite();
     const db = drizzlePglite(client, { schema });
     await migratePglite(db, { migrationsFolder: MIGRATIONS_DIR });
-    return { db, target, close: () => client.close() };
+    return { db, target, exclusive: direct, close: () => client.close() };
   }
   // One process per folder (server/data-lock.ts), taken before PGlite reads a byte of it.
   mkdirSync(dirname(target.dir), { recursive: true });
@@ -53,7 +86,7 @@ export async function openDatabase(target: DatabaseTarget): Promise<Database> {
     const client = new PGlite(target.dir);
     const db = drizzlePglite(client, { schema });
     await migratePglite(db, { migrationsFolder: MIGRATIONS_DIR });
-    return { db, target, close: () => client.close().finally(() => lock.release()) };
+    return { db, target, exclusive: direct, close: () => client.close().finally(() => lock.release()) };
   } catch (err) {
     lock.release();
     throw err;

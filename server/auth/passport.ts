@@ -8,7 +8,7 @@ import { Strategy as LocalStrategy } from 'passport-local';
 import { users } from '../../drizzle/schema';
 import type { Db } from '../db';
 import type { SessionUser } from '../types';
-import { checkPassword, dummyHash } from './passwords';
+import { checkPassword, dummyHash, type PasswordPool } from './passwords';
 import { pickCurrentTeam, teamsOf } from './me';
 
 export function normaliseEmail(email: string): string {
@@ -16,13 +16,15 @@ export function normaliseEmail(email: string): string {
 }
 
 /** A passport instance of our own (not the global singleton), so several apps can run in one process. */
-export function createPassport(db: Db, bcryptCost: number): passport.Authenticator {
+export function createPassport(db: Db, bcryptCost: number, pool: PasswordPool): passport.Authenticator {
   const auth = new passport.Authenticator();
   auth.use(new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
-    db.select().from(users).where(eq(users.email, normaliseEmail(email))).then(async ([row]) => {
-      const ok = await checkPassword(password, row?.passwordHash ?? await dummyHash(bcryptCost));
-      done(null, row && ok ? { id: row.id, email: row.email, name: row.name } : false);
-    }, done);
+    // A refused check (pool busy) must reach `done`, or the request would hang.
+    (async () => {
+      const [row] = await db.select().from(users).where(eq(users.email, normaliseEmail(email)));
+      const ok = await checkPassword(password, row?.passwordHash ?? await dummyHash(bcryptCost, pool), pool);
+      return row && ok ? { id: row.id, email: row.email, name: row.name } : false;
+    })().then((user) => done(null, user), done);
   }));
   auth.serializeUser<string>((user, done) => done(null, user.id));
   auth.deserializeUser<string>((id, done) => {

@@ -53,10 +53,10 @@ export function authRoutes(api: ApiRoutes, ctx: AppContext, auth: passport.Authe
     },
   });
 
-  api.post('/auth/signup', 'public', async (req, res) => {
+  api.post('/auth/signup', 'public', ctx.passwordBudget, async (req, res) => {
     const body = parseBody(signupBody, req.body);
     const email = normaliseEmail(body.email);
-    const passwordHash = await hashPassword(body.password, ctx.bcryptCost);
+    const passwordHash = await hashPassword(body.password, ctx.bcryptCost, ctx.passwords);
     const created = await db.transaction(async (tx) => {
       const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, email));
       if (existing) throw new ApiError('conflict', 'An account with this e-mail already exists; sign in instead',
@@ -78,7 +78,7 @@ export function authRoutes(api: ApiRoutes, ctx: AppContext, auth: passport.Authe
     next();
   };
 
-  api.post('/auth/signin', 'public', validSignin, signinLimiter, (req, res, next) => {
+  api.post('/auth/signin', 'public', validSignin, signinLimiter, ctx.passwordBudget, (req, res, next) => {
     auth.authenticate('local', { session: false }, (err: unknown, user: SessionUser | false) => {
       if (err) return next(err);
       if (!user) return next(new ApiError('unauthenticated', 'E-mail or password is wrong'));

@@ -3,6 +3,7 @@
  * address: a signed-in account with another e-mail is refused (403) unless the admin set the
  * audited `anyAccount` override when inviting; someone signed out creates the account of that address.
  */
+import type { RequestHandler } from 'express';
 import { and, eq, isNull } from 'drizzle-orm';
 import { z } from 'zod';
 import { invitations, memberships, teams, users } from '../../drizzle/schema';
@@ -47,7 +48,10 @@ export function invitationLinkRoutes(api: ApiRoutes, ctx: AppContext): void {
     });
   });
 
-  api.post('/invitations/:token/accept', 'public', async (req, res) => {
+  // Only a new account's password is hashed, so only signed-out accepts spend the password budget.
+  const budgetWhenSignedOut: RequestHandler = (req, res, next) => (req.user ? next() : ctx.passwordBudget(req, res, next));
+
+  api.post('/invitations/:token/accept', 'public', budgetWhenSignedOut, async (req, res) => {
     const body = parseBody(acceptBody, req.body);
     const tokenHash = hashToken(parseBody(tokenField, req.params.token, 'Invalid invitation link'));
     const signedIn = req.user;
@@ -59,7 +63,7 @@ export function invitationLinkRoutes(api: ApiRoutes, ctx: AppContext): void {
       ];
       if (fields.length) throw new ApiError('validation', 'Sign in, or give a name and password to create your account', { fields });
     }
-    const passwordHash = signedIn ? '' : await hashPassword(body.password!, ctx.bcryptCost);
+    const passwordHash = signedIn ? '' : await hashPassword(body.password!, ctx.bcryptCost, ctx.passwords);
     const teamId = await db.transaction(async (tx) => {
       // Only an open invitation is taken; a concurrent accept finds nothing here.
       const [invitation] = await tx.update(invitations).set({ acceptedAt: new Date() })

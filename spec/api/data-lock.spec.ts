@@ -14,12 +14,18 @@ import { makeTempDir, removeTempDir } from './test-app';
 
 const repoRoot = new URL('../..', import.meta.url).pathname;
 
+/** The lock is PGlite's: a DATABASE_URL in the caller's environment must not switch the server to PostgreSQL. */
+function withoutDatabaseUrl(): NodeJS.ProcessEnv {
+  const { DATABASE_URL: _ignored, ...rest } = process.env;
+  return rest;
+}
+
 interface Child { proc: ChildProcess; output: () => string; exited: Promise<number | null> }
 
 function run(args: string[], env: Record<string, string>): Child {
   let output = '';
   const proc = spawn(process.execPath, ['--import', 'tsx', ...args], {
-    cwd: repoRoot, env: { ...process.env, NODE_ENV: 'test', HOST: '127.0.0.1', ...env }, stdio: ['ignore', 'pipe', 'pipe'],
+    cwd: repoRoot, env: { ...withoutDatabaseUrl(), NODE_ENV: 'test', HOST: '127.0.0.1', ...env }, stdio: ['ignore', 'pipe', 'pipe'],
   });
   proc.stdout!.on('data', (d) => (output += d));
   proc.stderr!.on('data', (d) => (output += d));

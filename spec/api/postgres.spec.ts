@@ -1,7 +1,7 @@
 /**
- * The same migrations and a sign-in round trip against a real PostgreSQL server. Runs only when
- * DATABASE_URL is set and reachable (e.g. DATABASE_URL=postgres://runnel:pw@127.0.0.1:5432/runnel_test);
- * otherwise it is skipped. It writes the demo data into that database.
+ * The same migrations and a sign-in round trip against a real PostgreSQL server. Runs when
+ * RUNNEL_TEST_PG_URL (set by .ci/with-postgres.sh, which `.ci/run` uses) or DATABASE_URL is set and
+ * reachable; otherwise it is skipped. It writes the demo data into a fresh database on that server.
  */
 import { expect } from 'chai';
 import pg from 'pg';
@@ -23,7 +23,7 @@ async function reachable(url: string): Promise<boolean> {
 }
 
 describe('API on PostgreSQL (DATABASE_URL)', function () {
-  const url = process.env['DATABASE_URL'];
+  const url = process.env['RUNNEL_TEST_PG_URL'] ?? process.env['DATABASE_URL'];
   let database: Database | undefined;
   let t: TestApp | undefined;
 

@@ -2,14 +2,16 @@
  * Shared helpers for the API tests: an app on a throw-away PGlite with the real migrations applied
  * and the demo data seeded, and agents that carry the session cookie and the CSRF token.
  */
+import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { expect } from 'chai';
+import pg from 'pg';
 import supertest from 'supertest';
 import { createApp, type AppOptions, type RunnelApp } from '../../server/app';
 import type { Config } from '../../server/config';
-import { openDatabase } from '../../server/db';
+import { openDatabase, type Database } from '../../server/db';
 import type { Role } from '../../server/permissions';
 import { DEMO_PASSWORD, DEMO_USERS, OTHER_USER } from '../../server/seed';
 
@@ -33,18 +35,63 @@ export interface TestApp extends RunnelApp {
 }
 
 /**
- * Builds the app on an in-memory PGlite (or a PGlite in `dataDir`, which survives close() so a
- * test can reopen it), applies migrations and seeds. Call close() in after().
+ * The store the API suite runs on: PGlite in memory by default; with RUNNEL_TEST_STORE=postgres, a
+ * fresh database per app on the PostgreSQL server at RUNNEL_TEST_PG_URL (.ci/with-postgres.sh), so
+ * the whole suite proves both stores. Returns the database and how to remove it.
+ */
+export async function testDatabase(): Promise<{ database: Database; drop(): Promise<void> }> {
+  if (process.env['RUNNEL_TEST_STORE'] !== 'postgres') {
+    const database = await openDatabase({ kind: 'pglite' });
+    return { database, drop: async () => undefined };
+  }
+  const server = process.env['RUNNEL_TEST_PG_URL'];
+  if (!server) throw new Error('RUNNEL_TEST_STORE=postgres needs RUNNEL_TEST_PG_URL (run through .ci/with-postgres.sh)');
+  const fresh = await freshPostgresDatabase(server);
+  const database = await openDatabase({ kind: 'postgres', url: fresh.url });
+  return { database, drop: fresh.drop };
+}
+
+/** A new, empty database on the PostgreSQL server at `server`; drop() removes it. */
+export async function freshPostgresDatabase(server: string): Promise<{ url: string; drop(): Promise<void> }> {
+  const name = `runnel_t_${randomBytes(6).toString('hex')}`;
+  await adminQuery(server, `create database ${name}`);
+  const url = new URL(server);
+  url.pathname = `/${name}`;
+  return { url: url.toString(), drop: () => adminQuery(server, `drop database if exists ${name} with (force)`) };
+}
+
+async function adminQuery(url: string, sql: string): Promise<void> {
+  const client = new pg.Client({ connectionString: url });
+  await client.connect();
+  try {
+    await client.query(sql);
+  } finally {
+    await client.end();
+  }
+}
+
+/**
+ * Builds the app on the test store (testDatabase: in-memory PGlite, or a fresh PostgreSQL database)
+ * or on a PGlite in `dataDir` (which survives close() so a test can reopen it), applies migrations
+ * and seeds. Call close() in after().
  */
 export async function startTestApp(options: Partial<AppOptions> & { dataDir?: string } = {}): Promise<TestApp> {
   const { dataDir, ...rest } = options;
-  const database = rest.database ?? await openDatabase(dataDir ? { kind: 'pglite', dir: join(dataDir, 'pg') } : { kind: 'pglite' });
+  let drop = async () => undefined as void;
+  let database = rest.database;
+  if (!database && dataDir) database = await openDatabase({ kind: 'pglite', dir: join(dataDir, 'pg') });
+  if (!database) ({ database, drop } = await testDatabase());
   const runnel = await createApp({
-    config: testConfig(dataDir ?? '/nonexistent-test-data'), bcryptCost: TEST_BCRYPT_COST, log: false, ...rest, database,
+    config: testConfig(dataDir ?? '/nonexistent-test-data'), bcryptCost: TEST_BCRYPT_COST, log: false,
+    // Every test signs in from 127.0.0.1, hundreds of times: the per-IP budget has its own spec.
+    passwordBudget: { max: 1_000_000, windowMs: 60_000 }, ...rest, database,
   });
   const close = async () => {
     await runnel.close();
-    if (!rest.database) await database.close();
+    if (!rest.database) {
+      await database.close();
+      await drop();
+    }
   };
   const t: TestApp = {
     ...runnel,
