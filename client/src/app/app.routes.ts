@@ -82,7 +82,7 @@ export const routes: Routes = [
         title: 'Takeoff · Runnel',
         loadComponent: () => import('./screens/takeoff/takeoff-screen').then((m) => m.TakeoffScreen),
       },
-      placeholder('files', 'Files', 'Holds uploaded backdrops and survey files (CSV, GPX) for the project.'),
+      { path: 'files', title: 'Files · Runnel', loadComponent: () => import('./screens/files/files-screen').then((m) => m.FilesScreen) },
     ],
   },
   {

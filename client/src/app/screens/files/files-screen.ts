@@ -1,0 +1,51 @@
+import { DatePipe, DecimalPipe } from '@angular/common';
+import { HttpClient } from '@angular/common/http';
+import { Component, inject, input, resource } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatTableModule } from '@angular/material/table';
+import { firstValueFrom } from 'rxjs';
+import { SessionService } from '../../core/session.service';
+
+interface ProjectFile { id: string; kind: string; filename: string; mime: string; size: number; createdAt: string; createdBy: string | null }
+
+/** The project's uploads (backdrops, surveys, walk photos): who and when, download, delete. */
+@Component({
+  selector: 'app-files-screen',
+  imports: [MatTableModule, MatButtonModule, DatePipe, DecimalPipe],
+  template: `
+    <section class="files" data-testid="files-screen">
+      <h2>Files</h2>
+      @if (files.hasValue() && files.value().length === 0) { <p>No uploads yet: backdrops and surveys come from the Layout, photos from Walk.</p> }
+      @if (files.hasValue() && files.value().length) {
+        <table mat-table [dataSource]="files.value()">
+          <ng-container matColumnDef="name"><th mat-header-cell *matHeaderCellDef>File</th>
+            <td mat-cell *matCellDef="let f"><a [href]="url(f)" download>{{ f.filename }}</a></td></ng-container>
+          <ng-container matColumnDef="kind"><th mat-header-cell *matHeaderCellDef>Kind</th><td mat-cell *matCellDef="let f">{{ f.kind }}</td></ng-container>
+          <ng-container matColumnDef="size"><th mat-header-cell *matHeaderCellDef>Size</th><td mat-cell *matCellDef="let f">{{ f.size / 1024 | number: '1.0-0' }} KB</td></ng-container>
+          <ng-container matColumnDef="who"><th mat-header-cell *matHeaderCellDef>Added</th>
+            <td mat-cell *matCellDef="let f">{{ f.createdBy ?? 'unknown' }}, {{ f.createdAt | date: 'medium' }}</td></ng-container>
+          <ng-container matColumnDef="actions"><th mat-header-cell *matHeaderCellDef></th>
+            <td mat-cell *matCellDef="let f">@if (canWrite()) { <button mat-button (click)="remove(f)">Delete</button> }</td></ng-container>
+          <tr mat-header-row *matHeaderRowDef="columns"></tr>
+          <tr mat-row *matRowDef="let row; columns: columns"></tr>
+        </table>
+      }
+    </section>`,
+  styles: `.files { padding: 16px; overflow-x: auto; } table { min-width: 560px; }`,
+})
+export class FilesScreen {
+  private readonly http = inject(HttpClient);
+  private readonly session = inject(SessionService);
+  readonly projectId = input.required<string>();
+  readonly columns = ['name', 'kind', 'size', 'who', 'actions'];
+  readonly files = resource({
+    params: () => this.projectId(),
+    loader: ({ params }) => firstValueFrom(this.http.get<ProjectFile[]>(`/api/projects/${encodeURIComponent(params)}/files`)),
+  });
+  canWrite = () => this.session.can('files.write');
+  url = (f: ProjectFile) => `/api/projects/${encodeURIComponent(this.projectId())}/files/${encodeURIComponent(f.id)}`;
+  async remove(f: ProjectFile): Promise<void> {
+    await firstValueFrom(this.http.delete(this.url(f)));
+    this.files.reload();
+  }
+}
