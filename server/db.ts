@@ -50,6 +50,9 @@ const direct = <T>(fn: () => Promise<T>) => fn();
 export async function openDatabase(target: DatabaseTarget): Promise<Database> {
   if (target.kind === 'postgres') {
     const pool = new pg.Pool({ connectionString: target.url, max: 10 });
+    // An idle pooled connection the server drops (restart, failover, an administrator) errors on the
+    // pool; without a listener that error would end the process. The pool replaces the connection.
+    pool.on('error', (err) => console.error(`PostgreSQL dropped an idle connection: ${err.message}`));
     const db = drizzlePg(pool, { schema });
     const exclusive = async <T>(fn: () => Promise<T>): Promise<T> => {
       const holder = await pool.connect();

@@ -1,6 +1,6 @@
 /**
  * The same migrations and a sign-in round trip against a real PostgreSQL server. Runs when
- * RUNNEL_TEST_PG_URL (set by .ci/with-postgres.sh, which `.ci/run` uses) or DATABASE_URL is set and
+ * RUNNEL_TEST_PG_URL (set by scripts/with-postgres.sh, which `npm test` uses for its PostgreSQL pass) or DATABASE_URL is set and
  * reachable; otherwise it is skipped. It writes the demo data into a fresh database on that server.
  */
 import { expect } from 'chai';

@@ -36,7 +36,7 @@ export interface TestApp extends RunnelApp {
 
 /**
  * The store the API suite runs on: PGlite in memory by default; with RUNNEL_TEST_STORE=postgres, a
- * fresh database per app on the PostgreSQL server at RUNNEL_TEST_PG_URL (.ci/with-postgres.sh), so
+ * fresh database per app on the PostgreSQL server at RUNNEL_TEST_PG_URL (scripts/with-postgres.sh), so
  * the whole suite proves both stores. Returns the database and how to remove it.
  */
 export async function testDatabase(): Promise<{ database: Database; drop(): Promise<void> }> {
@@ -45,7 +45,7 @@ export async function testDatabase(): Promise<{ database: Database; drop(): Prom
     return { database, drop: async () => undefined };
   }
   const server = process.env['RUNNEL_TEST_PG_URL'];
-  if (!server) throw new Error('RUNNEL_TEST_STORE=postgres needs RUNNEL_TEST_PG_URL (run through .ci/with-postgres.sh)');
+  if (!server) throw new Error('RUNNEL_TEST_STORE=postgres needs RUNNEL_TEST_PG_URL (run through scripts/with-postgres.sh)');
   const fresh = await freshPostgresDatabase(server);
   const database = await openDatabase({ kind: 'postgres', url: fresh.url });
   return { database, drop: fresh.drop };

@@ -2,7 +2,7 @@
  * Two app instances on one PostgreSQL database, as behind a load balancer (issue 13, scale-out):
  * they start together (migrations and seed serialised by an advisory lock), a session made on one
  * works on the other, concurrent saves across them have exactly one winner, and the outbox, audit
- * log and sign-in limits are shared. Runs when RUNNEL_TEST_PG_URL (.ci/with-postgres.sh) or
+ * log and sign-in limits are shared. Runs when RUNNEL_TEST_PG_URL (scripts/with-postgres.sh) or
  * DATABASE_URL points at a reachable server; skipped otherwise.
  */
 import { expect } from 'chai';

@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # Runs a command with a throw-away PostgreSQL server (Debian's `postgresql` package) on 127.0.0.1,
 # exporting RUNNEL_TEST_PG_URL for the API tests; the server and its folder are removed afterwards.
-#   bash .ci/with-postgres.sh npx mocha 'spec/api/**/*.spec.ts'
+#   bash scripts/with-postgres.sh npx mocha 'spec/api/**/*.spec.ts'
 set -euo pipefail
 
 bin=$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -1 || true)
