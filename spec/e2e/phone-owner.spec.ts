@@ -103,7 +103,10 @@ describe('Phone: the owner opens the demo', function () {
         await page.getByTestId('version-status').first().waitFor();
         await page.screenshot({ path: `${SHOTS}/owner-review-${size.width}.png` });
         await nothingCutOff(page, ['[data-testid=version-status]', '[data-testid=review-screen]']);
-        await page.getByTestId('comments-section').scrollIntoViewIfNeeded();
+        // The comments panel opens by itself only when comments are open; otherwise the owner opens it.
+        const comments = page.getByTestId('comments-section');
+        await comments.scrollIntoViewIfNeeded();
+        if (!(await page.getByTestId('comment-element').isVisible())) await comments.locator('mat-expansion-panel-header').tap();
         // The owner comments from the phone, pinned to a trough.
         await page.getByTestId('comment-element').tap();
         await page.getByRole('option', { name: /East trough/ }).first().tap();

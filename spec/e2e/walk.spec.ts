@@ -83,7 +83,8 @@ describe('Walk mode: recording on a phone without signal', function () {
       await placePhone(cdp, 0, 0, 4);
       await page.getByTestId('walk-fix').filter({ hasText: /^.?Fix/ }).waitFor();
       await page.getByTestId('walk-record').click();
-      expect(await page.getByTestId('walk-message').innerText()).to.match(/huge\.jpg" is 26\.0 MB; photos up to 25\.0 MB/);
+      // the photo is checked asynchronously: wait for its message to replace the poor-fix one
+      await page.getByTestId('walk-message').filter({ hasText: /huge\.jpg" is 26\.0 MB; photos up to 25\.0 MB/ }).waitFor();
       expect(await page.getByTestId('walk-elevation').inputValue()).to.equal('320');
       // A real photo, made in the page as a camera would (4000 × 3000 JPEG).
       const jpeg = Buffer.from(await page.evaluate(async () => {
