@@ -41,6 +41,11 @@ export interface SimulateOptions {
   omega?: number;
   /** Largest level error a step may add, m (default 1e-4: levels to well under 1 mm at any report step). */
   tolerance_m?: number;
+  /**
+   * Called with the fraction of the duration simulated (0 < fraction ≤ 1), at most about a hundred
+   * times per run and always with 1 at the end: a worker forwards it to a progress bar.
+   */
+  onProgress?: (fraction: number) => void;
 }
 
 export interface SimulationSummary {
@@ -191,6 +196,8 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
   let t = 0;
   let nextReport = options.step_s;
   let suggest = Math.min(options.step_s, 3600);
+  const onProgress = options.onProgress;
+  let progressed = 0;
   while (t < duration - 1e-6) {
     const nextHour = (Math.floor(t / 3600 + 1e-9) + 1) * 3600;
     const boundary = Math.min(nextReport, duration, nextHour);
@@ -241,7 +248,9 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
       record(t);
       nextReport += options.step_s;
     }
+    if (onProgress && t >= (progressed + 0.01) * duration && t < duration - 1e-6) { progressed = t / duration; onProgress(progressed); }
   }
+  onProgress?.(1);
 
   const result = emptyResult([]);
   result.times_s = times;

@@ -96,4 +96,17 @@ describe('extended-period simulation (simulate.ts)', () => {
     const firstMin = longer.tanks['T'].level_m.findIndex((l) => l <= 0.05 + 1e-12);
     expect(Math.abs(longer.times_s[firstMin] - emptyAt)).to.be.below(3);
   });
+
+  it('reports progress: rising fractions of the duration, about a hundred at most, ending at 1', () => {
+    const seen: number[] = [];
+    const run = simulate(fillDraw(), { duration_s: 2 * 86400, step_s: 60, onProgress: (f) => seen.push(f) });
+    expect(run.times_s.length).to.equal(2 * 1440 + 1);
+    expect(seen.length).to.be.within(50, 101);
+    expect(seen[seen.length - 1]).to.equal(1);
+    for (let i = 1; i < seen.length; i++) expect(seen[i], `call ${i}`).to.be.above(seen[i - 1]);
+    expect(seen[0]).to.be.within(0.01, 0.02);
+    const none: number[] = [];
+    simulate(fillDraw(), { duration_s: 0, step_s: 60, onProgress: (f) => none.push(f) });
+    expect(none).to.deep.equal([1]);
+  });
 });

@@ -2,7 +2,8 @@
 /**
  * The Timeline's solver worker: runs the engine's extended-period simulation off the main
  * thread, then derives the plotted series, the events and each tank bank's equalisation time.
- * In: { doc, duration_s, step_s }. Out: { result } or { error }. Cancel = the page terminates the
+ * In: { doc, duration_s, step_s }. Out: { stage }, { progress } (fraction of the simulated time, at
+ * most about a hundred messages), then { result } or { error }. Cancel = the page terminates the
  * worker (the simulation is one synchronous call, so stopping the thread is the only way to stop it).
  */
 import { simulate } from '../../../../../engine/simulate';
@@ -14,7 +15,7 @@ addEventListener('message', (event: MessageEvent<{ doc: NetworkDocument; duratio
   const t0 = performance.now();
   try {
     postMessage({ stage: 'simulating' });
-    const sim = simulate(doc, { duration_s, step_s });
+    const sim = simulate(doc, { duration_s, step_s, onProgress: (progress) => postMessage({ progress }) });
     const simMs = performance.now() - t0;
     if (sim.times_s.length === 0) {
       postMessage({ error: sim.warnings.map((w) => w.message).join('; ') || 'The simulation produced nothing' });

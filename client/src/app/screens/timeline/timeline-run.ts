@@ -15,13 +15,15 @@ export interface TimelineResult {
 }
 
 /**
- * One simulation at a time in its own worker, with a stage for the progress bar and a Cancel that
- * ends the worker (a new one starts for the next run).
+ * One simulation at a time in its own worker, with a stage and the fraction done for the progress
+ * bar and a Cancel that ends the worker (a new one starts for the next run).
  */
 export class TimelineRun {
   private worker: Worker | null = null;
   readonly running = signal(false);
   readonly stage = signal<'idle' | 'starting' | 'simulating' | 'events'>('idle');
+  /** Fraction of the simulated time done (0–1), from the worker's progress messages. */
+  readonly progress = signal(0);
   readonly result = signal<TimelineResult | null>(null);
   readonly error = signal<string | null>(null);
   readonly started = signal(0);
@@ -33,10 +35,12 @@ export class TimelineRun {
     this.worker = worker;
     this.running.set(true);
     this.stage.set('starting');
+    this.progress.set(0);
     this.error.set(null);
     this.started.set(performance.now());
-    worker.addEventListener('message', (e: MessageEvent<{ stage?: 'simulating' | 'events'; result?: TimelineResult; error?: string }>) => {
+    worker.addEventListener('message', (e: MessageEvent<{ stage?: 'simulating' | 'events'; progress?: number; result?: TimelineResult; error?: string }>) => {
       if (this.worker !== worker) return;
+      if (typeof e.data.progress === 'number') { this.progress.set(e.data.progress); return; }
       if (e.data.stage) { this.stage.set(e.data.stage); return; }
       if (e.data.result) this.result.set(e.data.result);
       if (e.data.error) this.error.set(e.data.error);
