@@ -98,7 +98,7 @@ export function equalisationTime(doc: unknown, options: EqualiseOptions): Equali
     let speed = 0;
     for (const i of bank) speed = Math.max(speed, Math.abs(k1[i]));
     if (speed < 1e-12) return { ...fail('no water moves between the tanks (no open path between them)'), time_s: t, levels_m: levelsOf(level) };
-    let dt = Math.min((0.02 * s) / speed, maxTime - t);
+    const dt = Math.min((0.02 * s) / speed, maxTime - t);
     const stage = (from: Float64Array, k: Float64Array, h: number): Float64Array => {
       for (const i of tanks) tmp[i] = Math.max(from[i] + h * k[i], minLevel[i]);
       return tmp;

@@ -41,6 +41,8 @@ interface Frame { value: unknown; key: string; parent: Frame | null; depth: numb
 
 function pathOf(frame: Frame): string {
   const keys: string[] = [];
+  // The NUL is what is being replaced: it would end the text in a log line.
+  // eslint-disable-next-line no-control-regex
   for (let f: Frame | null = frame; f && f.parent; f = f.parent) keys.unshift(f.key.replace(/[\u0000\uD800-\uDFFF]/g, '?'));
   const shown = keys.length > 12 ? [...keys.slice(0, 6), '…', ...keys.slice(-3)] : keys;
   return shown.join('.') || '(body)';

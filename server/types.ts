@@ -8,7 +8,8 @@ export interface CurrentMembership { teamId: string; teamName: string; roles: Ro
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
-    // Passport's req.user
+    // Passport's req.user (an empty interface is how a global type is extended)
+    // eslint-disable-next-line @typescript-eslint/no-empty-object-type
     interface User extends SessionUser {}
     interface Request {
       /** Membership of the session's current team (currentMember in server/auth/passport.ts). */

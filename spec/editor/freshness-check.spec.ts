@@ -93,7 +93,11 @@ describe('Layout editor: checking for a newer saved version', () => {
     const timers = new ManualTimers();
     let doc = emptyDocument();
     const puts: number[] = [];
-    const c = new SaveController({ put: async (v) => (puts.push(v), { kind: 'saved', version: v + 1 }) }, timers, () => doc);
+    const put = async (v: number) => {
+      puts.push(v);
+      return { kind: 'saved' as const, version: v + 1 };
+    };
+    const c = new SaveController({ put }, timers, () => doc);
     c.loaded(4);
     doc = { ...doc, title: 'mine' };
     c.changed();

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import type { NetworkDocument, NetworkLink, NetworkNode, PipeLink, PumpLink, ValveLink } from '../../engine/network-document';
-import { solve, type SteadyResult } from '../../engine/steady';
+import type { SteadyResult } from '../../engine/steady';
 
 /**
  * Generated networks with every kind of element (fast-check): looped and branched pipes, one or two

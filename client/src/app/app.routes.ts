@@ -1,16 +1,6 @@
 import { Routes } from '@angular/router';
 import { permissionGuard, signedInGuard, signedOutGuard } from './core/guards';
 
-/** Placeholder tabs: `screenTitle` and `purpose` reach PlaceholderScreen as inputs. */
-function placeholder(path: string, screenTitle: string, purpose: string) {
-  return {
-    path,
-    title: `${screenTitle} · Runnel`,
-    data: { screenTitle, purpose },
-    loadComponent: () => import('./screens/placeholder/placeholder-screen').then((m) => m.PlaceholderScreen),
-  };
-}
-
 export const routes: Routes = [
   { path: '', pathMatch: 'full', redirectTo: 'projects' },
   {

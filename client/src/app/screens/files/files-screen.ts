@@ -10,7 +10,7 @@ interface ProjectFile { id: string; kind: string; filename: string; mime: string
 
 /** The project's uploads (backdrops, surveys, walk photos): who and when, download, delete. */
 @Component({
-  selector: 'app-files-screen',
+  selector: 'rn-files-screen',
   imports: [MatTableModule, MatButtonModule, DatePipe, DecimalPipe],
   template: `
     <section class="files" data-testid="files-screen">

@@ -74,7 +74,10 @@ interface ToolButton { id: ToolId; option?: LinkKind; label: string; testid: str
 export class LayoutScreen {
   readonly projectId = input.required<string>();
   /** Review links: `?version=N` shows that saved version read-only; `?select=ID` selects an element. */
+  // The router binds query parameters by name; the alias keeps `version` free of the class's own meaning.
+  // eslint-disable-next-line @angular-eslint/no-input-rename
   readonly versionParam = input<string | undefined>(undefined, { alias: 'version' });
+  // eslint-disable-next-line @angular-eslint/no-input-rename
   readonly selectParam = input<string | undefined>(undefined, { alias: 'select' });
 
   private readonly api = inject(LayoutApi);

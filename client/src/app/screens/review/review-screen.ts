@@ -40,6 +40,8 @@ const STATUS_TEXT: Record<VersionStatus, string> = {
 export class ReviewScreen implements OnDestroy {
   readonly projectId = input.required<string>();
   /** `?version=N` from a mail link; default the newest version. */
+  // The router binds query parameters by name.
+  // eslint-disable-next-line @angular-eslint/no-input-rename
   readonly versionParam = input<string | undefined>(undefined, { alias: 'version' });
 
   private readonly api = inject(ReviewApi);

@@ -7,7 +7,7 @@ import type { PointerInput, Tool, ToolHost } from './tool';
  */
 export class PlaceTool implements Tool {
   readonly id = 'place' as const;
-  state: 'aiming' = 'aiming';
+  state = 'aiming' as const;
 
   constructor(private readonly ed: ToolHost, readonly kind: NodeKind) {}
 
