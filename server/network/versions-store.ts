@@ -32,13 +32,16 @@ export async function recordVersion(tx: DbOrTx, v: {
   projectId: string; version: number; document: NetworkDocument; results: unknown; userId: string;
   previous: NetworkDocument | null; restoredFrom?: number; at: Date;
 }): Promise<void> {
-  const change = v.previous ? summariseDiff(diffVersions(v.previous, v.document)) : `first version (${v.document.nodes.length} nodes, ${v.document.links.length} links)`;
+  const change = v.previous ? summariseDiff(diffVersions(v.previous, v.document)) : `first version (${count(v.document.nodes.length, 'point', 'points')} joined by ${count(v.document.links.length, 'pipe, pump or valve', 'pipes, pumps and valves')})`;
   const summary = v.restoredFrom ? `restored version ${v.restoredFrom}: ${change}` : change;
   await tx.insert(networkVersions).values({
     projectId: v.projectId, version: v.version, document: v.document, results: v.results, summary,
     restoredFrom: v.restoredFrom ?? null, createdAt: v.at, createdBy: v.userId,
   });
 }
+
+/** "1 point", "28 points": the summary speaks of the plan, not of graph terms. */
+const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
 
 const creator = alias(users, 'creator');
 const decider = alias(users, 'decider');

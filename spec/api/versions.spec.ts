@@ -26,7 +26,7 @@ describe('API: network versions', () => {
     const list = await (await t.signInAs('owner')).get(url(id, '/versions')).expect(200);
     expect(list.body.versions.map((v: { version: number }) => v.version)).to.deep.equal([2, 1]);
     const [v2, v1] = list.body.versions;
-    expect(v1.summary).to.equal('first version (2 nodes, 1 links)');
+    expect(v1.summary).to.equal('first version (2 points joined by 1 pipe, pump or valve)');
     expect(v2.summary).to.equal('changed P1 (diameter_m); added O2, P2');
     expect(v2.createdBy).to.equal('Dana Designer');
     expect(v2.status).to.equal('draft');
