@@ -51,6 +51,19 @@ import { AuditService } from '../../core/audit.service';
     .mat-column-at { white-space: nowrap; }
     .rn-detail { color: var(--mat-sys-on-surface-variant); max-width: 360px; overflow-wrap: anywhere; }
     .rn-empty { padding: 24px 16px; color: var(--mat-sys-on-surface-variant); }
+    /* A phone: one card per entry (when and who, then action, target, detail) instead of five squeezed columns. */
+    @media (max-width: 599.98px) {
+      .rn-audit-card { overflow: hidden; }
+      table, .rn-audit-card ::ng-deep tbody { display: block; }
+      tr.mat-mdc-header-row { display: none; }
+      tr.mat-mdc-row { display: grid; grid-template-columns: auto minmax(0, 1fr); gap: 2px 12px; height: auto; padding: 10px 16px;
+        border-bottom: 1px solid var(--mat-sys-outline-variant); }
+      tr.mat-mdc-row:last-child { border-bottom: 0; }
+      td.mat-mdc-cell { display: block; padding: 0; border: 0; min-width: 0; }
+      .mat-column-at { font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
+      .mat-column-userEmail { text-align: right; font-weight: 500; }
+      .mat-column-action, .mat-column-target, .rn-detail { grid-column: 1 / -1; max-width: none; }
+    }
   `,
 })
 export class AuditScreen {

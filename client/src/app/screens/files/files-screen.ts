@@ -25,13 +25,24 @@ interface ProjectFile { id: string; kind: string; filename: string; mime: string
           <ng-container matColumnDef="who"><th mat-header-cell *matHeaderCellDef>Added</th>
             <td mat-cell *matCellDef="let f">{{ f.createdBy ?? 'unknown' }}, {{ f.createdAt | date: 'medium' }}</td></ng-container>
           <ng-container matColumnDef="actions"><th mat-header-cell *matHeaderCellDef></th>
-            <td mat-cell *matCellDef="let f">@if (canWrite()) { <button mat-button (click)="remove(f)">Delete</button> }</td></ng-container>
+            <td mat-cell *matCellDef="let f">@if (canWrite()) { <button mat-button (click)="remove(f)" data-testid="file-delete">Delete</button> }</td></ng-container>
           <tr mat-header-row *matHeaderRowDef="columns"></tr>
-          <tr mat-row *matRowDef="let row; columns: columns"></tr>
+          <tr mat-row *matRowDef="let row; columns: columns" data-testid="file-row"></tr>
         </table>
       }
     </section>`,
-  styles: `.files { padding: 16px; overflow-x: auto; } table { min-width: 560px; }`,
+  styles: `.files { padding: 16px; overflow-x: auto; } table { min-width: 560px; }
+    /* A phone: one card per file (name, then kind, size, who and when), Delete beside it, nothing off to the right. */
+    @media (max-width: 599.98px) {
+      .files { overflow: visible; }
+      table, .files ::ng-deep tbody { display: block; min-width: 0; }
+      tr.mat-mdc-header-row { display: none; }
+      tr.mat-mdc-row { display: grid; grid-template-columns: minmax(0, 1fr) auto; column-gap: 8px; height: auto; padding: 8px 0;
+        border-bottom: 1px solid var(--mat-sys-outline-variant); }
+      td.mat-mdc-cell { display: block; padding: 0; border: 0; min-width: 0; overflow-wrap: anywhere; }
+      .mat-column-kind, .mat-column-size, .mat-column-who { grid-column: 1; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
+      .mat-column-actions { grid-column: 2; grid-row: 1 / span 4; align-self: center; }
+    }`,
 })
 export class FilesScreen {
   private readonly http = inject(HttpClient);

@@ -1,5 +1,6 @@
-import { Component, computed, effect, inject, input } from '@angular/core';
-import { rxResource } from '@angular/core/rxjs-interop';
+import { BreakpointObserver } from '@angular/cdk/layout';
+import { afterNextRender, Component, computed, effect, ElementRef, inject, Injector, input, viewChild } from '@angular/core';
+import { rxResource, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatIconModule } from '@angular/material/icon';
@@ -7,6 +8,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTabsModule } from '@angular/material/tabs';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
+import { map } from 'rxjs';
 import { apiErrorMessage } from '../../core/api-errors';
 import { UNIT_SYSTEM_LABELS } from '../../core/api-types';
 import { handleErrorsLocally } from '../../core/http-context';
@@ -57,7 +59,32 @@ export class ProjectShell {
       : null;
   });
 
+  /**
+   * On a touch screen the tab strip scrolls under the finger (no paging arrows: a tab half under an
+   * arrow could not be tapped, and a swipe is what a phone user tries first). Mouse users keep the arrows.
+   */
+  protected readonly touch = toSignal(inject(BreakpointObserver).observe('(pointer: coarse)').pipe(map((s) => s.matches)), { initialValue: false });
+  private readonly tabBar = viewChild('tabBar', { read: ElementRef });
+  private readonly injector = inject(Injector);
+
   constructor() {
     effect(() => this.context.set(this.project.hasValue() ? this.project.value() : null));
+  }
+
+  /**
+   * A tab became active (a link, a reload, a tap near the edge): once drawn, scroll the swipeable
+   * strip so the tab is wholly in sight, with a little of its neighbour showing there is more.
+   */
+  protected revealTab(path: string): void {
+    afterNextRender(() => {
+      const strip = this.tabBar()?.nativeElement as HTMLElement | undefined;
+      const tab = strip?.querySelector<HTMLElement>(`[data-testid="tab-${path}"]`);
+      if (!strip || !tab || !this.touch()) return;
+      const s = strip.getBoundingClientRect();
+      const t = tab.getBoundingClientRect();
+      const peek = 32;
+      if (t.left < s.left) strip.scrollLeft -= s.left - t.left + peek;
+      else if (t.right > s.right) strip.scrollLeft += t.right - s.right + peek;
+    }, { injector: this.injector });
   }
 }
