@@ -9,7 +9,7 @@ import { mkdirSync } from 'node:fs';
 import { expect } from 'chai';
 import type { BrowserContext, Locator, Page } from 'playwright-core';
 import { signIn, useBrowserApp, withTestHooks } from './harness';
-import { findProject } from './layout-helpers';
+import { editorHook, findProject } from './layout-helpers';
 
 const SHOTS = '/tmp/shots-field';
 
@@ -41,7 +41,7 @@ const SCREENS: ScreenCheck[] = [
   {
     // On a phone the toolbar is a sideways strip (its later buttons scroll in) and the side panel a bottom sheet.
     name: 'layout', role: 'designer', path: 'layout', ready: 'layout-canvas',
-    actions: (w) => (w < 700 ? ['tool-select', 'tool-pipe', 'sheet-toggle'] : ['tool-select', 'tool-pipe', 'fit-button', 'file-menu', 'palette-tank']),
+    actions: (w) => (w < 700 ? ['tool-select', 'tool-pipe', 'palette-open', 'sheet-toggle'] : ['tool-select', 'tool-pipe', 'fit-button', 'file-menu', 'palette-tank']),
     numbers: [['results-list', withUnit('kPa')]],
     prepare: async (page) => {
       if (await page.getByTestId('sheet-toggle').isVisible()) await page.getByTestId('sheet-toggle').tap();
@@ -169,5 +169,34 @@ describe('Every screen on a phone and a tablet', function () {
     // And back to the first tab, now scrolled out of sight to the left.
     await page.getByTestId('tab-layout').tap();
     await page.waitForURL(/\/layout$/);
+  });
+
+  it('a designer on a phone adds a tank from the bottom sheet and places it with a tap', async () => {
+    const page = await pageFor('designer', { width: 390, height: 844 });
+    await page.goto(`${b.app.baseUrl}/projects/${projectId}/layout`);
+    await page.waitForFunction(() => !!window.__runnelEditor && window.__runnelEditor.getDocument().nodes.length > 0);
+    const before = (await editorHook.doc(page)).nodes.filter((n) => n.kind === 'tank').length;
+    await page.getByTestId('palette-open').tap();
+    const sheet = page.getByTestId('palette-sheet');
+    await sheet.waitFor();
+    await page.getByTestId('sheet-palette-outlet').tap({ trial: true }); // waits for the sheet to stop sliding
+    await page.screenshot({ path: `${SHOTS}/screen-layout-palette-sheet-390.png` });
+    // The sheet spans the phone and names what each element is for.
+    const box = (await page.locator('mat-bottom-sheet-container').boundingBox())!;
+    expect(box.x, 'sheet left').to.be.at.least(-0.5);
+    expect(box.x + box.width, 'sheet right').to.be.at.most(390.5);
+    expect(await sheet.innerText()).to.match(/Tank[\s\S]*high ground/);
+    await page.getByTestId('sheet-palette-tank').tap();
+    await sheet.waitFor({ state: 'detached' });
+    await page.getByTestId('palette-placing').waitFor();
+    // A tap on an empty corner of the plan places it there.
+    const canvas = (await page.getByTestId('layout-canvas').boundingBox())!;
+    await page.touchscreen.tap(canvas.x + 40, canvas.y + 40);
+    await page.waitForFunction((n) => window.__runnelEditor!.getDocument().nodes.filter((x) => x.kind === 'tank').length === n + 1, before);
+    await page.screenshot({ path: `${SHOTS}/screen-layout-placed-390.png` });
+    expect(await page.getByTestId('palette-placing').count(), 'the place tool is done').to.equal(0);
+    // Leave the demo as it was for any later test.
+    await page.getByTestId('undo-button').tap();
+    await page.waitForFunction((n) => window.__runnelEditor!.getDocument().nodes.filter((x) => x.kind === 'tank').length === n, before);
   });
 });

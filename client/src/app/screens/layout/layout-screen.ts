@@ -1,4 +1,4 @@
-import { CdkDrag, CdkDragEnd } from '@angular/cdk/drag-drop';
+import type { CdkDragEnd } from '@angular/cdk/drag-drop';
 import {
   afterNextRender, ChangeDetectionStrategy, Component, computed, DestroyRef, effect, ElementRef, inject, input, signal, untracked, viewChild,
 } from '@angular/core';
@@ -30,7 +30,6 @@ import { resultWarnings } from './editor/result-checks';
 import type { SaveStatus } from './editor/save-controller';
 import { surveyPointsOf, unsetElevations } from './editor/survey';
 import type { ToolId } from './tools/tool';
-import { NODE_KINDS, ShapeSpec } from './kinds';
 import { MessagesDialog, ShortcutsDialog } from './layout-dialogs';
 import { LayoutApi } from './layout-api.service';
 import { ElementPatch, PropertiesPanel } from './properties-panel';
@@ -42,13 +41,14 @@ import { exportGeoJson, exportJson, readImport } from './screen/import-export';
 import { NetworkSync } from './screen/network-sync';
 import { SiteFiles } from './screen/site-files';
 import { SolverClient } from './solver-client';
+import { ElementPalette } from './palette/element-palette';
+import { paletteItems } from './palette/palette-symbol';
 
 const STATUS_TEXT: Record<SaveStatus, string> = {
   loading: 'Loading…', saved: 'Saved', dirty: 'Unsaved changes', saving: 'Saving…', offline: 'Offline — retrying',
   conflict: 'Conflict', rejected: 'Not saved', 'read-only': 'View only',
 };
 
-interface PaletteItem { kind: NodeKind; label: string; testid: string; shapes: ShapeSpec[] }
 interface ToolButton { id: ToolId; option?: LinkKind; label: string; testid: string; key: string }
 
 /**
@@ -59,7 +59,7 @@ interface ToolButton { id: ToolId; option?: LinkKind; label: string; testid: str
  */
 @Component({
   selector: 'rn-layout-screen',
-  imports: [CdkDrag, MatButtonModule, MatButtonToggleModule, MatMenuModule, MatSliderModule, MatTooltipModule, PropertiesPanel, ResultsList, VersionBanner],
+  imports: [ElementPalette, MatButtonModule, MatButtonToggleModule, MatMenuModule, MatSliderModule, MatTooltipModule, PropertiesPanel, ResultsList, VersionBanner],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './layout-screen.html',
   styleUrls: ['./layout-screen.scss', './layout-phone.scss'],
@@ -180,10 +180,7 @@ export class LayoutScreen {
     return '';
   });
 
-  readonly palette: PaletteItem[] = (['source', 'tank', 'tee', 'outlet'] as NodeKind[]).map((kind) => {
-    const def = NODE_KINDS[kind];
-    return { kind, label: def.label, testid: 'palette-' + kind, shapes: def.symbol(def.create('p', 0, 0)) };
-  });
+  readonly palette = paletteItems();
   readonly tools: ToolButton[] = [
     { id: 'select', label: 'Select', testid: 'tool-select', key: 'V' },
     { id: 'pan', label: 'Pan', testid: 'tool-pan', key: 'H' },
@@ -415,7 +412,4 @@ export class LayoutScreen {
     this.snack.open(`Imported ${doc.nodes.length} nodes and ${doc.links.length} links. Undo restores the previous network.`, 'OK', { duration: 6000 });
   }
 
-  shapePoints(s: ShapeSpec): string {
-    return s.t === 'poly' ? s.points.join(',') : '';
-  }
 }
