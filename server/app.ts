@@ -18,6 +18,7 @@ import type { Config } from './config';
 import type { AppContext } from './context';
 import { openDatabase, pgliteDir, type Database, type Db } from './db';
 import { apiNotFound, errorHandler, notFoundHandler } from './errors';
+import { createLogger, requestLogger, type LogLevel, type Logger } from './logging';
 import { loadProject } from './project-scope';
 import { checkJsonText, requireJsonOrMultipart } from './request-guards';
 import { createMailer } from './mail/mailer';
@@ -52,8 +53,10 @@ export interface AppOptions {
   passwordPool?: PasswordPool;
   /** Insert the demo data when missing (server/seed.ts); default true. */
   seed?: boolean;
-  /** Where request and error lines go; false for silence. Default console.log. */
+  /** Where the JSON log lines (server/logging.ts) go: a function per line, false for silence. Default stdout. */
   log?: ((line: string) => void) | false;
+  /** Lowest level logged; default config.logLevel, else 'info'. */
+  logLevel?: LogLevel;
   /** The built Angular app; default dist/client/browser. Its index.html answers client routes when it exists. */
   clientDir?: string;
 }
@@ -66,6 +69,8 @@ export interface RunnelApp {
   /** Port of the local SMTP sink when no SMTP server is configured. */
   mailSinkPort: number | null;
   seeded: SeedResult | null;
+  /** The app's pino logger (main.ts logs its start-up lines through it). */
+  logger: Logger;
   close(): Promise<void>;
 }
 
@@ -75,7 +80,9 @@ const ANGULAR_STYLESHEET_ONLOAD = "'sha256-MhtPZXr7+LpJUY5qtMutB+qWfQtMaPccfe7QX
 
 export async function createApp(options: AppOptions): Promise<RunnelApp> {
   const { config } = options;
-  const log = options.log === false ? () => undefined : options.log ?? ((line: string) => console.log(line));
+  const logger = createLogger(options.log, options.logLevel ?? config.logLevel ?? 'info');
+  // Route modules report what they survived (a failed save-time solve, a mail that bounced) as warnings.
+  const log = (line: string) => logger.warn(line);
   const bcryptCost = options.bcryptCost ?? DEFAULT_BCRYPT_COST;
   warmEnginePool();
 
@@ -123,14 +130,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
     // HSTS only where the site is served over HTTPS (the same switch as Secure cookies).
     strictTransportSecurity: config.cookieSecure,
   }));
-  app.use((req, res, next) => {
-    const started = process.hrtime.bigint();
-    res.on('finish', () => {
-      const ms = Number(process.hrtime.bigint() - started) / 1e6;
-      log(`${req.method} ${req.originalUrl.split('?')[0]} ${res.statusCode} ${ms.toFixed(1)}ms`);
-    });
-    next();
-  });
+  app.use(requestLogger(logger));
 
   const api = new ApiRoutes(loadProject(db));
   api.get('/csrf', 'public', csrf.issue);
@@ -179,10 +179,10 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
     res.sendFile(indexHtml);
   });
   app.use(notFoundHandler);
-  app.use(errorHandler(log));
+  app.use(errorHandler(logger));
 
   return {
-    app, db, routes: api.table.map((r) => ({ ...r })), mailSinkPort: sink?.port ?? null, seeded,
+    app, db, routes: api.table.map((r) => ({ ...r })), mailSinkPort: sink?.port ?? null, seeded, logger,
     async close() {
       store.stop();
       mailer.close();

@@ -6,6 +6,7 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { isIP } from 'node:net';
 import { join, resolve } from 'node:path';
 import { z } from 'zod';
+import { LOG_LEVELS, type LogLevel } from './logging';
 
 const envSchema = z.object({
   NODE_ENV: z.string().optional(),
@@ -27,6 +28,8 @@ const envSchema = z.object({
    * it would trust every X-Forwarded-For, letting any client choose its own IP (and its sign-in budget).
    */
   /** Password checks (sign-in, sign-up) allowed per client IP per 15 minutes. */
+  /** Lowest level of the JSON log (server/logging.ts). */
+  LOG_LEVEL: z.enum(LOG_LEVELS).default('info'),
   PASSWORD_CHECKS_PER_IP: z.coerce.number().int().min(1).max(1_000_000).default(50),
   TRUST_PROXY: z.string().optional().superRefine((value, ctx) => {
     if (value === undefined || value === '') return;
@@ -55,6 +58,8 @@ export interface Config {
   passwordChecksPerIp?: number;
   /** Express 'trust proxy': a hop count or a list of proxy addresses (absent: do not trust X-Forwarded-*). */
   trustProxy?: number | string[];
+  /** Lowest level logged (LOG_LEVEL; default info). */
+  logLevel?: LogLevel;
 }
 
 /** Reads the session secret from the data dir, creating it on first start. */
@@ -90,6 +95,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     cookieSecure: e.COOKIE_SECURE ? e.COOKIE_SECURE === 'true' : production,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
     passwordChecksPerIp: e.PASSWORD_CHECKS_PER_IP,
+    logLevel: e.LOG_LEVEL,
   };
 }
 

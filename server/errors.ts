@@ -3,6 +3,7 @@
  */
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { z } from 'zod';
+import type { Logger } from './logging';
 
 export type ErrorCode =
   | 'validation' | 'unauthenticated' | 'forbidden' | 'csrf' | 'not-found' | 'conflict'
@@ -54,7 +55,7 @@ export const notFoundHandler: RequestHandler = (req, _res, next) => {
 };
 
 /** Maps any error to the API's error shape; logs unexpected ones with their stack, never sends it. */
-export function errorHandler(log: (line: string) => void): ErrorRequestHandler {
+export function errorHandler(logger: Logger): ErrorRequestHandler {
   return (err, req, res, _next) => {
     let apiError: ApiError;
     if (err instanceof ApiError) apiError = err;
@@ -69,7 +70,8 @@ export function errorHandler(log: (line: string) => void): ErrorRequestHandler {
     } else if (isClientError(err)) {
       apiError = new ApiError(err.status === 415 ? 'unsupported-type' : err.status === 413 ? 'too-large' : 'validation', err.message);
     } else {
-      log(`error ${req.method} ${req.originalUrl}: ${err instanceof Error ? err.stack ?? err.message : String(err)}`);
+      // The logger's `err` serializer (safeError in logging.ts) keeps the SQL text, never its parameters.
+      (req.log ?? logger).error({ err }, 'unexpected error');
       apiError = new ApiError('internal', 'Something went wrong on the server; it has been logged.');
     }
     if (res.headersSent) return;

@@ -60,14 +60,14 @@ async function main(): Promise<void> {
   const store = config.databaseUrl ? 'PostgreSQL (DATABASE_URL)' : `PGlite in ${config.dataDir}/pg, locked by pid ${process.pid}`;
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
-  console.log(`Runnel listening on http://${config.host}:${port} (data: ${store})`);
-  if (runnel.mailSinkPort) console.log(`Mail is captured by the local SMTP sink on 127.0.0.1:${runnel.mailSinkPort}; admins see it under Outbox`);
+  runnel.logger.info(`Runnel listening on http://${config.host}:${port} (data: ${store})`);
+  if (runnel.mailSinkPort) runnel.logger.info(`Mail is captured by the local SMTP sink on 127.0.0.1:${runnel.mailSinkPort}; admins see it under Outbox`);
 
   let stopping = false;
   const stop = (signal: string) => {
     if (stopping) return;
     stopping = true;
-    console.log(`${signal}: shutting down`);
+    runnel.logger.info(`${signal}: shutting down`);
     server.close(() => void runnel.close().then(() => database.close()).then(() => process.exit(0), () => process.exit(1)));
     server.closeAllConnections();
   };
