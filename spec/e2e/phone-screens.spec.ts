@@ -1,6 +1,6 @@
 /**
- * Every screen on a phone (390 × 844, touch) and on a tablet (768 × 1024 upright, 1024 × 768 on its
- * side), each as the demo role that uses it: the page never scrolls sideways, each primary action lies
+ * Every screen on a phone (390 × 844, touch; the screens with wide tables also at 360 × 740) and on a
+ * tablet (768 × 1024 upright, 1024 × 768 on its side), each as the demo role that uses it: the page never scrolls sideways, each primary action lies
  * within the screen's width and takes a tap (nothing covers it), and the numbers that matter carry
  * their units. Screenshots go to /tmp/shots-field/ to be looked at.
  * One signed-in context per role, resized between the phone and tablet passes.
@@ -64,7 +64,7 @@ const SCREENS: ScreenCheck[] = [
   },
   { name: 'options-owner', role: 'owner', path: 'options', ready: 'options-compare', actions: ['[data-testid^=prefer-]'] },
   {
-    name: 'takeoff', role: 'estimator', path: 'takeoff', ready: 'takeoff-table', actions: ['export-xlsx', 'export-csv', 'print-summary', 'labour-rate', 'save-settings'],
+    name: 'takeoff', role: 'estimator', path: 'takeoff', ready: 'takeoff-table', actions: ['export-xlsx', 'export-csv', 'print-summary', 'labour-rate', 'save-settings', '[data-testid^="price-"][type=number]'],
     numbers: [['estimate-total', /\$\d[\d,]*\.\d\d/], ['takeoff-table', withUnit('m')]],
   },
   { name: 'takeoff-owner', role: 'owner', path: 'takeoff', ready: 'takeoff-table', actions: ['accept-estimate'] },
@@ -140,10 +140,11 @@ describe('Every screen on a phone and a tablet', function () {
     for (const [id, unit] of s.numbers ?? []) expect(await page.getByTestId(id).first().innerText(), `${s.name}: ${id}`).to.match(unit);
   }
 
-  for (const size of [{ width: 390, height: 844 }, { width: 768, height: 1024 }, { width: 1024, height: 768 }]) {
+  // The smallest phone and the landscape tablet keep to the screens with wide tables; the rest are covered at 390 and upright.
+  const WIDE_TABLES = ['team', 'audit', 'options', 'takeoff', 'review', 'budget', 'layout', 'files'];
+  for (const size of [{ width: 390, height: 844 }, { width: 360, height: 740 }, { width: 768, height: 1024 }, { width: 1024, height: 768 }]) {
     for (const s of SCREENS) {
-      // The landscape tablet pass keeps to the screens with wide tables; the rest are covered upright.
-      if (size.width === 1024 && !['team', 'audit', 'options', 'takeoff', 'review', 'budget', 'layout'].includes(s.name)) continue;
+      if ((size.width === 1024 || size.width === 360) && !WIDE_TABLES.includes(s.name)) continue;
       it(`${s.name} as ${s.role} at ${size.width} × ${size.height}`, () => check(s, size));
     }
   }
