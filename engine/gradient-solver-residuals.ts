@@ -1,5 +1,6 @@
-import { linkLaw, outletLawResidual } from './gradient-solver-laws';
-import { isShut, nextStatus, prvHead, STATUS_ACTIVE, STATUS_OPEN, type StatusArrays } from './gradient-solver-status';
+import * as laws from './gradient-solver-laws';
+import * as statuses from './gradient-solver-status';
+import type { StatusArrays } from './gradient-solver-status';
 import * as kinds from './network-model';
 
 /**
@@ -12,7 +13,10 @@ import * as kinds from './network-model';
  * enough: in low-headloss links a flow can be far off while the head error is tiny.
  */
 
+// module-local copies of imported bindings read per element (see ./gradient-solver)
 const { LINK_FLOAT, LINK_PIPE, LINK_PRV, LINK_PUMP_FLOW, LINK_SHUTOFF, NODE_JUNCTION, NODE_TANK } = kinds;
+const { linkLaw, outletLawResidual } = laws;
+const { isShut, nextStatus, prvHead, STATUS_ACTIVE, STATUS_OPEN } = statuses;
 /** Per-node scratch of the check, kept between calls. */
 const buffers: Float64Array[] = [];
 

@@ -1,10 +1,8 @@
 // Over 400 lines: one Newton loop and the arrays it iterates; its other jobs live in gradient-solver-*.ts.
 import { HW_FLOW_EXPONENT as HW_FLOW_EXPONENT_, hazenWilliamsSecant as hazenWilliamsSecant_ } from './hazen-williams';
-import { linkLaw, outletFlow, virtualLaw, zeroFlowSlope, zeroFlowSpan, zeroPressure } from './gradient-solver-laws';
-import { firstViolation, type Tolerances } from './gradient-solver-residuals';
-import {
-  connect, isShut, prvFlowsByContinuity, prvHead, STATUS_ACTIVE, STATUS_CHECK_CLOSED, STATUS_CLOSED, STATUS_OPEN, STATUS_SHUT, updateStatuses,
-} from './gradient-solver-status';
+import * as laws from './gradient-solver-laws';
+import { firstViolation as firstViolation_, type Tolerances } from './gradient-solver-residuals';
+import * as statuses from './gradient-solver-status';
 import { EMPTY_PAIRS, structureFor } from './gradient-solver-structure';
 import * as kinds from './network-model';
 import type { NetworkModel } from './network-model';
@@ -20,6 +18,11 @@ export { STATUS_ACTIVE, STATUS_CHECK_CLOSED, STATUS_CLOSED, STATUS_ISOLATED, STA
 // every read of an imported binding is a getter call, which cost about 6 % of a large solve.
 const HW_FLOW_EXPONENT = HW_FLOW_EXPONENT_;
 const hazenWilliamsSecant = hazenWilliamsSecant_;
+const firstViolation = firstViolation_;
+const { linkLaw, outletFlow, virtualLaw, zeroFlowSlope, zeroFlowSpan, zeroPressure } = laws;
+const {
+  connect, isShut, prvFlowsByContinuity, prvHead, STATUS_ACTIVE, STATUS_CHECK_CLOSED, STATUS_CLOSED, STATUS_OPEN, STATUS_SHUT, updateStatuses,
+} = statuses;
 const { DEMAND_EMITTER, DEMAND_FIXED, LINK_CHECK, LINK_FLOAT, LINK_PIPE, LINK_PRV, LINK_PUMP_CURVE, LINK_PUMP_FLOW, LINK_SHUTOFF, NODE_JUNCTION, NODE_TANK } = kinds;
 
 /**

@@ -1,5 +1,9 @@
 import type { SolverState } from './gradient-solver';
-import { LINK_FLOAT, LINK_PUMP_CURVE, LINK_PUMP_FLOW, NODE_TANK, type NetworkModel } from './network-model';
+import * as kinds from './network-model';
+import type { NetworkModel } from './network-model';
+
+// module-local copies of imported constants read per element and step (see ./gradient-solver)
+const { LINK_FLOAT, LINK_PUMP_CURVE, LINK_PUMP_FLOW, NODE_TANK } = kinds;
 
 /**
  * The rules that switch pumps and float valves on tank levels, in one place for the steady solve

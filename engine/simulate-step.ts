@@ -1,5 +1,9 @@
 import type { GradientSolver, SolverState } from './gradient-solver';
-import { NODE_TANK, type NetworkModel } from './network-model';
+import * as kinds from './network-model';
+import type { NetworkModel } from './network-model';
+
+// module-local copy of an imported constant read per link and step (see ./gradient-solver)
+const { NODE_TANK } = kinds;
 
 /**
  * One time step of the tank levels with an error estimate (used by ./simulate). The levels obey

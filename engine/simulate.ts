@@ -1,11 +1,17 @@
-import { GradientSolver, STATUS_CLOSED } from './gradient-solver';
-import { compileNetwork, NODE_JUNCTION, NODE_TANK, patternFactor } from './network-model';
-import { Controls, SWITCH_SNAP_M } from './simulate-controls';
-import { TANK_EMPTY, TANK_FULL, TANK_NORMAL, TankStepper } from './simulate-step';
+import { GradientSolver, STATUS_CLOSED as STATUS_CLOSED_ } from './gradient-solver';
+import * as kinds from './network-model';
+import { Controls, SWITCH_SNAP_M as SWITCH_SNAP_M_ } from './simulate-controls';
+import * as tankModes from './simulate-step';
 import { parseDocument } from './validate';
 import type { Warning } from './warnings';
 
 export { FLOAT_VALVE_DEADBAND_M, LOW_CUTOFF_RELEASE_M } from './simulate-controls';
+
+// module-local copies of imported bindings read per step (see ./gradient-solver)
+const { compileNetwork, NODE_JUNCTION, NODE_TANK, patternFactor } = kinds;
+const { TANK_EMPTY, TANK_FULL, TANK_NORMAL, TankStepper } = tankModes;
+const STATUS_CLOSED = STATUS_CLOSED_;
+const SWITCH_SNAP_M = SWITCH_SNAP_M_;
 
 /**
  * Extended-period simulation. Tank levels follow A·dh/dt = Σ flows in + inflow, integrated with
