@@ -33,6 +33,14 @@ export class TankStepper {
   readonly pumped: Float64Array;
   /** Steps whose network solve did not converge (counted in the last step). */
   failed = 0;
+  /**
+   * The last step's midpoint: levels (the first half's, corrected by the same error estimate, so
+   * second order like the end), and the heads and flows of the first half's solve, for reports
+   * that fall inside a step (./simulate interpolates them).
+   */
+  readonly midLevel: Float64Array;
+  readonly midHead: Float64Array;
+  readonly midFlow: Float64Array;
   private readonly half: Float64Array;
   private readonly whole: Float64Array;
   private readonly netIn: Float64Array;
@@ -49,6 +57,9 @@ export class TankStepper {
     this.half = new Float64Array(n);
     this.whole = new Float64Array(n);
     this.netIn = new Float64Array(n);
+    this.midLevel = new Float64Array(n);
+    this.midHead = new Float64Array(n);
+    this.midFlow = new Float64Array(model.linkCount);
   }
 
   /** Allowed directions of links next to empty tanks (they only receive). */
@@ -111,11 +122,16 @@ export class TankStepper {
     this.failed = 0;
     this.stage(level0, dt, -1, whole);
     this.stage(level0, dt / 2, 2, half);
+    this.midHead.set(this.solver.head);
+    this.midFlow.set(this.solver.flow);
     this.stage(half, dt / 2, 2, level);
     let err = 0;
     for (const i of tanks) {
       const e = Math.abs(level[i] - whole[i]);
       if (e > err) err = e;
+      // backward Euler's error is about (h²/2)·y'' per step: the halves carry half the whole
+      // step's, the first half a quarter of it, so each is corrected by the measured difference
+      this.midLevel[i] = half[i] + (level[i] - whole[i]) / 2;
       level[i] = 2 * level[i] - whole[i];
     }
     return err;
