@@ -60,9 +60,16 @@ export function timelineSeries(doc: NetworkDocument, result: TimeSeriesResult): 
     if (node.kind !== 'outlet') continue;
     const o = node as OutletNode;
     const pattern = o.pattern ? doc.patterns?.[o.pattern] : undefined;
-    const ends = into.get(o.id) ?? [];
+    // each end's flow series looked up once, not per sample (a week at 1-minute reports is 10,081)
+    const ends = (into.get(o.id) ?? []).map((e) => ({ sign: e.sign, flow: result.links[e.link]?.flow_m3s }));
+    const delivered = new Array<number>(times.length);
+    for (let i = 0; i < times.length; i++) {
+      let sum = 0;
+      for (const e of ends) sum += e.sign * (e.flow?.[i] ?? 0);
+      delivered[i] = Math.max(0, sum);
+    }
     outlets[o.id] = {
-      delivered_m3s: times.map((_, i) => Math.max(0, ends.reduce((s, e) => s + e.sign * (result.links[e.link]?.flow_m3s[i] ?? 0), 0))),
+      delivered_m3s: delivered,
       requested_m3s: times.map((t) => o.demand_m3s * (pattern ? pattern[sampleHour(t)] : 1)),
     };
   }
