@@ -17,6 +17,19 @@ export const BACKDROP_MAX_BYTES = 8 * MB;
 export const SURVEY_MAX_BYTES = 2 * MB;
 
 const uploadBody = z.object({ kind: z.enum(['backdrop', 'survey'], { error: 'must be backdrop or survey' }) });
+const renameBody = z.object({
+  filename: z.string({ error: 'must be text' }).trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters'),
+}).strict();
+
+/**
+ * The stored name for a rename: cleaned like an upload's, and keeping the old extension when the
+ * new name has none (so a download still opens in the right program).
+ */
+export function renamedFilename(typed: string, old: string): string {
+  const ext = /\.[A-Za-z0-9]{1,8}$/.exec(old)?.[0] ?? '';
+  const name = /\.[A-Za-z0-9]{1,8}$/.test(typed) ? typed : typed + ext;
+  return safeFilename(name);
+}
 
 /** PNG and JPEG by their magic bytes (PNG spec §5.2; JPEG SOI marker FF D8 FF). */
 export function imageType(bytes: Buffer): 'image/png' | 'image/jpeg' | null {
@@ -156,13 +169,47 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
     const [row] = await db.select().from(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
     if (!row) throw new ApiError('not-found', 'No such file');
     // Shown in the page only when the bytes are an image we checked; everything else downloads.
-    const image = row.kind === 'backdrop' && imageType(row.bytes) === row.mime;
+    const image = (row.kind === 'backdrop' || row.kind === 'photo') && imageType(row.bytes) === row.mime;
     res.setHeader('Content-Type', image ? row.mime : `${row.mime === 'text/csv' || row.mime === 'application/gpx+xml' ? row.mime : 'application/octet-stream'}`);
     res.setHeader('Content-Disposition', contentDisposition(image ? 'inline' : 'attachment', row.filename));
     res.setHeader('Content-Security-Policy', image ? IMAGE_CSP : DOWNLOAD_CSP);
     res.setHeader('X-Content-Type-Options', 'nosniff');
     res.setHeader('Cross-Origin-Resource-Policy', 'same-origin');
     res.send(row.bytes);
+  });
+
+  api.patch('/projects/:id/files/:fileId', 'files.write', async (req, res) => {
+    const project = projectOf(req);
+    const fileId = uuidParam(req.params.fileId, 'No such file');
+    const { filename: typed } = parseBody(renameBody, req.body);
+    const row = await db.transaction(async (tx) => {
+      const [old] = await tx.select({ filename: files.filename }).from(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
+      if (!old) throw new ApiError('not-found', 'No such file');
+      const filename = renamedFilename(typed, old.filename);
+      const [updated] = await tx.update(files).set({ filename }).where(eq(files.id, fileId))
+        .returning({ id: files.id, kind: files.kind, filename: files.filename, mime: files.mime, size: files.size, createdAt: files.createdAt, createdBy: files.createdBy });
+      await audit(tx, { teamId: project.teamId, user: req.user!, action: 'file.rename', target: filename, detail: { projectId: project.id, from: old.filename } });
+      return updated;
+    });
+    const [who] = row.createdBy ? await db.select({ name: users.name }).from(users).where(eq(users.id, row.createdBy)) : [];
+    res.json(fileJson({ ...row, createdByName: who?.name ?? null }));
+  });
+
+  /** A stored survey's points, for the Files tab's preview (the same parse the upload passed). */
+  api.get('/projects/:id/files/:fileId/points', 'files.read', async (req, res) => {
+    const project = projectOf(req);
+    const fileId = uuidParam(req.params.fileId, 'No such file');
+    const [row] = await db.select({ kind: files.kind, bytes: files.bytes }).from(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
+    if (!row) throw new ApiError('not-found', 'No such file');
+    if (row.kind !== 'survey') throw new ApiError('unsupported-type', 'Only a survey file has points');
+    const format = detectSurveyFormat(row.bytes);
+    if (!format) throw new ApiError('unsupported-type', 'The stored survey is not text');
+    try {
+      res.json(parseSurvey(row.bytes.toString('utf8'), format));
+    } catch (err) {
+      if (err instanceof SurveyError) throw new ApiError('validation', err.message, err.where);
+      throw err;
+    }
   });
 
   api.delete('/projects/:id/files/:fileId', 'files.write', async (req, res) => {

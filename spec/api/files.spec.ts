@@ -87,6 +87,34 @@ describe('API: files and survey parsing', () => {
     await e.upload(files, { bytes: PNG_BYTES, filename: 'a.png' }, { kind: 'backdrop' }).expect(403);
   });
 
+  it('renames a file (keeping its extension when none is typed), says so in the audit log and in the download name', async () => {
+    const up = await designer.upload(files, { bytes: PNG_BYTES, filename: 'IMG_2231.png' }, { kind: 'backdrop' }).expect(201);
+    const renamed = await designer.patch(`${files}/${up.body.id}`, { filename: '  Ridge aerial  ' }).expect(200);
+    expect(renamed.body).to.include({ id: up.body.id, filename: 'Ridge aerial.png', createdBy: 'Dana Designer' });
+    const typedExt = await designer.patch(`${files}/${up.body.id}`, { filename: 'ridge/aerial.jpg' }).expect(200);
+    expect(typedExt.body.filename).to.equal('ridge_aerial.jpg');
+    const got = await designer.get(`${files}/${up.body.id}`).expect(200);
+    expect(got.headers['content-disposition']).to.match(/filename="ridge_aerial\.jpg"/);
+    const log = await (await t.signInAs('admin')).get('/api/team/audit').expect(200);
+    const entries = log.body as { action: string; target: string }[];
+    expect(entries.some((e) => e.action === 'file.rename' && e.target === 'Ridge aerial.png')).to.equal(true);
+    await designer.patch(`${files}/${up.body.id}`, { filename: '   ' }).expect(400);
+    await designer.patch(`${files}/${up.body.id}`, { filename: 'x', kind: 'survey' }).expect(400);
+    await (await t.signInAs('estimator')).patch(`${files}/${up.body.id}`, { filename: 'nope' }).expect(403);
+    await designer.delete(`${files}/${up.body.id}`).expect(204);
+    await designer.patch(`${files}/${up.body.id}`, { filename: 'gone' }).expect(404);
+  });
+
+  it('answers a stored survey\'s points for the preview; an image has none (415)', async () => {
+    const up = await designer.upload(files, { bytes: Buffer.from(SURVEY_CSV), filename: 'pegs.csv' }, { kind: 'survey' }).expect(201);
+    const pts = await (await t.signInAs('owner')).get(`${files}/${up.body.id}/points`).expect(200);
+    expect(pts.body.format).to.equal('csv');
+    expect(pts.body.points.map((p: { label: string }) => p.label)).to.deep.equal(['Spring', 'Tank site']);
+    expect(pts.body.points[1]).to.include({ x_m: 40, y_m: 310, elevation_m: 41 });
+    const img = await designer.upload(files, { bytes: PNG_BYTES, filename: 'a.png' }, { kind: 'backdrop' }).expect(201);
+    await designer.get(`${files}/${img.body.id}/points`).expect(415);
+  });
+
   describe('POST survey/parse', () => {
     const parse = (a: ApiAgent, text: string, filename: string) =>
       a.upload(`/api/projects/${t.seeded!.demoProjectId}/survey/parse`, { bytes: Buffer.from(text), filename });

@@ -62,6 +62,13 @@ export async function insertFile(db: Db, projectId: string): Promise<string> {
   return row.id;
 }
 
+export async function insertSurveyFile(db: Db, projectId: string): Promise<string> {
+  const bytes = Buffer.from(SURVEY_CSV);
+  const [row] = await db.insert(files).values({ projectId, kind: 'survey', filename: 'pegs.csv', mime: 'text/csv', size: bytes.length, bytes })
+    .returning({ id: files.id });
+  return row.id;
+}
+
 /** The demo user holding `role` (id and e-mail), for saving through the store as that user. */
 export async function demoUserRow(db: Db, role: Role): Promise<{ id: string; email: string }> {
   const [row] = await db.select({ id: users.id, email: users.email }).from(users).where(eq(users.email, `${role}@runnel.test`));

@@ -12,7 +12,7 @@ import { walkPoints } from '../../drizzle/schema';
 import { emptyBudget } from '../../engine/budget';
 import { PERMISSION_TABLE, ROLES, type Access, type Role } from '../../server/permissions';
 import { DEMO_PASSWORD } from '../../server/seed';
-import { insertFile, insertInvitation, insertInvitationRow, insertMember, insertProject, insertComment, insertSavedProject, insertSubmittedProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
+import { insertFile, insertSurveyFile, insertInvitation, insertInvitationRow, insertMember, insertProject, insertComment, insertSavedProject, insertSubmittedProject, insertTeam, PNG_BYTES, SMALL_NETWORK, SURVEY_CSV } from './fixtures';
 import { insertOption, insertPrice, PRICE_CSV } from './option-fixtures';
 import { demoEmail, startTestApp, type ApiAgent, type TestApp } from './test-app';
 
@@ -105,6 +105,10 @@ const CASES: Case[] = [
     call: (a, t) => a.upload(`${p(t)}/files`, { bytes: PNG_BYTES, filename: 'plan.png' }, { kind: 'backdrop' }) },
   { method: 'get', path: '/projects/:id/files/:fileId', access: 'files.read', success: 200,
     call: async (a, t) => a.get(`${p(t)}/files/${await insertFile(t.db, t.seeded!.demoProjectId)}`) },
+  { method: 'patch', path: '/projects/:id/files/:fileId', access: 'files.write', success: 200,
+    call: async (a, t) => a.patch(`${p(t)}/files/${await insertFile(t.db, t.seeded!.demoProjectId)}`, { filename: 'renamed' }) },
+  { method: 'get', path: '/projects/:id/files/:fileId/points', access: 'files.read', success: 200,
+    call: async (a, t) => a.get(`${p(t)}/files/${await insertSurveyFile(t.db, t.seeded!.demoProjectId)}/points`) },
   { method: 'delete', path: '/projects/:id/files/:fileId', access: 'files.write', success: 204,
     call: async (a, t) => a.delete(`${p(t)}/files/${await insertFile(t.db, t.seeded!.demoProjectId)}`) },
   { method: 'post', path: '/projects/:id/survey/parse', access: 'files.read', success: 200,

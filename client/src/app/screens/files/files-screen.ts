@@ -1,62 +1,108 @@
-import { DatePipe, DecimalPipe } from '@angular/common';
-import { HttpClient } from '@angular/common/http';
-import { Component, inject, input, resource } from '@angular/core';
+import { BreakpointObserver } from '@angular/cdk/layout';
+import { DatePipe, NgTemplateOutlet } from '@angular/common';
+import { Component, computed, inject, input, signal } from '@angular/core';
+import { rxResource, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
-import { MatTableModule } from '@angular/material/table';
-import { firstValueFrom } from 'rxjs';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { firstValueFrom, map, of } from 'rxjs';
+import { apiErrorMessage } from '../../core/api-errors';
+import { ProjectContext } from '../../core/project-context';
 import { SessionService } from '../../core/session.service';
+import { confirmAction } from '../../shared/confirm-dialog';
+import { FilesApi, kindWords, previewKind, ProjectFile, sizeWords } from './files-api.service';
+import { SurveyPreview } from './survey-preview';
 
-interface ProjectFile { id: string; kind: string; filename: string; mime: string; size: number; createdAt: string; createdBy: string | null }
-
-/** The project's uploads (backdrops, surveys, walk photos): who and when, download, delete. */
+/**
+ * The project's uploads (backdrops, surveys, walk photos): who added each and when, a preview
+ * (the image, or a survey's points on a small plan and in a table), download, and for designers
+ * rename and delete. Desktop shows the preview beside the list; a phone opens it under the file.
+ */
 @Component({
   selector: 'rn-files-screen',
-  imports: [MatTableModule, MatButtonModule, DatePipe, DecimalPipe],
-  template: `
-    <section class="files" data-testid="files-screen">
-      <h2>Files</h2>
-      @if (files.hasValue() && files.value().length === 0) { <p>No uploads yet: backdrops and surveys come from the Layout, photos from Walk.</p> }
-      @if (files.hasValue() && files.value().length) {
-        <table mat-table [dataSource]="files.value()">
-          <ng-container matColumnDef="name"><th mat-header-cell *matHeaderCellDef>File</th>
-            <td mat-cell *matCellDef="let f"><a [href]="url(f)" download>{{ f.filename }}</a></td></ng-container>
-          <ng-container matColumnDef="kind"><th mat-header-cell *matHeaderCellDef>Kind</th><td mat-cell *matCellDef="let f">{{ f.kind }}</td></ng-container>
-          <ng-container matColumnDef="size"><th mat-header-cell *matHeaderCellDef>Size</th><td mat-cell *matCellDef="let f">{{ f.size / 1024 | number: '1.0-0' }} KB</td></ng-container>
-          <ng-container matColumnDef="who"><th mat-header-cell *matHeaderCellDef>Added</th>
-            <td mat-cell *matCellDef="let f">{{ f.createdBy ?? 'unknown' }}, {{ f.createdAt | date: 'medium' }}</td></ng-container>
-          <ng-container matColumnDef="actions"><th mat-header-cell *matHeaderCellDef></th>
-            <td mat-cell *matCellDef="let f">@if (canWrite()) { <button mat-button (click)="remove(f)" data-testid="file-delete">Delete</button> }</td></ng-container>
-          <tr mat-header-row *matHeaderRowDef="columns"></tr>
-          <tr mat-row *matRowDef="let row; columns: columns" data-testid="file-row"></tr>
-        </table>
-      }
-    </section>`,
-  styles: `.files { padding: 16px; overflow-x: auto; } table { min-width: 560px; }
-    /* A phone: one card per file (name, then kind, size, who and when), Delete beside it, nothing off to the right. */
-    @media (max-width: 599.98px) {
-      .files { overflow: visible; }
-      table, .files ::ng-deep tbody { display: block; min-width: 0; }
-      tr.mat-mdc-header-row { display: none; }
-      tr.mat-mdc-row { display: grid; grid-template-columns: minmax(0, 1fr) auto; column-gap: 8px; height: auto; padding: 8px 0;
-        border-bottom: 1px solid var(--mat-sys-outline-variant); }
-      td.mat-mdc-cell { display: block; padding: 0; border: 0; min-width: 0; overflow-wrap: anywhere; }
-      .mat-column-kind, .mat-column-size, .mat-column-who { grid-column: 1; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
-      .mat-column-actions { grid-column: 2; grid-row: 1 / span 4; align-self: center; }
-    }`,
+  imports: [DatePipe, NgTemplateOutlet, MatButtonModule, MatFormFieldModule, MatInputModule, SurveyPreview],
+  templateUrl: './files-screen.html',
+  styleUrl: './files-screen.scss',
 })
 export class FilesScreen {
-  private readonly http = inject(HttpClient);
+  private readonly api = inject(FilesApi);
   private readonly session = inject(SessionService);
+  private readonly dialog = inject(MatDialog);
+  private readonly context = inject(ProjectContext, { optional: true });
   readonly projectId = input.required<string>();
-  readonly columns = ['name', 'kind', 'size', 'who', 'actions'];
-  readonly files = resource({
-    params: () => this.projectId(),
-    loader: ({ params }) => firstValueFrom(this.http.get<ProjectFile[]>(`/api/projects/${encodeURIComponent(params)}/files`)),
+
+  readonly units = computed(() => this.context?.units() ?? 'us');
+  readonly narrow = toSignal(inject(BreakpointObserver).observe('(max-width: 899.98px)').pipe(map((s) => s.matches)), { initialValue: false });
+  readonly files = rxResource({ params: () => this.projectId(), stream: ({ params }) => this.api.list(params) });
+  readonly canWrite = computed(() => this.session.can('files.write'));
+
+  /** The file being previewed (its id), the one being renamed, and the last error in words. */
+  readonly open = signal<string | null>(null);
+  readonly renaming = signal<string | null>(null);
+  readonly error = signal('');
+  readonly busy = signal(false);
+
+  readonly openFile = computed(() => {
+    const id = this.open();
+    return (this.files.hasValue() ? this.files.value() : []).find((f) => f.id === id) ?? null;
   });
-  canWrite = () => this.session.can('files.write');
-  url = (f: ProjectFile) => `/api/projects/${encodeURIComponent(this.projectId())}/files/${encodeURIComponent(f.id)}`;
+  readonly points = rxResource({
+    params: () => {
+      const f = this.openFile();
+      return f && previewKind(f) === 'survey' ? { project: this.projectId(), file: f.id } : null;
+    },
+    stream: ({ params }) => (params ? this.api.points(params.project, params.file) : of(null)),
+  });
+
+  readonly kindWords = kindWords;
+  readonly previewKind = previewKind;
+  readonly sizeWords = sizeWords;
+  readonly errorWords = apiErrorMessage;
+  url = (f: ProjectFile) => this.api.url(this.projectId(), f.id);
+
+  toggle(f: ProjectFile): void {
+    this.open.set(this.open() === f.id ? null : f.id);
+  }
+
+  startRename(f: ProjectFile): void {
+    this.error.set('');
+    this.renaming.set(f.id);
+  }
+
+  async rename(f: ProjectFile, typed: string): Promise<void> {
+    const name = typed.trim();
+    if (!name) return this.error.set('A file needs a name.');
+    if (name === f.filename) return this.renaming.set(null);
+    this.busy.set(true);
+    try {
+      await firstValueFrom(this.api.rename(this.projectId(), f.id, name));
+      this.renaming.set(null);
+      this.error.set('');
+      this.files.reload();
+    } catch (err) {
+      this.error.set(apiErrorMessage(err));
+    } finally {
+      this.busy.set(false);
+    }
+  }
+
   async remove(f: ProjectFile): Promise<void> {
-    await firstValueFrom(this.http.delete(this.url(f)));
-    this.files.reload();
+    const sure = await firstValueFrom(confirmAction(this.dialog, {
+      title: `Delete ${f.filename}?`,
+      message: f.kind === 'backdrop'
+        ? 'If the plan uses this image as its backdrop, the Layout will show no backdrop. This cannot be undone.'
+        : 'The file is removed from the project for everyone. This cannot be undone.',
+      confirmLabel: 'Delete', destructive: true,
+    }));
+    if (!sure) return;
+    try {
+      await firstValueFrom(this.api.remove(this.projectId(), f.id));
+      if (this.open() === f.id) this.open.set(null);
+      this.error.set('');
+      this.files.reload();
+    } catch (err) {
+      this.error.set(apiErrorMessage(err));
+    }
   }
 }
