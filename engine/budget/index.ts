@@ -16,3 +16,4 @@ export {
   type Storage, type TankStorage, type Fill, type MonthVerdict, type VerdictStatus,
 } from './storage-fill';
 export { planBudget, applyBudget, budgetChangesNetwork, BudgetInputError, type BudgetPlan } from './plan';
+export { layoutDifferences, budgetOutletFlows, sameFlow, type LayoutDifference } from './layout-differences';

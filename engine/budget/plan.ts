@@ -7,6 +7,7 @@ import { monthTotals, useNeed, type MonthTotal, type UseNeed } from './daily-nee
 import { outletFlows, type OutletFlow } from './outlet-flows';
 import { fillOf, monthlyVerdicts, storageOf, type Fill, type MonthVerdict, type Storage } from './storage-fill';
 import { validateBudget } from './validate-budget';
+import { sameFlow } from './layout-differences';
 
 /**
  * The whole water-budget computation for a screen or the CLI: per-use needs, monthly totals,
@@ -85,10 +86,12 @@ function plan(budget: BudgetDocument, network: NetworkDocument | undefined): Bud
 
 /**
  * A copy of the network with each budget-driven outlet's demand_m3s set to its design flow.
- * Outlets not in the plan, not in the network, or marked "not from budget" are left as they are.
+ * Outlets not in the plan, not in the network, marked "not from budget", or in `hold` (a flow
+ * edited on the Layout the designer has not yet chosen to replace, ./layout-differences) are left
+ * as they are.
  */
-export function applyBudget(network: NetworkDocument, plan: Pick<BudgetPlan, 'outlets'>): NetworkDocument {
-  const flows = new Map(plan.outlets.filter((o) => o.from_budget).map((o) => [o.id, o.design_flow_m3s]));
+export function applyBudget(network: NetworkDocument, plan: Pick<BudgetPlan, 'outlets'>, hold: ReadonlySet<string> = new Set()): NetworkDocument {
+  const flows = new Map(plan.outlets.filter((o) => o.from_budget && !hold.has(o.id)).map((o) => [o.id, o.design_flow_m3s]));
   return {
     ...network,
     nodes: network.nodes.map((n) => (n.kind === 'outlet' && flows.has(n.id) ? withFlow(n, flows.get(n.id) as number) : n)),
@@ -102,12 +105,12 @@ function withFlow(n: OutletNode, flow: number): OutletNode {
   return { ...n, demand_m3s: flow };
 }
 
-/** True when applying the plan would change some outlet's flow (beyond rounding). */
-export function budgetChangesNetwork(network: NetworkDocument, plan: Pick<BudgetPlan, 'outlets'>): boolean {
+/** True when applying the plan (less the held outlets) would change some outlet's flow (beyond rounding). */
+export function budgetChangesNetwork(network: NetworkDocument, plan: Pick<BudgetPlan, 'outlets'>, hold: ReadonlySet<string> = new Set()): boolean {
   const nodes = new Map(network.nodes.map((n) => [n.id, n]));
   return plan.outlets.some((o) => {
     const n = nodes.get(o.id);
-    return o.from_budget && n?.kind === 'outlet' && Math.abs(n.demand_m3s - o.design_flow_m3s) > 1e-12;
+    return o.from_budget && !hold.has(o.id) && n?.kind === 'outlet' && !sameFlow(n.demand_m3s, o.design_flow_m3s);
   });
 }
 

@@ -17,7 +17,7 @@ export function budgetRoutes(api: ApiRoutes, ctx: AppContext): void {
     const body = parseBody(saveBudgetBody, req.body);
     const project = projectOf(req);
     res.json(await saveBudget(db, {
-      projectId: project.id, teamId: project.teamId, user: req.user!, expectedVersion: body.version, document: body.document, log: ctx.log,
+      projectId: project.id, teamId: project.teamId, user: req.user!, expectedVersion: body.version, document: body.document, applyOutlets: body.apply_outlets, log: ctx.log,
     }));
   });
 }

@@ -30,30 +30,57 @@ describe('API: water budget (versioned, validated, outlet flows carried into the
     expect(res.body.networkVersion).to.equal(1);
   });
 
-  it('raising a head count raises the linked trough\'s flow in a new network version with its own results', async () => {
+  it('a first save holds the flows typed on the Layout until the designer chooses; raising a head count then raises the linked trough\'s flow', async () => {
     const id = await insertProject(t.db, t.seeded!.demoTeamId);
     const a = await t.signInAs('designer');
     const { hillSmallholding } = await import('../../engine/examples/hill-smallholding');
     await a.put(`/api/projects/${id}/network`, { version: 0, document: hillSmallholding }).expect(200);
-    const first = await a.put(url(id), { version: 0, document: hillSmallholdingBudget }).expect(200);
-    expect(first.body.version).to.equal(1);
+    // the network's outlets carry flows typed on the Layout: nothing is overwritten without a choice
+    const held = await a.put(url(id), { version: 0, document: hillSmallholdingBudget }).expect(200);
+    expect(held.body.network).to.equal(null);
+    const heldTr4 = held.body.held.find((d: { id: string }) => d.id === 'TR4');
+    expect(heldTr4).to.include({ reason: 'not-yet-from-budget', network_m3s: outlet(hillSmallholding, 'TR4').demand_m3s, previous_m3s: null });
+    expect((await a.get(url(id)).expect(200)).body.held.map((d: { id: string }) => d.id)).to.include('TR4');
+    // the designer takes the budget's flow for every outlet but the house, whose typed flow they keep ("not from budget")
+    const chosen = held.body.held.map((d: { id: string }) => d.id).filter((o: string) => o !== 'HOUSE');
+    const keepHouse = { ...hillSmallholdingBudget, manual_outlets: ['HYD', 'HOUSE'] };
+    const first = await a.put(url(id), { version: 1, document: keepHouse, apply_outlets: chosen }).expect(200);
+    expect(first.body.held).to.deep.equal([]);
     expect(first.body.network.version).to.equal(2);
     const net1 = (await a.get(`/api/projects/${id}/network`).expect(200)).body;
     const tr4 = first.body.plan.outlets.find((o: { id: string }) => o.id === 'TR4').design_flow_m3s;
     expect(outlet(net1.document, 'TR4').demand_m3s).to.be.closeTo(tr4, 1e-15);
-    // the hand-typed hydrant flow is kept ("not from budget")
+    // the hand-typed hydrant and house flows are kept ("not from budget")
     expect(outlet(net1.document, 'HYD').demand_m3s).to.equal(outlet(hillSmallholding, 'HYD').demand_m3s);
+    expect(outlet(net1.document, 'HOUSE').demand_m3s).to.equal(outlet(hillSmallholding, 'HOUSE').demand_m3s);
 
-    const more: BudgetDocument = { ...hillSmallholdingBudget, uses: hillSmallholdingBudget.uses.map((u) => (u.id === 'herd' ? { ...u, count: 30 } : u)) };
-    const second = await a.put(url(id), { version: 1, document: more }).expect(200);
+    const more: BudgetDocument = { ...keepHouse, uses: keepHouse.uses.map((u) => (u.id === 'herd' ? { ...u, count: 30 } : u)) };
+    const second = await a.put(url(id), { version: 2, document: more }).expect(200);
     expect(second.body.network.version).to.equal(3);
     const net2 = (await a.get(`/api/projects/${id}/network`).expect(200)).body;
     expect(outlet(net2.document, 'TR4').demand_m3s).to.be.closeTo(outlet(net1.document, 'TR4').demand_m3s * 3, 1e-15);
     expect(net2.results.nodes['TR4'].pressure_m).to.be.below(net1.results.nodes['TR4'].pressure_m);
     // saving the same budget again changes no flow: no new network version
-    const third = await a.put(url(id), { version: 2, document: more }).expect(200);
+    const third = await a.put(url(id), { version: 3, document: more }).expect(200);
     expect(third.body.network).to.equal(null);
     expect(third.body.networkVersion).to.equal(3);
+
+    // TR3 edited on the Layout: a budget change to the herd does not overwrite it, and says so
+    const edited = { ...net2.document, nodes: net2.document.nodes.map((n: OutletNode) => (n.id === 'TR3' ? { ...n, demand_m3s: 0.0005 } : n)) };
+    await a.put(`/api/projects/${id}/network`, { version: 3, document: edited }).expect(200);
+    const fewer: BudgetDocument = { ...more, uses: more.uses.map((u) => (u.id === 'herd' ? { ...u, count: 20 } : u)) };
+    const fourth = await a.put(url(id), { version: 4, document: fewer }).expect(200);
+    expect(fourth.body.held).to.have.length(1);
+    expect(fourth.body.held[0]).to.include({ id: 'TR3', reason: 'edited-on-layout', network_m3s: 0.0005 });
+    const net3 = (await a.get(`/api/projects/${id}/network`).expect(200)).body;
+    expect(outlet(net3.document, 'TR3').demand_m3s).to.equal(0.0005);
+    expect(outlet(net3.document, 'TR4').demand_m3s).to.be.closeTo(outlet(net1.document, 'TR4').demand_m3s * 2, 1e-15);
+    // choosing the budget's flow for TR3 replaces it, and the audit log says which
+    const fifth = await a.put(url(id), { version: 5, document: fewer, apply_outlets: ['TR3'] }).expect(200);
+    expect(fifth.body.held).to.deep.equal([]);
+    expect(outlet((await a.get(`/api/projects/${id}/network`).expect(200)).body.document, 'TR3').demand_m3s).to.be.closeTo(outlet(net3.document, 'TR4').demand_m3s, 1e-15);
+    const log = (await (await t.signInAs('admin')).get('/api/team/audit').expect(200)).body as { action: string; detail: string }[];
+    expect(log.some((r) => r.action === 'budget.save' && /TR3/.test(r.detail))).to.equal(true);
   });
 
   it('a stale save → 409 with the current budget; the newer save is kept', async () => {

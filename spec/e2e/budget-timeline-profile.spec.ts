@@ -9,6 +9,7 @@ import { join } from 'node:path';
 import { expect } from 'chai';
 import type { Page } from 'playwright-core';
 import { signIn, useBrowserApp } from './harness';
+import { apiCall, findProject, getNetwork } from './layout-helpers';
 
 const shots = process.env.RUNNEL_SHOTS;
 if (shots) mkdirSync(shots, { recursive: true });
@@ -58,6 +59,25 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     expect(parseFloat(after ?? '')).to.be.closeTo(parseFloat(before ?? '') * 3, 0.01);
     await page.getByTestId('budget-save').click();
     await page.getByText(/Budget saved \(version 2\); outlet flows carried into the network \(version 2\)/).waitFor();
+
+    // the east trough's flow is changed on the Layout: the budget shows it differs and never overwrites it unasked
+    const projectId = await findProject(page, app.baseUrl, 'Hillside smallholding');
+    const net = await getNetwork(page, app.baseUrl, projectId);
+    const edited = { ...net.document, nodes: net.document.nodes.map((n) => (n.id === 'TR3' ? { ...n, demand_m3s: 0.0005 } : n)) };
+    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: net.version, document: edited })).status()).to.equal(200);
+    await page.reload();
+    const diff = page.getByTestId('difference-row');
+    await diff.first().waitFor();
+    expect(await diff.count()).to.equal(1);
+    expect(await diff.textContent()).to.match(/East trough.*Layout 0\.50*0? L\/s · budget 0\.\d+ L\/s\s*changed on the Layout since the budget set it/);
+    await shot(page, 'budget-differences-desktop');
+    await diff.getByTestId('difference-budget').click();
+    await page.getByTestId('budget-save').click();
+    await page.getByText(/Budget saved \(version 3\); outlet flows carried into the network \(version 4\)/).waitFor();
+    const after3 = await getNetwork(page, app.baseUrl, projectId);
+    const flowOf = (id: string) => after3.document.nodes.find((n) => n.id === id)?.['demand_m3s'];
+    expect(flowOf('TR3')).to.equal(flowOf('TR4'));
+    expect(await page.getByTestId('difference-row').count()).to.equal(0);
 
     // a bad row is refused in the dialog, naming the field
     await page.getByTestId('budget-add-use').click();

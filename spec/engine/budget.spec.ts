@@ -1,6 +1,6 @@
 import { expect } from 'chai';
 import {
-  applyBudget, planBudget, BudgetInputError, DEFAULT_RATES, validateBudget, type BudgetDocument, type BudgetUse,
+  applyBudget, layoutDifferences, planBudget, BudgetInputError, DEFAULT_RATES, validateBudget, type BudgetDocument, type BudgetUse,
 } from '../../engine/budget';
 import { hillSmallholding } from '../../engine/examples/hill-smallholding';
 import { hillSmallholdingBudget } from '../../engine/examples/hill-smallholding-budget';
@@ -99,6 +99,24 @@ describe('water budget: totals and outlet flows (hand-worked, C)', () => {
     const flow = (d: NetworkDocument) => (d.nodes.find((n) => n.id === 'TR4') as { demand_m3s: number }).demand_m3s;
     expect(flow(after)).to.be.closeTo(flow(before) * 4, 1e-15);
     expect(solve(after).nodes['TR4'].pressure_m).to.be.below(solve(before).nodes['TR4'].pressure_m);
+  });
+  it('a flow edited on the Layout is told apart from one that follows the budget, and a hold keeps it', () => {
+    const seeded = applyBudget(hillSmallholding, planBudget(hillSmallholdingBudget, hillSmallholding));
+    const edited: NetworkDocument = { ...seeded, nodes: seeded.nodes.map((n) => (n.id === 'TR3' ? { ...n, demand_m3s: 0.0005 } : n)) };
+    const more = { ...hillSmallholdingBudget, uses: hillSmallholdingBudget.uses.map((u) => (u.id === 'herd' ? { ...u, count: 20 } : u)) };
+    const plan = planBudget(more, edited);
+    // TR4 still carries the old budget's flow (follows it); TR3 was edited; nothing else changes
+    const diffs = layoutDifferences(edited, hillSmallholdingBudget, plan);
+    expect(diffs.map((d) => [d.id, d.reason])).to.deep.equal([['TR3', 'edited-on-layout']]);
+    expect(diffs[0].previous_m3s).to.be.closeTo(plan.outlets.find((o) => o.id === 'TR4')!.design_flow_m3s / 2, 1e-15);
+    const applied = applyBudget(edited, plan, new Set(diffs.map((d) => d.id)));
+    const flow = (id: string) => (applied.nodes.find((n) => n.id === id) as { demand_m3s: number }).demand_m3s;
+    expect(flow('TR3')).to.equal(0.0005);
+    expect(flow('TR4')).to.be.closeTo(plan.outlets.find((o) => o.id === 'TR4')!.design_flow_m3s, 1e-18);
+    // with no previous budget every differing linked outlet counts as typed on the Layout
+    const fresh = layoutDifferences(hillSmallholding, null, planBudget(hillSmallholdingBudget, hillSmallholding));
+    expect(fresh.length).to.be.greaterThan(0);
+    expect(fresh.every((d) => d.reason === 'not-yet-from-budget' && d.previous_m3s === null)).to.equal(true);
   });
 });
 

@@ -1,7 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { BudgetDocument, BudgetPlan } from '../../../../engine/budget';
+import type { BudgetDocument, BudgetPlan, LayoutDifference } from '../../../../engine/budget';
 import type { NetworkDocument, SteadyResult } from '../../../../engine/index';
 import { handleErrorsLocally } from './http-context';
 
@@ -13,6 +13,8 @@ export interface StoredBudget {
   updatedBy: string | null;
   plan: BudgetPlan | null;
   networkVersion: number;
+  /** Budget-driven outlets whose Layout flow differs from the budget's, left as typed. */
+  held: LayoutDifference[];
 }
 
 export interface SaveBudgetResult {
@@ -21,6 +23,8 @@ export interface SaveBudgetResult {
   plan: BudgetPlan | null;
   network: { version: number; results: SteadyResult | null } | null;
   networkVersion: number;
+  /** Outlets whose Layout-edited flow the save kept (not named in apply_outlets). */
+  held: LayoutDifference[];
 }
 
 /** GET /api/projects/:id/network. */
@@ -43,9 +47,13 @@ export class BudgetService {
     return this.http.get<StoredBudget>(url(projectId, 'budget'));
   }
 
-  /** Save from `version`; a 409 (someone saved since) is left to the caller. */
-  save(projectId: string, version: number, document: BudgetDocument): Observable<SaveBudgetResult> {
-    return this.http.put<SaveBudgetResult>(url(projectId, 'budget'), { version, document }, { context: handleErrorsLocally(409) });
+  /**
+   * Save from `version`; `applyOutlets` names the outlets whose Layout-edited flow the designer chose
+   * to replace with the budget's. A 409 (someone saved since) is left to the caller.
+   */
+  save(projectId: string, version: number, document: BudgetDocument, applyOutlets: string[] = []): Observable<SaveBudgetResult> {
+    const body = applyOutlets.length ? { version, document, apply_outlets: applyOutlets } : { version, document };
+    return this.http.put<SaveBudgetResult>(url(projectId, 'budget'), body, { context: handleErrorsLocally(409) });
   }
 
   network(projectId: string): Observable<StoredNetwork> {

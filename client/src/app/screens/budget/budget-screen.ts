@@ -16,7 +16,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import {
-  BudgetInputError, DEFAULT_RATE_ROWS, MONTH_NAMES, planBudget, type BudgetDocument, type BudgetPlan, type BudgetUse, type DefaultRate,
+  BudgetInputError, DEFAULT_RATE_ROWS, layoutDifferences, MONTH_NAMES, planBudget, type BudgetDocument, type BudgetPlan, type BudgetUse, type DefaultRate,
 } from '../../../../../engine/budget';
 import type { NetworkDocument, OutletNode } from '../../../../../engine/network-document';
 import { fromDisplay, toDisplay, unitLabel } from '../../../../../engine/units';
@@ -26,6 +26,7 @@ import { ProjectContext } from '../../core/project-context';
 import { SessionService } from '../../core/session.service';
 import { QuantityPipe } from '../../shared/quantity.pipe';
 import { amountText, KIND_LABELS, rateText, seasonText, verdictText } from './budget-format';
+import { LayoutDifferencesPanel, type DifferenceRow, type OutletChoice } from './layout-differences-panel';
 import { UseDialog, type UseDialogData } from './use-dialog';
 
 /**
@@ -37,7 +38,7 @@ import { UseDialog, type UseDialogData } from './use-dialog';
 @Component({
   selector: 'rn-budget-screen',
   imports: [FormsModule, MatTableModule, MatButtonModule, MatIconModule, MatTooltipModule, MatFormFieldModule, MatInputModule, MatSelectModule,
-    MatExpansionModule, MatProgressBarModule, QuantityPipe],
+    MatExpansionModule, MatProgressBarModule, QuantityPipe, LayoutDifferencesPanel],
   templateUrl: './budget-screen.html',
   styleUrl: './budget-screen.scss',
 })
@@ -61,6 +62,8 @@ export class BudgetScreen {
   protected readonly network = rxResource({ params: () => ({ id: this.projectId(), n: this.reload() }), stream: ({ params }) => this.api.network(params.id) });
 
   protected readonly draft = signal<BudgetDocument | null>(null);
+  /** Outlets whose Layout-edited flow the designer chose to replace with the budget's on the next save. */
+  private readonly applyChosen = signal<ReadonlySet<string>>(new Set());
   protected readonly version = signal(0);
   protected readonly dirty = signal(false);
   protected readonly saving = signal(false);
@@ -94,15 +97,46 @@ export class BudgetScreen {
     if (!plan) return [];
     return plan.months.map((m, j) => ({ total: m, verdict: plan.verdicts?.[j] ?? null, psh: this.draft()?.peak_sun_hours[j] ?? 0 }));
   });
+  /**
+   * Budget-driven outlets whose flow on the Layout differs both from the draft's and from what the
+   * saved budget gave them (engine/budget/layout-differences), with the designer's choice so far.
+   */
+  protected readonly differences = computed<DifferenceRow[]>(() => {
+    const plan = this.plan();
+    const doc = this.doc();
+    if (!plan || !doc || !this.stored.hasValue()) return [];
+    const s = this.stored.value();
+    const chosen = this.applyChosen();
+    return layoutDifferences(doc, s.version > 0 ? s.document : null, plan)
+      .map((d) => ({ d, name: this.outletName().get(d.id) ?? d.id, choice: chosen.has(d.id) ? 'budget' as const : null }));
+  });
+  /** Outlets kept at their Layout flow on this draft (marked "not from budget" here, not yet saved). */
+  private readonly keptHere = computed(() => {
+    const saved = new Set(this.stored.hasValue() ? this.stored.value().document.manual_outlets ?? [] : []);
+    return new Set((this.draft()?.manual_outlets ?? []).filter((id) => !saved.has(id)));
+  });
+  /** The panel's rows: open differences, and outlets the designer has just chosen to keep. */
+  protected readonly differenceRows = computed<DifferenceRow[]>(() => {
+    const open = this.differences();
+    const kept = [...this.keptDifferences().values()].filter((r) => this.keptHere().has(r.d.id) && !open.some((o) => o.d.id === r.d.id));
+    return [...open, ...kept.map((r) => ({ ...r, choice: 'layout' as const }))];
+  });
+  /** Differences seen before the designer kept them (so the row stays in the panel with its choice). */
+  private readonly keptDifferences = signal<ReadonlyMap<string, DifferenceRow>>(new Map());
+
   protected readonly outletRows = computed(() => {
     const plan = this.plan();
     const doc = this.doc();
     if (!plan) return [];
     const nodes = new Map((doc?.nodes ?? []).map((n) => [n.id, n]));
+    const differ = new Map(this.differences().map((r) => [r.d.id, r]));
     return plan.outlets.map((o) => {
       const node = nodes.get(o.id);
       const now = node?.kind === 'outlet' ? node.demand_m3s : null;
-      return { o, name: this.outletName().get(o.id) ?? o.id, now, changes: o.from_budget && now !== null && Math.abs(now - o.design_flow_m3s) > 1e-12 };
+      const diff = differ.get(o.id);
+      const changes = o.from_budget && now !== null && Math.abs(now - o.design_flow_m3s) > 1e-12;
+      const status = !changes ? '' : !diff ? 'updates on save' : diff.choice === 'budget' ? 'budget flow on save' : 'differs: kept until you choose';
+      return { o, name: this.outletName().get(o.id) ?? o.id, now, status, differs: !!diff && diff.choice !== 'budget' };
     });
   });
   protected readonly peak = computed(() => {
@@ -124,7 +158,24 @@ export class BudgetScreen {
       this.draft.set(structuredClone(s.document));
       this.version.set(s.version);
       this.dirty.set(false);
+      this.applyChosen.set(new Set());
+      this.keptDifferences.set(new Map());
     });
+  }
+
+  /** Keep the Layout's flow (the outlet becomes "not from budget") or take the budget's, on the next save. */
+  protected chooseOutlet(id: string, choice: OutletChoice): void {
+    const row = this.differenceRows().find((r) => r.d.id === id);
+    const apply = new Set(this.applyChosen());
+    if (choice === 'budget') {
+      apply.add(id);
+      this.change((b) => ({ ...b, manual_outlets: (b.manual_outlets ?? []).filter((m) => m !== id) }));
+    } else {
+      apply.delete(id);
+      if (row) this.keptDifferences.update((m) => new Map(m).set(id, row));
+      this.change((b) => ({ ...b, manual_outlets: [...new Set([...(b.manual_outlets ?? []), id])] }));
+    }
+    this.applyChosen.set(apply);
   }
 
   protected kindLabel(kind: string): string {
@@ -223,14 +274,15 @@ export class BudgetScreen {
     const budget = this.draft();
     if (!budget || this.saving()) return;
     this.saving.set(true);
-    this.api.save(this.projectId(), this.version(), budget).subscribe({
+    const apply = [...this.applyChosen()].filter((id) => this.differences().some((r) => r.d.id === id));
+    this.api.save(this.projectId(), this.version(), budget, apply).subscribe({
       next: (r) => {
         this.saving.set(false);
-        this.version.set(r.version);
-        this.dirty.set(false);
         const net = r.network ? `; outlet flows carried into the network (version ${r.network.version})` : '';
-        this.snack.open(`Budget saved (version ${r.version})${net}`, 'OK', { duration: 5000 });
-        if (r.network) this.network.reload();
+        const held = r.held.length ? `; ${r.held.length} Layout flow${r.held.length === 1 ? '' : 's'} kept until you choose` : '';
+        this.snack.open(`Budget saved (version ${r.version})${net}${held}`, 'OK', { duration: 6000 });
+        // reload both: the saved budget becomes the base the Layout's flows are compared with
+        this.reload.update((n) => n + 1);
       },
       error: (err: unknown) => {
         this.saving.set(false);
