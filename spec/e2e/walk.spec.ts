@@ -1,7 +1,8 @@
 /**
  * Walk mode on a phone, out of signal: a 390 × 844 touch viewport, emulated geolocation, the network
  * switched off. Five points and a photo recorded offline survive closing the page, sync once when
- * the network returns, and the track becomes a pipe with its ground profile.
+ * the network returns, and the track becomes a pipe with its ground profile. A walk also syncs when
+ * the signal returns while another screen is open.
  */
 import { expect } from 'chai';
 import type { BrowserContext, CDPSession, Page } from 'playwright-core';
@@ -182,6 +183,44 @@ describe('Walk mode: recording on a phone without signal', function () {
       // The walked line is 277.8 m in plan (spring → four stops); along the ground a little more.
       expect(pipe['length_m'] as number).to.be.within(278, 320);
       expect((net.document.layout?.['geo'] as { source: string }).source).to.equal('walk');
+    } finally {
+      await context.close();
+    }
+  });
+
+  it('a walk recorded offline syncs when the signal returns while another screen is open', async () => {
+    const context = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true, permissions: ['geolocation'] });
+    try {
+      const setup = await context.newPage();
+      await signIn(setup, app.baseUrl, 'designer');
+      const projectId = await createProject(setup, app.baseUrl, 'Back-paddock line', 'si');
+      await setup.close();
+      const { page } = await openWalk(context, app.baseUrl, projectId);
+      await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined));
+      await page.reload();
+      await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
+      await page.getByTestId('walk-name').fill('Back line');
+      await page.getByTestId('walk-start').click();
+      await page.getByTestId('walk-title').waitFor();
+
+      await context.setOffline(true);
+      await page.getByTestId('walk-network').filter({ hasText: 'Offline' }).waitFor();
+      for (const [label, z] of [['Gate', '210'], ['Far trough', '204']]) {
+        await page.getByTestId('walk-label').fill(label);
+        await page.getByTestId('walk-elevation').fill(z);
+        await page.getByTestId('walk-record').click();
+        await page.getByTestId('walk-saved').filter({ hasText: `Recorded ${label}` }).waitFor();
+      }
+      // Still out of signal, the designer moves on to the project list (the app is kept on the phone).
+      await page.getByTestId('back-to-projects').tap();
+      await page.waitForURL(/\/projects$/);
+      const filesNow = async () => (await (await apiCall(page, app.baseUrl, 'GET', `/api/projects/${projectId}/files`)).json()) as { kind: string; filename: string }[];
+      expect(await filesNow()).to.deep.equal([]);
+
+      await context.setOffline(false);
+      await page.locator('mat-snack-bar-container').filter({ hasText: 'Walk synced: "Back line" (2 points' }).waitFor({ timeout: 20000 });
+      const files = await filesNow();
+      expect(files.map((f) => f.filename)).to.deep.equal(['walk-Back line.gpx']);
     } finally {
       await context.close();
     }

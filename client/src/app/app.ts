@@ -13,6 +13,7 @@ import { NavigationEnd, Router, RouterLink, RouterLinkActive, RouterOutlet } fro
 import { filter, map } from 'rxjs';
 import { AppUpdates } from './core/app-updates';
 import { SessionService } from './core/session.service';
+import { WalkAutoSync } from './core/walk-autosync';
 
 interface NavItem { path: string; label: string; icon: string; permission: string; testId: string }
 
@@ -64,6 +65,7 @@ export class App {
   constructor() {
     this.session.load().pipe(takeUntilDestroyed()).subscribe();
     inject(AppUpdates).watch();
+    inject(WalkAutoSync).watch();
   }
 
   protected toggleNav(): void {

@@ -28,6 +28,11 @@ class WalkDexie extends Dexie {
 export class WalkDb {
   private readonly db = new WalkDexie();
 
+  /** Every walk kept on this phone, whatever its project (the app-wide sync looks for unsent ones). */
+  allWalks(): Promise<Walk[]> {
+    return this.db.walks.toArray();
+  }
+
   walksOf(projectId: string): Promise<Walk[]> {
     return this.db.walks.where('projectId').equals(projectId).sortBy('startedAt');
   }

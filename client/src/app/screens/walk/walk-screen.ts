@@ -14,7 +14,7 @@ import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import type { NetworkDocument } from '../../../../../engine/network-document';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../../../../../engine/units';
-import { apiErrorBody, apiErrorMessage } from '../../core/api-errors';
+import { apiErrorMessage } from '../../core/api-errors';
 import { OFFLINE_FLAG } from '../../core/app-updates';
 import { handleErrorsLocally } from '../../core/http-context';
 import { ProjectContext } from '../../core/project-context';
@@ -25,14 +25,10 @@ import { checkPoint } from './point-check';
 import { PositionWatch } from './position-watch';
 import { type BuildSummary, buildFromWalk } from './walk-to-network';
 import { WalkDb } from './walk-db';
-import { WalkSync } from './walk-sync';
+import { noSignal, WalkSync } from './walk-sync';
 import { POINT_KINDS, type PointKind, type TrackPoint, type Walk, type WalkPhoto, type WalkPoint } from './walk-types';
 
 /** No answer from Runnel itself: offline, or the service worker's 504 when the network failed under it. */
-function noSignal(e: unknown): boolean {
-  return e instanceof HttpErrorResponse && (e.status === 0 || (e.status === 504 && !apiErrorBody(e)));
-}
-
 /** Accuracy limits offered, metres (a phone in the open manages 3–5 m; under trees 10–30 m). */
 const LIMITS_M = [5, 10, 20, 50];
 const INTERVALS_S = [2, 5, 10, 30];
