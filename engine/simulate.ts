@@ -130,11 +130,12 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
   // series sized once for every report (growing 30,000 arrays by push was a fifth of a week's run)
   const duration = options.duration_s;
   const reportCount = 1 + Math.max(0, Math.ceil((duration - 1e-6) / options.step_s));
+  // (filled with NaN, a double, so the arrays are double arrays from the start and are not converted on the first write)
   const series = <T>(fill: T): T[] => new Array<T>(reportCount).fill(fill);
   const times = series(0);
-  const levelSeries = tanks.map(() => series(0));
-  const pressureSeries = Array.from({ length: n }, () => series(0));
-  const flowSeries = Array.from({ length: m }, () => series(0));
+  const levelSeries = tanks.map(() => series(Number.NaN));
+  const pressureSeries = Array.from({ length: n }, () => series(Number.NaN));
+  const flowSeries = Array.from({ length: m }, () => series(Number.NaN));
   const onSeries = controls.pumpLinks.map(() => series(false));
   const pumpLinks = controls.pumpLinks;
   let reports = 0;
