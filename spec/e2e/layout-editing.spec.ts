@@ -294,4 +294,25 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
     await page.getByTestId('result-O1').waitFor();
     expect(await page.getByTestId('result-O1').textContent()).to.match(/psi/);
   });
+  it('a value may be typed in either unit system: "135 ft" in a metre field, "10 psi" in kPa, and a wrong unit is refused in words', async () => {
+    const { app, page } = ui;
+    await signIn(page, app.baseUrl, 'designer');
+    const projectId = await createProject(page, app.baseUrl, 'Mixed units', 'si');
+    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('mixed') })).status()).to.equal(200);
+    await openLayout(page, app.baseUrl, projectId);
+    await clickNode(page, 'T1');
+    await setProperty(page, 'prop-elevation', '135 ft');
+    // 1 ft = 0.3048 m exactly (NIST SP 811): 135 ft = 41.148 m, shown back in the field's own unit.
+    await page.waitForFunction(() => (document.querySelector('[data-testid=prop-elevation]') as HTMLInputElement).value === '41.148');
+    expect((await editorHook.doc(page)).nodes[0].elevation_m).to.be.closeTo(41.148, 1e-9);
+    await clickNode(page, 'O1');
+    await setProperty(page, 'prop-min-pressure', '10 psi');
+    // 10 psi = 68 947.57 Pa = 7.0307 m of water (1 m H2O = 9806.65 Pa).
+    const o1 = (await editorHook.doc(page)).nodes.find((n) => n.id === 'O1')!;
+    expect(o1.min_pressure_m).to.be.closeTo(68947.57293168 / 9806.65, 1e-5);
+    expect(await page.getByTestId('prop-min-pressure').inputValue()).to.equal('68.9');
+    await setProperty(page, 'prop-min-pressure', '12 kg');
+    expect(await page.getByTestId('prop-min-pressure-error').innerText()).to.equal('"12 kg" is not a pressure (try psi or kPa)');
+    expect((await editorHook.doc(page)).nodes.find((n) => n.id === 'O1')!.min_pressure_m).to.be.closeTo(7.0307, 1e-4);
+  });
 });

@@ -40,3 +40,19 @@ describe('parseQuantity (engine/quantity-input.ts, mathjs): typed quantities to 
     expect(parseQuantity('1/0', 'length', 'us')).to.deep.equal({ ok: false, message: '"1/0" is not a finite number' });
   });
 });
+
+describe('parseQuantity: head and pressure typed either way, emitter flows', () => {
+  it('a length in a pressure field is that column of water; a pressure in a head field is the column it holds up', () => {
+    expect(si('20 m', 'pressure', 'si')).to.equal(20);
+    expect(si('60 ft', 'pressure', 'us')).to.be.closeTo(60 * 0.3048, 1e-12);
+    // 1 psi = 6894.757 Pa (NIST SP 811, V) over 9806.65 Pa per m of water = 0.70307 m.
+    expect(si('10 psi', 'head', 'us')).to.be.closeTo((10 * 6894.757293168) / 9806.65, 1e-6);
+    expect(parseQuantity('3 kg', 'pressure', 'si')).to.deep.equal({ ok: false, message: '"3 kg" is not a pressure (try psi or kPa)' });
+  });
+
+  it('an emitter flow in gph or L/h', () => {
+    expect(si('0.5 gph', 'emitter-flow', 'us')).to.be.closeTo((0.5 * 3.785411784e-3) / 3600, 1e-15);
+    expect(si('2 L/h', 'emitter-flow', 'si')).to.be.closeTo(2e-3 / 3600, 1e-15);
+    expect(si('2', 'emitter-flow', 'si')).to.be.closeTo(2e-3 / 3600, 1e-15); // bare: the display unit, L/h
+  });
+});

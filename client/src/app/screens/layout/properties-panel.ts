@@ -14,6 +14,7 @@ import { FITTINGS } from '../../../../../engine/pipe-catalogue';
 import { fitPumpCurve } from '../../../../../engine/pump-curve/index';
 import { ownResults } from './editor/own-results';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel, UnitSystem } from '../../../../../engine/units';
+import { loadQuantityReader, readQuantity } from './editor/typed-quantity';
 import { lengthSource } from './editor/document-store';
 import { FieldSpec, fieldsFor, isNodeKind, LINK_KINDS, NODE_KINDS, patchForPath, readPath } from './kinds';
 import { defaultDemandModel } from './kinds/outlet-kind';
@@ -99,6 +100,7 @@ export class PropertiesPanel {
   });
 
   constructor() {
+    void loadQuantityReader();
     // Rebuild the form when the element or its visible fields change; otherwise refresh values
     // (undo, drag) without emitting.
     effect(() => {
@@ -133,7 +135,7 @@ export class PropertiesPanel {
   readonly curveText = computed(() => {
     const el = this.element();
     if (el?.kind !== 'pump') return '';
-    const pts = (el as { curve_points?: [number, number][] }).curve_points ?? el.curve ?? [];
+    const pts = el.curve_points ?? el.curve ?? [];
     const u = this.units();
     const n = (q: 'flow' | 'head', v: number) => Number(toDisplay(q, v, u).toPrecision(4));
     return pts.map(([q, h]) => `${n('flow', q)}, ${n('head', h)}`).join('; ');
@@ -144,7 +146,7 @@ export class PropertiesPanel {
     const err = this.curveError();
     if (err) return err;
     const el = this.element();
-    const pts = el?.kind === 'pump' ? ((el as { curve_points?: [number, number][] }).curve_points ?? el.curve) : undefined;
+    const pts = el?.kind === 'pump' ? (el.curve_points ?? el.curve) : undefined;
     if (!pts || pts.length < 2) return '';
     const fit = fitPumpCurve(pts);
     const u = this.units();
@@ -178,6 +180,11 @@ export class PropertiesPanel {
     if (el && f) this.patch.emit({ id: el.id, patch: { minor_loss: f.k } });
   }
 
+  /** A value in the other unit system, to show that any unit may be typed ("12 ft" in a metre field). */
+  example(f: FieldSpec): string {
+    return f.quantity ? `12 ${unitLabel(f.quantity, this.units() === 'us' ? 'si' : 'us')}` : '';
+  }
+
   unit(f: FieldSpec): string {
     return f.quantity ? unitLabel(f.quantity, this.units()) : (f.suffix ?? '');
   }
@@ -187,6 +194,7 @@ export class PropertiesPanel {
     if (!c?.errors) return '';
     if (c.errors['required']) return f.key === 'elevation_m' ? 'Not set yet: type the ground elevation here' : `${this.label(f)} is required`;
     if (c.errors['number']) return 'Enter a number';
+    if (c.errors['quantity']) return sentence(c.errors['quantity'] as string);
     if (c.errors['min']) return `At least ${c.errors['min']}`;
     if (c.errors['max']) return `At most ${c.errors['max']}`;
     if (c.errors['schedule']) return c.errors['schedule'] as string;
@@ -197,11 +205,7 @@ export class PropertiesPanel {
     const v = f.read ? f.read(el) : readPath(el, f.key);
     if (f.type === 'checkbox') return f.key === 'open' ? v !== false : v === true;
     if (f.type === 'number' || f.type === 'length') {
-      if (typeof v !== 'number') return '';
-      if (!f.quantity) return Number(v.toPrecision(6));
-      // One decimal more than the unit's usual display precision (engine/units.ts decides it).
-      const usual = formatQuantity(f.quantity, v, units).split(' ')[0].split('.')[1]?.length ?? 0;
-      return Number(toDisplay(f.quantity, v, units).toFixed(usual + 1));
+      return typeof v === 'number' ? displayNumber(f, v, units) : '';
     }
     if (f.type === 'schedule') return Array.isArray(v) ? v.join(', ') : '';
     return v ?? f.fallback ?? '';
@@ -232,9 +236,8 @@ export class PropertiesPanel {
       if (f.type === 'schedule') return scheduleError(String(v ?? ''));
       if (f.type !== 'number' && f.type !== 'length') return f.required && !v ? { required: true } : null;
       if (v === '' || v === null || v === undefined) return f.required ? { required: true } : null;
-      const n = Number(v);
-      if (!Number.isFinite(n)) return { number: true };
-      const si = f.quantity ? fromDisplay(f.quantity, n, units) : n;
+      const si = typedValue(f, v, units);
+      if (typeof si === 'string') return f.quantity ? { quantity: si } : { number: true };
       const fmt = (x: number) => (f.quantity ? formatQuantity(f.quantity, x, units, 3).replace(/\.?0+ /, ' ') : String(x));
       if (f.min !== undefined && si < f.min - 1e-12) return { min: fmt(f.min) };
       if (f.max !== undefined && si > f.max + 1e-12) return { max: fmt(f.max) };
@@ -247,7 +250,12 @@ export class PropertiesPanel {
     if (!el || c.invalid || this.readOnly()) return;
     let value: unknown = v;
     if (f.type === 'number' || f.type === 'length') {
-      value = v === '' || v === null ? undefined : f.quantity ? fromDisplay(f.quantity, Number(v), this.units()) : Number(v);
+      const typed = v === '' || v === null ? undefined : typedValue(f, v, this.units());
+      value = typeof typed === 'number' ? typed : undefined;
+      // "150 ft" in a metre field reads back as the number in the field's own unit.
+      if (typeof typed === 'number' && f.quantity && !isPlainNumber(v)) {
+        c.setValue(displayNumber(f, typed, this.units()), { emitEvent: false });
+      }
     } else if (f.type === 'text') {
       value = String(v ?? '').trim() || undefined;
     } else if (f.type === 'schedule') {
@@ -305,6 +313,35 @@ export class PropertiesPanel {
 
   readonly daylight = DAYLIGHT_SCHEDULE;
   readonly alwaysOn: readonly number[] = Array.from({ length: 24 }, () => 1);
+}
+
+/**
+ * What a number field holds, in SI: a field with a quantity takes "150 ft", "3/4 in", "40 psi" or a
+ * bare number in its display unit (engine/quantity-input.ts); a plain count takes a number.
+ * A string is the reason it cannot be read.
+ */
+function typedValue(f: FieldSpec, v: unknown, units: UnitSystem): number | string {
+  if (f.quantity) {
+    const r = readQuantity(String(v), f.quantity, units);
+    return r.ok ? r.si : r.message;
+  }
+  const n = Number(v);
+  return Number.isFinite(n) ? n : 'enter a number';
+}
+
+/** An SI value as its field shows it: one decimal more than the unit's usual display precision (engine/units.ts decides it). */
+function displayNumber(f: FieldSpec, si: number, units: UnitSystem): number {
+  if (!f.quantity) return Number(si.toPrecision(6));
+  const usual = formatQuantity(f.quantity, si, units).split(' ')[0].split('.')[1]?.length ?? 0;
+  return Number(toDisplay(f.quantity, si, units).toFixed(usual + 1));
+}
+
+function isPlainNumber(v: unknown): boolean {
+  return typeof v === 'number' || (typeof v === 'string' && v.trim() !== '' && Number.isFinite(Number(v)));
+}
+
+function sentence(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
 }
 
 /** Form control name of a field (FormGroup keys may not contain dots). */

@@ -61,7 +61,7 @@ export class ResultOverlay {
   private drawNode(n: NetworkNode, { service, units, warnings, show }: OverlayInput): boolean {
     const v = this.views.nodes.get(n.id);
     if (!v) return false;
-    const b = show || (n as { elevation_source?: string }).elevation_source === 'unset' ? nodeBadge(n, service?.nodes[n.id], units) : null;
+    const b = show || n.elevation_source === 'unset' ? nodeBadge(n, service?.nodes[n.id], units) : null;
     const warned = show && !!warnings.get(n.id)?.length;
     const key = `${b?.text ?? ''}|${b?.tone ?? ''}|${warned}`;
     const before = this.keys.get(n.id);

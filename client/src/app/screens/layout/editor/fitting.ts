@@ -10,7 +10,7 @@ export function fitRect(doc: NetworkDocument, backdrop: Rect | null): Rect {
   const pts: Point[] = doc.nodes.map((n) => ({ x: n.x_m ?? 0, y: n.y_m ?? 0 }));
   for (const l of doc.links) for (const [x, y] of l.vertices ?? []) pts.push({ x, y });
   // Survey points are part of the site: a survey loaded before any drawing is in view.
-  for (const s of (doc.layout?.['survey'] as { points?: { x_m: number; y_m: number }[] } | undefined)?.points ?? []) pts.push({ x: s.x_m, y: s.y_m });
+  for (const s of doc.layout?.survey?.points ?? []) pts.push({ x: s.x_m, y: s.y_m });
   if (backdrop) pts.push({ x: backdrop.x, y: backdrop.y }, { x: backdrop.x + backdrop.width, y: backdrop.y + backdrop.height });
   const r = boundsOf(pts) ?? { x: -50, y: -50, width: 100, height: 100 };
   const pad = Math.max(r.width, r.height) < 20 ? 20 : 0;

@@ -30,7 +30,7 @@ export function groupedVolume(m3: number, units: UnitSystem): string {
  * Null when the element has nothing to say (a healthy tee, a source).
  */
 export function nodeBadge(n: NetworkNode, s: NodeService | undefined, units: UnitSystem): PlanBadge | null {
-  if ((n as { elevation_source?: string }).elevation_source === 'unset') return { text: 'elevation?', tone: 'unset' };
+  if (n.elevation_source === 'unset') return { text: 'elevation?', tone: 'unset' };
   if (!s) return null;
   if (n.kind === 'tank') {
     if (s.volume_m3 === undefined || s.capacity_m3 === undefined) return null;

@@ -1,4 +1,4 @@
-import type { NetworkDocument, SurveyPoint } from '../../../../../../engine/network-document';
+import type { NetworkDocument, NetworkNode, SurveyPoint } from '../../../../../../engine/network-document';
 import type { ParsedSurveyPoint } from '../../../../../../engine/survey-point';
 import { linkPoints } from './document-store';
 import { distance, Point, polylineLength, projectOnPolyline } from './geometry';
@@ -49,11 +49,11 @@ export function surveyPointsOf(doc: NetworkDocument): SurveyPoint[] {
 }
 
 /** Where a node's elevation came from (editor-only `elevation_source`; absent means typed). */
-export type ElevationSource = 'unset' | 'survey' | 'nearest';
+export type ElevationSource = NonNullable<NetworkNode['elevation_source']>;
 
 /** A node's elevation provenance as stored. */
-export function elevationSource(n: object): ElevationSource | 'typed' {
-  return ((n as { elevation_source?: ElevationSource }).elevation_source) ?? 'typed';
+export function elevationSource(n: Pick<NetworkNode, 'elevation_source'>): ElevationSource | 'typed' {
+  return n.elevation_source ?? 'typed';
 }
 
 /** Nodes whose elevation nobody has given yet (the plan asks for them and shows no pressures). */
@@ -112,8 +112,8 @@ export function withSurveyElevations(doc: NetworkDocument, changes: readonly Sur
     nodes: doc.nodes.map((n) => {
       const c = by.get(n.id);
       if (!c) return n;
-      const lift = n.kind === 'source' ? { head_m: n.head_m + (c.to_m - n.elevation_m) } : {};
-      return { ...n, ...lift, elevation_m: c.to_m, elevation_source: 'survey', elevation_from: c.point || undefined } as unknown as typeof n;
+      const mark = { elevation_m: c.to_m, elevation_source: 'survey' as const, elevation_from: c.point || undefined };
+      return n.kind === 'source' ? { ...n, ...mark, head_m: n.head_m + (c.to_m - n.elevation_m) } : { ...n, ...mark };
     }),
   };
 }

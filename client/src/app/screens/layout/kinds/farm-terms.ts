@@ -8,11 +8,12 @@ import type { FieldSpec } from './kind-types';
  * ignores them. Each helper field writes the physical fields it stands for.
  */
 
-const asOutlet = (e: NetworkNode | NetworkLink) => e as OutletNode & { refill_m3?: number; emitters?: number };
+/** The drip and trough fields show only on outlets (`when`), so the element is one. */
+const asOutlet = (e: NetworkNode | NetworkLink) => e as OutletNode;
 const isType = (t: string) => (e: NetworkNode | NetworkLink) => asOutlet(e).outlet_type === t;
 
 /** Seconds a trough takes to refill at its design flow (its float valve open). */
-function refillSeconds(o: OutletNode & { refill_m3?: number }): number | undefined {
+function refillSeconds(o: OutletNode): number | undefined {
   return o.refill_m3 && o.demand_m3s > 0 ? o.refill_m3 / o.demand_m3s : undefined;
 }
 

@@ -87,6 +87,9 @@ export const INK = '#24323d';
 export const PAPER = '#ffffff';
 export const WATER = '#cfe6f3';
 
+/** A node, not a link: only nodes have an elevation. */
+const isNode = (e: NetworkNode | NetworkLink): e is NetworkNode => 'elevation_m' in e;
+
 export const nameField: FieldSpec = { key: 'name', label: 'Name', type: 'text', testid: 'prop-name' };
 export const elevationField: FieldSpec = {
   key: 'elevation_m', label: 'Elevation', type: 'number', quantity: 'elevation', required: true, min: -500, max: 9000,
@@ -94,13 +97,13 @@ export const elevationField: FieldSpec = {
   // Unset shows empty (and is asked for); a guess says where it came from. A source's water
   // surface moves with a first typed elevation (it keeps its height over the ground).
   write: (e, v) => {
-    const n = e as NetworkNode & { elevation_source?: string };
-    const lift = n.kind === 'source' && n.elevation_source && v !== undefined ? { head_m: v + (n.head_m - n.elevation_m) } : {};
+    const lift = e.kind === 'source' && e.elevation_source && v !== undefined ? { head_m: v + (e.head_m - e.elevation_m) } : {};
     return { elevation_m: v, elevation_source: undefined, elevation_from: undefined, ...lift };
   },
-  read: (e) => ((e as { elevation_source?: string }).elevation_source === 'unset' ? undefined : (e as NetworkNode).elevation_m),
+  read: (e) => (!isNode(e) || e.elevation_source === 'unset' ? undefined : e.elevation_m),
   hintFor: (e) => {
-    const { elevation_source: src, elevation_from: from } = e as { elevation_source?: string; elevation_from?: string };
+    if (!isNode(e)) return undefined;
+    const { elevation_source: src, elevation_from: from } = e;
     return src === 'nearest' ? `Copied from ${from ?? 'the nearest element'}: check it` : src === 'survey' ? `From survey point ${from ?? ''}`.trim() : undefined;
   },
 };
