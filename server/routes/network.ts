@@ -5,11 +5,12 @@ import type { AppContext } from '../context';
 import { parseBody } from '../errors';
 import { loadNetwork, saveNetwork, saveSummary } from '../network/network-store';
 import { projectOf } from '../project-scope';
+import { versionNumber } from './versions';
 
 /** The body of PUT /api/projects/:id/network; the document is checked by the engine's schema (parseDocument). */
 const saveNetworkBody = z.object({
   // versions is an int4 column: 2^31 and above would be a database error, not a stale save.
-  version: z.number({ error: 'must be a number' }).int('must be an integer').min(0, 'must be 0 or more').max(2 ** 31 - 1, 'must be below 2^31'),
+  version: versionNumber(0),
   document: z.unknown(),
 });
 

@@ -21,6 +21,7 @@ import { uuidParam } from '../ids';
 import { loadNetwork, saveNetwork } from '../network/network-store';
 import { designInputs, pipeCandidates } from '../options/design-inputs';
 import { projectOf } from '../project-scope';
+import { versionNumber } from './versions';
 
 const createBody = z.object({ name: z.string().trim().min(1, 'is required').max(120), notes: z.string().max(2000).default('') });
 const editBody = z.object({
@@ -41,7 +42,7 @@ const sizeBody = z.object({
   /** Share of the rating static pressure may use: the review's working limit (72 %, ASAE S376.1) unless told otherwise. */
   ratingFraction: z.number().finite().min(0.3).max(1).default(WORKING_SHARE),
 });
-const promoteBody = z.object({ version: z.number().int().min(0).optional() });
+const promoteBody = z.object({ version: versionNumber(0).optional() });
 
 const creator = alias(users, 'creator');
 const preferrer = alias(users, 'preferrer');

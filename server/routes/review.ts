@@ -6,7 +6,7 @@ import { parseBody } from '../errors';
 import { projectOf } from '../project-scope';
 import { addComment, listThreads, setResolved } from '../review/comments';
 import { transitionVersion, type Transition } from '../review/signoff';
-import { versionParam } from './versions';
+import { versionNumber, versionParam } from './versions';
 
 const note = z.string({ error: 'must be a string' }).trim().max(2000, 'must be at most 2000 characters');
 const optionalNote = z.object({ note: note.optional() });
@@ -14,7 +14,7 @@ const requiredNote = z.object({ note: note.min(1, 'say what needs changing (a re
 
 const finite = z.number({ error: 'must be a number' }).finite('must be a finite number');
 const commentBody = z.object({
-  version: z.number({ error: 'must be a number' }).int('must be an integer').min(1, 'must be 1 or more'),
+  version: versionNumber(1),
   body: z.string({ error: 'must be a string' }).trim().min(1, 'must not be empty').max(4000, 'must be at most 4000 characters'),
   element: z.string({ error: 'must be a string' }).min(1, 'must not be empty').max(100).optional(),
   x_m: finite.optional(),

@@ -7,18 +7,28 @@ import { saveNetwork } from '../network/network-store';
 import { compareVersions, listVersions, loadVersion } from '../network/versions-store';
 import { projectOf } from '../project-scope';
 
-/** A version number from the path: a positive integer, or 400 naming the parameter. */
+/** Versions are stored as PostgreSQL `integer` (drizzle/schema.ts): anything above 2^31 − 1 is refused with 400, never sent to the database. */
+export const MAX_VERSION = 2 ** 31 - 1;
+
+/** A version number in a body: an integer from `min` (0: "nothing saved yet" for optimistic checks; 1: a saved version) to MAX_VERSION. */
+export const versionNumber = (min: 0 | 1) => z.number({ error: 'must be a number' }).int('must be an integer')
+  .min(min, `must be ${min} or more`).max(MAX_VERSION, 'must be below 2^31');
+
+const pathVersion = z.string().regex(/^\d{1,10}$/, 'must be a positive integer').transform(Number).pipe(versionNumber(1));
+
+/** A version number from the path or query: a positive integer below 2^31, or 400 naming the parameter. */
 export function versionParam(value: unknown, name = 'version'): number {
-  const n = typeof value === 'string' && /^\d{1,9}$/.test(value) ? Number(value) : NaN;
-  if (!Number.isInteger(n) || n < 1) {
-    throw new ApiError('validation', `${name} must be a version number (1 or more), got "${String(value)}"`, { fields: [{ path: name, message: 'must be a positive integer' }] });
+  const parsed = pathVersion.safeParse(value);
+  if (!parsed.success) {
+    const message = parsed.error.issues[0]?.message ?? 'must be a positive integer';
+    throw new ApiError('validation', `${name} must be a version number (1 to ${MAX_VERSION}), got "${String(value).slice(0, 40)}"`, { fields: [{ path: name, message }] });
   }
-  return n;
+  return parsed.data;
 }
 
 const restoreBody = z.object({
   /** The current version the client has loaded (optimistic check, like a save). */
-  version: z.number({ error: 'must be a number' }).int('must be an integer').min(0, 'must be 0 or more'),
+  version: versionNumber(0),
 });
 
 export function versionRoutes(api: ApiRoutes, ctx: AppContext): void {

@@ -107,4 +107,20 @@ describe('API: network versions', () => {
     expect(noBody.body.error.fields[0].path).to.equal('version');
     await (await t.signInAs('other')).get(url(p, '/versions')).expect(404);
   });
+
+  it('version numbers of 2^31 or more (the int4 column) → 400 naming the field, in the path, the query and every body', async () => {
+    const a = await t.signInAs('designer');
+    const r = await t.signInAs('reviewer');
+    const p = t.seeded!.demoProjectId;
+    for (const path of ['/versions/2147483648', '/versions/99999999999', '/versions/2147483648/compare/1', '/comments?version=2147483648']) {
+      const res = await a.get(url(p, path)).expect(400);
+      expect(res.body.error.fields[0].path, path).to.equal('version');
+    }
+    expect((await a.get(url(p, '/versions/1/compare/2147483648')).expect(400)).body.error.fields[0].path).to.equal('other');
+    expect((await a.post(url(p, '/versions/2147483648/submit'), {}).expect(400)).body.error.fields[0].path).to.equal('version');
+    expect((await a.post(url(p, '/versions/1/restore'), { version: 2 ** 31 }).expect(400)).body.error.fields[0].path).to.equal('version');
+    expect((await r.post(url(p, '/comments'), { version: 2 ** 31, element: 'P1', body: 'x' }).expect(400)).body.error.fields[0].path).to.equal('version');
+    // The largest stored value is a well-formed number: not found, not a database error.
+    expect((await a.get(url(p, '/versions/2147483647')).expect(404)).body.error.message).to.match(/Version 2147483647/);
+  });
 });
