@@ -1,7 +1,8 @@
 /** The save-conflict summary: what each side changed, compared element by element. */
 import { expect } from 'chai';
 import type { NetworkDocument, PipeLink, TeeNode } from '../../engine/network-document';
-import { conflictSummary, describeChanges, diffDocuments } from '../../client/src/app/screens/layout/editor/document-diff';
+import { conflictSummary, describeChanges } from '../../client/src/app/screens/layout/editor/document-diff';
+import { diffVersions } from '../../engine/review/version-diff';
 
 function base(): NetworkDocument {
   return {
@@ -29,11 +30,11 @@ describe('Layout editor: document diff for the save conflict', () => {
     b.nodes[0] = Object.fromEntries(Object.entries(t).reverse()) as never;
     b.nodes.push({ id: 'O2', kind: 'outlet', name: 'East trough', elevation_m: 15, demand_m3s: 0.0001, min_pressure_m: 3, x_m: 30, y_m: 0 } as never);
     b.links = b.links.filter((l) => l.id !== 'P1');
-    const d = diffDocuments(a, b);
+    const d = diffVersions(a, b);
     expect(d.changed.map((e) => e.id)).to.deep.equal(['J1', 'P4']);
     expect(d.added.map((e) => e.id)).to.deep.equal(['O2']);
     expect(d.removed.map((e) => e.id)).to.deep.equal(['P1']);
-    expect(d.other).to.equal(false);
+    expect(d.settings).to.deep.equal([]);
     expect(describeChanges(d)).to.equal('2 elements changed (Upper tee, P4), 1 added (East trough), 1 removed (P1)');
   });
 
@@ -55,7 +56,7 @@ describe('Layout editor: document diff for the save conflict', () => {
     b.nodes = b.nodes.map((n) => ({ ...n, elevation_m: n.elevation_m + 1 }));
     b.links = b.links.map((l) => ({ ...l, roughness: 130 }));
     (b as { title?: string }).title = 'Renamed';
-    expect(describeChanges(diffDocuments(a, b))).to.equal('5 elements changed (Ridge tank, Upper tee, Garden, +2 more), network settings changed');
+    expect(describeChanges(diffVersions(a, b))).to.equal('5 elements changed (Ridge tank, Upper tee, Garden, +2 more), network settings changed');
     expect(conflictSummary(null, a, a)).to.equal('Their copy compared with yours: no changes.');
   });
 });
