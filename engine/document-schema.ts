@@ -82,7 +82,7 @@ const teeNode = z.object({
   demand_m3s: quantity('demand_m3s'),
   /** Id of an hourly pattern in doc.patterns multiplying demand_m3s. */
   pattern: id.optional(),
-  /** Review: an air-release valve / a drain fitted at this tee (engine/review/profile-points.ts). */
+  /** Review: an air-release valve / a drain fitted at this tee (engine/profile/network-points.ts). */
   air_valve: flag.optional(),
   drain: flag.optional(),
   /** Only outlets have a demand model; a tee carrying one is a mistake the engine would ignore. */
@@ -164,7 +164,7 @@ const pipeLink = z.object({
   cover_m: quantity('cover_m').optional(),
   /** Initially closed (a pipe with a shut-off). */
   closed: flag.optional(),
-  /** Review: air-release valves and drains fitted along the pipe, m from `from` (engine/review/profile-points.ts). */
+  /** Review: air-release valves and drains fitted along the pipe, m from `from` (engine/profile/network-points.ts). */
   air_valves_m: z.array(quantity('distance_m'), { error: 'must be a list of distances in m' }).max(1000).optional(),
   drains_m: z.array(quantity('distance_m'), { error: 'must be a list of distances in m' }).max(1000).optional(),
   /** Editor: how the length was decided. */

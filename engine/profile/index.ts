@@ -7,7 +7,8 @@
  * import { findRoutes, profileRoute } from '../engine/profile';
  * const profile = profileRoute(doc, findRoutes(doc, 'T1', 'TR4')[0]);
  */
-export { findRoutes, longestSupplyRoute, RouteError, type Route } from './routes';
+export { findRoutes, longestSupplyRoute, supplyRoutes, RouteError, type Route } from './routes';
+export { networkTurningPoints, type NetworkTurningPoint } from './network-points';
 export { profileRoute, type RouteProfile, type ProfilePoint, type ProfileElement, type ProfileSegment, type ProfileOptions, type StaticMargin } from './profile-line';
 export { profileFindings, WORKING_SHARE, FINDING_TEXT, type ProfileFinding, type FindingKind } from './findings';
 export { pressureState, pressureText, unsuppliedIds, PRESSURE_STATE_TEXT, VACUUM_HEAD_M, type PressureState } from './pressure-state';

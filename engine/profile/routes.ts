@@ -160,6 +160,27 @@ export function findRoutes(doc: NetworkDocument, from: string, to: string, count
 }
 
 /**
+ * The shortest route from its nearest supply (source or tank) to every outlet it reaches: one
+ * Dijkstra from every source and tank at once over pipes and valves (a fill pump's rising main is
+ * not a supply route), as in longestSupplyRoute. Outlets no supply reaches have no route.
+ */
+export function supplyRoutes(doc: NetworkDocument): Route[] {
+  const { index, adj } = graph(doc);
+  const pumps = new Set(doc.links.flatMap((l, k) => (l.kind === 'pump' ? [k] : [])));
+  const supplies = doc.nodes.flatMap((n, i) => (n.kind === 'tank' || n.kind === 'source' ? [i] : []));
+  if (supplies.length === 0) return [];
+  const tree = dijkstra(adj, supplies, -1, new Set(), pumps);
+  const out: Route[] = [];
+  for (const n of doc.nodes) {
+    const i = index.get(n.id) as number;
+    if (n.kind !== 'outlet' || tree.dist[i] === Infinity || tree.prevNode[i] < 0) continue;
+    const p = pathTo(tree, i);
+    out.push({ nodes: p.nodes.map((v) => doc.nodes[v].id), links: p.links.map((k) => doc.links[k].id), length_m: p.w });
+  }
+  return out;
+}
+
+/**
  * The longest of the shortest routes from any source or tank to any outlet (the demo's "longest
  * route"): one Dijkstra from every source and tank at once over pipes and valves (a fill pump's
  * rising main is not a supply route), then the outlet farthest from its nearest supply.

@@ -1,7 +1,6 @@
 import type { NetworkDocument, PipeLink } from '../network-document';
 import { FITTINGS, fittingCode, pipeSeries, purchaseUnit } from '../pipe-catalogue';
-import { findRoutes } from '../profile/routes';
-import { profileRoute } from '../profile/profile-line';
+import { networkTurningPoints } from '../profile/network-points';
 import { solve, type SteadyResult } from '../steady';
 import { pipeKey } from '../sizing/price-catalogue';
 import { countFittings, linkSize, type CountedFitting } from './fittings';
@@ -84,29 +83,6 @@ function add(rows: Map<string, TakeoffRow>, code: string, group: TakeoffGroup, d
   rows.set(code, { code, group, description, quantity, unit, elements: [element] });
 }
 
-/** High and low points along every supply route (shortest route from a tank or source to each outlet, no pump on it). */
-export function profilePoints(doc: NetworkDocument, steady: SteadyResult): { kind: 'high-point' | 'low-point'; link: string; elevation_m: number }[] {
-  const supplies = doc.nodes.filter((n) => n.kind === 'tank' || n.kind === 'source');
-  const seen = new Map<string, { kind: 'high-point' | 'low-point'; link: string; elevation_m: number }>();
-  for (const outlet of doc.nodes.filter((n) => n.kind === 'outlet')) {
-    let best: ReturnType<typeof findRoutes>[number] | null = null;
-    for (const s of supplies) {
-      try {
-        const [r] = findRoutes(doc, s.id, outlet.id, 1);
-        if (r.links.some((id) => doc.links.find((l) => l.id === id)?.kind === 'pump')) continue;
-        if (!best || r.length_m < best.length_m) best = r;
-      } catch { /* not connected to this supply */ }
-    }
-    if (!best) continue;
-    for (const f of profileRoute(doc, best, { steady }).findings) {
-      if (f.kind !== 'high-point' && f.kind !== 'low-point') continue;
-      const key = `${f.kind}:${f.link}:${f.elevation_m.toFixed(2)}`;
-      if (!seen.has(key)) seen.set(key, { kind: f.kind, link: f.link, elevation_m: f.elevation_m });
-    }
-  }
-  return [...seen.values()];
-}
-
 /** Build the takeoff of a (valid) document. */
 export function takeoff(doc: NetworkDocument, settings: TakeoffSettings = {}, steady: SteadyResult = solve(doc)): Takeoff {
   const waste = settings.waste_fraction ?? 0.05;
@@ -166,7 +142,8 @@ export function takeoff(doc: NetworkDocument, settings: TakeoffSettings = {}, st
     const size = feed ? linkSize(feed) : '3/4"';
     add(rows, fittingCode('valve-float', size), 'valve', `${FITTINGS['valve-float'].label} ${size}`, 'each', n.id);
   }
-  for (const p of profilePoints(doc, steady)) {
+  // Where the profile asks for them (engine/profile, the same points the review checks).
+  for (const p of networkTurningPoints(doc, steady)) {
     const link = linkById.get(p.link);
     const size = link ? linkSize(link) : '';
     const kind = p.kind === 'high-point' ? 'air-release-valve' : 'drain-valve';

@@ -8,7 +8,7 @@ import { hillSmallholding } from '../../engine/examples/hill-smallholding';
 import { failingCheckCount, reviewChecklist } from '../../engine/review';
 import { deliveryStatus, outletPressureStatus } from '../../engine/review/outlet-checks';
 import { hglClearance, ratingStatus, surgeStatus, velocityStatus, workingShareStatus } from '../../engine/review/pipe-checks';
-import { profileExtremes } from '../../engine/review/profile-points';
+import { networkTurningPoints } from '../../engine/profile';
 import { DROP_CAUTION_PRESSURE_M, HIGH_STATIC_PRESSURE_M } from '../../engine/review/rules';
 import { fillStatus, refillStatus, storageStatus } from '../../engine/review/supply-checks';
 
@@ -138,10 +138,41 @@ describe('review checks: pipes', () => {
 });
 
 describe('review checks: profile (NRCS Washington ETN 16 and NRCS Missouri, V2)', () => {
-  it('finds interior high and low points of at least 0.3 m; a 0.29 m ripple is survey noise', () => {
-    expect(profileExtremes([[0, 10], [50, 10.3], [100, 10]])).to.deep.equal([{ kind: 'high', at_m: 50, elevation_m: 10.3 }]);
-    expect(profileExtremes([[0, 10], [50, 10.29], [100, 10]])).to.deep.equal([]);
-    expect(profileExtremes([[0, 10], [50, 9.6], [100, 10]])).to.deep.equal([{ kind: 'low', at_m: 50, elevation_m: 9.6 }]);
+  // The points come from engine/profile (the Profile screen's turning points); the 0.3 m relief filter is ours.
+  it('finds high and low points with a rise of 0.3 m or more; a ripple just under it is survey noise', () => {
+    const pts = (mid: number) => networkTurningPoints(line({ cover_m: 0, profile: [[0, 100], [30, 90], [60, mid], [100, 40]] }))
+      .map((p) => [p.kind, p.link, p.along_m, p.elevation_m]);
+    expect(pts(90.31)).to.deep.equal([['low-point', 'P', 30, 90], ['high-point', 'P', 60, 90.31]]);
+    expect(pts(90.29)).to.deep.equal([]);
+  });
+
+  it('finds points at tees between pipes, on a pipe drawn against the flow (placed from its own from end) and on a rising main', () => {
+    const doc: NetworkDocument = {
+      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      nodes: [
+        { id: 'S', kind: 'source', elevation_m: 10, head_m: 10 },
+        { id: 'J0', kind: 'tee', elevation_m: 10, demand_m3s: 0 },
+        { id: 'T', kind: 'tank', elevation_m: 100, diameter_m: 2, level_m: 2, min_level_m: 0.2, max_level_m: 2 },
+        { id: 'J1', kind: 'tee', elevation_m: 60, demand_m3s: 0, drain: true },
+        { id: 'J2', kind: 'tee', elevation_m: 70, demand_m3s: 0 },
+        { id: 'O', kind: 'outlet', elevation_m: 40, demand_m3s: 0.0002, min_pressure_m: 10 },
+      ],
+      links: [
+        { id: 'PU', kind: 'pump', from: 'S', to: 'J0', flow_m3s: 0.0005 },
+        { id: 'R', kind: 'pipe', from: 'J0', to: 'T', length_m: 300, diameter_m: 0.03, roughness: 150, cover_m: 0, profile: [[0, 10], [100, 50], [200, 45], [300, 100]] },
+        { id: 'P1', kind: 'pipe', from: 'T', to: 'J1', length_m: 100, diameter_m: 0.03, roughness: 150 },
+        { id: 'P2', kind: 'pipe', from: 'J1', to: 'J2', length_m: 100, diameter_m: 0.03, roughness: 150 },
+        // Drawn from the outlet up to J2: its hump lies 20 m from O, 80 m along the route.
+        { id: 'P3', kind: 'pipe', from: 'O', to: 'J2', length_m: 100, diameter_m: 0.03, roughness: 150, cover_m: 0, profile: [[0, 40], [20, 66], [50, 50], [100, 70]] },
+      ],
+    } as NetworkDocument;
+    const got = networkTurningPoints(doc).map((p) => [p.kind, p.node ?? p.link, p.node ? null : p.along_m, p.fitted]);
+    expect(got).to.have.deep.members([
+      ['low-point', 'J1', null, true], ['high-point', 'J2', null, false],
+      ['low-point', 'P3', 50, false], ['high-point', 'P3', 20, false],
+      ['high-point', 'R', 100, false], ['low-point', 'R', 200, false],
+    ]);
+    expect(got).to.have.length(6);
   });
 
   it('a high point is a caution without an air valve and passes with one within 10 m; a drain serves a low point', () => {
