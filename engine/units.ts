@@ -91,6 +91,11 @@ export function unitLabel(q: Quantity, system: UnitSystem): string {
   return TABLE[q][system].label;
 }
 
+/** Decimal places a value of this quantity is shown with (screens and the exported workbook). */
+export function unitDigits(q: Quantity, system: UnitSystem): number {
+  return TABLE[q][system].digits;
+}
+
 /** SI value → number in the display system. */
 export function toDisplay(q: Quantity, si: number, system: UnitSystem): number {
   return TABLE[q][system].fromSi(si);

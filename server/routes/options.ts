@@ -78,6 +78,8 @@ export function optionRoutes(api: ApiRoutes, ctx: AppContext): void {
     const current = network.document as NetworkDocument;
     const summary = (doc: NetworkDocument) => { try { return evaluateDesign(doc, inputs).summary; } catch { return null; } };
     res.json({
+      // Money on the Options screen is in the currency the estimator keeps the prices and estimate in.
+      currency: inputs.settings.currency,
       current: { version: network.version, summary: current.nodes.length ? summary(current) : null },
       options: rows.map(({ o, createdByName, preferredByName }) => ({
         id: o.id, name: o.name, notes: o.notes, baseVersion: o.baseVersion, createdAt: o.createdAt.toISOString(), createdBy: createdByName ?? null,

@@ -146,7 +146,7 @@ export function takeoffRoutes(api: ApiRoutes, ctx: AppContext): void {
     if (evaluation.estimate.missing.length > 0) cautions.unshift(`${evaluation.estimate.missing.length} takeoff row${evaluation.estimate.missing.length === 1 ? ' has' : 's have'} no price: ${evaluation.estimate.missing.join(', ')}.`);
     const buffer = await buildWorkbook({
       project: project.name, site: project.siteName, design: design.name, version: design.version, reviewState: state?.status ?? 'not reviewed',
-      currency: inputs.settings.currency, document: design.document, steady: evaluation.steady, takeoff: evaluation.takeoff, estimate: evaluation.estimate,
+      currency: inputs.settings.currency, units: project.units, document: design.document, steady: evaluation.steady, takeoff: evaluation.takeoff, estimate: evaluation.estimate,
       timeline, options, cautions, generatedAt: new Date(),
     });
     res.setHeader('Content-Type', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet');

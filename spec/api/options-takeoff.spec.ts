@@ -153,4 +153,68 @@ describe('API: options, prices, takeoff and export', () => {
     expect(csv.text.split('\n')[0]).to.match(/^code,description,group,quantity,unit/);
     expect(csv.text.trim().split('\n')).to.have.length(takeoff.takeoff.rows.length + 1);
   });
+
+  it('the workbook follows the project\'s units (US: ft, psi, gpm in the headers) and every money figure the price list\'s currency', async () => {
+    const est = await t.signInAs('estimator');
+    const admin = await t.signInAs('admin');
+    const settings = { waste_fraction: 0.05, bendAngle_deg: 30, other: [{ code: 'other/trenching', description: 'Trenching', unit: 'm', per_pipe_m: 1 }], labour_hours: 10, labour_rate: 40, markup_fraction: 0.1, tax_fraction: 0.05 };
+    const read = async () => {
+      const book = new ExcelJS.Workbook();
+      await book.xlsx.load((await est.get(`${base}/export.xlsx`).buffer(true).parse(binary).expect(200)).body);
+      return book;
+    };
+    const header = (book: ExcelJS.Workbook, sheet: string) => (book.getWorksheet(sheet)!.getRow(1).values as unknown[]).slice(1).map(String);
+    const column = (book: ExcelJS.Workbook, sheet: string, title: RegExp) => {
+      const ws = book.getWorksheet(sheet)!;
+      const i = header(book, sheet).findIndex((h) => title.test(h)) + 1;
+      expect(i, `${sheet} ${title}`).to.be.above(0);
+      const out = new Map<string, unknown>();
+      ws.eachRow((row, n) => { if (n > 1 && row.getCell(1).value) out.set(String(row.getCell(1).value), row.getCell(i).value); });
+      return out;
+    };
+    try {
+      await est.put(`${base}/takeoff/settings`, { ...settings, currency: 'NZD' }).expect(200);
+      expect((await est.get(`${base}/options`).expect(200)).body.currency).to.equal('NZD');
+      const si = await read();
+      await admin.patch(base, { units: 'us' }).expect(200);
+      const us = await read();
+      expect(header(si, 'Pipes')).to.include.members(['Length (m)', 'Inside diameter (mm)', 'Flow (L/s)', 'Velocity (m/s)', 'Static pressure (kPa)']);
+      expect(header(us, 'Pipes')).to.include.members(['Length (ft)', 'Inside diameter (in)', 'Flow (gpm)', 'Velocity (ft/s)', 'Static pressure (psi)', 'Rating (psi)']);
+      expect(header(us, 'Outlets')).to.include.members(['Elevation (ft)', 'Design flow (gpm)', 'Needs (psi)', 'Pressure (psi)']);
+      expect(header(us, 'Takeoff')).to.include.members(['Network length (ft)', 'With waste (ft)']);
+      expect(header(us, 'Estimate')).to.include.members(['Unit price (NZD)', 'Amount (NZD)']);
+      expect(header(us, 'Options')).to.include.members(['Pipe cost (NZD)', 'Total estimate (NZD)']);
+      // 1 ft = 0.3048 m and 1 in = 25.4 mm exactly; 1 psi = 6.894757 kPa (NIST SP 811).
+      const [lenSi, lenUs] = [column(si, 'Pipes', /^Length/), column(us, 'Pipes', /^Length/)];
+      for (const [id, m] of lenSi) expect(lenUs.get(id), id).to.be.closeTo((m as number) / 0.3048, 1e-9);
+      const [diaSi, diaUs] = [column(si, 'Pipes', /^Inside/), column(us, 'Pipes', /^Inside/)];
+      for (const [id, mm] of diaSi) expect(diaUs.get(id), id).to.be.closeTo((mm as number) / 25.4, 1e-9);
+      const [pSi, pUs] = [column(si, 'Outlets', /^Pressure/), column(us, 'Outlets', /^Pressure/)];
+      for (const [id, kpa] of pSi) expect(pUs.get(id), id).to.be.closeTo((kpa as number) / 6.894757, 1e-4);
+      // Pipe sold by the foot: quantity × 0.3048 is the metre figure, unit price ÷ 0.3048, amounts and total unchanged.
+      const qty = (book: ExcelJS.Workbook) => column(book, 'Estimate', /^Quantity/);
+      const price = (book: ExcelJS.Workbook) => column(book, 'Estimate', /^Unit price/);
+      const amount = (book: ExcelJS.Workbook) => new Map([...column(book, 'Estimate', /^Amount/)].map(([k, v]) => [k, (v as ExcelJS.CellFormulaValue).result as number]));
+      const unit = column(us, 'Estimate', /^Unit$/);
+      const siUnit = column(si, 'Estimate', /^Unit$/);
+      let pipes = 0;
+      for (const [code, q] of qty(si)) {
+        if (siUnit.get(code) !== 'm') continue;
+        pipes++;
+        expect(unit.get(code), code).to.equal('ft');
+        expect((qty(us).get(code) as number) * 0.3048, code).to.be.closeTo(q as number, 1e-9);
+        if (price(si).get(code) !== null) {
+          expect((price(us).get(code) as number) / 0.3048, code).to.be.closeTo(price(si).get(code) as number, 1e-9);
+          expect(Math.abs((qty(us).get(code) as number) * (price(us).get(code) as number) - (amount(us).get(code) as number)), code).to.be.at.most(0.005 + 1e-9);
+        }
+        expect(amount(us).get(code), code).to.equal(amount(si).get(code));
+      }
+      expect(pipes).to.be.above(3);
+      expect(us.getWorksheet('Summary')!.getCell('B11').value).to.match(/^US customary/);
+      expect(si.getWorksheet('Summary')!.getCell('B11').value).to.match(/^SI/);
+    } finally {
+      await admin.patch(base, { units: 'si' }).expect(200);
+      await est.put(`${base}/takeoff/settings`, { ...settings, currency: 'USD' }).expect(200);
+    }
+  });
 });

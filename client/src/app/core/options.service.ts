@@ -23,7 +23,8 @@ export interface OptionRow {
 
 export type SizingReport = Omit<SizingResult, 'document'> & { at: string; request: SizeRequest };
 export interface SizeRequest { pipes?: string[]; minPressure_m?: number; sameSeries?: boolean }
-export interface OptionList { current: { version: number; summary: DesignSummary | null }; options: OptionRow[] }
+/** `currency`: the code the team's prices and the project's estimate are kept in (Takeoff settings). */
+export interface OptionList { currency: string; current: { version: number; summary: DesignSummary | null }; options: OptionRow[] }
 export interface OptionDetail { id: string; name: string; notes: string; baseVersion: number; document: NetworkDocument; sizing: SizingReport | null; preferred: boolean }
 
 /** Options of a project: list with comparison, create, edit, size, promote, prefer, delete. */

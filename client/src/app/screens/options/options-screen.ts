@@ -83,7 +83,8 @@ export class OptionsScreen {
   protected readonly lastSizing = signal<{ option: string; report: SizingReport } | null>(null);
 
   protected pressureUnit(): string { return unitLabel('pressure', this.units()); }
-  protected currency(): string { return 'USD'; }
+  /** The price list's currency (the estimate's, set on the Takeoff tab); USD only until the list has loaded. */
+  protected readonly currency = computed(() => (this.list.hasValue() ? this.list.value().currency : 'USD'));
 
   private run<T>(work: Observable<T>, done: (value: T) => string): void {
     this.busy.set(true);
