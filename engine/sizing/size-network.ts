@@ -38,10 +38,12 @@ export interface SizingOptions extends CheckSettings {
   /** Keep each pipe's own series (material and class) and change only its size (default false). */
   sameSeries?: boolean;
   /**
-   * Tree regions: also require static pressure plus the Joukowsky surge of stopping the design flow
-   * at once (wave speed by Korteweg from the candidate's material and wall, ../review) to stay within
-   * the rating, as the review's surge check does (NRCS Standard 430: pressure including transients
-   * below the rating, V2). Default true.
+   * Also require static pressure plus the Joukowsky surge of stopping a pipe's flow at once (wave
+   * speed by Korteweg from the candidate's material and wall, ../review) to stay within the rating,
+   * as the review's surge check does (NRCS Standard 430: pressure including transients below the
+   * rating, V2). Trees filter each pipe's candidates at its design flow (fixed by the demands);
+   * looped regions check every design the search solves, at the flows that solve gives, and the
+   * final re-check of every region does the same. Default true.
    */
   surge?: boolean;
   /** Looped regions: budget of hydraulic solves (default 40,000). */
@@ -83,7 +85,7 @@ export interface SizingResult {
   skipped: { pipe: string; reason: string }[];
   regions: RegionReport[];
   check: DesignCheck;
-  settings: { omega: number; velocityLimit_ms: number; ratingFraction: number; minPressure_m?: number };
+  settings: { omega: number; velocityLimit_ms: number; ratingFraction: number; minPressure_m?: number; surge: boolean };
 }
 
 const describe = (p: PipeLink): string => (p.series && p.nominal ? `${p.series}/${p.nominal}` : `${Math.round(p.diameter_m * 1e4) / 10} mm`);
@@ -117,8 +119,8 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
   const limit = options.velocityLimit_ms ?? DEFAULT_VELOCITY_LIMIT_MS;
   const share = options.ratingFraction ?? 1;
   const hyd: HydraulicSettings = { headloss: doc.headloss, omega };
-  const settings = { omega, velocityLimit_ms: limit, ratingFraction: share, minPressure_m: options.minPressure_m };
-  const checkSettings: CheckSettings = { minPressure_m: options.minPressure_m, velocityLimit_ms: limit, ratingFraction: share };
+  const settings = { omega, velocityLimit_ms: limit, ratingFraction: share, minPressure_m: options.minPressure_m, surge: options.surge !== false };
+  const checkSettings: CheckSettings = { minPressure_m: options.minPressure_m, velocityLimit_ms: limit, ratingFraction: share, surge: options.surge !== false };
   const nodeById = new Map(doc.nodes.map((n) => [n.id, n]));
   const linkIndex = new Map(doc.links.map((l, k) => [l.id, k]));
   const wanted = options.pipes ? new Set(options.pipes) : null;
@@ -278,7 +280,7 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
       kind: 'looped', pipes, method: 'heuristic local search', exact: false, feasible: res.feasible,
       note: res.feasible
         ? `looped: flows move with the sizes, so each design is solved; iterated local search (${res.evaluations} solves, ${res.kicks} restarts) finds a good design, not a proven least cost`
-        : 'even the largest pipes in the catalogue do not meet every requirement',
+        : 'even the largest pipes in the catalogue do not meet every requirement (pressure, velocity, rating and surge)',
       evaluations: res.evaluations,
     };
   }

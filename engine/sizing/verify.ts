@@ -5,12 +5,17 @@ import type { NetworkDocument, PipeLink } from '../network-document';
 import type { SteadyResult } from '../steady';
 import { DEFAULT_COVER_M } from '../checks';
 import { requiredPressure } from './requirements';
+import { joukowskyHead } from '../review/joukowsky';
+import { pipeWaveSpeed } from '../review/wave-speed';
 
 /**
  * The checks a sized design must pass, read from a real steady solve (../steady) of the design:
  * every tee and outlet at or above its required pressure (./requirements; 1 mm tolerance), every
  * pipe at or below the velocity limit, every pipe's static pressure at or below `ratingFraction`
- * of its rating (as ../checks over-rating), no HGL below a profiled pipe, a converged solve.
+ * of its rating (as ../checks over-rating), no HGL below a profiled pipe, a converged solve; with
+ * `surge`, also static pressure plus the Joukowsky surge of stopping the pipe's solved flow at once
+ * (Korteweg wave speed of its material and wall, ../review) within the rating, the review's surge
+ * check (NRCS Standard 430: internal pressure including transients below the rating, V2).
  *
  * @example designChecks(doc, solve(doc), {}).failures.length // 0 when the design works
  */
@@ -20,6 +25,8 @@ export interface CheckSettings {
   velocityLimit_ms?: number;
   /** Share of the rating static pressure may use (default 1; 0.72 is ASAE S376.1 without surge analysis, V2). */
   ratingFraction?: number;
+  /** Also check static + Joukowsky surge of a sudden stop against the rating (default false). */
+  surge?: boolean;
 }
 
 export interface OutletCheck {
@@ -100,6 +107,10 @@ export function designChecks(doc: NetworkDocument, result: SteadyResult, s: Chec
       const sh = ps / pipe.rating_m;
       if (!worstRating || sh > worstRating.share) worstRating = { pipe: link.id, static_m: ps, rating_m: pipe.rating_m, share: sh };
       if (ps > share * pipe.rating_m + 1e-9) failures.push({ element: link.id, code: 'over-rating', message: `${link.id}: static pressure ${r2(ps)} m is above ${share === 1 ? '' : `${Math.round(share * 100)} % of `}its rating ${r2(pipe.rating_m)} m` });
+      if (s.surge) {
+        const surge = joukowskyHead(pipeWaveSpeed(pipe).waveSpeed_ms, v);
+        if (ps + surge > pipe.rating_m + 1e-9) failures.push({ element: link.id, code: 'surge-over-rating', message: `${link.id}: static pressure ${r2(ps)} m plus the surge of a sudden stop ${r2(surge)} m is above its rating ${r2(pipe.rating_m)} m` });
+      }
     }
   }
   for (const w of result.warnings) {

@@ -8,7 +8,9 @@ import { demoPriceCatalogue } from '../../engine/examples/demo-prices';
 import { hillSmallholding } from '../../engine/examples/hill-smallholding';
 import { TWO_LOOP_COST_PER_M, twoLoop, twoLoopPrices } from '../../engine/examples/two-loop';
 import type { NetworkDocument, PipeLink } from '../../engine/network-document';
-import { parsePriceCatalogue, type SizingCandidate } from '../../engine/sizing/price-catalogue';
+import { catalogueCandidate, parsePriceCatalogue, type SizingCandidate } from '../../engine/sizing/price-catalogue';
+import { pipeStaticPressures } from '../../engine/sizing/verify';
+import { pipeWaveSpeed } from '../../engine/review/wave-speed';
 import { partitionNetwork } from '../../engine/sizing/regions';
 import { sizeNetwork } from '../../engine/sizing/size-network';
 import { solve } from '../../engine/steady';
@@ -86,6 +88,39 @@ describe('pipe sizing (engine/sizing)', () => {
     // without the surge requirement the cheapest design is allowed to fail it somewhere
     const loose = sizeNetwork(hillSmallholding, demoCandidates, { ratingFraction: 0.72, surge: false });
     expect(loose.cost).to.be.at.most(r.cost);
+  });
+
+  it('on a looped region the surge requirement holds too: static + a·v/g within the rating at the solved flows (Joukowsky, textbook; NRCS Standard 430, V2)', () => {
+    const sizes = ['1"', '1-1/4"', '1-1/2"', '2"', '2-1/2"'];
+    const cands = [...sizes.map((n, i) => catalogueCandidate('pvc-sdr26', n, 2 + 1.5 * i)!), ...sizes.map((n, i) => catalogueCandidate('pvc-sdr21', n, 2.6 + 1.9 * i)!)];
+    const pipe = (id: string, from: string, to: string, length_m: number) => ({ id, kind: 'pipe', from, to, length_m, diameter_m: 0.05, roughness: 150, series: 'pvc-sdr21', nominal: '2"', material: 'pvc' });
+    // A ridge tank 70–80 m above a loop A–B–C: static pressure alone is within SDR 26's 160 psi, a sudden stop is not at every size.
+    const doc = {
+      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      nodes: [
+        { id: 'T', kind: 'tank', elevation_m: 100, diameter_m: 3, level_m: 1, min_level_m: 0.1, max_level_m: 1 },
+        { id: 'A', kind: 'tee', elevation_m: 30, demand_m3s: 0 },
+        { id: 'B', kind: 'tee', elevation_m: 22, demand_m3s: 0 },
+        { id: 'C', kind: 'tee', elevation_m: 22, demand_m3s: 0 },
+        { id: 'O', kind: 'outlet', elevation_m: 20, demand_m3s: 0.0025, min_pressure_m: 10 },
+      ],
+      links: [pipe('P1', 'T', 'A', 300), pipe('P2', 'A', 'B', 200), pipe('P3', 'A', 'C', 250), pipe('P4', 'B', 'C', 150), pipe('P5', 'C', 'O', 100)],
+    } as unknown as NetworkDocument;
+    expect(partitionNetwork(doc).regions.map((r) => r.kind)).to.deep.equal(['looped']);
+    const over = (d: NetworkDocument) => {
+      const statics = pipeStaticPressures(d);
+      const result = solve(d);
+      return d.links.filter((l): l is PipeLink => l.kind === 'pipe')
+        .filter((l) => statics.get(l.id)! + (pipeWaveSpeed(l).waveSpeed_ms * Math.abs(result.links[l.id].velocity_ms)) / 9.80665 > l.rating_m! + 1e-9).map((l) => l.id);
+    };
+    const withSurge = sizeNetwork(doc, cands, { seed: 1 });
+    expect(withSurge.feasible).to.equal(true);
+    expect(over(withSurge.document)).to.deep.equal([]);
+    // Without it the search is free to pick thinner, cheaper pipe that a sudden stop would over-pressure.
+    const without = sizeNetwork(doc, cands, { seed: 1, surge: false });
+    expect(without.feasible).to.equal(true);
+    expect(without.cost).to.be.below(withSurge.cost);
+    expect(over(without.document)).to.not.deep.equal([]);
   });
 
   it('a higher --min-pressure-m costs at least as much; an impossible one is reported, not faked', () => {
