@@ -68,6 +68,7 @@ const SCREENS: ScreenCheck[] = [
     numbers: [['estimate-total', /\$\d[\d,]*\.\d\d/], ['takeoff-table', withUnit('m')]],
   },
   { name: 'takeoff-owner', role: 'owner', path: 'takeoff', ready: 'takeoff-table', actions: ['accept-estimate'] },
+  { name: 'walk', role: 'designer', path: 'walk', ready: 'walk-screen', actions: ['walk-name', 'walk-start'] },
   { name: 'files', role: 'designer', path: 'files', ready: 'file-row', actions: ['file-download', 'file-preview-toggle', 'file-rename', 'file-delete'], numbers: [['file-row', withUnit('KB')]] },
 ];
 
