@@ -308,7 +308,7 @@ export class LayoutScreen {
     if (window.__runnelTestHooks) {
       void import('./screen/test-hook').then(({ installTestHook }) => {
         if (this.view !== view) return;
-        const remove = installTestHook({ editor: this.editor, canvas: el, lastSolveMs: () => this.solver.lastMs(), placedLabels: () => view.placedLabels() });
+        const remove = installTestHook({ editor: this.editor, canvas: el, lastSolveMs: () => this.solver.lastMs(), placedLabels: () => view.placedLabels(), markers: this.markers });
         this.destroyRef.onDestroy(remove);
       });
     }

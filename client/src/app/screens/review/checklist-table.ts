@@ -3,6 +3,7 @@ import { FormsModule } from '@angular/forms';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule, Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
@@ -23,11 +24,12 @@ type Line = GroupLine | CheckLine;
 /**
  * The checklist as a Material table: grouped (outlets, pipes, profile, storage, safety), sortable
  * within each group, filtered by words and by verdict. A row with an element asks to select it on
- * the Layout. Narrow screens drop the limit and source columns (the source stays in the row's tooltip).
+ * the Layout. Below 600 px each check is a card (verdict, element and value; the check; limit and
+ * margin; the source) and a picker replaces the header sort (review-screen.scss).
  */
 @Component({
   selector: 'rn-checklist-table',
-  imports: [FormsModule, MatButtonToggleModule, MatFormFieldModule, MatInputModule, MatSortModule, MatTableModule, MatTooltipModule],
+  imports: [FormsModule, MatButtonToggleModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatSortModule, MatTableModule, MatTooltipModule],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <div class="rn-checklist-filters">
@@ -41,6 +43,12 @@ type Line = GroupLine | CheckLine;
         <mat-button-toggle value="caution" data-testid="checklist-show-caution">Caution {{ counts().caution }}</mat-button-toggle>
         <mat-button-toggle value="pass" data-testid="checklist-show-pass">Pass {{ counts().pass }}</mat-button-toggle>
       </mat-button-toggle-group>
+      <mat-form-field appearance="outline" subscriptSizing="dynamic" class="rn-phone-only rn-checklist-sort">
+        <mat-label>Sort within groups</mat-label>
+        <mat-select [value]="sortKey()" (selectionChange)="sortBy($event.value)" data-testid="checklist-sort">
+          @for (o of sortOptions; track o.key) { <mat-option [value]="o.key">{{ o.label }}</mat-option> }
+        </mat-select>
+      </mat-form-field>
     </div>
     <div class="rn-checklist-scroll">
       <table mat-table [dataSource]="lines()" matSort (matSortChange)="sort.set($event)" class="rn-checklist" data-testid="checklist-table">
@@ -78,11 +86,11 @@ type Line = GroupLine | CheckLine;
         </ng-container>
         <ng-container matColumnDef="limit">
           <th mat-header-cell *matHeaderCellDef>Limit</th>
-          <td mat-cell *matCellDef="let l" class="rn-num">{{ amount(l.row.limit) }}</td>
+          <td mat-cell *matCellDef="let l" class="rn-num" [class.rn-none]="!l.row.limit">{{ amount(l.row.limit) }}</td>
         </ng-container>
         <ng-container matColumnDef="margin">
           <th mat-header-cell *matHeaderCellDef mat-sort-header>Margin</th>
-          <td mat-cell *matCellDef="let l" class="rn-num">{{ amount(l.row.margin) }}</td>
+          <td mat-cell *matCellDef="let l" class="rn-num" [class.rn-none]="!l.row.margin">{{ amount(l.row.margin) }}</td>
         </ng-container>
         <ng-container matColumnDef="source">
           <th mat-header-cell *matHeaderCellDef>Rule and source</th>
@@ -110,6 +118,16 @@ export class ChecklistTable {
   readonly text = signal('');
   readonly status = signal<'all' | CheckStatus>('all');
   readonly sort = signal<Sort>({ active: '', direction: '' });
+  /** Phones have no header row to sort by: the same sorts from a picker. */
+  readonly sortOptions = [
+    { key: '', label: 'As listed' }, { key: 'status:asc', label: 'Worst verdict first' }, { key: 'margin:asc', label: 'Smallest margin first' },
+    { key: 'element:asc', label: 'Element' }, { key: 'check:asc', label: 'Check' },
+  ];
+  readonly sortKey = computed(() => { const s = this.sort(); return s.active && s.direction ? `${s.active}:${s.direction}` : ''; });
+  sortBy(key: string): void {
+    const [active, direction] = key.split(':');
+    this.sort.set({ active: active ?? '', direction: (direction ?? '') as Sort['direction'] });
+  }
 
   readonly counts = computed(() => {
     const rows = this.rows();

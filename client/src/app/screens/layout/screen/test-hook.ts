@@ -1,6 +1,7 @@
 import type { NetworkDocument } from '../../../../../../engine/network-document';
 import type { Editor } from '../editor/editor';
 import type { Placement } from '../editor/label-placement';
+import type { PlanMarker, PlanMarkers } from '../canvas/markers';
 
 /**
  * The browser tests' window onto the Layout (`window.__runnelEditor`). This file is loaded only
@@ -17,6 +18,8 @@ export interface RunnelEditorHook {
   worldToClient(x_m: number, y_m: number): { x: number; y: number };
   /** Labels shown on the canvas now (element id, or bank:<id>), as page (client) boxes, with the content variant placed (0 fullest). */
   labelBoxes(): { id: string; x: number; y: number; w: number; h: number; variant: number }[];
+  /** Markers on the plan now (review pins, profile findings): id, kind and where (an element or a site point). */
+  planMarkers(): { id: string; kind: string; at: PlanMarker['at'] }[];
 }
 
 declare global {
@@ -28,6 +31,7 @@ export interface HookSource {
   canvas: HTMLElement;
   lastSolveMs(): number;
   placedLabels(): ReadonlyMap<string, Placement>;
+  markers: PlanMarkers;
 }
 
 /** Install the hook; returns the uninstall. */
@@ -67,6 +71,7 @@ export function installTestHook(src: HookSource): () => void {
       const r = client();
       return [...src.placedLabels().values()].map((p) => ({ id: p.id, x: r.left + p.box.x, y: r.top + p.box.y, w: p.box.w, h: p.box.h, variant: p.variant }));
     },
+    planMarkers: () => src.markers.all().map((m) => ({ id: m.id, kind: m.kind, at: structuredClone(m.at) })),
   };
   return () => {
     cancelAnimationFrame(loop);
