@@ -2,7 +2,8 @@
  * Review in a real browser: the reviewer reads the demo's checklist, pins a comment on the line
  * near its rating and returns the design; the designer sees the pin on the Layout, fixes the pipe
  * class (a new version), resolves the comment and submits; the reviewer approves; the designer's
- * mail carries a working link to the approved version. Screenshots at 1280×800 and 390×844.
+ * mail carries a working link to the approved version. A second comment is pinned to a point
+ * clicked on the plan (and, on a phone, tapped). Screenshots at 1280×800 and 390×844.
  */
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
@@ -52,6 +53,28 @@ describe('review sign-off in a real browser', function () {
     await reviewer.getByTestId('comment-body').fill('L-TR4 works above 72 % of its rating at the bottom of the dip: use SIDR 9.');
     await reviewer.getByTestId('comment-add').click();
     await reviewer.getByTestId('thread-L-TR4').waitFor();
+
+    // A comment pinned to a point clicked on the plan keeps that point (the plan's centre here).
+    await reviewer.getByTestId('comment-element').click();
+    await reviewer.getByTestId('comment-at-point').click();
+    const plan = reviewer.getByTestId('plan-point-picker');
+    await plan.waitFor();
+    const box = (await plan.boundingBox())!;
+    await plan.click({ position: { x: box.width / 2, y: box.height / 2 } });
+    await reviewer.getByTestId('plan-point-new').waitFor();
+    await reviewer.getByTestId('comment-body').fill('The fence line crosses the main here: keep the trench clear of the posts.');
+    await shot(reviewer, 'plan-point-desktop');
+    await reviewer.getByTestId('comment-add').click();
+    await reviewer.getByTestId('thread-point').waitFor();
+    const doc1 = (await getNetwork(reviewer, app.baseUrl, projectId)).document;
+    const xs = doc1.nodes.map((n) => n.x_m as number);
+    const ys = doc1.nodes.map((n) => n.y_m as number);
+    const threads = (await (await apiCall(reviewer, app.baseUrl, 'GET', `/api/projects/${projectId}/comments`)).json()) as { threads: { body: string; element: string | null; x_m: number | null; y_m: number | null }[] };
+    const pinned = threads.threads.find((t) => t.body.startsWith('The fence line'))!;
+    const span = Math.max(Math.max(...xs) - Math.min(...xs), Math.max(...ys) - Math.min(...ys));
+    expect(pinned.x_m).to.be.closeTo((Math.max(...xs) + Math.min(...xs)) / 2, span / 100);
+    expect(pinned.y_m).to.be.closeTo((Math.max(...ys) + Math.min(...ys)) / 2, span / 100);
+
     await reviewer.getByTestId('signoff-note').fill('One pipe class to change; see the pin on L-TR4.');
     await reviewer.getByTestId('signoff-return').click();
     await reviewer.getByTestId('version-status').filter({ hasText: 'Returned' }).waitFor();
@@ -68,6 +91,15 @@ describe('review sign-off in a real browser', function () {
     await designer.waitForURL(/\/layout\?select=L-TR4/);
     await waitForLayout(designer);
     await designer.waitForFunction(() => (window as unknown as { __runnelEditor?: { getSelection(): string[] } }).__runnelEditor?.getSelection().includes('L-TR4'));
+    // Both open comments stand as pins on the plan: one on the line, one at the clicked point.
+    const pins = await designer.waitForFunction(() => {
+      const hook = (window as unknown as { __runnelEditor?: { planMarkers(): { kind: string; at: { element?: string; point?: { x: number; y: number } } }[] } }).__runnelEditor;
+      const list = hook?.planMarkers().filter((m) => m.kind === 'pin') ?? [];
+      return list.some((m) => m.at.point) && list.some((m) => m.at.element) ? list : null;
+    });
+    const onPlan = (await pins.jsonValue()) as { at: { element?: string; point?: { x: number; y: number } } }[];
+    expect(onPlan.some((m) => m.at.element === 'L-TR4')).to.equal(true);
+    expect(onPlan.some((m) => m.at.point?.x === pinned.x_m && m.at.point?.y === pinned.y_m), JSON.stringify(onPlan)).to.equal(true);
     await shot(designer, 'layout-pin-selected');
 
     // Fix: the line becomes SIDR 9 (same bore, higher rating) — a new version through the same save path.
@@ -124,6 +156,25 @@ describe('review sign-off in a real browser', function () {
     await signIn(phone, app.baseUrl, 'owner');
     await phone.goto(`${app.baseUrl}/projects/${projectId}/review?version=1`);
     await phone.getByTestId('check-pipe-working-share:L-TR4').waitFor();
+    // The checklist fits the phone: one card per check, nothing wider than the screen.
+    expect(await phone.evaluate(() => document.documentElement.scrollWidth)).to.be.at.most(390);
+    const card = phone.getByTestId('check-pipe-working-share:L-TR4');
+    await card.scrollIntoViewIfNeeded();
+    expect(await card.locator('td.mat-column-limit').isVisible()).to.equal(true);
+    expect(await card.locator('td.mat-column-limit').textContent()).to.match(/72 %/);
+    expect(await card.locator('td.mat-column-source').isVisible()).to.equal(true);
     await shot(phone, 'checklist-phone');
+    // The owner pins a comment to a point with a tap on the plan.
+    // The panel opens by itself while comments are open; open it only if it is not.
+    const phoneHeader = phone.getByTestId('comments-section').locator('mat-expansion-panel-header');
+    if ((await phoneHeader.getAttribute('aria-expanded')) !== 'true') await phoneHeader.click();
+    await phone.getByTestId('comment-element').click();
+    await phone.getByTestId('comment-at-point').click();
+    const phonePlan = phone.getByTestId('plan-point-picker');
+    await phonePlan.scrollIntoViewIfNeeded();
+    await phonePlan.click({ position: { x: 60, y: 60 } });
+    await phone.getByTestId('plan-point-new').waitFor();
+    expect(await phone.getByTestId('plan-point-hint').textContent()).to.match(/Pinned at -?[\d.]+, -?[\d.]+ m/);
+    await shot(phone, 'plan-point-phone');
   });
 });
