@@ -7,7 +7,9 @@
 import { mkdirSync } from 'node:fs';
 import { expect } from 'chai';
 import type { Page } from 'playwright-core';
+import ExcelJS from 'exceljs';
 import { signIn, useBrowserApp } from './harness';
+import { apiCall } from './layout-helpers';
 
 const SHOTS = process.env.RUNNEL_SHOTS_DIR;
 
@@ -96,7 +98,14 @@ describe('Options and Takeoff (Chromium, real server)', function () {
     await page.getByTestId('export-xlsx').click();
     const file = await download;
     expect(file.suggestedFilename()).to.match(/\.xlsx$/);
+    // The workbook read back carries the project's units in its headers (the demo is SI).
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.readFile((await file.path())!);
+    expect((book.getWorksheet('Pipes')!.getRow(1).values as unknown[]).map(String)).to.include.members(['Length (m)', 'Static pressure (kPa)']);
     await shot(page, 'takeoff-estimator-desktop');
+    // Prices kept in New Zealand dollars: every money figure on Options follows.
+    const settings = ((await (await apiCall(page, app.baseUrl, 'GET', `/api/projects/${id}/takeoff`)).json()) as { settings: Record<string, unknown> }).settings;
+    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${id}/takeoff/settings`, { ...settings, currency: 'NZD' })).status()).to.equal(200);
     const phone = await (await ui.newContext({ width: 390, height: 844 })).newPage();
     await signIn(phone, app.baseUrl, 'estimator');
     await phone.goto(`${app.baseUrl}/projects/${id}/takeoff`);
@@ -111,6 +120,11 @@ describe('Options and Takeoff (Chromium, real server)', function () {
     expect(await reviewer.getByTestId('accept-estimate').count()).to.equal(0);
     await reviewer.goto(`${app.baseUrl}/projects/${id}/options`);
     await reviewer.getByTestId('options-compare').waitFor();
+    await reviewer.getByTestId('total-estimate').first().waitFor();
+    for (const text of [...await reviewer.getByTestId('total-estimate').allTextContents(), ...await reviewer.getByTestId('pipe-cost').allTextContents()]) {
+      expect(text).to.match(/NZ\$/).and.not.match(/(^|[^Z])\$|USD/);
+    }
+    await shot(reviewer, 'options-reviewer-nzd-desktop');
     expect(await reviewer.getByTestId('option-new').count()).to.equal(0);
     expect(await reviewer.locator('[data-testid^="prefer-"]').count()).to.equal(0);
   });
