@@ -7,29 +7,17 @@
  * save names that outlet in `applyOutlets`; otherwise it is held and reported (`held`).
  */
 import { and, eq } from 'drizzle-orm';
-import type { NetworkDocument, SteadyResult } from '../../engine';
+import type { NetworkDocument } from '../../engine';
+import type { SaveBudgetResult, StoredBudget } from '../../shared/network-api';
 import {
-  applyBudget, budgetChangesNetwork, emptyBudget, layoutDifferences, planBudget, type BudgetDocument, type BudgetPlan, type LayoutDifference,
+  applyBudget, budgetChangesNetwork, emptyBudget, layoutDifferences, planBudget, type BudgetDocument, type BudgetPlan,
 } from '../../engine/budget';
 import { budgets, users } from '../../drizzle/schema';
 import { audit } from '../audit';
 import type { Db, DbOrTx } from '../db';
 import { ApiError } from '../errors';
-import { loadNetwork, saveNetwork } from '../network/network-store';
+import { loadNetwork, saveNetwork, saveSummary } from '../network/network-store';
 import { budgetErrors } from './budget-shape';
-
-export interface StoredBudget {
-  version: number;
-  document: BudgetDocument;
-  updatedAt: string | null;
-  updatedBy: string | null;
-  /** The plan against the project's current network (null when the network cannot be planned with). */
-  plan: BudgetPlan | null;
-  /** The network version the plan was computed against. */
-  networkVersion: number;
-  /** Budget-driven outlets whose network flow differs from the budget's (edited on the Layout): held, not overwritten. */
-  held: LayoutDifference[];
-}
 
 async function loadRow(db: DbOrTx, projectId: string): Promise<Omit<StoredBudget, 'plan' | 'networkVersion' | 'held'>> {
   const [row] = await db.select({ version: budgets.version, document: budgets.document, updatedAt: budgets.updatedAt, userName: users.name })
@@ -60,17 +48,6 @@ export interface SaveBudgetRequest {
   /** Outlets whose Layout-edited flow is to be replaced by the budget's (the designer's choice per outlet). */
   applyOutlets?: string[];
   log?: (line: string) => void;
-}
-
-export interface SaveBudgetResult {
-  version: number;
-  updatedAt: string;
-  plan: BudgetPlan | null;
-  /** The network save the budget caused (null when no outlet flow changed). */
-  network: { version: number; results: SteadyResult | null } | null;
-  networkVersion: number;
-  /** Outlets whose Layout-edited flow was kept because the save did not name them in applyOutlets. */
-  held: LayoutDifference[];
 }
 
 /** Validates, stores (409 when stale), then carries the outlet flows into the network. */
@@ -127,7 +104,7 @@ async function carryIntoNetwork(db: Db, request: SaveBudgetRequest, budget: Budg
         projectId: request.projectId, teamId: request.teamId, user: request.user, expectedVersion: stored.version, document, log: request.log,
       });
       // the plan again, against the network as now saved (pump flow at the new lift)
-      return { plan: planOrNull(budget, document), network: { version: saved.version, results: saved.results }, networkVersion: saved.version, held };
+      return { plan: planOrNull(budget, document), network: saveSummary(saved), networkVersion: saved.version, held };
     } catch (error) {
       if (!(error instanceof ApiError && error.code === 'conflict') || attempt === 1) throw error;
     }

@@ -10,17 +10,9 @@ import { audit } from '../audit';
 import type { Db, DbOrTx } from '../db';
 import { EngineTimeout, runEngine } from '../engine-pool/pool';
 import type { CheckedSolve } from '../engine-pool/tasks';
+import type { NetworkSaveSummary, StoredNetwork } from '../../shared/network-api';
 import { ApiError, issuePath } from '../errors';
 import { recordVersion } from './versions-store';
-
-export interface StoredNetwork {
-  version: number;
-  document: unknown;
-  results: unknown;
-  updatedAt: string | null;
-  /** Name of the user who saved last. */
-  updatedBy: string | null;
-}
 
 export async function loadNetwork(db: DbOrTx, projectId: string): Promise<StoredNetwork> {
   const [row] = await db.select({
@@ -31,7 +23,7 @@ export async function loadNetwork(db: DbOrTx, projectId: string): Promise<Stored
   // A design saved under an older version of the format opens as the current version.
   const migrated = migrateDocument(row.document);
   return {
-    version: row.version, document: migrated.ok ? migrated.doc : row.document, results: row.results, updatedAt: row.updatedAt.toISOString(),
+    version: row.version, document: (migrated.ok ? migrated.doc : row.document) as NetworkDocument, results: row.results as SteadyResult | null, updatedAt: row.updatedAt.toISOString(),
     updatedBy: row.userName ?? null,
   };
 }
@@ -56,7 +48,7 @@ export const SAVE_SOLVE_TIMEOUT_MS = 10_000;
 export interface SaveResult { version: number; results: SteadyResult | null; updatedAt: string }
 
 /** What a save answers over HTTP: no megabytes of results echoed back (GET …/network has them). */
-export function saveSummary(saved: SaveResult): { version: number; updatedAt: string; solved: { converged: boolean; iterations: number; warnings: number } | null } {
+export function saveSummary(saved: SaveResult): NetworkSaveSummary {
   const r = saved.results;
   return { version: saved.version, updatedAt: saved.updatedAt, solved: r ? { converged: r.converged, iterations: r.iterations, warnings: r.warnings.length } : null };
 }

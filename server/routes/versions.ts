@@ -3,7 +3,7 @@ import { z } from 'zod';
 import type { ApiRoutes } from '../api-routes';
 import type { AppContext } from '../context';
 import { ApiError, parseBody } from '../errors';
-import { saveNetwork } from '../network/network-store';
+import { saveNetwork, saveSummary } from '../network/network-store';
 import { compareVersions, listVersions, loadVersion } from '../network/versions-store';
 import { projectOf } from '../project-scope';
 
@@ -53,9 +53,9 @@ export function versionRoutes(api: ApiRoutes, ctx: AppContext): void {
     const body = parseBody(restoreBody, req.body);
     const project = projectOf(req);
     const old = await loadVersion(db, project.id, versionParam(req.params.version));
-    res.status(201).json(await saveNetwork(db, {
+    res.status(201).json(saveSummary(await saveNetwork(db, {
       projectId: project.id, teamId: project.teamId, user: req.user!, expectedVersion: body.version,
       document: old.document, log: ctx.log, restoredFrom: old.version,
-    }));
+    })));
   });
 }

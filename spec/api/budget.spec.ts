@@ -47,6 +47,9 @@ describe('API: water budget (versioned, validated, outlet flows carried into the
     const first = await a.put(url(id), { version: 1, document: keepHouse, apply_outlets: chosen }).expect(200);
     expect(first.body.held).to.deep.equal([]);
     expect(first.body.network.version).to.equal(2);
+    // the network save's summary, not its results (GET network has those)
+    expect(first.body.network).to.have.all.keys('version', 'updatedAt', 'solved');
+    expect(first.body.network.solved.converged).to.equal(true);
     const net1 = (await a.get(`/api/projects/${id}/network`).expect(200)).body;
     const tr4 = first.body.plan.outlets.find((o: { id: string }) => o.id === 'TR4').design_flow_m3s;
     expect(outlet(net1.document, 'TR4').demand_m3s).to.be.closeTo(tr4, 1e-15);

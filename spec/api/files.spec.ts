@@ -1,6 +1,6 @@
 import { expect } from 'chai';
 import { JPEG_BYTES, PNG_BYTES, SURVEY_CSV } from './fixtures';
-import { startTestApp, type ApiAgent, type TestApp } from './test-app';
+import { binaryBody, startOnDemoProject, type ApiAgent, type TestApp } from './test-app';
 
 const MB = 1024 * 1024;
 
@@ -8,11 +8,7 @@ describe('API: files and survey parsing', () => {
   let t: TestApp;
   let designer: ApiAgent;
   let files: string;
-  before(async () => {
-    t = await startTestApp();
-    designer = await t.signInAs('designer');
-    files = `/api/projects/${t.seeded!.demoProjectId}/files`;
-  });
+  before(async () => ({ t, designer, files } = await startOnDemoProject()));
   after(async () => { await t.close(); });
 
   it('uploads a PNG backdrop, lists it and serves its bytes with its type', async () => {
@@ -21,11 +17,7 @@ describe('API: files and survey parsing', () => {
     expect(res.body.createdBy).to.equal('Dana Designer');
     const list = await (await t.signInAs('owner')).get(files).expect(200);
     expect(list.body.map((f: { id: string }) => f.id)).to.include(res.body.id);
-    const bytes = await designer.get(`${files}/${res.body.id}`).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    }).expect(200);
+    const bytes = await designer.get(`${files}/${res.body.id}`).buffer(true).parse(binaryBody).expect(200);
     expect(bytes.headers['content-type']).to.equal('image/png');
     expect(Buffer.compare(bytes.body, PNG_BYTES)).to.equal(0);
     await designer.delete(`${files}/${res.body.id}`).expect(204);

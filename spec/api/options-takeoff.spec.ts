@@ -6,17 +6,11 @@
  */
 import { expect } from 'chai';
 import ExcelJS from 'exceljs';
-import type { Response } from 'supertest';
 import { eq } from 'drizzle-orm';
 import { priceItems } from '../../drizzle/schema';
 import { countFittings, minorLossAllowance, type NetworkDocument, type PipeLink } from '../../engine';
-import { startTestApp, type TestApp } from './test-app';
+import { binaryBody, startTestApp, type TestApp } from './test-app';
 
-const binary = (res: Response, cb: (err: Error | null, body: Buffer) => void) => {
-  const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-};
 
 describe('API: options, prices, takeoff and export', () => {
   let t: TestApp;
@@ -112,7 +106,7 @@ describe('API: options, prices, takeoff and export', () => {
     const est = await t.signInAs('estimator');
     await est.put(`${base}/takeoff/settings`, { waste_fraction: 0.08, bendAngle_deg: 30, other: [{ code: 'other/trenching', description: 'Trenching', unit: 'm', per_pipe_m: 1 }], labour_hours: 24, labour_rate: 42.5, markup_fraction: 0.12, tax_fraction: 0.0625, currency: 'USD' }).expect(200);
     const takeoff = (await est.get(`${base}/takeoff`).expect(200)).body;
-    const xlsx = await est.get(`${base}/export.xlsx`).buffer(true).parse(binary).expect(200);
+    const xlsx = await est.get(`${base}/export.xlsx`).buffer(true).parse(binaryBody).expect(200);
     expect(xlsx.headers['content-type']).to.match(/spreadsheetml/);
     const book = new ExcelJS.Workbook();
     await book.xlsx.load(xlsx.body);
@@ -160,7 +154,7 @@ describe('API: options, prices, takeoff and export', () => {
     const settings = { waste_fraction: 0.05, bendAngle_deg: 30, other: [{ code: 'other/trenching', description: 'Trenching', unit: 'm', per_pipe_m: 1 }], labour_hours: 10, labour_rate: 40, markup_fraction: 0.1, tax_fraction: 0.05 };
     const read = async () => {
       const book = new ExcelJS.Workbook();
-      await book.xlsx.load((await est.get(`${base}/export.xlsx`).buffer(true).parse(binary).expect(200)).body);
+      await book.xlsx.load((await est.get(`${base}/export.xlsx`).buffer(true).parse(binaryBody).expect(200)).body);
       return book;
     };
     const header = (book: ExcelJS.Workbook, sheet: string) => (book.getWorksheet(sheet)!.getRow(1).values as unknown[]).slice(1).map(String);

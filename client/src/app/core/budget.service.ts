@@ -1,40 +1,9 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { BudgetDocument, BudgetPlan, LayoutDifference } from '../../../../engine/budget';
-import type { NetworkDocument, SteadyResult } from '../../../../engine/index';
+import type { BudgetDocument } from '../../../../engine/budget';
+import type { SaveBudgetResult, StoredBudget, StoredNetwork } from '../../../../shared/network-api';
 import { handleErrorsLocally } from './http-context';
-
-/** GET /api/projects/:id/budget (server/API.md "Water budget of a project"). */
-export interface StoredBudget {
-  version: number;
-  document: BudgetDocument;
-  updatedAt: string | null;
-  updatedBy: string | null;
-  plan: BudgetPlan | null;
-  networkVersion: number;
-  /** Budget-driven outlets whose Layout flow differs from the budget's, left as typed. */
-  held: LayoutDifference[];
-}
-
-export interface SaveBudgetResult {
-  version: number;
-  updatedAt: string;
-  plan: BudgetPlan | null;
-  network: { version: number; results: SteadyResult | null } | null;
-  networkVersion: number;
-  /** Outlets whose Layout-edited flow the save kept (not named in apply_outlets). */
-  held: LayoutDifference[];
-}
-
-/** GET /api/projects/:id/network. */
-export interface StoredNetwork {
-  version: number;
-  document: NetworkDocument;
-  results: SteadyResult | null;
-  updatedAt: string | null;
-  updatedBy: string | null;
-}
 
 const url = (projectId: string, what: 'budget' | 'network') => `/api/projects/${encodeURIComponent(projectId)}/${what}`;
 

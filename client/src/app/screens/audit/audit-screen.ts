@@ -1,10 +1,11 @@
 import { DatePipe } from '@angular/common';
-import { Component, computed, inject } from '@angular/core';
+import { Component, inject } from '@angular/core';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
 import { AuditEntry } from '../../core/api-types';
 import { AuditService } from '../../core/audit.service';
+import { valueOr } from '../../core/resource-state';
 
 /** Admin: the latest 200 things people did in the team. */
 @Component({
@@ -70,8 +71,8 @@ export class AuditScreen {
   private readonly audit = inject(AuditService);
   protected readonly columns = ['at', 'userEmail', 'action', 'target', 'detail'];
   protected readonly entries = rxResource({ stream: () => this.audit.entries() });
-  /** `value()` throws while the resource is in its error state; a failed load shows an empty table (the snack bar says why). */
-  protected readonly rows = computed(() => (this.entries.hasValue() ? this.entries.value() : []));
+  /** A failed load shows an empty table (the snack bar says why). */
+  protected readonly rows = valueOr(this.entries, []);
 
   /** `{ roles: ['reviewer', 'owner'] }` → "roles: reviewer, owner". */
   protected describe(detail: AuditEntry['detail']): string {

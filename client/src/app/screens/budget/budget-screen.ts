@@ -21,6 +21,7 @@ import {
 import type { NetworkDocument, OutletNode } from '../../../../../engine/network-document';
 import { fromDisplay, toDisplay, unitLabel } from '../../../../../engine/units';
 import { apiErrorMessage } from '../../core/api-errors';
+import { loadErrorText, valueOr } from '../../core/resource-state';
 import { BudgetService } from '../../core/budget.service';
 import { ProjectContext } from '../../core/project-context';
 import { SessionService } from '../../core/session.service';
@@ -67,9 +68,10 @@ export class BudgetScreen {
   protected readonly version = signal(0);
   protected readonly dirty = signal(false);
   protected readonly saving = signal(false);
-  protected readonly loadError = computed(() => (this.stored.error() ? apiErrorMessage(this.stored.error()) : this.network.error() ? apiErrorMessage(this.network.error()) : null));
+  protected readonly loadError = loadErrorText([this.stored, this.network]);
 
-  protected readonly doc = computed<NetworkDocument | null>(() => (this.network.hasValue() ? this.network.value().document : null));
+  private readonly savedNetwork = valueOr(this.network, null);
+  protected readonly doc = computed<NetworkDocument | null>(() => this.savedNetwork()?.document ?? null);
   protected readonly outletOptions = computed(() => (this.doc()?.nodes ?? []).filter((n): n is OutletNode => n.kind === 'outlet').map((n) => ({ id: n.id, name: n.name || n.id })));
   protected readonly pumps = computed(() => (this.doc()?.links ?? []).filter((l) => l.kind === 'pump').map((l) => ({ id: l.id, name: l.name || l.id })));
   private readonly outletName = computed(() => new Map(this.outletOptions().map((o) => [o.id, o.name])));

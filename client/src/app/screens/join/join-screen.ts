@@ -10,6 +10,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 import { Observable } from 'rxjs';
 import { apiErrorMessage } from '../../core/api-errors';
+import { loadErrorText } from '../../core/resource-state';
 import { MIN_PASSWORD_LENGTH, Me } from '../../core/api-types';
 import { SessionService } from '../../core/session.service';
 import { TeamService } from '../../core/team.service';
@@ -40,10 +41,7 @@ export class JoinScreen {
   /** The session probe runs alongside, so the screen knows whether to offer "Join" or the account form. */
   private readonly sessionProbe = rxResource({ stream: () => this.session.load() });
   protected readonly ready = computed(() => !this.invitation.isLoading() && !this.sessionProbe.isLoading());
-  protected readonly loadError = computed(() => {
-    const err = this.invitation.error();
-    return err ? apiErrorMessage(err, { 404: 'This invitation link is not valid. Ask your team admin for a new one.' }) : null;
-  });
+  protected readonly loadError = loadErrorText([this.invitation], { 404: 'This invitation link is not valid. Ask your team admin for a new one.' });
   protected readonly returnUrl = computed(() => `/join/${this.token()}`);
 
   protected readonly form = inject(NonNullableFormBuilder).group({

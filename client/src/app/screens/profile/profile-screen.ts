@@ -11,7 +11,7 @@ import {
   findRoutes, longestSupplyRoute, pressureText, profileRoute, RouteError, WORKING_SHARE, type ProfileFinding, type Route, type RouteProfile,
 } from '../../../../../engine/profile';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel, type Quantity } from '../../../../../engine/units';
-import { apiErrorMessage } from '../../core/api-errors';
+import { loadErrorText, valueOr } from '../../core/resource-state';
 import { BudgetService } from '../../core/budget.service';
 import { ProjectContext } from '../../core/project-context';
 import { downloadDataUrl, downloadText } from '../../shared/chart/download';
@@ -49,7 +49,7 @@ export class ProfileScreen {
 
   protected readonly units = this.context.units;
   protected readonly network = rxResource({ params: () => this.projectId(), stream: ({ params }) => this.api.network(params) });
-  protected readonly loadError = computed(() => (this.network.error() ? apiErrorMessage(this.network.error()) : null));
+  protected readonly loadError = loadErrorText([this.network]);
   protected readonly labels = FINDING_LABELS;
   private readonly chart = viewChild(LineChart);
 
@@ -59,7 +59,8 @@ export class ProfileScreen {
   /** Cover for pipes without their own, in display units (null: the engine's 0.45 m). */
   protected readonly cover = signal<number | null>(null);
 
-  protected readonly doc = computed(() => (this.network.hasValue() ? this.network.value().document : null));
+  private readonly savedNetwork = valueOr(this.network, null);
+  protected readonly doc = computed(() => this.savedNetwork()?.document ?? null);
   protected readonly elements = computed(() => (this.doc()?.nodes ?? []).map((n) => ({ id: n.id, name: `${n.name || n.id} (${n.kind})` })));
   private readonly names = computed(() => new Map((this.doc()?.nodes ?? []).map((n) => [n.id, n.name || n.id])));
   protected readonly steady = computed(() => { const d = this.doc(); return d ? solve(d) : null; });

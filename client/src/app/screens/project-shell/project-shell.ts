@@ -1,5 +1,5 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
-import { afterNextRender, Component, computed, effect, ElementRef, inject, Injector, input, viewChild } from '@angular/core';
+import { afterNextRender, Component, effect, ElementRef, inject, Injector, input, viewChild } from '@angular/core';
 import { rxResource, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -9,7 +9,7 @@ import { MatTabsModule } from '@angular/material/tabs';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
 import { map } from 'rxjs';
-import { apiErrorMessage } from '../../core/api-errors';
+import { loadErrorText } from '../../core/resource-state';
 import { UNIT_SYSTEM_LABELS } from '../../core/api-types';
 import { handleErrorsLocally } from '../../core/http-context';
 import { ProjectContext } from '../../core/project-context';
@@ -50,13 +50,8 @@ export class ProjectShell {
     params: () => this.projectId(),
     stream: ({ params }) => this.projectsApi.get(params, handleErrorsLocally(404)),
   });
-  protected readonly loadError = computed(() => {
-    const err = this.project.error();
-    return err
-      ? apiErrorMessage(err, {
-          404: 'This project does not exist in your current team. It may have been deleted, or it belongs to another team.',
-        })
-      : null;
+  protected readonly loadError = loadErrorText([this.project], {
+    404: 'This project does not exist in your current team. It may have been deleted, or it belongs to another team.',
   });
 
   /**

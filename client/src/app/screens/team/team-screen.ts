@@ -17,6 +17,7 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router } from '@angular/router';
 import { filter, map, switchMap } from 'rxjs';
 import { apiErrorMessage } from '../../core/api-errors';
+import { valueOr } from '../../core/resource-state';
 import { Invitation, Member, ROLES, Role } from '../../core/api-types';
 import { SessionService } from '../../core/session.service';
 import { TeamService } from '../../core/team.service';
@@ -59,11 +60,9 @@ export class TeamScreen {
     params: () => this.session.me()?.currentTeamId ?? undefined,
     stream: () => this.teamApi.invitations(),
   });
-  /** `value()` throws while a resource is in its error state, so read it only when there is one. */
-  protected readonly memberRows = computed(() => (this.members.hasValue() ? this.members.value() : []));
-  protected readonly pending = computed(() =>
-    (this.invitations.hasValue() ? this.invitations.value() : []).filter((invitation) => !invitation.acceptedAt),
-  );
+  protected readonly memberRows = valueOr(this.members, []);
+  private readonly allInvitations = valueOr(this.invitations, []);
+  protected readonly pending = computed(() => this.allInvitations().filter((invitation) => !invitation.acceptedAt));
   /** Members whose role change is on its way to the server. */
   protected readonly saving = signal<ReadonlySet<string>>(new Set());
 

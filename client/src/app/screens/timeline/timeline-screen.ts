@@ -9,7 +9,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { timelineCsv, type TimelineEvent } from '../../../../../engine/timeline';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel, type Quantity } from '../../../../../engine/units';
-import { apiErrorMessage } from '../../core/api-errors';
+import { loadErrorText } from '../../core/resource-state';
 import { BudgetService } from '../../core/budget.service';
 import { ProjectContext } from '../../core/project-context';
 import { LineChart, type ChartMark, type ChartSpec } from '../../shared/chart/line-chart';
@@ -54,7 +54,7 @@ export class TimelineScreen {
 
   protected readonly units = this.context.units;
   protected readonly network = rxResource({ params: () => this.projectId(), stream: ({ params }) => this.api.network(params) });
-  protected readonly loadError = computed(() => (this.network.error() ? apiErrorMessage(this.network.error()) : null));
+  protected readonly loadError = loadErrorText([this.network]);
   protected readonly run = new TimelineRun();
   protected readonly days = signal(7);
   protected readonly stepMin = signal(10);
