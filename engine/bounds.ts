@@ -46,6 +46,8 @@ export const BOUNDS = {
   pixels: { min: 0, above: true, max: 1e6, unit: 'px', why: 'a backdrop image size' },
   refill_m3: { min: 0, above: true, max: 1000, unit: 'm³', why: 'the water a trough\'s float valve lets in to refill it (editor wording)' },
   emitters: { min: 1, max: 1e6, unit: '', why: 'the emitters of a drip zone (editor wording)' },
+  tape_rows: { min: 1, max: 10000, unit: '', why: 'the rows of drip tape in a zone (editor wording)' },
+  emitter_spacing_m: { min: 0, above: true, max: 10, unit: 'm', why: 'the spacing of emitters along drip tape (editor wording)' },
   m_per_px: { min: 0, above: true, max: 1e4, unit: 'm/px', why: 'a backdrop scale' },
 } satisfies Record<string, Bound>;
 

@@ -122,6 +122,10 @@ const outletNode = z.object({
   refill_m3: quantity('refill_m3').optional(),
   /** Editor wording: a drip zone's emitter count (its design flow is this times each emitter's flow). */
   emitters: quantity('emitters').optional(),
+  /** Editor wording: a drip zone laid as tape, rows × row length at an emitter spacing (engine/drip-tape); sets `emitters` and demand_m3s. */
+  drip_tape: z.object({
+    rows: quantity('tape_rows'), row_length_m: quantity('distance_m'), spacing_m: quantity('emitter_spacing_m'),
+  }, { error: 'must be an object { rows, row_length_m, spacing_m }' }).optional(),
 });
 
 const node = z.discriminatedUnion('kind', [sourceNode, tankNode, teeNode, outletNode], {

@@ -70,7 +70,9 @@ export const hillSmallholding: NetworkDocument = {
     { id: 'J4', name: 'Orchard tee', kind: 'tee', elevation_m: 126, demand_m3s: 0, x_m: 400, y_m: 250 },
     { id: 'J5', name: 'Orchard PRV outlet', kind: 'tee', elevation_m: 126, demand_m3s: 0, x_m: 406, y_m: 246 },
     { id: 'ORCH-N', name: 'Orchard north drip block', kind: 'outlet', outlet_type: 'drip-zone', elevation_m: 121, demand_m3s: 0.3 * G, min_pressure_m: 7, pattern: 'drip',
-      demand_model: { type: 'emitter', k: 0.3 * G / Math.sqrt(20), exponent: 0.5 }, x_m: 470, y_m: 290 },
+      demand_model: { type: 'emitter', k: 0.3 * G / Math.sqrt(20), exponent: 0.5 }, x_m: 470, y_m: 290,
+      // Laid as tape (editor wording): 8 rows of 30 m with an emitter every 30 cm.
+      drip_tape: { rows: 8, row_length_m: 30, spacing_m: 0.3 }, emitters: 800 },
     { id: 'ORCH-S', name: 'Orchard south drip block', kind: 'outlet', outlet_type: 'drip-zone', elevation_m: 114, demand_m3s: 0.3 * G, min_pressure_m: 10, pattern: 'drip',
       demand_model: { type: 'pressure-dependent', required_pressure_m: 14, zero_pressure_m: 4 }, x_m: 470, y_m: 190 },
     { id: 'J6v', name: 'West paddocks valve', kind: 'tee', elevation_m: 124, demand_m3s: 0, x_m: 200, y_m: 230 },

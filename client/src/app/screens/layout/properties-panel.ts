@@ -265,7 +265,7 @@ export class PropertiesPanel {
       this.patch.emit({ id: el.id, patch: { demand_model: defaultDemandModel(String(v), el as OutletNode) } });
       return;
     }
-    const patch = f.write ? f.write(el, value as number | undefined) : patchForPath(el, f.key, value);
+    const patch = f.choose ? f.choose(el, String(v)) : f.write ? f.write(el, value as number | undefined) : patchForPath(el, f.key, value);
     if (f.type === 'length') patch['length_source'] = 'typed';
     // A typed elevation is the designer's own: no longer unset or a guess.
     if (f.key === 'elevation_m') Object.assign(patch, { elevation_source: undefined, elevation_from: undefined });

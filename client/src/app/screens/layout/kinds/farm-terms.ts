@@ -1,4 +1,5 @@
 import type { NetworkLink, NetworkNode, OutletNode, PumpLink } from '../../../../../../engine/network-document';
+import { dripTapeFlow, dripTapeProblem } from '../../../../../../engine/drip-tape/index';
 import type { FieldSpec } from './kind-types';
 
 /**
@@ -42,10 +43,61 @@ export const troughFields: FieldSpec[] = [
   },
 ];
 
-/** A drip zone: "N emitters × X L/h at Y kPa" sets its design flow N·X and the pressure it needs Y. */
+type Tape = NonNullable<OutletNode['drip_tape']>;
+const isDrip = isType('drip-zone');
+const byTape = (e: NetworkNode | NetworkLink) => isDrip(e) && !!asOutlet(e).drip_tape;
+const byCount = (e: NetworkNode | NetworkLink) => isDrip(e) && !asOutlet(e).drip_tape;
+/** 1.6 L/h, a common small dripper (trade practice, from memory), when nothing says otherwise. */
+const DEFAULT_EMITTER_M3S = 1.6e-3 / 3600;
+
+/** Each emitter's flow: the zone's flow shared over its emitters, or over the tape at its spacing. */
+function emitterFlow(o: OutletNode): number | undefined {
+  const t = o.drip_tape;
+  if (t) return (o.demand_m3s * t.spacing_m) / (t.rows * t.row_length_m);
+  return o.emitters ? o.demand_m3s / o.emitters : undefined;
+}
+
+/** The tape's emitters and design flow (engine/drip-tape) for a changed tape or emitter flow. */
+function tapePatch(o: OutletNode, tape: Tape, each = emitterFlow(o) ?? DEFAULT_EMITTER_M3S): Record<string, unknown> {
+  const input = { ...tape, emitter_flow_m3s: each };
+  if (dripTapeProblem(input)) return { drip_tape: tape };
+  const r = dripTapeFlow(input);
+  return { drip_tape: tape, emitters: r.emitters, demand_m3s: r.flow_m3s };
+}
+
+function tapeField(key: keyof Tape, spec: Omit<FieldSpec, 'key' | 'type'> & { type?: FieldSpec['type'] }): FieldSpec {
+  return {
+    type: 'number', ...spec, key: `drip_tape.${key}`, when: byTape,
+    write: (e, v) => {
+      const o = asOutlet(e);
+      return v === undefined || !o.drip_tape ? {} : tapePatch(o, { ...o.drip_tape, [key]: key === 'rows' ? Math.round(v) : v });
+    },
+  };
+}
+
+/**
+ * A drip zone: "N emitters × X L/h at Y kPa", or laid as tape, "rows × row length at a spacing,
+ * X L/h each" (engine/drip-tape); either sets its design flow and the pressure it needs Y.
+ */
 export const dripFields: FieldSpec[] = [
   {
-    key: 'emitters', label: 'Emitters', type: 'number', suffix: 'emitters', min: 1, max: 100000, testid: 'prop-emitters', when: isType('drip-zone'),
+    key: 'drip_entry', label: 'Described as', type: 'select', testid: 'prop-drip-entry', when: isDrip, fallback: 'emitters',
+    options: [{ value: 'emitters', label: 'A count of emitters' }, { value: 'tape', label: 'Rows of drip tape' }],
+    read: (e) => (asOutlet(e).drip_tape ? 'tape' : 'emitters'),
+    choose: (e, value) => {
+      const o = asOutlet(e);
+      if (value !== 'tape') return o.drip_tape ? { drip_tape: undefined } : {};
+      if (o.drip_tape) return {};
+      // One row as long as the emitters already there at 30 cm: the zone keeps its flow until edited.
+      const spacing = 0.3;
+      return tapePatch(o, { rows: 1, row_length_m: Math.max(1, (o.emitters ?? 10) * spacing), spacing_m: spacing });
+    },
+  },
+  tapeField('rows', { label: 'Rows of tape', suffix: 'rows', min: 1, max: 10000, testid: 'prop-tape-rows' }),
+  tapeField('row_length_m', { label: 'each', quantity: 'length', min: 0.1, max: 100000, testid: 'prop-tape-row-length' }),
+  tapeField('spacing_m', { label: 'Emitters every', quantity: 'diameter', min: 0.02, max: 10, testid: 'prop-tape-spacing' }),
+  {
+    key: 'emitters', label: 'Emitters', type: 'number', suffix: 'emitters', min: 1, max: 100000, testid: 'prop-emitters', when: byCount,
     write: (e, n) => {
       const o = asOutlet(e);
       if (n === undefined) return { emitters: undefined };
@@ -54,14 +106,18 @@ export const dripFields: FieldSpec[] = [
     },
   },
   {
-    key: 'emitter_flow', label: '× each', type: 'number', quantity: 'emitter-flow', min: 1e-8, max: 1e-3, testid: 'prop-emitter-flow', when: isType('drip-zone'),
-    read: (e) => {
-      const o = asOutlet(e);
-      return o.emitters ? o.demand_m3s / o.emitters : undefined;
+    key: 'emitter_flow', label: '× each', type: 'number', quantity: 'emitter-flow', min: 1e-8, max: 1e-3, testid: 'prop-emitter-flow', when: isDrip,
+    labelFor: (e) => (byTape(e) ? 'Each emitter gives' : '× each'),
+    hintFor: (e) => {
+      const t = asOutlet(e).drip_tape;
+      return t ? `${Math.round((t.rows * t.row_length_m) / t.spacing_m).toLocaleString('en')} emitters in the zone` : undefined;
     },
+    read: (e) => emitterFlow(asOutlet(e)),
     write: (e, q) => {
       const o = asOutlet(e);
-      return q === undefined || !o.emitters ? {} : { demand_m3s: o.emitters * q };
+      if (q === undefined) return {};
+      if (o.drip_tape) return tapePatch(o, o.drip_tape, q);
+      return !o.emitters ? {} : { demand_m3s: o.emitters * q };
     },
   },
 ];

@@ -39,8 +39,10 @@ export interface FieldSpec {
    * A field worded in farm terms over stored physics (farm-terms.ts): `read` gives the SI value
    * shown, `write` the patch that stores a typed SI value. Without them the field is `key` itself.
    */
-  read?: (element: NetworkNode | NetworkLink) => number | undefined;
+  read?: (element: NetworkNode | NetworkLink) => number | string | undefined;
   write?: (element: NetworkNode | NetworkLink, si: number | undefined) => Record<string, unknown>;
+  /** A select worded over stored fields: the patch for the chosen option. */
+  choose?: (element: NetworkNode | NetworkLink, value: string) => Record<string, unknown>;
 }
 
 export interface NodeKindDef<N extends NetworkNode = NetworkNode> {
