@@ -76,6 +76,7 @@ export class CanvasView {
     for (const l of [this.baseLayer, this.contentLayer, this.overlayLayer, this.markerLayer.layer, this.dragLayer, uiLayer]) this.stage.add(l);
     this.contentLayer.add(this.linkLayer, this.nodeLayer);
     this.overlayLayer.add(this.labels.bankBadges);
+    this.overlayLayer.add(this.crossings.hops);
     this.linkLayer.add(this.headers.group);
     // Crossing marks sit over every line and under every node symbol.
     this.nodeLayer.add(this.crossings.group);
@@ -186,7 +187,10 @@ export class CanvasView {
       }
     }
     if (this.headers.draw(doc.nodes, viewChanged)) dirty.add(this.contentLayer);
-    if (dirty.has(this.contentLayer) || dirty.has(this.dragLayer)) this.crossings.draw(doc, ed.dragging.length > 0);
+    if (dirty.has(this.contentLayer) || dirty.has(this.dragLayer) || viewChanged) {
+      this.crossings.draw(doc, ed.dragging.length > 0);
+      dirty.add(this.overlayLayer);
+    }
     if (viewChanged) {
       dirty.add(this.baseLayer);
       dirty.add(this.overlayLayer);

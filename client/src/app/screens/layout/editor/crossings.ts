@@ -83,3 +83,52 @@ export function lineCrossings(doc: NetworkDocument): Crossing[] {
   }
   return out;
 }
+
+/** A line drawn over a node it does not join (a tee under the rising main): where, and the line's direction. */
+export interface PassOver { at: Point; link: string; node: string; angle: number; distance_m: number }
+
+/**
+ * Every node that sits on (within `within_m` of) a line it is not an end of, with the point on the
+ * line nearest to it. Nodes are bucketed on a grid of `within_m` so a large network is not
+ * compared pair by pair.
+ */
+export function nodesUnderLines(doc: NetworkDocument, within_m: number): PassOver[] {
+  if (!(within_m > 0)) return [];
+  const byId = new Map(doc.nodes.map((n) => [n.id, n]));
+  const cell = (v: number) => Math.floor(v / within_m);
+  const grid = new Map<string, NetworkDocument['nodes']>();
+  for (const n of doc.nodes) {
+    if (n.x_m === undefined || n.y_m === undefined) continue;
+    const k = `${cell(n.x_m)},${cell(n.y_m)}`;
+    grid.set(k, [...(grid.get(k) ?? []), n]);
+  }
+  const out: PassOver[] = [];
+  for (const l of doc.links) {
+    const pts = linkPoints(l, byId);
+    const seen = new Set<string>([l.from, l.to]);
+    for (let i = 1; i < pts.length; i++) {
+      const a = pts[i - 1], b = pts[i];
+      const dx = b.x - a.x, dy = b.y - a.y;
+      const len2 = dx * dx + dy * dy;
+      if (len2 === 0) continue;
+      const x0 = cell(Math.min(a.x, b.x) - within_m), x1 = cell(Math.max(a.x, b.x) + within_m);
+      const y0 = cell(Math.min(a.y, b.y) - within_m), y1 = cell(Math.max(a.y, b.y) + within_m);
+      // A long line at a fine grid: walk the nodes instead of the cells.
+      const candidates = (x1 - x0 + 1) * (y1 - y0 + 1) > doc.nodes.length
+        ? doc.nodes
+        : Array.from({ length: x1 - x0 + 1 }, (_, i) => x0 + i).flatMap((cx) =>
+          Array.from({ length: y1 - y0 + 1 }, (_, j) => grid.get(`${cx},${y0 + j}`) ?? []).flat());
+      for (const n of candidates) {
+        if (seen.has(n.id) || n.x_m === undefined || n.y_m === undefined) continue;
+        const t = ((n.x_m - a.x) * dx + (n.y_m - a.y) * dy) / len2;
+        if (t <= 0 || t >= 1) continue;
+        const at = { x: a.x + dx * t, y: a.y + dy * t };
+        const d = Math.hypot(n.x_m - at.x, n.y_m - at.y);
+        if (d > within_m) continue;
+        seen.add(n.id);
+        out.push({ at, link: l.id, node: n.id, angle: Math.atan2(dy, dx), distance_m: d });
+      }
+    }
+  }
+  return out;
+}
