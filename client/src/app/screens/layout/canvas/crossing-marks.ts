@@ -53,8 +53,8 @@ export class CrossingMarks {
 
   /**
    * A line over a node it does not join (the rising main over a tee) jumps it: the straight run
-   * across the symbol is papered over and the line arcs round the symbol's top, so it never reads
-   * as a tee on that line.
+   * across the symbol is papered over under the symbol and the line arcs over it, so the node
+   * never reads as a tee on that line.
    */
   private drawHops(doc: NetworkDocument): void {
     const f = this.passesFor;
@@ -68,19 +68,21 @@ export class CrossingMarks {
       const line = this.views.links.get(c.link)?.line;
       const w = line?.strokeWidth() ?? 2.5;
       const ink = (line?.stroke() as string | undefined) ?? LABEL;
-      const r = 12 * (this.views.nodes.get(c.node)?.scale ?? 1) + 3;
+      const r = 10 * (this.views.nodes.get(c.node)?.scale ?? 1) + 2;
       const u = { x: Math.cos(-c.angle), y: Math.sin(-c.angle) };
       // The arc bulges to the upper side of the line on screen.
       const n = u.x >= 0 ? { x: u.y, y: -u.x } : { x: -u.y, y: u.x };
       const a = { x: p.x - u.x * r, y: p.y - u.y * r };
       const b = { x: p.x + u.x * r, y: p.y + u.y * r };
-      this.hops.add(new Konva.Line({ points: [a.x, a.y, b.x, b.y], stroke: PAPER, strokeWidth: w + 2, opacity: 0.9, listening: false }));
+      // Under the symbols: the symbol stays whole, the line no longer runs into it.
+      this.group.add(new Konva.Line({ points: [a.x, a.y, b.x, b.y], stroke: PAPER, strokeWidth: w + 2, listening: false }));
       this.hops.add(new Konva.Shape({
         listening: false, stroke: ink, strokeWidth: w, lineCap: 'round',
         sceneFunc: (ctx, shape) => {
           ctx.beginPath();
           ctx.moveTo(a.x, a.y);
-          ctx.bezierCurveTo(a.x + n.x * r * 1.6, a.y + n.y * r * 1.6, b.x + n.x * r * 1.6, b.y + n.y * r * 1.6, b.x, b.y);
+          // Control points at 4/3 r: a near-semicircle of height r over the symbol.
+          ctx.bezierCurveTo(a.x + n.x * r * 1.33, a.y + n.y * r * 1.33, b.x + n.x * r * 1.33, b.y + n.y * r * 1.33, b.x, b.y);
           ctx.strokeShape(shape);
         },
       }));
