@@ -315,4 +315,28 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
     expect(await page.getByTestId('prop-min-pressure-error').innerText()).to.equal('"12 kg" is not a pressure (try psi or kPa)');
     expect((await editorHook.doc(page)).nodes.find((n) => n.id === 'O1')!.min_pressure_m).to.be.closeTo(7.0307, 1e-4);
   });
+  it('a drip zone described as rows of tape: 6 rows × 25 m, an emitter every 30 cm at 1.6 L/h is 500 emitters and 800 L/h', async () => {
+    const { app, page } = ui;
+    await signIn(page, app.baseUrl, 'designer');
+    const projectId = await createProject(page, app.baseUrl, 'Tape zone', 'si');
+    const doc = smallNetwork('tape');
+    Object.assign(doc.nodes[1], { outlet_type: 'drip-zone', emitters: 100, demand_m3s: 100 * (2e-3 / 3600) });
+    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: doc })).status()).to.equal(200);
+    await openLayout(page, app.baseUrl, projectId);
+    await clickNode(page, 'O1');
+    await page.getByTestId('prop-drip-entry').click();
+    await page.getByRole('option', { name: 'Rows of drip tape' }).click();
+    await page.getByTestId('prop-tape-rows').waitFor();
+    expect(await page.getByTestId('prop-emitters').count()).to.equal(0);
+    await setProperty(page, 'prop-tape-rows', '6');
+    await setProperty(page, 'prop-tape-row-length', '25 m');
+    await setProperty(page, 'prop-tape-spacing', '30 cm');
+    await setProperty(page, 'prop-emitter-flow', '1.6 L/h');
+    const o1 = (await editorHook.doc(page)).nodes.find((n) => n.id === 'O1')!;
+    expect(o1.drip_tape).to.deep.equal({ rows: 6, row_length_m: 25, spacing_m: 0.3 });
+    expect(o1.emitters).to.equal(500);
+    // C: 6 × 25 m ÷ 0.3 m = 500 emitters × 1.6 L/h = 800 L/h = 0.2222 L/s.
+    expect((o1.demand_m3s as number) * 3.6e6).to.be.closeTo(800, 1e-6);
+    expect(await page.getByTestId('prop-emitter-flow-hint').innerText()).to.equal('500 emitters in the zone');
+  });
 });

@@ -68,7 +68,10 @@ export class CrossingMarks {
       const line = this.views.links.get(c.link)?.line;
       const w = line?.strokeWidth() ?? 2.5;
       const ink = (line?.stroke() as string | undefined) ?? LABEL;
-      const r = 10 * (this.views.nodes.get(c.node)?.scale ?? 1) + 2;
+      const symbol = 10 * (this.views.nodes.get(c.node)?.scale ?? 1);
+      // Only where the symbol really sits on the line: small symbols at a crowded zoom clear it.
+      if (c.distance_m * this.vp.scale > symbol + w / 2) continue;
+      const r = symbol + 2;
       const u = { x: Math.cos(-c.angle), y: Math.sin(-c.angle) };
       // The arc bulges to the upper side of the line on screen.
       const n = u.x >= 0 ? { x: u.y, y: -u.x } : { x: -u.y, y: u.x };
