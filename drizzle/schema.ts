@@ -132,6 +132,14 @@ export const budgets = pgTable('budgets', {
   updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
 }, (t) => [uniqueIndex('budgets_project_idx').on(t.projectId)]);
 
+/** A project's Profile settings (the default cover over pipes without their own, ...): one row per project. */
+export const profileSettings = pgTable('profile_settings', {
+  projectId: uuid('project_id').primaryKey().references(() => projects.id, { onDelete: 'cascade' }),
+  settings: jsonb('settings').notNull(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+});
+
 export const files = pgTable('files', {
   id: uuid('id').primaryKey().defaultRandom(),
   projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),

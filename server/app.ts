@@ -24,6 +24,7 @@ import { checkJsonText, requireJsonOrMultipart } from './request-guards';
 import { createMailer } from './mail/mailer';
 import { startMailSink, type MailSink } from './mail/sink';
 import { budgetRoutes } from './routes/budget';
+import { profileRoutes } from './routes/profile';
 import { authRoutes, type SigninLimit } from './routes/auth';
 import { optionRoutes } from './routes/options';
 import { priceRoutes } from './routes/prices';
@@ -139,6 +140,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   projectRoutes(api, ctx);
   networkRoutes(api, ctx);
   budgetRoutes(api, ctx);
+  profileRoutes(api, ctx);
   versionRoutes(api, ctx);
   reviewRoutes(api, ctx);
   fileRoutes(api, ctx);

@@ -25,6 +25,8 @@ export const PERMISSION_TABLE = {
   'network.write': DESIGNERS,
   'budget.read': EVERY_MEMBER,
   'budget.write': DESIGNERS,
+  /** The Profile's per-project settings (default cover over pipes). */
+  'profile.write': DESIGNERS,
   'review.read': EVERY_MEMBER,
   'review.submit': DESIGNERS,
   'review.decide': ['reviewer'],

@@ -117,6 +117,27 @@ describe('API: water budget (versioned, validated, outlet flows carried into the
     expect((await a.get(`/api/projects/${id}/network`).expect(200)).body.version).to.equal(1);
   });
 
+  it('profile settings: the default cover is saved per project by designers, validated and audited', async () => {
+    const id = await insertProject(t.db, t.seeded!.demoTeamId);
+    const settings = `/api/projects/${id}/profile-settings`;
+    const owner = await t.signInAs('owner');
+    expect((await owner.get(settings).expect(200)).body).to.include({ cover_m: null, default_cover_m: 0.45 });
+    await owner.put(settings, { cover_m: 0.9 }).expect(403);
+    const a = await t.signInAs('designer');
+    for (const [body, message] of [[{ cover_m: -0.1 }, 'cover_m: must be 0 m or more'], [{ cover_m: 5 }, 'cover_m: must be at most 3 m (about 10 ft)'],
+      [{ cover_m: '1' }, 'cover_m: must be a depth in metres, or null for the default'], [{}, 'cover_m: must be a depth in metres, or null for the default']] as const) {
+      const res = await a.put(settings, body).expect(400);
+      expect(res.body.error.fields.map((f: { path: string; message: string }) => `${f.path}: ${f.message}`)).to.include(message);
+    }
+    expect((await owner.get(settings).expect(200)).body.cover_m).to.equal(null);
+    const saved = (await a.put(settings, { cover_m: 0.9 }).expect(200)).body;
+    expect(saved).to.include({ cover_m: 0.9, updatedBy: 'Dana Designer' });
+    expect((await owner.get(settings).expect(200)).body.cover_m).to.equal(0.9);
+    expect((await (await t.signInAs('owner')).get(`/api/projects/${t.seeded!.otherProjectId}/profile-settings`)).status).to.equal(404);
+    const log = (await (await t.signInAs('admin')).get('/api/team/audit').expect(200)).body as { action: string; detail: string }[];
+    expect(log.some((r) => r.action === 'profile.settings' && /cover_m: 0\.9/.test(r.detail))).to.equal(true);
+  });
+
   it('another team\'s project is 404; owners may read but not save', async () => {
     const other = await (await t.signInAs('owner')).get(url(t.seeded!.otherProjectId));
     expect(other.status).to.equal(404);

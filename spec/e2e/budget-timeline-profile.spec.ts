@@ -117,6 +117,17 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     expect(await page.getByTestId('profile-margin').textContent()).to.match(/Static-pressure margin, tightest at [\d.]+ m on L-TR4:\s+\d+ kPa over the working limit \(72 % of the rating, ASAE S376\.1\),\s+\d+ kPa below the rating/);
     expect(await page.getByTestId('profile-findings').locator('li[data-kind="over-working"]').count()).to.equal(1);
     await shot(page, 'profile-designer-desktop');
+    // the default cover is saved for the project: a reload (and the owner, below) sees it
+    expect(await page.getByTestId('profile-cover-hint').textContent()).to.match(/default 0\.45 m/);
+    await page.getByTestId('profile-cover').fill('-1');
+    await page.getByTestId('profile-cover').press('Enter');
+    expect(await page.getByTestId('profile-cover-error').textContent()).to.match(/Cover: give a depth from 0 to 3(\.0+)? m/);
+    await page.getByTestId('profile-cover').fill('1.2');
+    await page.getByTestId('profile-cover').press('Enter');
+    await page.getByTestId('profile-cover-hint').filter({ hasText: 'saved for this project' }).waitFor();
+    await page.reload();
+    await page.getByTestId('profile-cover-hint').filter({ hasText: 'saved for this project' }).waitFor();
+    expect(await page.getByTestId('profile-cover').inputValue()).to.equal('1.2');
     await page.getByTestId('unit-switch-us').click();
     // the margin is worked out again in the new units: wait for it rather than read the interim text
     await page.getByTestId('profile-margin').filter({ hasText: /[\d.]+ psi over the working limit/ }).waitFor();
@@ -141,6 +152,8 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     await shot(page, 'timeline-owner-phone');
     await page.goto(page.url().replace(/\/timeline$/, '/profile'));
     expect(await chartPoints(page, 'profile-chart')).to.be.greaterThan(10);
+    await page.getByTestId('profile-cover-hint').filter({ hasText: 'saved for this project · set by a designer' }).waitFor();
+    expect(await page.getByTestId('profile-cover').getAttribute('readonly')).to.not.equal(null);
     await shot(page, 'profile-owner-phone');
   });
 });

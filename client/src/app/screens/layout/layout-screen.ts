@@ -14,6 +14,7 @@ import type { SteadyResult } from '../../../../../engine/index';
 import { ProjectContext } from '../../core/project-context';
 import { profileMarkers } from '../profile/profile-markers';
 import { ProfileSelection } from '../profile/profile-selection';
+import { ProfileSettings } from '../profile/profile-settings';
 import { serviceStates } from '../../../../../engine/service-state';
 import type { UnitSystem } from '../../../../../engine/units';
 import { SessionService } from '../../core/session.service';
@@ -88,6 +89,7 @@ export class LayoutScreen {
   /** The project page's unit switch (absent when the screen runs outside the project shell). */
   private readonly projectContext = inject(ProjectContext, { optional: true });
   private readonly profileSelection = inject(ProfileSelection);
+  private readonly profileSettings = inject(ProfileSettings);
   private readonly canvasRef = viewChild.required<ElementRef<HTMLDivElement>>('canvas');
 
   readonly editor = createEditor();
@@ -195,7 +197,7 @@ export class LayoutScreen {
 
   constructor() {
     // the Profile tab's findings as marks on the plan (screens/profile/profile-markers.ts)
-    effect(() => this.markers.set('profile', profileMarkers(this.doc(), this.results(), this.profileSelection.get(this.projectId()))));
+    effect(() => this.markers.set('profile', profileMarkers(this.doc(), this.results(), this.profileSelection.get(this.projectId()), this.profileSettings.cover(this.projectId()))));
     effect(() => {
       const ctx = this.projectContext;
       if (ctx?.project()) this.units.set(ctx.units());

@@ -19,9 +19,9 @@ const KIND: Record<ProfileFinding['kind'], string> = {
  * direction). The route is the one chosen on the Profile tab, else the longest supply route.
  *
  * @example
- * screen.markers.set('profile', profileMarkers(doc, results, selection.get(projectId)))
+ * screen.markers.set('profile', profileMarkers(doc, results, selection.get(projectId), settings.cover(projectId)))
  */
-export function profileMarkers(doc: NetworkDocument, steady: SteadyResult | null, ends: ProfileEnds | undefined): PlanMarker[] {
+export function profileMarkers(doc: NetworkDocument, steady: SteadyResult | null, ends: ProfileEnds | undefined, cover_m?: number): PlanMarker[] {
   let route: Route | null;
   try {
     route = ends ? findRoutes(doc, ends.from, ends.to, 1)[0] : longestSupplyRoute(doc);
@@ -29,7 +29,7 @@ export function profileMarkers(doc: NetworkDocument, steady: SteadyResult | null
     route = null;
   }
   if (!route || !steady || Object.keys(steady.nodes).length === 0) return [];
-  const profile = profileRoute(doc, route, { steady });
+  const profile = profileRoute(doc, route, { steady, cover_m });
   const segments = new Map(profile.segments.map((s) => [s.link, s]));
   const marks = profile.findings.map((f, i): PlanMarker => {
     const seg = segments.get(f.link);

@@ -17,7 +17,12 @@ import { ProjectContext } from '../../core/project-context';
 import { downloadDataUrl, downloadText } from '../../shared/chart/download';
 import { LineChart, type ChartSpec } from '../../shared/chart/line-chart';
 import { QuantityPipe } from '../../shared/quantity.pipe';
+import { SessionService } from '../../core/session.service';
 import { ProfileSelection } from './profile-selection';
+import { ProfileSettings } from './profile-settings';
+
+/** Deepest default cover the server accepts, m (server/routes/profile.ts MAX_COVER_M). */
+const MAX_COVER_M = 3;
 
 const BAND: Record<ProfileFinding['kind'], string> = {
   'hgl-below-pipe': 'rgba(179, 38, 30, 0.22)', 'over-rating': 'rgba(120, 20, 20, 0.28)', 'over-working': 'rgba(224, 160, 0, 0.22)',
@@ -44,6 +49,8 @@ export const FINDING_LABELS: Record<ProfileFinding['kind'], string> = {
 export class ProfileScreen {
   private readonly api = inject(BudgetService);
   private readonly selection = inject(ProfileSelection);
+  private readonly settings = inject(ProfileSettings);
+  private readonly session = inject(SessionService);
   protected readonly context = inject(ProjectContext);
   readonly projectId = input.required<string>();
 
@@ -56,8 +63,19 @@ export class ProfileScreen {
   protected readonly from = signal<string | null>(null);
   protected readonly to = signal<string | null>(null);
   protected readonly routeIndex = signal(0);
-  /** Cover for pipes without their own, in display units (null: the engine's 0.45 m). */
-  protected readonly cover = signal<number | null>(null);
+  /** The project's saved settings (default cover), shared with the Layout's profile marks. */
+  protected readonly saved = computed(() => this.settings.get(this.projectId()));
+  /** Cover for pipes without their own, m (undefined: the engine's default). */
+  private readonly coverM = computed(() => this.saved()?.cover_m ?? undefined);
+  /** The saved cover in display units, for the field ('' when the default applies). */
+  protected readonly coverShown = computed(() => {
+    const c = this.coverM();
+    return c === undefined ? '' : String(Math.round(toDisplay('length', c, this.units()) * 100) / 100);
+  });
+  protected readonly defaultCoverText = computed(() => this.coverText(this.saved()?.default_cover_m ?? 0.45));
+  protected readonly canSetCover = computed(() => this.session.can('profile.write'));
+  protected readonly coverError = signal<string | null>(null);
+  protected readonly coverSaving = signal(false);
 
   private readonly savedNetwork = valueOr(this.network, null);
   protected readonly doc = computed(() => this.savedNetwork()?.document ?? null);
@@ -85,8 +103,7 @@ export class ProfileScreen {
     const routes = this.routes().routes;
     if (!doc || routes.length === 0) return null;
     const route = routes[Math.min(this.routeIndex(), routes.length - 1)];
-    const cover = this.cover();
-    return profileRoute(doc, route, { steady: this.steady() ?? undefined, cover_m: cover === null ? undefined : fromDisplay('length', cover, this.units()) });
+    return profileRoute(doc, route, { steady: this.steady() ?? undefined, cover_m: this.coverM() });
   });
 
   protected readonly spec = computed<ChartSpec | null>(() => {
@@ -136,8 +153,27 @@ export class ProfileScreen {
     this.setEnds(null, null);
   }
 
+  /** A cover depth to the centimetre or hundredth of a foot (the length format rounds a cover too coarsely). */
+  private coverText(m: number): string {
+    return `${Math.round(toDisplay('length', m, this.units()) * 100) / 100} ${unitLabel('length', this.units())}`;
+  }
+
+  /** Save the project's default cover (typed in display units; empty: back to the default). */
   protected setCover(value: string): void {
-    this.cover.set(value === '' ? null : Number(value));
+    const typed = value.trim() === '' ? null : Number(value);
+    if (typed !== null && !Number.isFinite(typed)) { this.coverError.set('Cover: give a depth, or leave it empty for the default'); return; }
+    const cover = typed === null ? null : fromDisplay('length', typed, this.units());
+    // the server's limits (server/routes/profile.ts), said in the project's units
+    if (cover !== null && (cover < 0 || cover > MAX_COVER_M)) {
+      this.coverError.set(`Cover: give a depth from 0 to ${this.coverText(MAX_COVER_M)}, or leave it empty for the default`);
+      return;
+    }
+    this.coverError.set(null);
+    this.coverSaving.set(true);
+    this.settings.saveCover(this.projectId(), cover).subscribe({
+      next: () => this.coverSaving.set(false),
+      error: (err: unknown) => { this.coverSaving.set(false); this.coverError.set(apiErrorMessage(err)); },
+    });
   }
 
   protected routeText(r: Route): string {
