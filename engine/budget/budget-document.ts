@@ -13,7 +13,26 @@
  * };
  */
 
+import type { FixtureKey } from './fixtures';
+
 export const BUDGET_SCHEMA = 'runnel.budget/1';
+
+/**
+ * A drip block laid in rows (garden, tunnel): its flow is rows × row length × the flow per length
+ * (emitter flow ÷ emitter spacing, or drip tape's flow per length), run for run_h a day.
+ */
+export interface DripRows {
+  rows: number;
+  row_length_m: number;
+  /** Emitters: spacing along the row, m, and each emitter's flow, m³/s. */
+  emitter_spacing_m?: number;
+  emitter_flow_m3s?: number;
+  /** Or drip tape: its flow per metre of row, m³/s per m. */
+  tape_flow_m3s_per_m?: number;
+  /** Hours the block runs a day, and in the budget's hot months. */
+  run_h: number;
+  hot_run_h?: number;
+}
 
 export type UseKind = 'livestock' | 'garden' | 'tunnel' | 'orchard' | 'household' | 'other';
 
@@ -46,6 +65,13 @@ export interface BudgetUse {
   hot_depth_m_day?: number;
   /** Fixed daily volume, m³/day (other). */
   daily_m3?: number;
+  /**
+   * Household: fixtures by kind (./fixtures). The daily need stays people × the per-person figure;
+   * the linked outlet's design flow becomes the house's probable peak by fixture units.
+   */
+  fixtures?: Partial<Record<FixtureKey, number>>;
+  /** Garden or tunnel laid as drip rows: daily need and outlet flow from the rows (replaces area × depth). */
+  drip?: DripRows;
   notes?: string;
 }
 

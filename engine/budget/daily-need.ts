@@ -1,4 +1,4 @@
-import { DEFAULT_HOT_MONTHS, type BudgetDocument, type BudgetUse } from './budget-document';
+import { DEFAULT_HOT_MONTHS, type BudgetDocument, type BudgetUse, type DripRows } from './budget-document';
 import { DEFAULT_KEY_BY_KIND, DEFAULT_RATES, type RateUnit } from './defaults';
 
 /**
@@ -30,7 +30,16 @@ export interface UseNeed {
   peak_month: number;
 }
 
+/** A drip block's flow, m³/s (rows × length × flow per length). */
+export function dripFlow(drip: DripRows): number {
+  const perM = drip.tape_flow_m3s_per_m ?? ((drip.emitter_flow_m3s ?? 0) / (drip.emitter_spacing_m ?? 1));
+  return drip.rows * drip.row_length_m * perM;
+}
+
+export const DRIP_SOURCE = 'drip rows: rows × length × emitter flow ÷ spacing (or tape flow per length) × run hours; the emitter or tape maker\'s figures (common practice)';
+
 export function useNeed(budget: BudgetDocument, use: BudgetUse): UseNeed {
+  if (use.drip && (use.kind === 'garden' || use.kind === 'tunnel')) return dripNeed(budget, use, use.drip);
   const key = use.rate_key ?? DEFAULT_KEY_BY_KIND[use.kind];
   const row = DEFAULT_RATES[key];
   const project = budget.rates?.[key];
@@ -58,6 +67,25 @@ export function useNeed(budget: BudgetDocument, use: BudgetUse): UseNeed {
     id: use.id, name: use.name, rate, hot_rate: hot, unit: use.kind === 'other' ? 'fixed' : row.unit, units,
     rate_from: from, source, monthly_m3_day: monthly, peak_m3_day: peak, peak_month: peakMonth,
   };
+}
+
+/** A drip-row use: per metre of row, the flow per length × run hours (hot-month run hours in heat). */
+function dripNeed(budget: BudgetDocument, use: BudgetUse, drip: DripRows): UseNeed {
+  const length = drip.rows * drip.row_length_m;
+  const perM = length > 0 ? dripFlow(drip) / length : 0;
+  const rate = perM * drip.run_h * 3600;
+  const hot = perM * (drip.hot_run_h ?? drip.run_h) * 3600;
+  return finish(budget, use, { rate, hot, unit: 'per-row-metre', units: length, from: 'typed', source: DRIP_SOURCE });
+}
+
+function finish(budget: BudgetDocument, use: BudgetUse, r: { rate: number; hot: number; unit: RateUnit; units: number; from: UseNeed['rate_from']; source: string }): UseNeed {
+  const hotMonths = new Set(budget.hot_months ?? DEFAULT_HOT_MONTHS);
+  const season = new Set(use.months);
+  const monthly = Array.from({ length: 12 }, (_, j) => (season.has(j + 1) ? r.units * (hotMonths.has(j + 1) ? r.hot : r.rate) : 0));
+  let peak = 0;
+  let peakMonth = 0;
+  monthly.forEach((v, j) => { if (v > peak) { peak = v; peakMonth = j + 1; } });
+  return { id: use.id, name: use.name, rate: r.rate, hot_rate: r.hot, unit: r.unit, units: r.units, rate_from: r.from, source: r.source, monthly_m3_day: monthly, peak_m3_day: peak, peak_month: peakMonth };
 }
 
 function unitsOf(use: BudgetUse): number {

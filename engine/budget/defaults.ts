@@ -19,7 +19,7 @@ const INCH = INCH_M;
 const GAL_PER_FT2 = GAL / (FOOT_M * FOOT_M);
 
 /** What one unit of a use is counted in. */
-export type RateUnit = 'per-head' | 'per-tree' | 'per-person' | 'depth' | 'fixed';
+export type RateUnit = 'per-head' | 'per-tree' | 'per-person' | 'depth' | 'fixed' | 'per-row-metre';
 
 export interface DefaultRate {
   key: string;

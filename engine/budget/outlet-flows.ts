@@ -1,5 +1,6 @@
 import type { BudgetDocument, BudgetUse, UseKind } from './budget-document';
-import type { UseNeed } from './daily-need';
+import { dripFlow, DRIP_SOURCE, type UseNeed } from './daily-need';
+import { FIXTURE_METHOD_SOURCE, fixturePeak, fixtureUnits } from './fixtures';
 
 /**
  * Outlet design flows from the budget: each use's peak-month daily need is shared equally among
@@ -32,6 +33,8 @@ export interface OutletShare {
   flow_m3s: number;
   rule: string;
   source: string;
+  /** Pressure the use's fixtures ask at the outlet, m of water (household by fixtures). */
+  min_pressure_m?: number;
 }
 
 export interface OutletFlow {
@@ -62,6 +65,23 @@ export function windowRule(use: BudgetUse, waste: number): { rule: string; sourc
   return { rule: `the day's water drawn over ${w} h`, source: 'common practice' };
 }
 
+/** A use whose outlets draw a flow of their own: a drip block's rows, or a house's fixtures (./fixtures). */
+function peakFlowOf(use: BudgetUse): { flow_m3s: number; window_h: number; min_pressure_m?: number; rule: { rule: string; source: string } } | null {
+  if (use.drip && (use.kind === 'garden' || use.kind === 'tunnel')) {
+    const d = use.drip;
+    const how = d.tape_flow_m3s_per_m !== undefined ? 'drip tape flow per length' : 'emitter flow ÷ emitter spacing';
+    return { flow_m3s: dripFlow(d), window_h: d.hot_run_h ?? d.run_h, rule: { rule: `the drip block's flow: ${d.rows} rows × row length × ${how}`, source: DRIP_SOURCE } };
+  }
+  if (use.kind === 'household' && use.fixtures && fixtureUnits(use.fixtures) > 0) {
+    const p = fixturePeak(use.fixtures);
+    return {
+      flow_m3s: p.flow_m3s, window_h: windowOf(use), min_pressure_m: p.min_pressure_m,
+      rule: { rule: `the house's probable peak from ${p.fixture_units} fixture units (flush-tank demand table; ${p.min_pressure_for.toLowerCase()} asks the most pressure)`, source: FIXTURE_METHOD_SOURCE },
+    };
+  }
+  return null;
+}
+
 /** Design flow per linked outlet (see module doc); manual outlets are listed with from_budget false. */
 export function outletFlows(budget: BudgetDocument, uses: BudgetUse[], needs: UseNeed[]): OutletFlow[] {
   const waste = budget.waste_allowance ?? DEFAULT_WASTE_ALLOWANCE;
@@ -73,13 +93,15 @@ export function outletFlows(budget: BudgetDocument, uses: BudgetUse[], needs: Us
     const need = needs[j];
     const w = windowOf(use);
     const extra = use.kind === 'livestock' ? 1 + waste : 1;
-    const { rule, source } = windowRule(use, waste);
+    const peak = peakFlowOf(use);
+    const { rule, source } = peak?.rule ?? windowRule(use, waste);
     for (const id of linked) {
       const share = need.peak_m3_day / linked.length;
-      const flow = (share * extra) / (w * 3600);
+      // drip rows and house fixtures set a flow of their own; the rest deliver the day in the window
+      const flow = peak ? peak.flow_m3s / linked.length : (share * extra) / (w * 3600);
       let out = byOutlet.get(id);
       if (!out) { out = { id, design_flow_m3s: 0, daily_m3: 0, shares: [], from_budget: !manual.has(id) }; byOutlet.set(id, out); }
-      out.shares.push({ use: use.id, share_m3_day: share, window_h: w, flow_m3s: flow, rule, source });
+      out.shares.push({ use: use.id, share_m3_day: share, window_h: peak?.window_h ?? w, flow_m3s: flow, rule, source, ...(peak?.min_pressure_m ? { min_pressure_m: peak.min_pressure_m } : {}) });
       out.design_flow_m3s += flow;
       out.daily_m3 += share;
     }

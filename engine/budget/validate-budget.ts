@@ -1,5 +1,6 @@
 import type { UseKind } from './budget-document';
 import { DEFAULT_RATES } from './defaults';
+import { FIXTURE_BY_KEY, FIXTURES, fixtureUnits, MAX_FIXTURE_UNITS, type FixtureKey } from './fixtures';
 
 /**
  * Structural validation of an untrusted budget document. Returns one message per problem, each
@@ -86,9 +87,11 @@ function validateUse(out: string[], use: unknown, i: number, ids: Set<string>): 
     case 'livestock': case 'orchard': case 'household': {
       const v = use['count'];
       if (!isNum(v) || v < 0 || !Number.isInteger(v)) bad('count', `must be a whole number ≥ 0 (got ${show(v)})`);
+      if (kind === 'household' && use['fixtures'] !== undefined) validateFixtures(use['fixtures'], bad);
       break;
     }
     case 'garden': case 'tunnel':
+      if (use['drip'] !== undefined) { validateDrip(use['drip'], bad); break; }
       positive('area_m2', true);
       positive('depth_m_day', false);
       positive('hot_depth_m_day', false);
@@ -98,6 +101,31 @@ function validateUse(out: string[], use: unknown, i: number, ids: Set<string>): 
       if (!isNum(use['daily_m3'])) bad('daily_m3', `must be a number ≥ 0 (got ${show(use['daily_m3'])})`);
       break;
   }
+}
+
+function validateFixtures(v: unknown, bad: (field: string, message: string) => void): void {
+  if (!isObj(v)) { bad('fixtures', 'must be counts of fixtures by kind'); return; }
+  for (const [key, n] of Object.entries(v)) {
+    if (!FIXTURE_BY_KEY[key as FixtureKey]) bad(`fixtures.${key}`, `no such fixture (one of ${FIXTURES.map((f) => f.key).join(', ')})`);
+    else if (!isNum(n) || n < 0 || !Number.isInteger(n)) bad(`fixtures.${key}`, `must be a whole number ≥ 0 (got ${show(n)})`);
+  }
+  const units = fixtureUnits(v as Record<FixtureKey, number>);
+  if (units > MAX_FIXTURE_UNITS) bad('fixtures', `${units} fixture units is beyond this table (${MAX_FIXTURE_UNITS}); size a building this large with the plumbing code's full table`);
+}
+
+function validateDrip(v: unknown, bad: (field: string, message: string) => void): void {
+  if (!isObj(v)) { bad('drip', 'must describe the rows (rows, row_length_m, run_h and an emitter or tape flow)'); return; }
+  const rows = v['rows'];
+  if (!isNum(rows) || rows < 1 || !Number.isInteger(rows)) bad('drip.rows', `must be a whole number ≥ 1 (got ${show(rows)})`);
+  for (const f of ['row_length_m', 'run_h'] as const) if (!isNum(v[f]) || (v[f] as number) <= 0) bad(`drip.${f}`, `must be a number > 0 (got ${show(v[f])})`);
+  for (const f of ['run_h', 'hot_run_h'] as const) if (isNum(v[f]) && (v[f] as number) > 24) bad(`drip.${f}`, `must be hours in (0, 24] (got ${show(v[f])})`);
+  if (v['hot_run_h'] !== undefined && (!isNum(v['hot_run_h']) || v['hot_run_h'] <= 0)) bad('drip.hot_run_h', `must be a number > 0 (got ${show(v['hot_run_h'])})`);
+  const tape = v['tape_flow_m3s_per_m'];
+  const emitter = v['emitter_flow_m3s'] !== undefined || v['emitter_spacing_m'] !== undefined;
+  if (tape !== undefined && emitter) { bad('drip', 'give either emitters (spacing and flow) or tape flow per length, not both'); return; }
+  if (tape !== undefined) { if (!isNum(tape) || tape <= 0) bad('drip.tape_flow_m3s_per_m', `must be a number > 0 (got ${show(tape)})`); return; }
+  if (!emitter) { bad('drip', 'give the emitter spacing and flow, or the tape flow per length'); return; }
+  for (const f of ['emitter_spacing_m', 'emitter_flow_m3s'] as const) if (!isNum(v[f]) || (v[f] as number) <= 0) bad(`drip.${f}`, `must be a number > 0 (got ${show(v[f])})`);
 }
 
 function months(out: string[], field: string, v: unknown, optional: boolean): void {

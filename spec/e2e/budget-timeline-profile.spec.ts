@@ -87,6 +87,18 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     expect(await page.getByTestId('use-problems').textContent()).to.match(/count: must be a whole number ≥ 0 \(got -3\)/);
     await page.keyboard.press('Escape');
 
+    // the farmhouse by its fixtures: the house outlet's flow becomes the fixture-unit peak (not saved: discarded)
+    await page.getByTestId('use-row').filter({ hasText: 'Farmhouse' }).getByTestId('use-edit').click();
+    await page.getByTestId('fixture-toilet-tank').fill('1');
+    await page.getByTestId('fixture-shower').fill('1');
+    await page.getByTestId('fixture-lavatory').fill('1');
+    await shot(page, 'budget-fixtures-dialog-desktop');
+    await page.getByTestId('use-save').click();
+    await page.getByTestId('budget-outlets').getByText(/probable peak from 4\.3 fixture units/).waitFor();
+    expect(await page.getByTestId('use-row').filter({ hasText: 'Farmhouse' }).textContent()).to.match(/3 people, 3 fixtures/);
+    await page.getByTestId('budget-discard').click();
+    await page.getByTestId('budget-outlets').getByText(/probable peak/).waitFor({ state: 'detached' });
+
     await page.getByTestId('tab-timeline').click();
     await page.getByTestId('timeline-step').fill('0');
     expect(await page.getByTestId('timeline-step-error').textContent()).to.match(/step: give whole minutes from 1 to 60/);

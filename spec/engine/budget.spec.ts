@@ -1,6 +1,6 @@
 import { expect } from 'chai';
 import {
-  applyBudget, layoutDifferences, planBudget, BudgetInputError, DEFAULT_RATES, validateBudget, type BudgetDocument, type BudgetUse,
+  applyBudget, demandFromFixtureUnits, fixturePeak, layoutDifferences, planBudget, BudgetInputError, DEFAULT_RATES, validateBudget, type BudgetDocument, type BudgetUse,
 } from '../../engine/budget';
 import { hillSmallholding } from '../../engine/examples/hill-smallholding';
 import { hillSmallholdingBudget } from '../../engine/examples/hill-smallholding-budget';
@@ -186,5 +186,64 @@ describe('water budget: bad input names the row and field', () => {
   });
   it('planBudget throws BudgetInputError carrying every problem', () => {
     expect(() => planBudget({ ...base, peak_factor: 0.5 })).to.throw(BudgetInputError, 'peak_factor: must be a number ≥ 1 (got 0.5)');
+  });
+});
+
+describe('water budget: a house by its fixtures, a tunnel by its rows', () => {
+  const GPM = GAL / 60;
+  const PSI_M = 0.70307;
+  it('fixture units read off the flush-tank demand table (IPC Appendix E Tables E103.3(2) and E103.3(3), M) and the fixture flows (IPC 2018 Table 604.3, V2)', () => {
+    // one bathroom (tank toilet 2.2 + basin 0.7 + shower 1.4), kitchen sink 1.4, washer 1.4, hose bibb 2.5 = 9.6 fixture units (C)
+    const house = fixturePeak({ 'toilet-tank': 1, lavatory: 1, shower: 1, 'kitchen-sink': 1, 'clothes-washer': 1, 'hose-bibb': 1 });
+    expect(house.fixture_units).to.equal(9.6);
+    // table: 9 → 13.7 gpm, 10 → 14.6 gpm; 9.6 → 13.7 + 0.6 × 0.9 = 14.24 gpm (C)
+    expect(house.flow_m3s / GPM).to.be.closeTo(14.24, 1e-9);
+    // the tank toilet asks 20 psi (Table 604.3, V2)
+    expect(house.min_pressure_m / PSI_M).to.be.closeTo(20, 1e-9);
+    expect(demandFromFixtureUnits(20) / GPM).to.be.closeTo(19.6, 1e-9);
+    expect(demandFromFixtureUnits(101)).to.be.NaN;
+    // a single basin is under one fixture unit: it draws its own 0.8 gpm (Table 604.3, V2)
+    expect(fixturePeak({ lavatory: 1 }).flow_m3s / GPM).to.be.closeTo(0.8, 1e-12);
+    // a second hose bibb adds 1.0, not 2.5 (Table E103.3(2) note, M)
+    expect(fixturePeak({ 'hose-bibb': 2 }).fixture_units).to.equal(3.5);
+  });
+  it('a household by fixtures keeps its daily need per person and sets its outlet\'s flow to the peak', () => {
+    const use: BudgetUse = { id: 'h', name: 'House', kind: 'household', rate_key: 'household', count: 3, months: ALL, outlets: ['HOUSE'], window_h: 6,
+      fixtures: { 'toilet-tank': 1, lavatory: 1, shower: 1, 'kitchen-sink': 1, 'clothes-washer': 1, 'hose-bibb': 1 } };
+    const plan = planBudget(budget([use]));
+    // 3 people × 75 gal in July (defaults row, M) = 225 gal/day
+    expect(plan.uses[0].peak_m3_day / GAL).to.be.closeTo(225, 1e-9);
+    const out = plan.outlets[0];
+    expect(out.design_flow_m3s / GPM).to.be.closeTo(14.24, 1e-9);
+    expect(out.shares[0].rule).to.match(/9\.6 fixture units/);
+    expect(out.shares[0].min_pressure_m! / PSI_M).to.be.closeTo(20, 1e-9);
+    // without fixtures the same row delivers the day over its 6 h window
+    const perPerson = planBudget(budget([{ ...use, fixtures: undefined }])).outlets[0];
+    expect(perPerson.design_flow_m3s / GPM).to.be.closeTo(225 / 360, 1e-9);
+  });
+  it('a tunnel by rows: rows × length × emitter flow ÷ spacing, run hours a day (hand-worked, C; within Delaware State\'s 5–50 gal/day per 100 ft of row, V2)', () => {
+    const FT = 0.3048;
+    // 4 rows × 100 ft, emitters 1 gph every 12 in: 400 emitters = 400 gph = 6.667 gpm; 1 h a day (1.5 h in July) (C)
+    const drip = { rows: 4, row_length_m: 100 * FT, emitter_spacing_m: FT, emitter_flow_m3s: GAL / 3600, run_h: 1, hot_run_h: 1.5 };
+    const plan = planBudget(budget([{ id: 't', name: 'Tunnel', kind: 'tunnel', months: ALL, outlets: ['GH'], drip }]));
+    expect(plan.uses[0].monthly_m3_day[0] / GAL).to.be.closeTo(400, 1e-9);
+    expect(plan.uses[0].monthly_m3_day[6] / GAL).to.be.closeTo(600, 1e-9);
+    expect(plan.outlets[0].design_flow_m3s / GPM).to.be.closeTo(400 / 60, 1e-9);
+    // per 100 ft of row: 100 gal on a normal day, over Delaware's 5–50 range: this tunnel waters generously
+    expect(plan.uses[0].monthly_m3_day[0] / GAL / 4).to.be.greaterThan(50);
+    // drip tape at 0.45 gpm per 100 ft (a medium-flow tape, M), 1 h: 27 gal/day per 100 ft, inside 5–50 (V2)
+    const tape = { rows: 4, row_length_m: 100 * FT, tape_flow_m3s_per_m: (0.45 * GPM) / (100 * FT), run_h: 1 };
+    const taped = planBudget(budget([{ id: 't', name: 'Tunnel', kind: 'tunnel', months: ALL, outlets: ['GH'], drip: tape }]));
+    expect(taped.uses[0].monthly_m3_day[0] / GAL / 4).to.be.closeTo(27, 1e-9);
+    expect(taped.outlets[0].design_flow_m3s / GPM).to.be.closeTo(1.8, 1e-9);
+  });
+  it('bad fixtures and rows name the field', () => {
+    const house: BudgetUse = { id: 'h', name: 'House', kind: 'household', count: 2, months: ALL, outlets: [], fixtures: { shower: -1 } };
+    expect(validateBudget(budget([house]))).to.include('uses[0] "House".fixtures.shower: must be a whole number ≥ 0 (got -1)');
+    expect(validateBudget(budget([{ ...house, fixtures: { sauna: 1 } as never }]))[0]).to.match(/fixtures\.sauna: no such fixture/);
+    expect(validateBudget(budget([{ ...house, fixtures: { 'toilet-tank': 50 } }]))[0]).to.match(/110 fixture units is beyond this table \(100\)/);
+    const tunnel: BudgetUse = { id: 't', name: 'Tunnel', kind: 'tunnel', months: ALL, outlets: [], drip: { rows: 0, row_length_m: 30, run_h: 1, tape_flow_m3s_per_m: 1e-6 } };
+    expect(validateBudget(budget([tunnel]))).to.deep.equal(['uses[0] "Tunnel".drip.rows: must be a whole number ≥ 1 (got 0)']);
+    expect(validateBudget(budget([{ ...tunnel, drip: { rows: 2, row_length_m: 30, run_h: 1 } }]))).to.deep.equal(['uses[0] "Tunnel".drip: give the emitter spacing and flow, or the tape flow per length']);
   });
 });

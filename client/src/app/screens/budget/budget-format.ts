@@ -41,8 +41,13 @@ export function amountText(use: BudgetUse, units: UnitSystem): string {
   switch (use.kind) {
     case 'livestock': return `${use.count ?? 0} head`;
     case 'orchard': return `${use.count ?? 0} trees`;
-    case 'household': return `${use.count ?? 0} people`;
-    case 'garden': case 'tunnel': return formatQuantity('area', use.area_m2 ?? 0, units, 0);
+    case 'household': {
+      const n = Object.values(use.fixtures ?? {}).reduce((a, b) => a + (b ?? 0), 0);
+      return `${use.count ?? 0} people${n ? `, ${n} fixtures` : ''}`;
+    }
+    case 'garden': case 'tunnel':
+      if (use.drip) return `${use.drip.rows} rows × ${formatQuantity('length', use.drip.row_length_m, units)}`;
+      return formatQuantity('area', use.area_m2 ?? 0, units, 0);
     default: return 'fixed';
   }
 }
@@ -51,6 +56,10 @@ export function amountText(use: BudgetUse, units: UnitSystem): string {
 export function rateText(need: UseNeed, units: UnitSystem): string {
   if (need.unit === 'fixed') return `${formatQuantity('daily-volume', need.rate, units)}`;
   if (need.unit === 'depth') return `${formatQuantity('depth-rate', need.rate, units)} · hot ${formatQuantity('depth-rate', need.hot_rate, units)}`;
+  if (need.unit === 'per-row-metre') {
+    const per = units === 'us' ? 100 * 0.3048 : 1;
+    return `${formatQuantity('daily-volume', need.rate * per, units)} · hot ${formatQuantity('daily-volume', need.hot_rate * per, units)} per ${units === 'us' ? '100 ft' : 'm'} of row`;
+  }
   const per = need.unit === 'per-head' ? 'head' : need.unit === 'per-tree' ? 'tree' : 'person';
   const digits = units === 'us' ? 1 : 1;
   return `${formatQuantity('daily-volume', need.rate, units, digits)} · hot ${formatQuantity('daily-volume', need.hot_rate, units, digits)} per ${per}`;
