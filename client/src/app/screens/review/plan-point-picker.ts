@@ -19,7 +19,7 @@ interface Pin extends PlanPoint { id: string }
       <!-- eslint-disable-next-line @angular-eslint/template/click-events-have-key-events -->
       <svg [attr.viewBox]="v.box" preserveAspectRatio="xMidYMid meet" role="img" tabindex="0" data-testid="plan-point-picker"
            [attr.aria-label]="'Plan of the design: click or tap where the comment belongs' + (point() ? '; pinned at ' + point()!.x_m.toFixed(1) + ', ' + point()!.y_m.toFixed(1) + ' m' : '')"
-           (click)="place($event)">
+           (click)="place($event)" (keydown.enter)="placeCentre()">
         @for (l of v.lines; track l.id) { <polyline [attr.points]="l.points" [attr.stroke-width]="v.thin" /> }
         @for (n of v.nodes; track n.id) { <circle [attr.cx]="n.x" [attr.cy]="n.y" [attr.r]="v.thin * 2" class="rn-node" /> }
         @for (p of v.pins; track p.id) {
@@ -71,6 +71,14 @@ export class PlanPointPicker {
     const r = size * 0.32;
     const cy = y - size + r;
     return `M ${x} ${y} L ${x - r * 0.9} ${cy + r * 0.45} A ${r} ${r} 0 1 1 ${x + r * 0.9} ${cy + r * 0.45} Z`;
+  }
+
+  /** Keyboard: Enter pins the plan's centre; a click then moves it. */
+  protected placeCentre(): void {
+    const v = this.view();
+    if (!v) return;
+    const [x, y, w, h] = v.box.split(' ').map(Number);
+    this.picked.emit({ x_m: Math.round((x + w / 2) * 100) / 100, y_m: Math.round(-(y + h / 2) * 100) / 100 });
   }
 
   protected place(event: MouseEvent): void {
