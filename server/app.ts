@@ -25,7 +25,7 @@ import { createMailer } from './mail/mailer';
 import { startMailSink, type MailSink } from './mail/sink';
 import { budgetRoutes } from './routes/budget';
 import { profileRoutes } from './routes/profile';
-import { authRoutes, type SigninLimit } from './routes/auth';
+import { authRoutes, SESSION_COOKIE, type SigninLimit } from './routes/auth';
 import { optionRoutes } from './routes/options';
 import { priceRoutes } from './routes/prices';
 import { takeoffRoutes } from './routes/takeoff';
@@ -155,7 +155,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
     checkJsonText,
     cookieParser(),
     session({
-      name: 'runnel.sid',
+      name: SESSION_COOKIE,
       secret: config.sessionSecret,
       store,
       resave: false,

@@ -24,7 +24,5 @@ declare module 'express-session' {
   interface SessionData {
     /** Current team of the signed-in user. */
     teamId?: string;
-    /** Set when a CSRF token is issued so an anonymous session is persisted and its id stays stable. */
-    csrf?: true;
   }
 }

@@ -1,6 +1,10 @@
 /**
- * CSRF protection (double-submit cookie bound to the session id, csrf-csrf): every POST, PUT,
- * PATCH and DELETE under /api must send the token from GET /api/csrf in header x-csrf-token.
+ * CSRF protection (signed double-submit cookie, csrf-csrf): every POST, PUT, PATCH and DELETE
+ * under /api must send the token from GET /api/csrf in header x-csrf-token, equal to the
+ * `runnel.csrf` cookie and carrying an HMAC under the session secret. A signed-in caller's token is
+ * bound to the session id; a signed-out visitor's is bound to no session, so asking for a token
+ * stores nothing (no session row for every visitor). Signing in or out makes a new session, so
+ * the client fetches a new token.
  */
 import type { RequestHandler } from 'express';
 import { doubleCsrf } from 'csrf-csrf';
@@ -19,7 +23,8 @@ export interface Csrf {
 export function createCsrf(secret: string, secure: boolean): Csrf {
   const { generateCsrfToken, validateRequest } = doubleCsrf({
     getSecret: () => secret,
-    getSessionIdentifier: (req) => req.session.id,
+    // Signed out: '' (the session would not be saved, and its id changes every request).
+    getSessionIdentifier: (req) => (req.user ? req.session.id : ''),
     cookieName: 'runnel.csrf',
     cookieOptions: { sameSite: 'lax', secure, httpOnly: true, path: '/' },
     getCsrfTokenFromRequest: (req) => req.headers[CSRF_HEADER],
@@ -30,8 +35,6 @@ export function createCsrf(secret: string, secure: boolean): Csrf {
       next(new ApiError('csrf', `Missing or invalid CSRF token: fetch GET /api/csrf and send it in header ${CSRF_HEADER}`));
     },
     issue(req, res) {
-      // Marking the session makes express-session save it, so its id (which the token is bound to) persists.
-      req.session.csrf = true;
       res.json({ token: generateCsrfToken(req, res) });
     },
   };

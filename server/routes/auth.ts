@@ -28,6 +28,8 @@ const signinBody = z.object({
 });
 const currentTeamBody = z.object({ teamId: z.uuid('must be a team id') });
 
+export const SESSION_COOKIE = 'runnel.sid';
+
 export interface SigninLimit { max: number; windowMs: number }
 
 /** Signs `user` in (passport regenerates the session) and makes `teamId` current. */
@@ -92,7 +94,15 @@ export function authRoutes(api: ApiRoutes, ctx: AppContext, auth: passport.Authe
   });
 
   api.post('/auth/signout', 'public', (req, res, next) => {
-    req.logout((err) => (err ? next(err) : res.status(204).end()));
+    // logout() leaves a fresh, empty session that express-session would store; destroy it instead.
+    req.logout((err) => {
+      if (err) return next(err);
+      req.session.destroy((destroyErr) => {
+        if (destroyErr) return next(destroyErr);
+        res.clearCookie(SESSION_COOKIE, { path: '/' });
+        res.status(204).end();
+      });
+    });
   });
 
   api.get('/auth/me', 'signed-in', async (req, res) => {

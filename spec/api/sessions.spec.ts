@@ -1,0 +1,64 @@
+/**
+ * Sessions are stored only when they carry something (issue 13 item 8): a signed-out visitor's
+ * CSRF token is a signed double-submit that needs no session row; a signed-in request does not
+ * rewrite its session row; the token stays bound to the session once signed in.
+ */
+import { expect } from 'chai';
+import { count } from 'drizzle-orm';
+import supertest from 'supertest';
+import { sessions } from '../../drizzle/schema';
+import { DEMO_PASSWORD } from '../../server/seed';
+import { demoEmail, startTestApp, type TestApp } from './test-app';
+
+describe('API: sessions stored only when they carry something', () => {
+  let t: TestApp;
+  const rows = async () => (await t.db.select({ n: count() }).from(sessions))[0].n;
+  before(async () => { t = await startTestApp(); });
+  after(async () => { await t.close(); });
+
+  it('200 signed-out requests for a CSRF token store no session row, and a token still signs in', async () => {
+    const before = await rows();
+    for (let i = 0; i < 200; i++) {
+      const res = await supertest(t.app).get('/api/csrf').expect(200);
+      expect(res.body.token).to.be.a('string');
+      expect(String(res.headers['set-cookie'])).to.not.include('runnel.sid');
+    }
+    expect(await rows()).to.equal(before);
+    const a = await t.anonymous();
+    expect(await rows()).to.equal(before);
+    await a.post('/api/auth/signin', { email: demoEmail('designer'), password: DEMO_PASSWORD }).expect(200);
+    expect(await rows()).to.equal(before + 1);
+  });
+
+  it('a signed-out token is refused without its cookie, and once signed in (bound to the session then)', async () => {
+    const a = await t.anonymous();
+    // The header alone (no cookie: another browser) is not enough.
+    const bare = await supertest(t.app).post('/api/auth/signin').set('x-csrf-token', a.token)
+      .send({ email: demoEmail('designer'), password: DEMO_PASSWORD });
+    expect(bare.status).to.equal(403);
+    const signedOutToken = a.token;
+    await a.signIn(demoEmail('designer'), DEMO_PASSWORD);
+    const stale = await a.agent.post('/api/projects').set('x-csrf-token', signedOutToken).send({ name: 'x' });
+    expect(stale.status).to.equal(403);
+    expect(stale.body.error.code).to.equal('csrf');
+    await a.post('/api/projects', { name: 'Session spec project' }).expect(201);
+  });
+
+  it('signed-in requests do not rewrite the session row each time', async () => {
+    const a = await t.signInAs('reviewer');
+    const sid = decodeURIComponent(a.sessionCookie.split('=')[1]).slice(2).split('.')[0];
+    const expiry = async () => (await t.db.query.sessions.findFirst({ where: (s, { eq }) => eq(s.sid, sid) }))!.expires.getTime();
+    const first = await expiry();
+    for (let i = 0; i < 5; i++) await a.get('/api/auth/me').expect(200);
+    expect(await expiry()).to.equal(first);
+  });
+
+  it('signing out leaves no stored session behind for the visitor', async () => {
+    const a = await t.signInAs('estimator');
+    const signedIn = await rows();
+    await a.post('/api/auth/signout').expect(204);
+    await a.refreshCsrf();
+    await a.get('/api/auth/me').expect(401);
+    expect(await rows()).to.equal(signedIn - 1);
+  });
+});
