@@ -6,20 +6,26 @@
 import { parseDocument, SCHEMA_VERSION, solve, type DocumentProblem, type NetworkDocument, type SteadyOptions, type SteadyResult } from '../../engine';
 import { equalisationTime } from '../../engine/equalise';
 import { reviewChecklist, whatIfs } from '../../engine/review';
+import { versionChange } from '../network/version-change';
 import { simulate } from '../../engine/simulate';
 import { sizeNetwork } from '../../engine/sizing/size-network';
 import { takeoff } from '../../engine/takeoff';
 
-/** What a save needs: the schema check (migrating an older version) and the solve, in one trip. */
+/** What a save needs: the schema check (migrating an older version), the solve and the version history's line, in one trip. */
 export type CheckedSolve =
   | { ok: false; problems: DocumentProblem[] }
-  /** `migrated` is set only when the document was of an older version (else the caller's copy is current). */
-  | { ok: true; migrated?: NetworkDocument; results: SteadyResult };
+  /**
+   * `migrated` is set only when the document was of an older version (else the caller's copy is current);
+   * `change` is the one-line summary against the previous document, when it was given.
+   */
+  | { ok: true; migrated?: NetworkDocument; results: SteadyResult; change?: string };
 
-function checkAndSolve(raw: unknown, options?: SteadyOptions): CheckedSolve {
+/** `previousJson`: the document this save replaces as stored JSON text (a string crosses to the worker cheaply), null for a first save. */
+function checkAndSolve(raw: unknown, options?: SteadyOptions, previousJson?: string | null): CheckedSolve {
   const parsed = parseDocument(raw);
   if (!parsed.ok) return { ok: false, problems: parsed.problems };
-  return { ok: true, ...(parsed.from !== SCHEMA_VERSION ? { migrated: parsed.doc } : {}), results: solve(parsed.doc, options) };
+  const change = previousJson === undefined ? undefined : versionChange(previousJson === null ? null : (JSON.parse(previousJson) as NetworkDocument), parsed.doc);
+  return { ok: true, ...(parsed.from !== SCHEMA_VERSION ? { migrated: parsed.doc } : {}), results: solve(parsed.doc, options), ...(change === undefined ? {} : { change }) };
 }
 
 export const ENGINE_TASKS = { checkAndSolve, solve, simulate, equalisationTime, reviewChecklist, whatIfs, sizeNetwork, takeoff };

@@ -3,7 +3,7 @@
  * version it started from and succeeds only if that is still the stored one. The server solves the
  * document with the engine and stores the results beside it.
  */
-import { and, eq } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import { emptyDocument, migrateDocument, parseDocument, type NetworkDocument, type SteadyResult } from '../../engine';
 import { networks, users } from '../../drizzle/schema';
 import { audit } from '../audit';
@@ -59,7 +59,12 @@ export function saveSummary(saved: SaveResult): NetworkSaveSummary {
  * malformed, 409 with the stored network when `expectedVersion` is stale.
  */
 export async function saveNetwork(db: Db, request: SaveRequest): Promise<SaveResult> {
-  const checked = await checkAndSolve(request.document, request.solveTimeout_ms ?? SAVE_SOLVE_TIMEOUT_MS, request.log);
+  // The document this save replaces, as stored text, for the version history's one-line summary (worked
+  // out in the engine pool with the solve: a diff of two large networks is too slow for the request thread).
+  // Read before the transaction: if another save lands in between, this one's update fails as stale anyway.
+  const [previous] = request.expectedVersion === 0 ? [] : await db.select({ json: sql<string>`${networks.document}::text` }).from(networks)
+    .where(and(eq(networks.projectId, request.projectId), eq(networks.version, request.expectedVersion)));
+  const checked = await checkAndSolve(request.document, previous?.json ?? null, request.solveTimeout_ms ?? SAVE_SOLVE_TIMEOUT_MS, request.log);
   if (!checked.ok) {
     const fields = checked.problems.map((p) => ({ path: issuePath(['document', ...p.path]), ...(p.element ? { element: p.element } : {}), message: p.message }));
     throw new ApiError('validation', `The network document has ${fields.length} problem${fields.length === 1 ? '' : 's'}: ${fields[0].message}`, { fields });
@@ -68,9 +73,6 @@ export async function saveNetwork(db: Db, request: SaveRequest): Promise<SaveRes
   const results = checked.results;
   const now = new Date();
   const saved = await db.transaction(async (tx) => {
-    // The document this save replaces, for the version history's one-line summary.
-    const [previous] = request.expectedVersion === 0 ? [] : await tx.select({ document: networks.document }).from(networks)
-      .where(and(eq(networks.projectId, request.projectId), eq(networks.version, request.expectedVersion)));
     const written = request.expectedVersion === 0
       ? await tx.insert(networks).values({ projectId: request.projectId, version: 1, document, results, updatedAt: now, updatedBy: request.user.id })
         .onConflictDoNothing({ target: networks.projectId }).returning({ version: networks.version })
@@ -80,7 +82,7 @@ export async function saveNetwork(db: Db, request: SaveRequest): Promise<SaveRes
     if (written.length === 0) return null;
     await recordVersion(tx, {
       projectId: request.projectId, version: written[0].version, document, results, userId: request.user.id,
-      previous: (previous?.document as NetworkDocument | undefined) ?? null, restoredFrom: request.restoredFrom, at: now,
+      change: checked.change ?? (async () => (previous ? (JSON.parse(previous.json) as NetworkDocument) : null)), restoredFrom: request.restoredFrom, at: now,
     });
     await audit(tx, {
       teamId: request.teamId, user: request.user, action: 'network.save', target: request.projectId,
@@ -102,9 +104,10 @@ export async function saveNetwork(db: Db, request: SaveRequest): Promise<SaveRes
  * time limit the result says the solve was stopped; if the worker fails, the results are null
  * (logged). Either way the document is then checked here, so nothing invalid is stored.
  */
-async function checkAndSolve(raw: unknown, timeout_ms: number, log?: (line: string) => void): Promise<CheckedSolve | { ok: true; migrated: NetworkDocument; results: SteadyResult | null }> {
+async function checkAndSolve(raw: unknown, previousJson: string | null, timeout_ms: number, log?: (line: string) => void):
+  Promise<CheckedSolve | { ok: true; migrated: NetworkDocument; results: SteadyResult | null; change?: undefined }> {
   try {
-    return await runEngine('checkAndSolve', [raw], { timeout_ms });
+    return await runEngine('checkAndSolve', [raw, undefined, previousJson], { timeout_ms });
   } catch (err) {
     log?.(`save-time solve failed: ${err instanceof Error ? err.stack ?? err.message : String(err)}`);
     const parsed = parseDocument(raw);

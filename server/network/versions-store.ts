@@ -10,6 +10,7 @@ import { compareOutlets, diffVersions, summariseDiff, type OutletComparison, typ
 import { networkVersions, users } from '../../drizzle/schema';
 import type { DbOrTx } from '../db';
 import { ApiError } from '../errors';
+import { versionChange } from './version-change';
 
 export type VersionStatus = (typeof networkVersions.$inferSelect)['status'];
 
@@ -27,12 +28,16 @@ export interface VersionSummary {
 
 export interface StoredVersion extends VersionSummary { document: NetworkDocument; results: unknown }
 
-/** Records version `version` of a project; `previous` is the document it replaces (null for the first). */
+/**
+ * Records version `version` of a project. `change` is the one-line summary against the document it
+ * replaces, computed off the request thread (the engine pool, with the save's solve), or a reader
+ * of that document (null for the first version) when the pool could not.
+ */
 export async function recordVersion(tx: DbOrTx, v: {
   projectId: string; version: number; document: NetworkDocument; results: unknown; userId: string;
-  previous: NetworkDocument | null; restoredFrom?: number; at: Date;
+  change: string | (() => Promise<NetworkDocument | null>); restoredFrom?: number; at: Date;
 }): Promise<void> {
-  const change = v.previous ? summariseDiff(diffVersions(v.previous, v.document)) : `first version (${count(v.document.nodes.length, 'point', 'points')} joined by ${count(v.document.links.length, 'pipe, pump or valve', 'pipes, pumps and valves')})`;
+  const change = typeof v.change === 'string' ? v.change : versionChange(await v.change(), v.document);
   const summary = v.restoredFrom ? `restored version ${v.restoredFrom}: ${change}` : change;
   await tx.insert(networkVersions).values({
     projectId: v.projectId, version: v.version, document: v.document, results: v.results, summary,
@@ -40,8 +45,6 @@ export async function recordVersion(tx: DbOrTx, v: {
   });
 }
 
-/** "1 point", "28 points": the summary speaks of the plan, not of graph terms. */
-const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
 
 const creator = alias(users, 'creator');
 const decider = alias(users, 'decider');
