@@ -11,6 +11,7 @@ import {
   findRoutes, longestSupplyRoute, pressureText, profileRoute, RouteError, WORKING_SHARE, type ProfileFinding, type Route, type RouteProfile,
 } from '../../../../../engine/profile';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel, type Quantity } from '../../../../../engine/units';
+import { apiErrorMessage } from '../../core/api-errors';
 import { loadErrorText, valueOr } from '../../core/resource-state';
 import { BudgetService } from '../../core/budget.service';
 import { ProjectContext } from '../../core/project-context';
