@@ -16,7 +16,10 @@ export default tseslint.config(
       'no-sequences': 'error',
       eqeqeq: ['error', 'always', { null: 'ignore' }],
       // `_name` marks an argument or binding kept for its position or to drop it from a spread.
-      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', destructuredArrayIgnorePattern: '^_', caughtErrors: 'none' }],
+      '@typescript-eslint/no-unused-vars': [
+        'error',
+        { argsIgnorePattern: '^_', varsIgnorePattern: '^_', destructuredArrayIgnorePattern: '^_', caughtErrors: 'none' },
+      ],
     },
   },
   {

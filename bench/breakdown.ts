@@ -27,9 +27,21 @@ for (let rep = 0; rep < 6; rep++) {
   const state = steadyState(solver);
   iterations = time('Newton iterations', () => solver.solve(state)).iterations;
   time('results', () => collectResult(model, solver));
-  time('checks', () => steadyChecks(model, {
-    head: solver.head, flow: solver.flow, demand: solver.demand, requested: solver.requested, active: solver.active,
-    level: new Float64Array(model.nodeCount), closed: new Uint8Array(model.linkCount),
-  }));
+  time('checks', () =>
+    steadyChecks(model, {
+      head: solver.head,
+      flow: solver.flow,
+      demand: solver.demand,
+      requested: solver.requested,
+      active: solver.active,
+      level: new Float64Array(model.nodeCount),
+      closed: new Uint8Array(model.linkCount),
+    }),
+  );
 }
-console.log(Object.entries(best).map(([k, v]) => `${k} ${v.toFixed(1)} ms`).join(' | '), `| ${iterations} iterations`);
+console.log(
+  Object.entries(best)
+    .map(([k, v]) => `${k} ${v.toFixed(1)} ms`)
+    .join(' | '),
+  `| ${iterations} iterations`,
+);

@@ -54,8 +54,13 @@ export async function chart10k(): Promise<{ redraw_ms: number; hover_ms: number 
 
 export async function printChart10k(): Promise<void> {
   const r = await chart10k();
-  if (!r) { console.log('\nchart rendering: skipped (no Chromium)'); return; }
-  console.log(`\nchart rendering, uPlot, 4 series × 10,000 points, 1280 × 300 px, headless Chromium: full redraw median ${r.redraw_ms.toFixed(1)} ms, hover median ${r.hover_ms.toFixed(2)} ms (a 60 Hz frame is 16.7 ms)`);
+  if (!r) {
+    console.log('\nchart rendering: skipped (no Chromium)');
+    return;
+  }
+  console.log(
+    `\nchart rendering, uPlot, 4 series × 10,000 points, 1280 × 300 px, headless Chromium: full redraw median ${r.redraw_ms.toFixed(1)} ms, hover median ${r.hover_ms.toFixed(2)} ms (a 60 Hz frame is 16.7 ms)`,
+  );
 }
 
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) await printChart10k();

@@ -31,12 +31,25 @@ export function coldProcess(): string {
     execFileSync(process.execPath, ['--import', 'tsx', join(root, 'engine', 'cli.ts'), file], { cwd: root, maxBuffer: 1 << 28 });
     cli.push(performance.now() - t0);
     t0 = performance.now();
-    const out = execFileSync(process.execPath, ['--import', 'tsx', '-e', `import('${join(root, 'engine', 'steady.ts')}').then(async (m) => { const doc = JSON.parse(require('node:fs').readFileSync('${file}', 'utf8')); const t = performance.now(); m.solve(doc); console.log(performance.now() - t); })`], { cwd: root });
+    const out = execFileSync(
+      process.execPath,
+      [
+        '--import',
+        'tsx',
+        '-e',
+        `import('${join(root, 'engine', 'steady.ts')}').then(async (m) => { const doc = JSON.parse(require('node:fs').readFileSync('${file}', 'utf8')); const t = performance.now(); m.solve(doc); console.log(performance.now() - t); })`,
+      ],
+      { cwd: root },
+    );
     first.push(Number(String(out).trim()));
   }
   solve(doc);
   const warm: number[] = [];
-  for (let r = 0; r < 9; r++) { const t0 = performance.now(); solve(doc); warm.push(performance.now() - t0); }
+  for (let r = 0; r < 9; r++) {
+    const t0 = performance.now();
+    solve(doc);
+    warm.push(performance.now() - t0);
+  }
   const w = median(warm);
   return [
     'cold process against warm solve(), 10,000-tee grid (40×250)',

@@ -9,7 +9,9 @@ export const demoSteady: BenchCase = {
   warmup: 300,
   repeats: 2000,
   target_ms: 0.5,
-  check: (out) => { if (!(out as SteadyResult).converged) throw new Error('demo did not converge'); },
+  check: (out) => {
+    if (!(out as SteadyResult).converged) throw new Error('demo did not converge');
+  },
   run: () => solve(hillSmallholding),
 };
 

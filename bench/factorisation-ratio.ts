@@ -47,15 +47,27 @@ export function factorisationRatio(rounds = 9): string {
   const warmHead = Float64Array.from(warmSolver.head);
   const warmFlow = Float64Array.from(warmSolver.flow);
   const cases: Record<string, () => number> = {
-    'factor + solve (one)': () => { inner.ldl.values.set(saved); inner.chol.factor(); inner.chol.solve(rhs, x); return 0; },
+    'factor + solve (one)': () => {
+      inner.ldl.values.set(saved);
+      inner.chol.factor();
+      inner.chol.solve(rhs, x);
+      return 0;
+    },
     'Newton, cold start': () => solver.solve(steadyState(solver)).iterations,
-    'Newton, warm start': () => { const s = steadyState(solver); solver.setStart(warmHead, warmFlow, s); return solver.solve(s, { warmStart: true }).iterations; },
+    'Newton, warm start': () => {
+      const s = steadyState(solver);
+      solver.setStart(warmHead, warmFlow, s);
+      return solver.solve(s, { warmStart: true }).iterations;
+    },
     'solve(), cold start': () => solve(doc).iterations,
     'solve(), warm start': () => solve(doc, { start: previous }).iterations,
   };
   const names = Object.keys(cases);
   const matrixFile = join(mkdtempSync(join(tmpdir(), 'runnel-bench-')), 'newton-matrix.json');
-  writeFileSync(matrixFile, JSON.stringify({ n: inner.ldl.n, colPtr: Array.from(inner.ldl.colPtr), rowIdx: Array.from(inner.ldl.rowIdx), values: Array.from(saved) }));
+  writeFileSync(
+    matrixFile,
+    JSON.stringify({ n: inner.ldl.n, colPtr: Array.from(inner.ldl.colPtr), rowIdx: Array.from(inner.ldl.rowIdx), values: Array.from(saved) }),
+  );
   const superlu = (): number => {
     // three factor + solve in one child, the median in ms (NaN without python3 and SciPy)
     const script = `import json, time, numpy as np, scipy.sparse as sp, scipy.sparse.linalg as sla
@@ -73,11 +85,18 @@ print(sorted(ts)[1] * 1000)`;
   const iterations: Record<string, number> = {};
   for (const n of names) iterations[n] = cases[n](); // warm-up
   for (let r = 0; r < rounds; r++) {
-    for (const n of names) { const t0 = performance.now(); cases[n](); times[n].push(performance.now() - t0); }
+    for (const n of names) {
+      const t0 = performance.now();
+      cases[n]();
+      times[n].push(performance.now() - t0);
+    }
     scipy.push(superlu());
   }
   const withScipy = scipy.every(Number.isFinite);
-  const median = (v: number[]): number => { const s = [...v].sort((a, b) => a - b); return s.length % 2 ? s[s.length >> 1] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2; };
+  const median = (v: number[]): number => {
+    const s = [...v].sort((a, b) => a - b);
+    return s.length % 2 ? s[s.length >> 1] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+  };
   const base = times[names[0]];
   const lines = [
     `10,000-tee grid (40×250) against one factorisation, ${rounds} interleaved rounds`,
@@ -89,7 +108,10 @@ print(sorted(ts)[1] * 1000)`;
     const toScipy = withScipy ? ` | ${median(times[n].map((t, i) => t / scipy[i])).toFixed(2)}` : '';
     lines.push(`${n} | ${median(times[n]).toFixed(1)} | ${n.startsWith('factor') ? '–' : iterations[n]} | ${ratio.toFixed(1)}${toScipy}`);
   }
-  if (withScipy) lines.push(`SciPy splu factor + solve (child process, same rounds) | ${median(scipy).toFixed(1)} | – | ${median(scipy.map((t, i) => t / base[i])).toFixed(1)} | 1.00`);
+  if (withScipy)
+    lines.push(
+      `SciPy splu factor + solve (child process, same rounds) | ${median(scipy).toFixed(1)} | – | ${median(scipy.map((t, i) => t / base[i])).toFixed(1)} | 1.00`,
+    );
   else lines.push('(python3 with SciPy not found: no SciPy column)');
   return lines.join('\n');
 }

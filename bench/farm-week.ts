@@ -9,7 +9,9 @@ export const farmWeek: BenchCase = {
   warmup: 1,
   repeats: 5,
   target_ms: 1000,
-  check: (out) => { if ((out as TimeSeriesResult).times_s.length !== 7 * 1440 + 1) throw new Error('wrong number of steps'); },
+  check: (out) => {
+    if ((out as TimeSeriesResult).times_s.length !== 7 * 1440 + 1) throw new Error('wrong number of steps');
+  },
   run: () => simulate(hillSmallholding, { duration_s: 7 * 86400, step_s: 60 }),
 };
 

@@ -27,8 +27,13 @@ export function gridCase(nx: number, ny: number, target_ms?: number, cold = fals
     const outcome = solver.solve(steadyState(solver));
     const { nodes, links } = collectResult(model, solver);
     const warnings = steadyChecks(model, {
-      head: solver.head, flow: solver.flow, demand: solver.demand, requested: solver.requested, active: solver.active,
-      level: new Float64Array(model.nodeCount), closed: new Uint8Array(model.linkCount),
+      head: solver.head,
+      flow: solver.flow,
+      demand: solver.demand,
+      requested: solver.requested,
+      active: solver.active,
+      level: new Float64Array(model.nodeCount),
+      closed: new Uint8Array(model.linkCount),
     });
     return { converged: outcome.converged, iterations: outcome.iterations, nodes, links, warnings };
   };
@@ -38,7 +43,12 @@ export function gridCase(nx: number, ny: number, target_ms?: number, cold = fals
     warmup: n > 5000 ? 2 : 3,
     repeats: n > 5000 ? 9 : 15,
     target_ms,
-    check: (out) => { if (!(out as SteadyResult).converged) throw new Error(`grid ${nx}×${ny} did not converge`); },
-    run: () => { if (cold) clearStructureCache(); return door ? solve(doc) : solveInside(); },
+    check: (out) => {
+      if (!(out as SteadyResult).converged) throw new Error(`grid ${nx}×${ny} did not converge`);
+    },
+    run: () => {
+      if (cold) clearStructureCache();
+      return door ? solve(doc) : solveInside();
+    },
   };
 }

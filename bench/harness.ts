@@ -16,7 +16,13 @@ export interface BenchCase {
   run: () => unknown;
 }
 
-export interface BenchResult { name: string; detail: string; median_ms: number; min_ms: number; target_ms?: number }
+export interface BenchResult {
+  name: string;
+  detail: string;
+  median_ms: number;
+  min_ms: number;
+  target_ms?: number;
+}
 
 /** Time one case. @example const r = measure(demoSteady); */
 export function measure(c: BenchCase): BenchResult {
@@ -42,7 +48,10 @@ export function measure(c: BenchCase): BenchResult {
  * @example pairedRatio(grid10k, grid20k, 9) // ≈ 2 when time grows linearly
  */
 export function pairedRatio(a: BenchCase, b: BenchCase, pairs: number): number {
-  for (let i = 0; i < Math.min(a.warmup, b.warmup); i++) { a.run(); b.run(); }
+  for (let i = 0; i < Math.min(a.warmup, b.warmup); i++) {
+    a.run();
+    b.run();
+  }
   const ratios: number[] = [];
   for (let i = 0; i < pairs; i++) {
     const t0 = performance.now();

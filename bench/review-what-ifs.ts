@@ -13,7 +13,9 @@ export const reviewWhatIfs: BenchCase = {
   warmup: 5,
   repeats: 40,
   target_ms: 200,
-  check: (out) => { if ((out as WhatIfTable).results.length < 30) throw new Error('what-ifs: too few scenarios'); },
+  check: (out) => {
+    if ((out as WhatIfTable).results.length < 30) throw new Error('what-ifs: too few scenarios');
+  },
   run: () => whatIfs(hillSmallholding),
 };
 

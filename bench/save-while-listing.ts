@@ -81,7 +81,11 @@ async function main(): Promise<void> {
   });
   try {
     for (let i = 0; ; i++) {
-      try { if ((await fetch(`${base}/api/csrf`)).ok) break; } catch { /* not up yet */ }
+      try {
+        if ((await fetch(`${base}/api/csrf`)).ok) break;
+      } catch {
+        /* not up yet */
+      }
       if (i > 400) throw new Error('server did not start');
       await new Promise((r) => setTimeout(r, 250));
     }
@@ -131,11 +135,23 @@ async function main(): Promise<void> {
 
     const f = (x: number): string => `${x.toFixed(1)} ms`;
     console.log(`list projects, no save running: median ${f(pct(quiet, 0.5))}, p95 ${f(pct(quiet, 0.95))} (${quiet.length} lists)`);
-    console.log(`list projects during saves:     median ${f(pct(during, 0.5))}, p95 ${f(pct(during, 0.95))}, max ${f(pct(during, 1))} (${during.length} lists) — target median < 50 ms`);
-    console.log(`save (PUT network, 10,000 tees): median ${f(pct(saves.map((s) => s.ms), 0.5))} over ${saves.length} saves; answer ${saves[0].bytes} bytes`);
+    console.log(
+      `list projects during saves:     median ${f(pct(during, 0.5))}, p95 ${f(pct(during, 0.95))}, max ${f(pct(during, 1))} (${during.length} lists) — target median < 50 ms`,
+    );
+    console.log(
+      `save (PUT network, 10,000 tees): median ${f(
+        pct(
+          saves.map((s) => s.ms),
+          0.5,
+        ),
+      )} over ${saves.length} saves; answer ${saves[0].bytes} bytes`,
+    );
   } finally {
     child.kill('SIGTERM');
-    await new Promise((r) => { child.once('exit', r); setTimeout(r, 5000).unref(); });
+    await new Promise((r) => {
+      child.once('exit', r);
+      setTimeout(r, 5000).unref();
+    });
     rmSync(dir, { recursive: true, force: true });
   }
 }

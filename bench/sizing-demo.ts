@@ -13,7 +13,10 @@ export const sizingDemo: BenchCase = {
   warmup: 3,
   repeats: 15,
   target_ms: 1000,
-  check: (out) => { const r = out as SizingResult; if (!r.feasible || r.cost >= r.largestCost) throw new Error('demo sizing failed'); },
+  check: (out) => {
+    const r = out as SizingResult;
+    if (!r.feasible || r.cost >= r.largestCost) throw new Error('demo sizing failed');
+  },
   run: () => sizeNetwork(hillSmallholding, candidates, {}),
 };
 

@@ -12,7 +12,10 @@ export const sizingTwoLoop: BenchCase = {
   warmup: 1,
   repeats: 5,
   target_ms: 5000,
-  check: (out) => { const r = out as SizingResult; if (!r.feasible || r.cost > 419000) throw new Error(`two-loop sizing found ${r.cost}`); },
+  check: (out) => {
+    const r = out as SizingResult;
+    if (!r.feasible || r.cost > 419000) throw new Error(`two-loop sizing found ${r.cost}`);
+  },
   run: () => sizeNetwork(twoLoop(), candidates, { minPressure_m: 30, omega: 10.667, velocityLimit_ms: 1e9 }),
 };
 

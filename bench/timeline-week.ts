@@ -18,7 +18,9 @@ export const timelineWeek: BenchCase = {
   warmup: 1,
   repeats: 5,
   target_ms: 100,
-  check: (out) => { if ((out as { times: number }).times !== 7 * 1440 + 1) throw new Error('wrong number of steps'); },
+  check: (out) => {
+    if ((out as { times: number }).times !== 7 * 1440 + 1) throw new Error('wrong number of steps');
+  },
   run: () => {
     const sim = simulate(doc, { duration_s: 7 * 86400, step_s: 60 });
     const series = timelineSeries(doc, sim);

@@ -44,7 +44,7 @@ export const BOUNDS = {
   emitter_k: { min: 0, above: true, max: 10, unit: 'm³/s per m^x', why: 'emitter coefficient' },
   emitter_exponent: { min: 0, above: true, max: 3, unit: '', why: 'emitter exponent (0.5 for an orifice, 0–1 for drippers)' },
   pixels: { min: 0, above: true, max: 1e6, unit: 'px', why: 'a backdrop image size' },
-  refill_m3: { min: 0, above: true, max: 1000, unit: 'm³', why: 'the water a trough\'s float valve lets in to refill it (editor wording)' },
+  refill_m3: { min: 0, above: true, max: 1000, unit: 'm³', why: "the water a trough's float valve lets in to refill it (editor wording)" },
   emitters: { min: 1, max: 1e6, unit: '', why: 'the emitters of a drip zone (editor wording)' },
   tape_rows: { min: 1, max: 10000, unit: '', why: 'the rows of drip tape in a zone (editor wording)' },
   emitter_spacing_m: { min: 0, above: true, max: 10, unit: 'm', why: 'the spacing of emitters along drip tape (editor wording)' },

@@ -1,4 +1,12 @@
-import { LINK_PIPE as LINK_PIPE_, LINK_PRV as LINK_PRV_, LINK_PUMP_CURVE as LINK_PUMP_CURVE_, LINK_PUMP_FLOW as LINK_PUMP_FLOW_, NODE_JUNCTION as NODE_JUNCTION_, NODE_TANK as NODE_TANK_, type NetworkModel } from './network-model';
+import {
+  LINK_PIPE as LINK_PIPE_,
+  LINK_PRV as LINK_PRV_,
+  LINK_PUMP_CURVE as LINK_PUMP_CURVE_,
+  LINK_PUMP_FLOW as LINK_PUMP_FLOW_,
+  NODE_JUNCTION as NODE_JUNCTION_,
+  NODE_TANK as NODE_TANK_,
+  type NetworkModel,
+} from './network-model';
 import type { PipeLink } from './network-document';
 import type { Warning } from './warnings';
 
@@ -57,7 +65,12 @@ export function steadyChecks(model: NetworkModel, s: SteadySolution, options: Ch
     const id = model.nodeIds[i];
     if (model.nodeKind[i] === NODE_TANK) {
       const node = doc.nodes[i];
-      if (node.kind === 'tank' && node.level_m <= node.min_level_m) out.push({ code: 'tank-empty', element: id, message: `${id}: tank level ${fmt(node.level_m)} m is at or below its minimum ${fmt(node.min_level_m)} m` });
+      if (node.kind === 'tank' && node.level_m <= node.min_level_m)
+        out.push({
+          code: 'tank-empty',
+          element: id,
+          message: `${id}: tank level ${fmt(node.level_m)} m is at or below its minimum ${fmt(node.min_level_m)} m`,
+        });
       continue;
     }
     if (model.nodeKind[i] !== NODE_JUNCTION) continue;
@@ -65,9 +78,11 @@ export function steadyChecks(model: NetworkModel, s: SteadySolution, options: Ch
     if (!s.active[i]) out.push({ code: 'disconnected', element: id, message: `${id}: no open path to a source or tank` });
     else if (pressure < 0) out.push({ code: 'negative-pressure', element: id, message: `${id}: pressure ${fmt(pressure)} m is below zero` });
     const min = model.minPressure[i];
-    if (!Number.isNaN(min) && pressure < min) out.push({ code: 'below-minimum', element: id, message: `${id}: pressure ${fmt(pressure)} m is below the outlet's minimum ${fmt(min)} m` });
+    if (!Number.isNaN(min) && pressure < min)
+      out.push({ code: 'below-minimum', element: id, message: `${id}: pressure ${fmt(pressure)} m is below the outlet's minimum ${fmt(min)} m` });
     const req = s.requested[i];
-    if (req > 0 && s.demand[i] < 0.99 * req) out.push({ code: 'unmet-demand', element: id, message: `${id}: delivers ${fmtFlow(s.demand[i])} of ${fmtFlow(req)} requested` });
+    if (req > 0 && s.demand[i] < 0.99 * req)
+      out.push({ code: 'unmet-demand', element: id, message: `${id}: delivers ${fmtFlow(s.demand[i])} of ${fmtFlow(req)} requested` });
   }
   const staticHead = staticHeads(model, s);
   for (let k = 0; k < model.linkCount; k++) {
@@ -90,15 +105,24 @@ export function steadyChecks(model: NetworkModel, s: SteadySolution, options: Ch
         for (const [dist, ground] of link.profile) {
           const hgl = s.head[f] + (s.head[t] - s.head[f]) * Math.min(Math.max(dist / span, 0), 1);
           const deficit = ground - cover - hgl;
-          if (deficit > worst) { worst = deficit; worstAt = dist; }
+          if (deficit > worst) {
+            worst = deficit;
+            worstAt = dist;
+          }
         }
-        if (worst > 1e-9) out.push({ code: 'negative-pressure', element: id, message: `${id}: HGL is ${fmt(worst)} m below the pipe at ${fmt(worstAt)} m from ${link.from}; air-lock / siphon risk at this high point` });
+        if (worst > 1e-9)
+          out.push({
+            code: 'negative-pressure',
+            element: id,
+            message: `${id}: HGL is ${fmt(worst)} m below the pipe at ${fmt(worstAt)} m from ${link.from}; air-lock / siphon risk at this high point`,
+          });
       }
     }
     if (link.rating_m !== undefined) {
       const hs = Math.max(staticHead[f], staticHead[t]);
       const ps = hs - lowest;
-      if (Number.isFinite(hs) && ps > link.rating_m) out.push({ code: 'over-rating', element: id, message: `${id}: static pressure ${fmt(ps)} m is above the pipe rating ${fmt(link.rating_m)} m` });
+      if (Number.isFinite(hs) && ps > link.rating_m)
+        out.push({ code: 'over-rating', element: id, message: `${id}: static pressure ${fmt(ps)} m is above the pipe rating ${fmt(link.rating_m)} m` });
     }
   }
   return out;
@@ -113,7 +137,13 @@ export function steadyChecks(model: NetworkModel, s: SteadySolution, options: Ch
 export function staticHeads(model: NetworkModel, s: Pick<SteadySolution, 'closed'>): Float64Array {
   const n = model.nodeCount;
   const parent = Int32Array.from({ length: n }, (_, i) => i);
-  const find = (i: number): number => { while (parent[i] !== i) { parent[i] = parent[parent[i]]; i = parent[i]; } return i; };
+  const find = (i: number): number => {
+    while (parent[i] !== i) {
+      parent[i] = parent[parent[i]];
+      i = parent[i];
+    }
+    return i;
+  };
   for (let k = 0; k < model.linkCount; k++) {
     const kind = model.linkKind[k];
     if (kind === LINK_PUMP_FLOW || kind === LINK_PUMP_CURVE || kind === LINK_PRV || s.closed[k]) continue;
@@ -122,12 +152,16 @@ export function staticHeads(model: NetworkModel, s: Pick<SteadySolution, 'closed
     if (a !== b) parent[a] = b;
   }
   const best = new Float64Array(n).fill(-Infinity);
-  const offer = (i: number, h: number): void => { const r = find(i); if (h > best[r]) best[r] = h; };
+  const offer = (i: number, h: number): void => {
+    const r = find(i);
+    if (h > best[r]) best[r] = h;
+  };
   model.doc.nodes.forEach((node, i) => {
     if (node.kind === 'source') offer(i, node.head_m);
     else if (node.kind === 'tank') offer(i, node.elevation_m + node.max_level_m);
   });
-  for (let k = 0; k < model.linkCount; k++) if (model.linkKind[k] === LINK_PRV && !s.closed[k]) offer(model.to[k], model.elevation[model.to[k]] + model.prvSetting[k]);
+  for (let k = 0; k < model.linkCount; k++)
+    if (model.linkKind[k] === LINK_PRV && !s.closed[k]) offer(model.to[k], model.elevation[model.to[k]] + model.prvSetting[k]);
   const out = new Float64Array(n);
   for (let i = 0; i < n; i++) out[i] = best[find(i)];
   return out;

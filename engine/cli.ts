@@ -31,9 +31,17 @@ function main(argv: string[]): void {
     return v;
   };
   let text: string;
-  try { text = readFileSync(file, 'utf8'); } catch (error) { fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`); }
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (error) {
+    fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
+  }
   let doc: unknown;
-  try { doc = JSON.parse(text); } catch (error) { fail(`${file}: not valid JSON (${(error as Error).message})`); }
+  try {
+    doc = JSON.parse(text);
+  } catch (error) {
+    fail(`${file}: not valid JSON (${(error as Error).message})`);
+  }
   let out: unknown;
   const simulating = args.includes('--simulate');
   const equalising = args.includes('--equalise');

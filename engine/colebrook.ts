@@ -22,7 +22,10 @@ export function colebrookFactor(reynolds: number, relativeRoughness: number): nu
     const fx = x + 2 * Math.log10(s);
     const dfx = 1 + (2 * b) / (Math.LN10 * s);
     const next = x - fx / dfx;
-    if (Math.abs(next - x) <= 1e-14 * Math.abs(x)) { x = next; break; }
+    if (Math.abs(next - x) <= 1e-14 * Math.abs(x)) {
+      x = next;
+      break;
+    }
     x = next;
   }
   return 1 / (x * x);

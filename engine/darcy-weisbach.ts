@@ -69,15 +69,20 @@ export function darcyFactor(reynolds: number, relativeRoughness: number): number
  * @param viscosity_m2s kinematic viscosity, default 1.004e-6 (water, 20 °C)
  * @example darcyWeisbachHeadloss(0.001, 100, 0.0266, 0.0015)
  */
-export function darcyWeisbachHeadloss(flow_m3s: number, length_m: number, diameter_m: number, roughness_mm: number,
-  viscosity_m2s: number = WATER_KINEMATIC_VISCOSITY_M2S): number {
+export function darcyWeisbachHeadloss(
+  flow_m3s: number,
+  length_m: number,
+  diameter_m: number,
+  roughness_mm: number,
+  viscosity_m2s: number = WATER_KINEMATIC_VISCOSITY_M2S,
+): number {
   const area = (Math.PI * diameter_m * diameter_m) / 4;
   const v = Math.abs(flow_m3s) / area;
   const re = (v * diameter_m) / viscosity_m2s;
   if (re < LAMINAR_REYNOLDS) {
     // 64/Re · L/D · v²/2g = 32 ν L v / (g D²): linear in v, finite at zero flow
-    return Math.sign(flow_m3s) * (32 * viscosity_m2s * length_m * v) / (GRAVITY_MS2 * diameter_m * diameter_m);
+    return (Math.sign(flow_m3s) * (32 * viscosity_m2s * length_m * v)) / (GRAVITY_MS2 * diameter_m * diameter_m);
   }
   const f = darcyFactor(re, roughness_mm / 1000 / diameter_m);
-  return Math.sign(flow_m3s) * f * (length_m / diameter_m) * (v * v) / (2 * GRAVITY_MS2);
+  return (Math.sign(flow_m3s) * f * (length_m / diameter_m) * (v * v)) / (2 * GRAVITY_MS2);
 }

@@ -24,17 +24,23 @@ function quantity(name: BoundName) {
   let n = z.number({ error: 'must be a number' });
   if (bound.min >= 0 && (bound.above || bound.min > 0)) n = n.gt(0, { error: 'must be a positive number', abort: true });
   if (bound.min === 0 && !bound.above) n = n.gte(0, { error: 'must be a number ≥ 0', abort: true });
-  if (bound.min !== 0) n = bound.above ? n.gt(bound.min, { error: `must be above ${bound.min}${unit}`, abort: true }) : n.gte(bound.min, { error: `must be at least ${bound.min}${unit}`, abort: true });
+  if (bound.min !== 0)
+    n = bound.above
+      ? n.gt(bound.min, { error: `must be above ${bound.min}${unit}`, abort: true })
+      : n.gte(bound.min, { error: `must be at least ${bound.min}${unit}`, abort: true });
   return n.lte(bound.max, `must be at most ${bound.max}${unit}`);
 }
 
-const id = z.string({ error: 'must be a non-empty string' }).max(MAX_ID_LENGTH, `must be at most ${MAX_ID_LENGTH} characters`)
+const id = z
+  .string({ error: 'must be a non-empty string' })
+  .max(MAX_ID_LENGTH, `must be at most ${MAX_ID_LENGTH} characters`)
   .refine((s) => s.trim() !== '', 'must be a non-empty string');
 const name = z.string({ error: 'must be text' }).max(MAX_NAME_LENGTH, `must be at most ${MAX_NAME_LENGTH} characters`);
 const notes = z.string({ error: 'must be text' }).max(MAX_NOTES_LENGTH, `must be at most ${MAX_NOTES_LENGTH} characters`);
 const flag = z.boolean({ error: 'must be true or false' });
 const point = z.tuple([quantity('coordinate_m'), quantity('coordinate_m')], { error: 'must be an [x_m, y_m] pair' });
-const hourly = (bound: BoundName, what: string) => z.array(quantity(bound), { error: `must be a list of 24 ${what}` }).length(24, `must be a list of 24 ${what} (one per hour)`);
+const hourly = (bound: BoundName, what: string) =>
+  z.array(quantity(bound), { error: `must be a list of 24 ${what}` }).length(24, `must be a list of 24 ${what} (one per hour)`);
 
 export const ELEVATION_SOURCES = ['unset', 'survey', 'nearest'] as const;
 
@@ -98,11 +104,15 @@ export const OUTLET_TYPES = ['hose-bib', 'trough', 'drip-zone', 'sprinkler', 'ho
  *   zero_pressure_m (default 0; Wagner et al. 1988 style pressure-driven demand).
  * - emitter: q = k · p^exponent (p in metres of water, q in m³/s).
  */
-const demandModel = z.discriminatedUnion('type', [
-  z.object({ type: z.literal('fixed') }),
-  z.object({ type: z.literal('pressure-dependent'), required_pressure_m: quantity('pressure_m'), zero_pressure_m: quantity('pressure_m').optional() }),
-  z.object({ type: z.literal('emitter'), k: quantity('emitter_k'), exponent: quantity('emitter_exponent') }),
-], { error: (issue) => (issue.code === 'invalid_union' ? 'must be "fixed", "pressure-dependent" or "emitter"' : 'must be an object with a type') });
+const demandModel = z.discriminatedUnion(
+  'type',
+  [
+    z.object({ type: z.literal('fixed') }),
+    z.object({ type: z.literal('pressure-dependent'), required_pressure_m: quantity('pressure_m'), zero_pressure_m: quantity('pressure_m').optional() }),
+    z.object({ type: z.literal('emitter'), k: quantity('emitter_k'), exponent: quantity('emitter_exponent') }),
+  ],
+  { error: (issue) => (issue.code === 'invalid_union' ? 'must be "fixed", "pressure-dependent" or "emitter"' : 'must be an object with a type') },
+);
 
 const outletNode = z.object({
   ...nodeBase,
@@ -123,9 +133,16 @@ const outletNode = z.object({
   /** Editor wording: a drip zone's emitter count (its design flow is this times each emitter's flow). */
   emitters: quantity('emitters').optional(),
   /** Editor wording: a drip zone laid as tape, rows × row length at an emitter spacing (engine/drip-tape); sets `emitters` and demand_m3s. */
-  drip_tape: z.object({
-    rows: quantity('tape_rows'), row_length_m: quantity('distance_m'), spacing_m: quantity('emitter_spacing_m'),
-  }, { error: 'must be an object { rows, row_length_m, spacing_m }' }).optional(),
+  drip_tape: z
+    .object(
+      {
+        rows: quantity('tape_rows'),
+        row_length_m: quantity('distance_m'),
+        spacing_m: quantity('emitter_spacing_m'),
+      },
+      { error: 'must be an object { rows, row_length_m, spacing_m }' },
+    )
+    .optional(),
 });
 
 const node = z.discriminatedUnion('kind', [sourceNode, tankNode, teeNode, outletNode], {
@@ -162,8 +179,10 @@ const pipeLink = z.object({
   /** Pressure rating, m of water; drives the over-rating check. */
   rating_m: quantity('rating_m').optional(),
   /** Ground profile along the pipe [[distance_m from `from`, ground elevation_m], …]. */
-  profile: z.array(z.tuple([quantity('distance_m'), quantity('elevation_m')]), { error: 'must be a list of [distance_m, elevation_m] pairs' })
-    .max(100000).optional(),
+  profile: z
+    .array(z.tuple([quantity('distance_m'), quantity('elevation_m')]), { error: 'must be a list of [distance_m, elevation_m] pairs' })
+    .max(100000)
+    .optional(),
   /** Burial depth below the ground profile, m (default 0.45). */
   cover_m: quantity('cover_m').optional(),
   /** Initially closed (a pipe with a shut-off). */
@@ -175,14 +194,17 @@ const pipeLink = z.object({
   length_source: z.enum(LENGTH_SOURCES, { error: `must be one of ${LENGTH_SOURCES.join(', ')}` }).optional(),
 });
 
-const pumpControl = z.object({
-  /** Tank whose level controls the pump. */
-  tank: id,
-  /** Stop when the tank level reaches this, m. */
-  stop_level_m: quantity('tank_level_m'),
-  /** Restart when the tank level falls to this, m. */
-  start_level_m: quantity('tank_level_m'),
-}, { error: 'must be an object { tank, stop_level_m, start_level_m }' });
+const pumpControl = z.object(
+  {
+    /** Tank whose level controls the pump. */
+    tank: id,
+    /** Stop when the tank level reaches this, m. */
+    stop_level_m: quantity('tank_level_m'),
+    /** Restart when the tank level falls to this, m. */
+    start_level_m: quantity('tank_level_m'),
+  },
+  { error: 'must be an object { tank, stop_level_m, start_level_m }' },
+);
 
 const pumpLink = z.object({
   ...linkBase,
@@ -190,18 +212,25 @@ const pumpLink = z.object({
   /** Constant delivered flow (positive-displacement or fill pump), m³/s; used when no curve is given. */
   flow_m3s: quantity('flow_m3s').optional(),
   /** Head–flow curve [[flow_m3s, head_m], …] with head falling as flow rises. */
-  curve: z.array(z.tuple([quantity('flow_m3s'), quantity('pump_head_m')]), { error: 'must be a list of [flow_m3s, head_m] pairs' })
-    .min(1, 'must be a non-empty list of [flow_m3s, head_m] pairs').max(100).optional(),
+  curve: z
+    .array(z.tuple([quantity('flow_m3s'), quantity('pump_head_m')]), { error: 'must be a list of [flow_m3s, head_m] pairs' })
+    .min(1, 'must be a non-empty list of [flow_m3s, head_m] pairs')
+    .max(100)
+    .optional(),
   /**
    * 24 hourly availability factors 0..1 (a solar pump's daylight profile), used by simulate: they
    * scale a constant-flow pump's flow, or a curve pump's speed (affinity laws). Steady solves run
    * pumps at full availability.
    */
-  schedule: z.array(z.number().min(0).max(1), { error: 'must be 24 hourly factors between 0 and 1' })
-    .length(24, 'must be 24 hourly factors between 0 and 1').optional(),
+  schedule: z
+    .array(z.number().min(0).max(1), { error: 'must be 24 hourly factors between 0 and 1' })
+    .length(24, 'must be 24 hourly factors between 0 and 1')
+    .optional(),
   /** Editor: the head–flow points typed from the maker's chart; `curve` is their least-squares fit (engine/pump-curve). */
-  curve_points: z.array(z.tuple([quantity('flow_m3s'), quantity('pump_head_m')]), { error: 'must be a list of [flow_m3s, head_m] pairs' })
-    .max(100).optional(),
+  curve_points: z
+    .array(z.tuple([quantity('flow_m3s'), quantity('pump_head_m')]), { error: 'must be a list of [flow_m3s, head_m] pairs' })
+    .max(100)
+    .optional(),
   control: pumpControl.optional(),
   /** Low-water cut-off on the tank the pump draws from: stop below this level, m. */
   low_cutoff: z.object({ tank: id, level_m: quantity('tank_level_m') }, { error: 'must be an object { tank, level_m }' }).optional(),
@@ -254,25 +283,46 @@ const surveyPoint = z.object({
 });
 
 /** Editor-only data; ignored by the engine. Other keys (view state) are kept untyped. */
-const layout = z.looseObject({
-  backdrop: backdrop.optional(),
-  /** The last survey file applied: its name, format and points. */
-  survey: z.object({ filename: name.optional(), format: z.enum(SURVEY_FORMATS).optional(), points: z.array(surveyPoint).max(100000) }).optional(),
-}, { error: 'must be an object' });
+const layout = z.looseObject(
+  {
+    backdrop: backdrop.optional(),
+    /** The last survey file applied: its name, format and points. */
+    survey: z.object({ filename: name.optional(), format: z.enum(SURVEY_FORMATS).optional(), points: z.array(surveyPoint).max(100000) }).optional(),
+  },
+  { error: 'must be an object' },
+);
 
 export const HEADLOSS_MODELS = ['hazen-williams', 'darcy-weisbach'] as const;
 
-export const networkDocumentSchema = z.object({
-  schema: z.literal(NETWORK_SCHEMA, { error: `must be "${NETWORK_SCHEMA}"` }),
-  headloss: z.enum(HEADLOSS_MODELS, { error: 'must be "hazen-williams" or "darcy-weisbach"' }),
-  nodes: z.array(node, { error: 'must be an array' }).max(MAX_ELEMENTS, `must hold at most ${MAX_ELEMENTS} nodes`),
-  links: z.array(link, { error: 'must be an array' }).max(MAX_ELEMENTS, `must hold at most ${MAX_ELEMENTS} links`),
-  /** Hourly multiplier patterns by id: 24 factors each. */
-  patterns: z.record(id, hourly('factor', 'non-negative factors'), { error: 'must be an object of 24-number lists' }).optional(),
-  /** Editor-only data (backdrop, survey points, view); ignored by the engine. */
-  layout: layout.optional(),
-  /** Free-form title / description. */
-  title: notes.optional(),
-}, { error: 'must be a JSON object' });
+export const networkDocumentSchema = z.object(
+  {
+    schema: z.literal(NETWORK_SCHEMA, { error: `must be "${NETWORK_SCHEMA}"` }),
+    headloss: z.enum(HEADLOSS_MODELS, { error: 'must be "hazen-williams" or "darcy-weisbach"' }),
+    nodes: z.array(node, { error: 'must be an array' }).max(MAX_ELEMENTS, `must hold at most ${MAX_ELEMENTS} nodes`),
+    links: z.array(link, { error: 'must be an array' }).max(MAX_ELEMENTS, `must hold at most ${MAX_ELEMENTS} links`),
+    /** Hourly multiplier patterns by id: 24 factors each. */
+    patterns: z.record(id, hourly('factor', 'non-negative factors'), { error: 'must be an object of 24-number lists' }).optional(),
+    /** Editor-only data (backdrop, survey points, view); ignored by the engine. */
+    layout: layout.optional(),
+    /** Free-form title / description. */
+    title: notes.optional(),
+  },
+  { error: 'must be a JSON object' },
+);
 
-export const schemaParts = { node, link, sourceNode, tankNode, teeNode, outletNode, pipeLink, pumpLink, valveLink, demandModel, pumpControl, backdrop, surveyPoint, layout };
+export const schemaParts = {
+  node,
+  link,
+  sourceNode,
+  tankNode,
+  teeNode,
+  outletNode,
+  pipeLink,
+  pumpLink,
+  valveLink,
+  demandModel,
+  pumpControl,
+  backdrop,
+  surveyPoint,
+  layout,
+};

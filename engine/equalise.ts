@@ -65,19 +65,32 @@ export function equalisationTime(doc: unknown, options: EqualiseOptions): Equali
   for (let i = 0; i < model.nodeCount; i++) if (model.nodeKind[i] === NODE_TANK) tanks.push(i);
   const level = new Float64Array(model.nodeCount);
   const minLevel = new Float64Array(model.nodeCount);
-  for (const i of tanks) { const t = network.nodes[i]; if (t.kind === 'tank') { level[i] = t.level_m; minLevel[i] = t.min_level_m; } }
+  for (const i of tanks) {
+    const t = network.nodes[i];
+    if (t.kind === 'tank') {
+      level[i] = t.level_m;
+      minLevel[i] = t.min_level_m;
+    }
+  }
 
   const spread = (lv: Float64Array): number => {
     let lo = Infinity;
     let hi = -Infinity;
-    for (const i of bank) { const h = model.elevation[i] + lv[i]; lo = Math.min(lo, h); hi = Math.max(hi, h); }
+    for (const i of bank) {
+      const h = model.elevation[i] + lv[i];
+      lo = Math.min(lo, h);
+      hi = Math.max(hi, h);
+    }
     return hi - lo;
   };
   const rates = (lv: Float64Array, out: Float64Array): boolean => {
     for (const i of tanks) state.fixedHead[i] = model.elevation[i] + lv[i];
     const outcome = solver.solve(state, { warmStart: true, accuracy: 1e-10 });
     out.fill(0);
-    for (let k = 0; k < model.linkCount; k++) { out[model.to[k]] += solver.flow[k]; out[model.from[k]] -= solver.flow[k]; }
+    for (let k = 0; k < model.linkCount; k++) {
+      out[model.to[k]] += solver.flow[k];
+      out[model.from[k]] -= solver.flow[k];
+    }
     for (const i of tanks) out[i] /= model.tankArea[i];
     return outcome.converged;
   };
@@ -117,7 +130,8 @@ export function equalisationTime(doc: unknown, options: EqualiseOptions): Equali
       let hi = dt;
       for (let b = 0; b < 40 && hi - lo > 1e-9 * Math.max(1, t); b++) {
         const mid = (lo + hi) / 2;
-        if (rk4(mid) > tol) lo = mid; else hi = mid;
+        if (rk4(mid) > tol) lo = mid;
+        else hi = mid;
       }
       rk4(hi);
       level.set(next);

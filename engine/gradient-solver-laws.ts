@@ -124,7 +124,11 @@ export function zeroPressure(model: NetworkModel, i: number): number {
  * (linear below 1e-3·k); steep barriers outside the physical range.
  */
 export function virtualLaw(model: NetworkModel, i: number, q: number, full: number, factor: number, pressureDriven: boolean, out: Float64Array): void {
-  if (q < 0) { out[0] = DEMAND_BARRIER_SLOPE * q; out[1] = DEMAND_BARRIER_SLOPE; return; }
+  if (q < 0) {
+    out[0] = DEMAND_BARRIER_SLOPE * q;
+    out[1] = DEMAND_BARRIER_SLOPE;
+    return;
+  }
   if (model.demandType[i] === DEMAND_EMITTER) {
     const k = model.emitterK[i] * factor;
     const invX = 1 / model.emitterExponent[i];
@@ -137,7 +141,11 @@ export function virtualLaw(model: NetworkModel, i: number, q: number, full: numb
   }
   const span = requiredPressure(model, i, pressureDriven) - zeroPressure(model, i);
   // at full delivery the outlet is capped: a step may only leave the cap if the pressure falls below required
-  if (q >= full) { out[0] = span + DEMAND_BARRIER_SLOPE * (q - full); out[1] = DEMAND_BARRIER_SLOPE; return; }
+  if (q >= full) {
+    out[0] = span + DEMAND_BARRIER_SLOPE * (q - full);
+    out[1] = DEMAND_BARRIER_SLOPE;
+    return;
+  }
   const s = q / full;
   out[0] = span * s * s;
   out[1] = (2 * span * Math.max(s, VIRTUAL_FLOW_FLOOR)) / full;
@@ -156,7 +164,16 @@ export function outletFlow(model: NetworkModel, i: number, p: number, full: numb
  * pressure (0 when it holds). At full delivery the pressure may be anywhere above the required
  * pressure, at none anywhere below the zero-flow pressure.
  */
-export function outletLawResidual(model: NetworkModel, i: number, q: number, full: number, p: number, factor: number, pressureDriven: boolean, flowTol: number): number {
+export function outletLawResidual(
+  model: NetworkModel,
+  i: number,
+  q: number,
+  full: number,
+  p: number,
+  factor: number,
+  pressureDriven: boolean,
+  flowTol: number,
+): number {
   if (model.demandType[i] === DEMAND_EMITTER) {
     const expected = Math.pow(Math.max(q, 0) / (model.emitterK[i] * factor), 1 / model.emitterExponent[i]);
     return q <= flowTol ? Math.max(p - expected, 0) : Math.abs(expected - p);

@@ -64,7 +64,10 @@ export function firstViolation(s: SolutionArrays, state: StateView, tol: Toleran
   const n = model.nodeCount;
   const m = model.linkCount;
   netIn.fill(0);
-  if (buffers.length !== 2 || buffers[0].length !== n) { buffers.length = 0; buffers.push(new Float64Array(n), new Float64Array(n)); }
+  if (buffers.length !== 2 || buffers[0].length !== n) {
+    buffers.length = 0;
+    buffers.push(new Float64Array(n), new Float64Array(n));
+  }
   const [scale, slack] = buffers;
   scale.fill(0);
   slack.fill(0);
@@ -81,7 +84,8 @@ export function firstViolation(s: SolutionArrays, state: StateView, tol: Toleran
     const kind = model.linkKind[k];
     if (isShut(st) || !active[f] || !active[t]) {
       if (q !== 0) return `${id}: carries ${fmt(q)} m³/s while closed or cut off`;
-      if ((active[f] || active[t]) && nextStatus(s, k, state.linkDirection[k], state.pumpFactor[k]) !== st) return `${id}: status should change (it would reopen at these heads)`;
+      if ((active[f] || active[t]) && nextStatus(s, k, state.linkDirection[k], state.pumpFactor[k]) !== st)
+        return `${id}: status should change (it would reopen at these heads)`;
       continue;
     }
     if (kind === LINK_PUMP_FLOW) {
@@ -102,13 +106,20 @@ export function firstViolation(s: SolutionArrays, state: StateView, tol: Toleran
     const d = s.delta[k];
     let h: number;
     let g: number;
-    if (Math.abs(q) < d) { h = s.chord[k] * q; g = s.chord[k]; } else {
+    if (Math.abs(q) < d) {
+      h = s.chord[k] * q;
+      g = s.chord[k];
+    } else {
       linkLaw(model, k, q, state.pumpFactor[k], scratch);
       h = scratch[0];
       g = Math.abs(scratch[1]);
     }
     // rounding of the flow update p·ΔH grows with the heads (they reach −10⁴ m in absurd designs)
-    if (g > 0) { const e = (4.4e-16 * (Math.abs(head[f]) + Math.abs(head[t]))) / g; slack[f] += e; slack[t] += e; }
+    if (g > 0) {
+      const e = (4.4e-16 * (Math.abs(head[f]) + Math.abs(head[t]))) / g;
+      slack[f] += e;
+      slack[t] += e;
+    }
     const r = Math.abs(h - dh);
     if (r > tol.head_m) return `${id}: headloss law misses by ${fmt(r)} m`;
     if (g > 0 && r / g > tol.relativeFlow * Math.abs(q) + tol.flow_m3s) return `${id}: flow not settled (next correction ${fmt(r / g)} m³/s of ${fmt(q)} m³/s)`;

@@ -61,7 +61,11 @@ export function connect(s: StatusArrays): void {
   const { model, active, queue, status, adjPtr, adjLink } = s;
   active.fill(0);
   let tail = 0;
-  for (let i = 0; i < model.nodeCount; i++) if (model.nodeKind[i] !== NODE_JUNCTION) { active[i] = 1; queue[tail++] = i; }
+  for (let i = 0; i < model.nodeCount; i++)
+    if (model.nodeKind[i] !== NODE_JUNCTION) {
+      active[i] = 1;
+      queue[tail++] = i;
+    }
   let head = 0;
   while (head < tail) {
     const v = queue[head++];
@@ -71,7 +75,10 @@ export function connect(s: StatusArrays): void {
       if (isShut(st) || model.linkKind[k] === LINK_PUMP_FLOW) continue;
       if (st === STATUS_ACTIVE && model.from[k] !== v) continue;
       const u = model.from[k] === v ? model.to[k] : model.from[k];
-      if (!active[u]) { active[u] = 1; queue[tail++] = u; }
+      if (!active[u]) {
+        active[u] = 1;
+        queue[tail++] = u;
+      }
     }
   }
 }
@@ -94,7 +101,9 @@ export function prvFlowsByContinuity(s: StatusArrays, prvs: Int32Array, netOut: 
   done.fill(0);
   const isActive = (k: number): boolean => status[k] === STATUS_ACTIVE && active[model.from[k]] === 1 && active[model.to[k]] === 1;
   let pending = 0;
-  for (let a = 0; a < prvs.length; a++) if (isActive(prvs[a])) pending++; else done[a] = 1;
+  for (let a = 0; a < prvs.length; a++)
+    if (isActive(prvs[a])) pending++;
+    else done[a] = 1;
   for (let pass = 0; pending > 0 && pass <= prvs.length; pass++) {
     const last = pass === prvs.length; // a cycle of valves: resolve what is left as it stands
     for (let a = 0; a < prvs.length; a++) {
@@ -102,14 +111,21 @@ export function prvFlowsByContinuity(s: StatusArrays, prvs: Int32Array, netOut: 
       const t = model.to[prvs[a]];
       // wait while an unresolved active valve leaves t
       let blocked = false;
-      for (let b = 0; b < prvs.length && !last; b++) if (!done[b] && model.from[prvs[b]] === t) { blocked = true; break; }
+      for (let b = 0; b < prvs.length && !last; b++)
+        if (!done[b] && model.from[prvs[b]] === t) {
+          blocked = true;
+          break;
+        }
       if (blocked) continue;
       let best = -Infinity;
       let count = 0;
       for (let b = a; b < prvs.length; b++) {
         if (done[b] || model.to[prvs[b]] !== t) continue;
         const h = prvHead(model, prvs[b]);
-        if (h > best + 1e-12) { best = h; count = 1; } else if (Math.abs(h - best) <= 1e-12) count++;
+        if (h > best + 1e-12) {
+          best = h;
+          count = 1;
+        } else if (Math.abs(h - best) <= 1e-12) count++;
       }
       const q = netOut[t] + demand[t];
       for (let b = a; b < prvs.length; b++) {
@@ -167,7 +183,8 @@ export function nextStatus(s: StatusArrays, k: number, linkDirection: number, sp
   }
   let allowed = linkDirection;
   if (kind === LINK_CHECK || kind === LINK_PUMP_CURVE) allowed = allowed < 0 ? 2 : 1;
-  if (allowed === 0 || kind === LINK_PUMP_FLOW) return st === STATUS_CHECK_CLOSED && (kind === LINK_PIPE || kind === LINK_SHUTOFF || kind === LINK_FLOAT) ? STATUS_OPEN : st;
+  if (allowed === 0 || kind === LINK_PUMP_FLOW)
+    return st === STATUS_CHECK_CLOSED && (kind === LINK_PIPE || kind === LINK_SHUTOFF || kind === LINK_FLOAT) ? STATUS_OPEN : st;
   if (allowed === 2) return STATUS_CHECK_CLOSED;
   if (st === STATUS_OPEN) return allowed * flow[k] < -STATUS_FLOW_TOL ? STATUS_CHECK_CLOSED : st;
   // reopen when the head difference pushes flow the allowed way; a part without a fixed head can

@@ -56,7 +56,10 @@ export function structureFor(model: NetworkModel, unknown: Int32Array, nu: numbe
   for (let c = 0; c < structureCache.length; c++) {
     const entry = structureCache[c];
     if (entry.nodeCount === n && sameArray(entry.from, model.from) && sameArray(entry.to, model.to) && sameArray(entry.source, source)) {
-      if (c > 0) { structureCache.splice(c, 1); structureCache.unshift(entry); }
+      if (c > 0) {
+        structureCache.splice(c, 1);
+        structureCache.unshift(entry);
+      }
       return entry;
     }
   }
@@ -71,7 +74,11 @@ export function structureFor(model: NetworkModel, unknown: Int32Array, nu: numbe
   for (let k = 0, e = 0; k < m; k++) {
     const a = unknown[model.from[k]];
     const b = unknown[model.to[k]];
-    if (a >= 0 && b >= 0 && a !== b) { pi[e] = a; pj[e] = b; e++; }
+    if (a >= 0 && b >= 0 && a !== b) {
+      pi[e] = a;
+      pj[e] = b;
+      e++;
+    }
   }
   const ldl = new SparseLdl(nu, { i: pi, j: pj });
   const chol = nu >= SUPERNODAL_MIN_ORDER ? new SupernodalCholesky(ldl) : null;
@@ -84,7 +91,10 @@ export function structureFor(model: NetworkModel, unknown: Int32Array, nu: numbe
     const b = unknown[model.to[k]];
     if (a >= 0) posFF[k] = ldl.position(a, a);
     if (b >= 0) posTT[k] = ldl.position(b, b);
-    if (a >= 0 && b >= 0 && a !== b) { posFT[k] = ldl.position(a, b); posTF[k] = ldl.position(b, a); }
+    if (a >= 0 && b >= 0 && a !== b) {
+      posFT[k] = ldl.position(a, b);
+      posTF[k] = ldl.position(b, a);
+    }
   }
   const posDiag = new Int32Array(nu);
   for (let u = 0; u < nu; u++) posDiag[u] = ldl.position(u, u);

@@ -20,10 +20,10 @@ const HW_FLOW_EXPONENT = HW_FLOW_EXPONENT_;
 const hazenWilliamsSecant = hazenWilliamsSecant_;
 const firstViolation = firstViolation_;
 const { linkLaw, outletFlow, virtualLaw, zeroFlowSlope, zeroFlowSpan, zeroPressure } = laws;
-const {
-  connect, isShut, prvFlowsByContinuity, prvHead, STATUS_ACTIVE, STATUS_CHECK_CLOSED, STATUS_CLOSED, STATUS_OPEN, STATUS_SHUT, updateStatuses,
-} = statuses;
-const { DEMAND_EMITTER, DEMAND_FIXED, LINK_CHECK, LINK_FLOAT, LINK_PIPE, LINK_PRV, LINK_PUMP_CURVE, LINK_PUMP_FLOW, LINK_SHUTOFF, NODE_JUNCTION, NODE_TANK } = kinds;
+const { connect, isShut, prvFlowsByContinuity, prvHead, STATUS_ACTIVE, STATUS_CHECK_CLOSED, STATUS_CLOSED, STATUS_OPEN, STATUS_SHUT, updateStatuses } =
+  statuses;
+const { DEMAND_EMITTER, DEMAND_FIXED, LINK_CHECK, LINK_FLOAT, LINK_PIPE, LINK_PRV, LINK_PUMP_CURVE, LINK_PUMP_FLOW, LINK_SHUTOFF, NODE_JUNCTION, NODE_TANK } =
+  kinds;
 
 /**
  * Global gradient algorithm for steady flow in looped and branched networks: Newton's method on
@@ -226,11 +226,17 @@ export class GradientSolver {
     }
     // node → incident links (CSR)
     this.adjPtr = new Int32Array(n + 1);
-    for (let k = 0; k < m; k++) { this.adjPtr[model.from[k] + 1]++; this.adjPtr[model.to[k] + 1]++; }
+    for (let k = 0; k < m; k++) {
+      this.adjPtr[model.from[k] + 1]++;
+      this.adjPtr[model.to[k] + 1]++;
+    }
     for (let i = 0; i < n; i++) this.adjPtr[i + 1] += this.adjPtr[i];
     this.adjLink = new Int32Array(this.adjPtr[n]);
     const fill = this.adjPtr.slice(0, n);
-    for (let k = 0; k < m; k++) { this.adjLink[fill[model.from[k]]++] = k; this.adjLink[fill[model.to[k]]++] = k; }
+    for (let k = 0; k < m; k++) {
+      this.adjLink[fill[model.from[k]]++] = k;
+      this.adjLink[fill[model.to[k]]++] = k;
+    }
   }
 
   /** A state with the document's tank levels and source heads, factors 1, nothing closed. */
@@ -246,7 +252,9 @@ export class GradientSolver {
       tankStorage: new Float64Array(model.nodeCount),
       tankInflow: new Float64Array(model.nodeCount),
     };
-    model.doc.nodes.forEach((node, i) => { if (node.kind === 'tank') state.fixedHead[i] = node.elevation_m + node.level_m; });
+    model.doc.nodes.forEach((node, i) => {
+      if (node.kind === 'tank') state.fixedHead[i] = node.elevation_m + node.level_m;
+    });
     return state;
   }
 
@@ -273,9 +281,10 @@ export class GradientSolver {
     for (let i = 0; i < model.nodeCount; i++) if (model.nodeKind[i] !== NODE_JUNCTION) hmax = Math.max(hmax, state.fixedHead[i]);
     for (let i = 0; i < model.nodeCount; i++) {
       this.head[i] = model.nodeKind[i] === NODE_JUNCTION ? (Number.isFinite(hmax) ? hmax : model.elevation[i]) : state.fixedHead[i];
-      this.virtualFlow[i] = model.demandType[i] === DEMAND_EMITTER
-        ? model.emitterK[i] * state.demandFactor[i] * Math.pow(Math.max((Number.isFinite(hmax) ? hmax : 0) - model.elevation[i], 0), model.emitterExponent[i])
-        : model.demandBase[i] * state.demandFactor[i];
+      this.virtualFlow[i] =
+        model.demandType[i] === DEMAND_EMITTER
+          ? model.emitterK[i] * state.demandFactor[i] * Math.pow(Math.max((Number.isFinite(hmax) ? hmax : 0) - model.elevation[i], 0), model.emitterExponent[i])
+          : model.demandBase[i] * state.demandFactor[i];
     }
     for (let k = 0; k < model.linkCount; k++) {
       const kind = model.linkKind[k];
@@ -293,9 +302,17 @@ export class GradientSolver {
     for (let k = 0; k < model.linkCount; k++) {
       const kind = model.linkKind[k];
       const off = state.linkClosed[k] === 1 || ((kind === LINK_PUMP_FLOW || kind === LINK_PUMP_CURVE) && !(state.pumpFactor[k] > 0));
-      if (off) { status[k] = STATUS_CLOSED; flow[k] = 0; } else if (status[k] === STATUS_CLOSED) {
+      if (off) {
+        status[k] = STATUS_CLOSED;
+        flow[k] = 0;
+      } else if (status[k] === STATUS_CLOSED) {
         status[k] = kind === LINK_PRV ? STATUS_ACTIVE : STATUS_OPEN;
-        flow[k] = kind === LINK_PUMP_FLOW ? model.pumpFlow[k] : kind === LINK_PUMP_CURVE ? model.curveQ[model.curveStart[k] + 1] * state.pumpFactor[k] : 0.1 * model.area[k];
+        flow[k] =
+          kind === LINK_PUMP_FLOW
+            ? model.pumpFlow[k]
+            : kind === LINK_PUMP_CURVE
+              ? model.curveQ[model.curveStart[k] + 1] * state.pumpFactor[k]
+              : 0.1 * model.area[k];
       }
       // a PRV feeding a fixed head cannot regulate: it behaves as an open valve
       if (kind === LINK_PRV && status[k] === STATUS_ACTIVE && model.nodeKind[model.to[k]] !== NODE_JUNCTION) status[k] = STATUS_OPEN;
@@ -305,7 +322,12 @@ export class GradientSolver {
       }
     }
     for (let i = 0; i < model.nodeCount; i++) {
-      if (model.nodeKind[i] !== NODE_JUNCTION) { this.head[i] = state.fixedHead[i]; this.requested[i] = 0; this.virtualFull[i] = 0; continue; }
+      if (model.nodeKind[i] !== NODE_JUNCTION) {
+        this.head[i] = state.fixedHead[i];
+        this.requested[i] = 0;
+        this.virtualFull[i] = 0;
+        continue;
+      }
       const base = model.demandBase[i] * state.demandFactor[i];
       const emitter = model.demandType[i] === DEMAND_EMITTER;
       this.requested[i] = emitter ? Number.NaN : base;
@@ -315,7 +337,8 @@ export class GradientSolver {
       this.virtualFull[i] = isVirtual && live ? (emitter ? Infinity : base) : 0;
       // start each outlet at what its own law delivers at the current pressure: a warm start may
       // carry a flow from another demand factor, and the law's steep start would overshoot from 0
-      if (this.virtualFull[i] > 0) this.virtualFlow[i] = outletFlow(model, i, this.head[i] - model.elevation[i], this.virtualFull[i], state.demandFactor[i], state.pressureDriven);
+      if (this.virtualFull[i] > 0)
+        this.virtualFlow[i] = outletFlow(model, i, this.head[i] - model.elevation[i], this.virtualFull[i], state.demandFactor[i], state.pressureDriven);
     }
   }
 
@@ -334,7 +357,27 @@ export class GradientSolver {
     };
     const n = model.nodeCount;
     const m = model.linkCount;
-    const { head, flow, status, unknown, ldl, rhs, x, virtualFlow, virtualFull, pinned, netOut, changes, active, gradientPrev, flowPrev, headPrev, virtualPrev, delta, chord } = this;
+    const {
+      head,
+      flow,
+      status,
+      unknown,
+      ldl,
+      rhs,
+      x,
+      virtualFlow,
+      virtualFull,
+      pinned,
+      netOut,
+      changes,
+      active,
+      gradientPrev,
+      flowPrev,
+      headPrev,
+      virtualPrev,
+      delta,
+      chord,
+    } = this;
     const values = ldl.values;
     const { posFF, posTT, posFT, posTF, p, y } = this;
     const { resistance, minor, linkKind } = model;
@@ -349,7 +392,11 @@ export class GradientSolver {
     this.prepare(state);
     connect(this);
     let hasBlocks = false;
-    for (let k = 0; k < m; k++) if (state.linkDirection[k] !== 0) { hasBlocks = true; break; }
+    for (let k = 0; k < m; k++)
+      if (state.linkDirection[k] !== 0) {
+        hasBlocks = true;
+        break;
+      }
     const statusLinks = hasBlocks ? this.allLinks : this.logicLinks;
 
     let iterations = 0;
@@ -362,7 +409,8 @@ export class GradientSolver {
     let checkedAt = -1;
     // a warm start that already solves this state needs no factorisation at all
     if (options.warmStart && options.checkStart) {
-      for (let i = 0; i < n; i++) this.demand[i] = model.nodeKind[i] !== NODE_JUNCTION || !active[i] ? 0 : virtualFull[i] > 0 ? virtualFlow[i] : this.requested[i] || 0;
+      for (let i = 0; i < n; i++)
+        this.demand[i] = model.nodeKind[i] !== NODE_JUNCTION || !active[i] ? 0 : virtualFull[i] > 0 ? virtualFlow[i] : this.requested[i] || 0;
       for (let k = 0; k < m; k++) if (isShut(status[k]) || !active[linkFrom[k]] || !active[linkTo[k]]) flow[k] = 0;
       verified = firstViolation(this, state, tol, netOut, this.scratch) === null;
     }
@@ -377,19 +425,27 @@ export class GradientSolver {
         const f = linkFrom[k];
         const t = linkTo[k];
         const st = status[k];
-        if (isShut(st) || !active[f] || !active[t]) { flow[k] = 0; p[k] = 0; y[k] = 0; continue; }
+        if (isShut(st) || !active[f] || !active[t]) {
+          flow[k] = 0;
+          p[k] = 0;
+          y[k] = 0;
+          continue;
+        }
         const uf = unknown[f];
         const ut = unknown[t];
         const kind = linkKind[k];
         if (kind === LINK_PUMP_FLOW) {
           const q = model.pumpFlow[k] * state.pumpFactor[k];
-          flow[k] = q; p[k] = 0; y[k] = 0;
+          flow[k] = q;
+          p[k] = 0;
+          y[k] = 0;
           if (uf >= 0) rhs[uf] -= q;
           if (ut >= 0) rhs[ut] += q;
           continue;
         }
         if (kind === LINK_PRV && st === STATUS_ACTIVE) {
-          p[k] = 0; y[k] = 0;
+          p[k] = 0;
+          y[k] = 0;
           if (uf >= 0) rhs[uf] -= flow[k];
           const hset = prvHead(model, k);
           if (!(pinned[t] >= hset)) pinned[t] = hset; // parallel valves: the higher setting governs
@@ -427,11 +483,21 @@ export class GradientSolver {
         if (g < GRADIENT_FLOOR) g = GRADIENT_FLOOR;
         const pk = 1 / g;
         const yk = hk * pk;
-        p[k] = pk; y[k] = yk;
+        p[k] = pk;
+        y[k] = yk;
         const qy = q - yk;
-        if (uf >= 0) { values[posFF[k]] += pk; rhs[uf] -= qy; } else if (ut >= 0) rhs[ut] += pk * head[f];
-        if (ut >= 0) { values[posTT[k]] += pk; rhs[ut] += qy; } else if (uf >= 0) rhs[uf] += pk * head[t];
-        if (uf >= 0 && ut >= 0) { values[posFT[k]] -= pk; values[posTF[k]] -= pk; }
+        if (uf >= 0) {
+          values[posFF[k]] += pk;
+          rhs[uf] -= qy;
+        } else if (ut >= 0) rhs[ut] += pk * head[f];
+        if (ut >= 0) {
+          values[posTT[k]] += pk;
+          rhs[ut] += qy;
+        } else if (uf >= 0) rhs[uf] += pk * head[t];
+        if (uf >= 0 && ut >= 0) {
+          values[posFT[k]] -= pk;
+          values[posTF[k]] -= pk;
+        }
       }
       for (let u = 0; u < this.unknownNode.length; u++) {
         const i = this.unknownNode[u];
@@ -443,7 +509,11 @@ export class GradientSolver {
           rhs[u] += w * state.fixedHead[i] + (c > 0 ? state.tankInflow[i] : 0);
           continue;
         }
-        if (!active[i]) { values[pd] = 1; rhs[u] = model.elevation[i]; continue; }
+        if (!active[i]) {
+          values[pd] = 1;
+          rhs[u] = model.elevation[i];
+          continue;
+        }
         if (virtualFull[i] > 0) {
           virtualLaw(model, i, virtualFlow[i], virtualFull[i], state.demandFactor[i], state.pressureDriven, this.scratch);
           const base = model.elevation[i] + zeroPressure(model, i);
@@ -459,13 +529,19 @@ export class GradientSolver {
         } else {
           rhs[u] -= this.requested[i] > 0 || this.requested[i] < 0 ? this.requested[i] : 0;
         }
-        if (!Number.isNaN(pinned[i])) { values[pd] += PIN_WEIGHT; rhs[u] += PIN_WEIGHT * pinned[i]; }
+        if (!Number.isNaN(pinned[i])) {
+          values[pd] += PIN_WEIGHT;
+          rhs[u] += PIN_WEIGHT * pinned[i];
+        }
       }
       // a step that made the laws worse by far: go back half way (continuity holds on the segment)
       if (merit > meritPrev * (1 + 1e-6) && merit > tol.head_m * qScale && halvings < 8 && sinceReset >= 2) {
         halvings++;
         for (let k = 0; k < m; k++) flow[k] = 0.5 * (flow[k] + flowPrev[k]);
-        for (let i = 0; i < n; i++) { head[i] = 0.5 * (head[i] + headPrev[i]); virtualFlow[i] = 0.5 * (virtualFlow[i] + virtualPrev[i]); }
+        for (let i = 0; i < n; i++) {
+          head[i] = 0.5 * (head[i] + headPrev[i]);
+          virtualFlow[i] = 0.5 * (virtualFlow[i] + virtualPrev[i]);
+        }
         iterations--;
         continue;
       }
@@ -476,7 +552,11 @@ export class GradientSolver {
       headPrev.set(head);
       virtualPrev.set(virtualFlow);
       const factorisation = this.chol ?? ldl;
-      if (factorisation.factor() !== ldl.n) { singular = true; reason = 'singular system (a part of the network has no head to hold it)'; break; }
+      if (factorisation.factor() !== ldl.n) {
+        singular = true;
+        reason = 'singular system (a part of the network has no head to hold it)';
+        break;
+      }
       factorisation.solve(rhs, x);
       for (let u = 0; u < this.unknownNode.length; u++) head[this.unknownNode[u]] = x[u];
 
@@ -484,7 +564,11 @@ export class GradientSolver {
       let sumQ = 0;
       let sumDQ = 0;
       for (let i = 0; i < n; i++) {
-        if (model.nodeKind[i] !== NODE_JUNCTION || !active[i]) { virtualFlow[i] = 0; this.demand[i] = 0; continue; }
+        if (model.nodeKind[i] !== NODE_JUNCTION || !active[i]) {
+          virtualFlow[i] = 0;
+          this.demand[i] = 0;
+          continue;
+        }
         if (virtualFull[i] > 0) {
           const qv = virtualFlow[i] - this.virtualY[i] + this.virtualP[i] * (head[i] - model.elevation[i] - zeroPressure(model, i));
           sumDQ += Math.abs(qv - virtualFlow[i]);
@@ -523,14 +607,21 @@ export class GradientSolver {
       if (relative < 1e-3 || iterations - checkedAt >= 8) {
         checkedAt = iterations;
         reason = firstViolation(this, state, tol, netOut, this.scratch);
-        if (reason === null) { verified = true; break; }
+        if (reason === null) {
+          verified = true;
+          break;
+        }
       }
     }
     if (!singular && reason === null && iterations >= maxIterations) reason = 'iteration cap reached';
     // delivered demand (the virtual flows hold their law's range to the barrier's 1e-14 m³/s per m)
     for (let i = 0; i < n; i++) {
       if (model.nodeKind[i] !== NODE_JUNCTION) continue;
-      if (!active[i]) { head[i] = model.elevation[i]; this.demand[i] = 0; continue; }
+      if (!active[i]) {
+        head[i] = model.elevation[i];
+        this.demand[i] = 0;
+        continue;
+      }
       if (virtualFull[i] > 0) this.demand[i] = Math.min(Math.max(virtualFlow[i], 0), virtualFull[i]);
     }
     if (!singular && !verified && reason === null) reason = firstViolation(this, state, tol, netOut, this.scratch);

@@ -19,8 +19,15 @@ export { simulate, type SimulateOptions, type TimeSeriesResult, type SimulationS
 export { equalisationTime, type EqualiseOptions, type EqualiseResult } from './equalise';
 export { staticHeads, DEFAULT_VELOCITY_LIMIT_MS, DEFAULT_COVER_M } from './checks';
 export {
-  pipeSeries, pipeSizes, findPipeSize, defaultRoughness, pressureRatingPsi, IPS_OD_IN,
-  type PipeSeries, type PipeSize, type PipeMaterial,
+  pipeSeries,
+  pipeSizes,
+  findPipeSize,
+  defaultRoughness,
+  pressureRatingPsi,
+  IPS_OD_IN,
+  type PipeSeries,
+  type PipeSize,
+  type PipeMaterial,
 } from './pipe-catalogue';
 export { hazenWilliamsHeadloss, hazenWilliamsResistance, HW_OMEGA_SI, HW_OMEGA_ALTERNATIVES } from './hazen-williams';
 export { darcyWeisbachHeadloss, darcyFactor } from './darcy-weisbach';
@@ -38,5 +45,17 @@ export * from './takeoff/index';
 export { demoPriceList, type PriceListRow } from './examples/demo-prices';
 export { purchaseUnit, FITTINGS, fittingCode, nominalForDiameter, type PurchaseUnit, type FittingKind } from './pipe-catalogue';
 export { evaluateDesign, summariseDesign, designDifferences, type DesignSummary, type SummaryInputs, type DesignEvaluation } from './options/compare';
-export { serviceStates, outletState, ratingState, pipeWork, tankVolume, type ServiceStates, type NodeService, type LinkService, type OutletState, type RatingState, type PipeWork } from './service-state';
+export {
+  serviceStates,
+  outletState,
+  ratingState,
+  pipeWork,
+  tankVolume,
+  type ServiceStates,
+  type NodeService,
+  type LinkService,
+  type OutletState,
+  type RatingState,
+  type PipeWork,
+} from './service-state';
 export { fitPumpCurve, CURVE_SAMPLES, type PumpCurveFit } from './pump-curve/index';

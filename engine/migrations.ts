@@ -47,8 +47,10 @@ export function migrateDocument(raw: unknown): Migration {
   if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return { ok: true, doc: raw, from: SCHEMA_VERSION };
   let doc = raw as Json;
   const from = documentVersion(doc);
-  if (from === null) return { ok: false, message: `must be "${NETWORK_SCHEMA}" or an earlier runnel.network version (got ${JSON.stringify(doc['schema'])?.slice(0, 60)})` };
-  if (from > SCHEMA_VERSION) return { ok: false, message: `"runnel.network/${from}" is newer than this program reads ("${NETWORK_SCHEMA}"); update Runnel to open it` };
+  if (from === null)
+    return { ok: false, message: `must be "${NETWORK_SCHEMA}" or an earlier runnel.network version (got ${JSON.stringify(doc['schema'])?.slice(0, 60)})` };
+  if (from > SCHEMA_VERSION)
+    return { ok: false, message: `"runnel.network/${from}" is newer than this program reads ("${NETWORK_SCHEMA}"); update Runnel to open it` };
   if (from === SCHEMA_VERSION) return { ok: true, doc, from };
   for (let v = from; v < SCHEMA_VERSION; v++) {
     const step = STEPS[v];

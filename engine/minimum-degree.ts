@@ -27,12 +27,17 @@ export function minimumDegreeOrder(n: number, adjPtr: Int32Array, adjIdx: Int32A
   let heap = new Float64Array(Math.max(16, n * 2));
   let heapSize = 0;
   const push = (key: number): void => {
-    if (heapSize === heap.length) { const h = new Float64Array(heap.length * 2); h.set(heap); heap = h; }
+    if (heapSize === heap.length) {
+      const h = new Float64Array(heap.length * 2);
+      h.set(heap);
+      heap = h;
+    }
     let i = heapSize++;
     while (i > 0) {
       const p = (i - 1) >> 1;
       if (heap[p] <= key) break;
-      heap[i] = heap[p]; i = p;
+      heap[i] = heap[p];
+      i = p;
     }
     heap[i] = key;
   };
@@ -45,7 +50,8 @@ export function minimumDegreeOrder(n: number, adjPtr: Int32Array, adjIdx: Int32A
       if (c >= heapSize) break;
       if (c + 1 < heapSize && heap[c + 1] < heap[c]) c++;
       if (heap[c] >= last) break;
-      heap[i] = heap[c]; i = c;
+      heap[i] = heap[c];
+      i = c;
     }
     heap[i] = last;
     return top;
@@ -80,11 +86,15 @@ export function minimumDegreeOrder(n: number, adjPtr: Int32Array, adjIdx: Int32A
       lu = w;
       // add the missing neighbours of v (other than u)
       let need = 0;
-      for (let c = 0; c < lv; c++) { const x = av[c]; if (x !== u && mark[x] === v) need++; }
+      for (let c = 0; c < lv; c++) {
+        const x = av[c];
+        if (x !== u && mark[x] === v) need++;
+      }
       if (lu + need > au.length) {
         const grown = new Int32Array(Math.max(au.length * 2, lu + need));
         grown.set(au.subarray(0, lu));
-        au = grown; adj[u] = au;
+        au = grown;
+        adj[u] = au;
       }
       for (let c = 0; c < lv; c++) {
         const x = av[c];

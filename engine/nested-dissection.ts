@@ -44,7 +44,11 @@ export function nestedDissectionOrder(n: number, adjPtr: Int32Array, adjIdx: Int
       const v = queue[head++];
       for (let a = adjPtr[v]; a < adjPtr[v + 1]; a++) {
         const u = adjIdx[a];
-        if (part[u] === label) { part[u] = -2 - label; level[u] = level[v] + 1; queue[tail++] = u; }
+        if (part[u] === label) {
+          part[u] = -2 - label;
+          level[u] = level[v] + 1;
+          queue[tail++] = u;
+        }
       }
     }
     for (let q = 0; q < tail; q++) part[queue[q]] = label; // unmark
@@ -53,7 +57,13 @@ export function nestedDissectionOrder(n: number, adjPtr: Int32Array, adjIdx: Int
 
   const orderLeaf = (vertices: Int32Array): void => {
     if (vertices.length === 0) return;
-    if (vertices.length <= 3) { for (let q = 0; q < vertices.length; q++) { perm[next++] = vertices[q]; part[vertices[q]] = -1; } return; }
+    if (vertices.length <= 3) {
+      for (let q = 0; q < vertices.length; q++) {
+        perm[next++] = vertices[q];
+        part[vertices[q]] = -1;
+      }
+      return;
+    }
     const m = vertices.length;
     for (let q = 0; q < m; q++) local[vertices[q]] = q;
     const label = part[vertices[0]];
@@ -70,17 +80,27 @@ export function nestedDissectionOrder(n: number, adjPtr: Int32Array, adjIdx: Int
       for (let a = adjPtr[v]; a < adjPtr[v + 1]; a++) if (part[adjIdx[a]] === label) idx[p++] = local[adjIdx[a]];
     }
     const order = minimumDegreeOrder(m, ptr, idx);
-    for (let q = 0; q < m; q++) { const v = vertices[order[q]]; perm[next++] = v; part[v] = -1; }
+    for (let q = 0; q < m; q++) {
+      const v = vertices[order[q]];
+      perm[next++] = v;
+      part[v] = -1;
+    }
   };
 
   /** Separators become dense cliques once both halves are eliminated: any order will do. */
   const orderSeparator = (vertices: Int32Array): void => {
-    for (let q = 0; q < vertices.length; q++) { perm[next++] = vertices[q]; part[vertices[q]] = -1; }
+    for (let q = 0; q < vertices.length; q++) {
+      perm[next++] = vertices[q];
+      part[vertices[q]] = -1;
+    }
   };
 
   const dissect = (vertices: Int32Array): void => {
     if (vertices.length === 0) return;
-    if (vertices.length <= DISSECTION_LEAF_SIZE) { orderLeaf(vertices); return; }
+    if (vertices.length <= DISSECTION_LEAF_SIZE) {
+      orderLeaf(vertices);
+      return;
+    }
     const label = part[vertices[0]];
     // pseudo-peripheral root (one sweep of Gibbs-Poole-Stockmeyer): BFS from any vertex, then
     // from the last vertex it reached; that second level structure is the one we cut
@@ -99,14 +119,23 @@ export function nestedDissectionOrder(n: number, adjPtr: Int32Array, adjIdx: Int
       dissect(rest);
       return;
     }
-    if (depth < 2) { orderLeaf(vertices); return; }
+    if (depth < 2) {
+      orderLeaf(vertices);
+      return;
+    }
     // middle level by count
     const counts = new Int32Array(depth + 1);
     for (let q = 0; q < reached; q++) counts[level[queue[q]]]++;
     let acc = 0;
     let mid = 1;
     let bestBal = 0;
-    for (let l = 0; l <= depth; l++) { acc += counts[l]; if (acc * 2 >= reached) { mid = Math.min(Math.max(l, 1), depth - 1); break; } }
+    for (let l = 0; l <= depth; l++) {
+      acc += counts[l];
+      if (acc * 2 >= reached) {
+        mid = Math.min(Math.max(l, 1), depth - 1);
+        break;
+      }
+    }
     {
       // smallest level whose halves both keep SEPARATOR_BALANCE of the vertices (else the median level)
       let below = 0;
@@ -115,7 +144,10 @@ export function nestedDissectionOrder(n: number, adjPtr: Int32Array, adjIdx: Int
         below += counts[l - 1];
         const above = reached - below - counts[l];
         if (below < SEPARATOR_BALANCE * reached || above < SEPARATOR_BALANCE * reached) continue;
-        if (best < 0 || counts[l] < counts[best] || (counts[l] === counts[best] && Math.abs(below - above) < Math.abs(bestBal))) { best = l; bestBal = below - above; }
+        if (best < 0 || counts[l] < counts[best] || (counts[l] === counts[best] && Math.abs(below - above) < Math.abs(bestBal))) {
+          best = l;
+          bestBal = below - above;
+        }
       }
       if (best > 0) mid = best;
     }
@@ -126,11 +158,21 @@ export function nestedDissectionOrder(n: number, adjPtr: Int32Array, adjIdx: Int
     for (let l = 0; l < mid; l++) na += counts[l];
     const a = new Int32Array(na);
     const b = new Int32Array(reached - na - counts[mid]);
-    let ia = 0; let ib = 0; let is = 0;
+    let ia = 0;
+    let ib = 0;
+    let is = 0;
     for (let q = 0; q < reached; q++) {
       const v = queue[q];
       const l = level[v];
-      if (l < mid) { a[ia++] = v; part[v] = labelA; } else if (l > mid) { b[ib++] = v; part[v] = labelB; } else { sep[is++] = v; }
+      if (l < mid) {
+        a[ia++] = v;
+        part[v] = labelA;
+      } else if (l > mid) {
+        b[ib++] = v;
+        part[v] = labelB;
+      } else {
+        sep[is++] = v;
+      }
     }
     dissect(a);
     dissect(b);

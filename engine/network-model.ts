@@ -89,10 +89,14 @@ function kindOfLink(link: NetworkLink): number {
   if (link.kind === 'pipe') return LINK_PIPE;
   if (link.kind === 'pump') return link.curve && link.curve.length > 0 ? LINK_PUMP_CURVE : LINK_PUMP_FLOW;
   switch (link.valve_type) {
-    case 'check': return LINK_CHECK;
-    case 'prv': return LINK_PRV;
-    case 'float': return LINK_FLOAT;
-    default: return LINK_SHUTOFF;
+    case 'check':
+      return LINK_CHECK;
+    case 'prv':
+      return LINK_PRV;
+    case 'float':
+      return LINK_FLOAT;
+    default:
+      return LINK_SHUTOFF;
   }
 }
 
@@ -101,7 +105,11 @@ function curvePoints(curve: [number, number][]): [number, number][] {
   const pts = [...curve].sort((a, b) => a[0] - b[0]);
   if (pts.length === 1) {
     const [q0, h0] = pts[0];
-    return [[0, (4 / 3) * h0], [q0, h0], [2 * q0, 0]];
+    return [
+      [0, (4 / 3) * h0],
+      [q0, h0],
+      [2 * q0, 0],
+    ];
   }
   return pts;
 }
@@ -124,23 +132,52 @@ export function compileNetwork(doc: NetworkDocument, options: CompileOptions = {
   const patternIndex = new Map(patternIds.map((id, i) => [id, i] as const));
 
   const model: NetworkModel = {
-    doc, headloss: doc.headloss, nodeCount: n, linkCount: m,
-    nodeIds: doc.nodes.map((x) => x.id), linkIds: doc.links.map((x) => x.id), nodeIndex, linkIndex,
-    nodeKind: new Uint8Array(n), elevation: new Float64Array(n), baseHead: new Float64Array(n),
-    tankArea: new Float64Array(n), demandBase: new Float64Array(n), demandType: new Uint8Array(n),
-    pressureRequired: new Float64Array(n), pressureZero: new Float64Array(n), emitterK: new Float64Array(n),
-    emitterExponent: new Float64Array(n), nodePattern: new Int32Array(n).fill(-1), patterns,
+    doc,
+    headloss: doc.headloss,
+    nodeCount: n,
+    linkCount: m,
+    nodeIds: doc.nodes.map((x) => x.id),
+    linkIds: doc.links.map((x) => x.id),
+    nodeIndex,
+    linkIndex,
+    nodeKind: new Uint8Array(n),
+    elevation: new Float64Array(n),
+    baseHead: new Float64Array(n),
+    tankArea: new Float64Array(n),
+    demandBase: new Float64Array(n),
+    demandType: new Uint8Array(n),
+    pressureRequired: new Float64Array(n),
+    pressureZero: new Float64Array(n),
+    emitterK: new Float64Array(n),
+    emitterExponent: new Float64Array(n),
+    nodePattern: new Int32Array(n).fill(-1),
+    patterns,
     minPressure: new Float64Array(n).fill(Number.NaN),
-    linkKind: new Uint8Array(m), from: new Int32Array(m), to: new Int32Array(m), length: new Float64Array(m),
-    diameter: new Float64Array(m), area: new Float64Array(m), resistance: new Float64Array(m),
-    roughnessRelative: new Float64Array(m), minor: new Float64Array(m), pumpFlow: new Float64Array(m),
-    curveStart: new Int32Array(m), curveEnd: new Int32Array(m), curveQ: new Float64Array(0), curveH: new Float64Array(0),
-    prvSetting: new Float64Array(m), closedInDocument: new Uint8Array(m),
+    linkKind: new Uint8Array(m),
+    from: new Int32Array(m),
+    to: new Int32Array(m),
+    length: new Float64Array(m),
+    diameter: new Float64Array(m),
+    area: new Float64Array(m),
+    resistance: new Float64Array(m),
+    roughnessRelative: new Float64Array(m),
+    minor: new Float64Array(m),
+    pumpFlow: new Float64Array(m),
+    curveStart: new Int32Array(m),
+    curveEnd: new Int32Array(m),
+    curveQ: new Float64Array(0),
+    curveH: new Float64Array(0),
+    prvSetting: new Float64Array(m),
+    closedInDocument: new Uint8Array(m),
   };
 
   doc.nodes.forEach((node: NetworkNode, i) => {
     model.elevation[i] = node.elevation_m;
-    if (node.kind === 'source') { model.nodeKind[i] = NODE_SOURCE; model.baseHead[i] = node.head_m; return; }
+    if (node.kind === 'source') {
+      model.nodeKind[i] = NODE_SOURCE;
+      model.baseHead[i] = node.head_m;
+      return;
+    }
     if (node.kind === 'tank') {
       model.nodeKind[i] = NODE_TANK;
       model.baseHead[i] = node.elevation_m;
@@ -198,7 +235,10 @@ export function compileNetwork(doc: NetworkDocument, options: CompileOptions = {
       model.pumpFlow[k] = link.flow_m3s ?? 0;
       model.curveStart[k] = cq.length;
       if (link.curve && link.curve.length > 0) {
-        for (const [q, h] of curvePoints(link.curve)) { cq.push(q); ch.push(h); }
+        for (const [q, h] of curvePoints(link.curve)) {
+          cq.push(q);
+          ch.push(h);
+        }
       }
       model.curveEnd[k] = cq.length;
     }
@@ -211,7 +251,10 @@ export function compileNetwork(doc: NetworkDocument, options: CompileOptions = {
 /** x^e, remembered in `cache` by x. */
 function power(cache: Map<number, number>, x: number, e: number): number {
   let v = cache.get(x);
-  if (v === undefined) { v = Math.pow(x, e); cache.set(x, v); }
+  if (v === undefined) {
+    v = Math.pow(x, e);
+    cache.set(x, v);
+  }
   return v;
 }
 

@@ -12,7 +12,11 @@ import { BOUNDS, boundProblem } from './bounds';
 import type { NetworkDocument, NetworkLink, NetworkNode, TankNode } from './network-document';
 
 /** A problem with one field: `path` into the document (['links', 3, 'to']), the element's id, the message. */
-export interface DocumentProblem { path: (string | number)[]; element: string | null; message: string }
+export interface DocumentProblem {
+  path: (string | number)[];
+  element: string | null;
+  message: string;
+}
 
 export function physicalProblems(doc: NetworkDocument): DocumentProblem[] {
   const out: DocumentProblem[] = [];
@@ -24,7 +28,10 @@ export function physicalProblems(doc: NetworkDocument): DocumentProblem[] {
   for (let i = 0; i < doc.nodes.length; i++) {
     const node = doc.nodes[i];
     at = ['nodes', i];
-    if (nodes.has(node.id)) { bad(node.id, 'id', 'is used by another node'); continue; }
+    if (nodes.has(node.id)) {
+      bad(node.id, 'id', 'is used by another node');
+      continue;
+    }
     nodes.set(node.id, node);
     checkNode(node, doc, bad);
   }
@@ -32,7 +39,10 @@ export function physicalProblems(doc: NetworkDocument): DocumentProblem[] {
   for (let i = 0; i < doc.links.length; i++) {
     const link = doc.links[i];
     at = ['links', i];
-    if (linkIds.has(link.id)) { bad(link.id, 'id', 'is used by another link'); continue; }
+    if (linkIds.has(link.id)) {
+      bad(link.id, 'id', 'is used by another link');
+      continue;
+    }
     linkIds.add(link.id);
     if (!nodes.has(link.from)) bad(link.id, 'from', `must name an existing node (got ${show(link.from)})`);
     if (!nodes.has(link.to)) bad(link.id, 'to', `must name an existing node (got ${show(link.to)})`);
@@ -69,7 +79,8 @@ function checkLink(link: NetworkLink, doc: NetworkDocument, nodes: Map<string, N
     case 'pipe': {
       const bound = doc.headloss === 'darcy-weisbach' ? BOUNDS.roughness_mm : BOUNDS.hazen_williams_c;
       const problem = boundProblem(bound, link.roughness);
-      if (problem) bad(link.id, 'roughness', `${problem} for ${doc.headloss === 'darcy-weisbach' ? 'Darcy-Weisbach (mm)' : 'Hazen-Williams (C)'} (got ${link.roughness})`);
+      if (problem)
+        bad(link.id, 'roughness', `${problem} for ${doc.headloss === 'darcy-weisbach' ? 'Darcy-Weisbach (mm)' : 'Hazen-Williams (C)'} (got ${link.roughness})`);
       if (link.profile?.some((pt, i) => i > 0 && pt[0] < link.profile![i - 1][0])) bad(link.id, 'profile', 'distances must not decrease');
       break;
     }
@@ -77,7 +88,8 @@ function checkLink(link: NetworkLink, doc: NetworkDocument, nodes: Map<string, N
       if (link.flow_m3s === undefined && link.curve === undefined) bad(link.id, 'flow_m3s', 'a pump needs flow_m3s or a curve');
       if (link.curve) {
         const pts = [...link.curve].sort((a, b) => a[0] - b[0]);
-        if (pts.some((pt, i) => i > 0 && (pt[0] === pts[i - 1][0] || pt[1] > pts[i - 1][1]))) bad(link.id, 'curve', 'head must fall as flow rises, with distinct flows');
+        if (pts.some((pt, i) => i > 0 && (pt[0] === pts[i - 1][0] || pt[1] > pts[i - 1][1])))
+          bad(link.id, 'curve', 'head must fall as flow rises, with distinct flows');
         if (pts.length === 1 && pts[0][0] === 0) bad(link.id, 'curve', 'a one-point curve needs a flow above zero');
       }
       if (link.control) {
@@ -88,7 +100,8 @@ function checkLink(link: NetworkLink, doc: NetworkDocument, nodes: Map<string, N
       }
       if (link.low_cutoff) {
         const t = tank('low_cutoff.tank', link.low_cutoff.tank);
-        if (t && link.low_cutoff.level_m >= t.max_level_m) bad(link.id, 'low_cutoff.level_m', `must be below ${t.id}'s max_level_m ${t.max_level_m} (got ${link.low_cutoff.level_m})`);
+        if (t && link.low_cutoff.level_m >= t.max_level_m)
+          bad(link.id, 'low_cutoff.level_m', `must be below ${t.id}'s max_level_m ${t.max_level_m} (got ${link.low_cutoff.level_m})`);
       }
       break;
     }

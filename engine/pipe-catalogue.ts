@@ -53,13 +53,28 @@ const INCH = INCH_M;
 
 /** Iron-pipe-size outside diameters, in (ASTM D1785/D2241/D3035 share them). */
 export const IPS_OD_IN: Record<string, number> = {
-  '1/2"': 0.84, '3/4"': 1.05, '1"': 1.315, '1-1/4"': 1.66, '1-1/2"': 1.9, '2"': 2.375, '2-1/2"': 2.875, '3"': 3.5, '4"': 4.5,
+  '1/2"': 0.84,
+  '3/4"': 1.05,
+  '1"': 1.315,
+  '1-1/4"': 1.66,
+  '1-1/2"': 1.9,
+  '2"': 2.375,
+  '2-1/2"': 2.875,
+  '3"': 3.5,
+  '4"': 4.5,
 };
 
 /** ASTM D1785 Schedule 40: [minimum wall in, nominal ID in, rating psi]. */
 const SCH40: Record<string, [number, number, number]> = {
-  '1/2"': [0.109, 0.622, 600], '3/4"': [0.113, 0.824, 480], '1"': [0.133, 1.049, 450], '1-1/4"': [0.14, 1.38, 370],
-  '1-1/2"': [0.145, 1.61, 330], '2"': [0.154, 2.067, 280], '2-1/2"': [0.203, 2.469, 300], '3"': [0.216, 3.068, 260], '4"': [0.237, 4.026, 220],
+  '1/2"': [0.109, 0.622, 600],
+  '3/4"': [0.113, 0.824, 480],
+  '1"': [0.133, 1.049, 450],
+  '1-1/4"': [0.14, 1.38, 370],
+  '1-1/2"': [0.145, 1.61, 330],
+  '2"': [0.154, 2.067, 280],
+  '2-1/2"': [0.203, 2.469, 300],
+  '3"': [0.216, 3.068, 260],
+  '4"': [0.237, 4.026, 220],
 };
 
 export const pipeSeries: readonly PipeSeries[] = [
@@ -100,8 +115,15 @@ const SERIES_SIZES: Record<string, string[]> = {
 
 function size(nominal: string, odIn: number, wallIn: number, idIn: number, psi: number): PipeSize {
   return {
-    nominal, od_in: odIn, wall_in: wallIn, id_in: idIn, od_m: odIn * INCH, wall_m: wallIn * INCH, id_m: idIn * INCH,
-    rating_psi: psi, rating_m: psi / PSI_PER_METRE_OF_WATER,
+    nominal,
+    od_in: odIn,
+    wall_in: wallIn,
+    id_in: idIn,
+    od_m: odIn * INCH,
+    wall_m: wallIn * INCH,
+    id_m: idIn * INCH,
+    rating_psi: psi,
+    rating_m: psi / PSI_PER_METRE_OF_WATER,
   };
 }
 
@@ -169,7 +191,12 @@ const SMALL_PE = new Set(['1/2"', '3/4"', '1"']);
  */
 export function purchaseUnit(seriesId: string, nominal: string): PurchaseUnit {
   const series = pipeSeries.find((s) => s.id === seriesId);
-  const make = (unit: 'coil' | 'stick', ft: number, joint: 'coupling' | 'bell'): PurchaseUnit => ({ unit, length_ft: ft, length_m: Math.round(ft * FT * 1e4) / 1e4, joint });
+  const make = (unit: 'coil' | 'stick', ft: number, joint: 'coupling' | 'bell'): PurchaseUnit => ({
+    unit,
+    length_ft: ft,
+    length_m: Math.round(ft * FT * 1e4) / 1e4,
+    joint,
+  });
   if (series?.material === 'pe') {
     if (SMALL_PE.has(nominal)) return make('coil', 300, 'coupling');
     if (nominal === '3"' || nominal === '4"') return make('stick', 40, 'coupling');
@@ -179,8 +206,19 @@ export function purchaseUnit(seriesId: string, nominal: string): PurchaseUnit {
 }
 
 export type FittingKind =
-  | 'tee' | 'reducer' | 'elbow-90' | 'elbow-45' | 'coupling' | 'tank-adapter' | 'pump-adapter'
-  | 'valve-shutoff' | 'valve-check' | 'valve-prv' | 'valve-float' | 'air-release-valve' | 'drain-valve';
+  | 'tee'
+  | 'reducer'
+  | 'elbow-90'
+  | 'elbow-45'
+  | 'coupling'
+  | 'tank-adapter'
+  | 'pump-adapter'
+  | 'valve-shutoff'
+  | 'valve-check'
+  | 'valve-prv'
+  | 'valve-float'
+  | 'air-release-valve'
+  | 'drain-valve';
 
 /**
  * Fittings the takeoff counts, with the loss coefficient K used for a pipe's minor-loss
@@ -191,11 +229,11 @@ export type FittingKind =
  * wide open 3.0 (M). Air-release valves and drains sit off the flow and add none.
  */
 export const FITTINGS: Record<FittingKind, { label: string; k: number; kBranch?: number }> = {
-  'tee': { label: 'Tee', k: 0.4, kBranch: 1.5 },
-  'reducer': { label: 'Reducer', k: 0.5 },
+  tee: { label: 'Tee', k: 0.4, kBranch: 1.5 },
+  reducer: { label: 'Reducer', k: 0.5 },
   'elbow-90': { label: 'Elbow 90°', k: 0.9 },
   'elbow-45': { label: 'Elbow 45°', k: 0.4 },
-  'coupling': { label: 'Coupling', k: 0.1 },
+  coupling: { label: 'Coupling', k: 0.1 },
   'tank-adapter': { label: 'Tank adapter (bulkhead)', k: 0.5 },
   'pump-adapter': { label: 'Pump adapter', k: 0 },
   'valve-shutoff': { label: 'Shut-off valve', k: 0.2 },
@@ -224,7 +262,10 @@ export function nominalForDiameter(diameter_m: number): string {
   let gap = Infinity;
   for (const [nominal, [, id]] of Object.entries(SCH40)) {
     const g = Math.abs(id * INCH - diameter_m) / diameter_m;
-    if (g < gap) { gap = g; best = nominal; }
+    if (g < gap) {
+      gap = g;
+      best = nominal;
+    }
   }
   return gap <= 0.15 ? best : `${Math.round(diameter_m * 1000)} mm`;
 }

@@ -10,16 +10,34 @@
  * parseQuantity('12 kg', 'length', 'us')    // { ok: false, message: '"12 kg" is not a length (try ft or m)' }
  */
 import {
-  addDependencies, create, createUnitDependencies, divideDependencies, evaluateDependencies, multiplyDependencies,
-  powDependencies, subtractDependencies, unaryMinusDependencies, unaryPlusDependencies, unitDependencies, type Unit,
+  addDependencies,
+  create,
+  createUnitDependencies,
+  divideDependencies,
+  evaluateDependencies,
+  multiplyDependencies,
+  powDependencies,
+  subtractDependencies,
+  unaryMinusDependencies,
+  unaryPlusDependencies,
+  unitDependencies,
+  type Unit,
 } from 'mathjs';
 import { fromDisplay, unitLabel, type Quantity, type UnitSystem } from './units';
 
 // Only the parser, units and arithmetic: the Layout's properties panel loads this, and all of
 // mathjs would add most of a megabyte to it.
 const math = create({
-  evaluateDependencies, createUnitDependencies, unitDependencies, addDependencies, subtractDependencies,
-  multiplyDependencies, divideDependencies, unaryMinusDependencies, unaryPlusDependencies, powDependencies,
+  evaluateDependencies,
+  createUnitDependencies,
+  unitDependencies,
+  addDependencies,
+  subtractDependencies,
+  multiplyDependencies,
+  divideDependencies,
+  unaryMinusDependencies,
+  unaryPlusDependencies,
+  powDependencies,
 });
 math.createUnit('gpm', '1 gallon/minute');
 math.createUnit('gph', '1 gallon/hour');
@@ -60,7 +78,11 @@ export type QuantityParse = { ok: true; si: number } | { ok: false; message: str
 
 export function parseQuantity(text: string, quantity: Quantity, system: UnitSystem): QuantityParse {
   // "1 1/2 in" is a mixed number to a farmer (mathjs would read 1 × 1/2).
-  const t = text.trim().replace(/²/g, '^2').replace(/³/g, '^3').replace(/(\d+)\s+(\d+)\s*\/\s*(\d+)/g, '($1 + $2/$3)');
+  const t = text
+    .trim()
+    .replace(/²/g, '^2')
+    .replace(/³/g, '^3')
+    .replace(/(\d+)\s+(\d+)\s*\/\s*(\d+)/g, '($1 + $2/$3)');
   const target = SI_UNIT[quantity];
   if (!t) return { ok: false, message: 'enter a number' };
   if (!ALLOWED.test(t) || t.length > 60) return { ok: false, message: `"${text}" is not a number with a unit` };

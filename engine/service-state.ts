@@ -92,7 +92,12 @@ export function serviceStates(doc: NetworkDocument, res: SteadyResult): ServiceS
   for (const n of doc.nodes) {
     const r = res.nodes[n.id];
     if (!r) continue;
-    nodes[n.id] = nodeService(n, r.pressure_m, lowestRating.get(n.id), res.warnings.some((w) => w.code === 'disconnected' && w.element === n.id));
+    nodes[n.id] = nodeService(
+      n,
+      r.pressure_m,
+      lowestRating.get(n.id),
+      res.warnings.some((w) => w.code === 'disconnected' && w.element === n.id),
+    );
   }
   const links: Record<string, LinkService> = {};
   for (const l of doc.links) {
@@ -107,7 +112,13 @@ export function serviceStates(doc: NetworkDocument, res: SteadyResult): ServiceS
 
 function nodeService(n: NetworkNode, pressure_m: number, rating_m: number | undefined, disconnected: boolean): NodeService {
   if (n.kind === 'tank') {
-    return { pressure_m, state: 'unknown', rating: 'fine', volume_m3: tankVolume(n.diameter_m, n.level_m), capacity_m3: tankVolume(n.diameter_m, n.max_level_m) };
+    return {
+      pressure_m,
+      state: 'unknown',
+      rating: 'fine',
+      volume_m3: tankVolume(n.diameter_m, n.level_m),
+      capacity_m3: tankVolume(n.diameter_m, n.max_level_m),
+    };
   }
   if (n.kind === 'source') return { pressure_m, state: 'unknown', rating: 'fine' };
   const ratingShare = rating_m !== undefined && rating_m > 0 ? Math.max(0, pressure_m) / rating_m : undefined;

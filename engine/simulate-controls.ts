@@ -45,7 +45,11 @@ export class Controls {
    * Switches as they stand at `level` (per node; tanks' levels above their floors, m).
    * @param maxLevel per node, the tanks' max levels, m
    */
-  constructor(private readonly model: NetworkModel, level: ArrayLike<number>, private readonly maxLevel: ArrayLike<number>) {
+  constructor(
+    private readonly model: NetworkModel,
+    level: ArrayLike<number>,
+    private readonly maxLevel: ArrayLike<number>,
+  ) {
     const m = model.linkCount;
     this.controlTank = new Int32Array(m).fill(-1);
     this.stopLevel = new Float64Array(m);
@@ -57,19 +61,22 @@ export class Controls {
     this.controlOn = new Uint8Array(m).fill(1);
     this.cutoffOk = new Uint8Array(m).fill(1);
     this.floatOpen = new Uint8Array(m).fill(1);
-    const idx = (id: string | undefined): number => (id === undefined ? -1 : model.nodeIndex.get(id) ?? -1);
+    const idx = (id: string | undefined): number => (id === undefined ? -1 : (model.nodeIndex.get(id) ?? -1));
     model.doc.links.forEach((link, k) => {
       if (link.kind === 'pump') {
         this.pumpLinks.push(k);
         this.schedules[k] = link.schedule;
         if (link.control && idx(link.control.tank) >= 0) {
           const c = idx(link.control.tank);
-          this.controlTank[k] = c; this.stopLevel[k] = link.control.stop_level_m; this.startLevel[k] = link.control.start_level_m;
+          this.controlTank[k] = c;
+          this.stopLevel[k] = link.control.stop_level_m;
+          this.startLevel[k] = link.control.start_level_m;
           this.controlOn[k] = level[c] < this.stopLevel[k] ? 1 : 0;
         }
         if (link.low_cutoff && idx(link.low_cutoff.tank) >= 0) {
           const w = idx(link.low_cutoff.tank);
-          this.cutoffTank[k] = w; this.cutoffLevel[k] = link.low_cutoff.level_m;
+          this.cutoffTank[k] = w;
+          this.cutoffLevel[k] = link.low_cutoff.level_m;
           this.cutoffOk[k] = level[w] > this.cutoffLevel[k] ? 1 : 0;
         }
       } else if (link.kind === 'valve' && model.linkKind[k] === LINK_FLOAT && idx(link.tank) >= 0 && model.nodeKind[idx(link.tank)] === NODE_TANK) {
@@ -104,7 +111,12 @@ export class Controls {
   /** Switch on levels reached (within SWITCH_SNAP_M); true if anything switched. */
   update(level: ArrayLike<number>): boolean {
     let changed = false;
-    const flip = (arr: Uint8Array, k: number, v: number): void => { if (arr[k] !== v) { arr[k] = v; changed = true; } };
+    const flip = (arr: Uint8Array, k: number, v: number): void => {
+      if (arr[k] !== v) {
+        arr[k] = v;
+        changed = true;
+      }
+    };
     for (const k of this.pumpLinks) {
       const c = this.controlTank[k];
       if (c >= 0) {

@@ -45,7 +45,14 @@ export class TankStepper {
   private readonly whole: Float64Array;
   private readonly netIn: Float64Array;
 
-  constructor(private readonly model: NetworkModel, private readonly solver: GradientSolver, private readonly state: SolverState, readonly tanks: number[], private readonly demandNodes: number[], private readonly pumps: number[]) {
+  constructor(
+    private readonly model: NetworkModel,
+    private readonly solver: GradientSolver,
+    private readonly state: SolverState,
+    readonly tanks: number[],
+    private readonly demandNodes: number[],
+    private readonly pumps: number[],
+  ) {
     const n = model.nodeCount;
     this.mode = new Uint8Array(n);
     this.level0 = new Float64Array(n);
@@ -93,7 +100,10 @@ export class TankStepper {
     }
     if (!solver.solve(state, { warmStart: true }).converged) this.failed++;
     netIn.fill(0);
-    for (let k = 0; k < model.linkCount; k++) { netIn[model.to[k]] += solver.flow[k]; netIn[model.from[k]] -= solver.flow[k]; }
+    for (let k = 0; k < model.linkCount; k++) {
+      netIn[model.to[k]] += solver.flow[k];
+      netIn[model.from[k]] -= solver.flow[k];
+    }
     const w = weight * dt;
     for (const i of this.tanks) {
       const q = netIn[i] + state.tankInflow[i];

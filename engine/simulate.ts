@@ -83,14 +83,22 @@ function emptyResult(warnings: Warning[]): TimeSeriesResult {
 }
 
 /** The earliest level a tank crosses in the last step: tank, target level and linear time fraction. */
-interface Crossing { tank: number; target: number; fraction: number }
+interface Crossing {
+  tank: number;
+  target: number;
+  fraction: number;
+}
 
 /** Run an extended-period simulation (see module doc). Never throws on bad input. */
 export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResult {
   const parsed = parseDocument(doc);
   const invalid = parsed.ok ? [] : parsed.warnings;
   if (!(options.duration_s >= 0) || !(options.step_s > 0)) {
-    invalid.push({ code: 'invalid', element: null, message: `options.step_s: must be a positive number and duration_s ≥ 0 (got ${options.step_s}, ${options.duration_s})` });
+    invalid.push({
+      code: 'invalid',
+      element: null,
+      message: `options.step_s: must be a positive number and duration_s ≥ 0 (got ${options.step_s}, ${options.duration_s})`,
+    });
   }
   if (!parsed.ok || invalid.length > 0) return emptyResult(invalid);
   const network = parsed.doc;
@@ -113,7 +121,10 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
   for (const i of tanks) {
     const t = network.nodes[i];
     if (t.kind !== 'tank') continue;
-    level[i] = t.level_m; minLevel[i] = t.min_level_m; maxLevel[i] = t.max_level_m; state.tankInflow[i] = t.inflow_m3s ?? 0;
+    level[i] = t.level_m;
+    minLevel[i] = t.min_level_m;
+    maxLevel[i] = t.max_level_m;
+    state.tankInflow[i] = t.inflow_m3s ?? 0;
   }
   const controls = new Controls(model, level, maxLevel);
   const demandNodes: number[] = [];
@@ -195,15 +206,22 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
     return err;
   };
   const report = (tr: number, s: number): void => {
-    if (s === 1) { record(tr); return; }
+    if (s === 1) {
+      record(tr);
+      return;
+    }
     const r = reports++;
     const { head, flow, status } = solver;
     times[r] = tr;
     for (let j = 0; j < tanks.length; j++) levelSeries[j][r] = levelAt(tanks[j], s);
     const w = 2 * s - 1; // −1 at the start, 0 at the midpoint, 1 at the end
-    for (let i = 0; i < n; i++) pressureSeries[i][r] = model.nodeKind[i] === NODE_TANK ? levelAt(i, s) : midHead[i] + w * (head[i] - midHead[i]) - model.elevation[i];
+    for (let i = 0; i < n; i++)
+      pressureSeries[i][r] = model.nodeKind[i] === NODE_TANK ? levelAt(i, s) : midHead[i] + w * (head[i] - midHead[i]) - model.elevation[i];
     for (let k = 0; k < m; k++) flowSeries[k][r] = midFlow[k] + w * (flow[k] - midFlow[k]);
-    for (let j = 0; j < pumpLinks.length; j++) { const k = pumpLinks[j]; onSeries[j][r] = status[k] !== STATUS_CLOSED && midFlow[k] + w * (flow[k] - midFlow[k]) > 0; }
+    for (let j = 0; j < pumpLinks.length; j++) {
+      const k = pumpLinks[j];
+      onSeries[j][r] = status[k] !== STATUS_CLOSED && midFlow[k] + w * (flow[k] - midFlow[k]) > 0;
+    }
   };
   // the levels the last step crosses, earliest first by linear interpolation
   const switching: number[] = [];
@@ -213,11 +231,16 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
       const before = stepper.level0[i];
       const after = stepper.level[i];
       switching.length = 0;
-      if (mode[i] === TANK_NORMAL) { switching.push(maxLevel[i], minLevel[i]); controls.switchLevels(i, switching); }
-      else if (mode[i] === TANK_EMPTY) { switching.push(minLevel[i] + EMPTY_TANK_HYSTERESIS_M); controls.switchLevels(i, switching); }
-      else continue;
+      if (mode[i] === TANK_NORMAL) {
+        switching.push(maxLevel[i], minLevel[i]);
+        controls.switchLevels(i, switching);
+      } else if (mode[i] === TANK_EMPTY) {
+        switching.push(minLevel[i] + EMPTY_TANK_HYSTERESIS_M);
+        controls.switchLevels(i, switching);
+      } else continue;
       for (const target of switching) {
-        const crosses = (before < target - SWITCH_SNAP_M && after > target + SWITCH_SNAP_M) || (before > target + SWITCH_SNAP_M && after < target - SWITCH_SNAP_M);
+        const crosses =
+          (before < target - SWITCH_SNAP_M && after > target + SWITCH_SNAP_M) || (before > target + SWITCH_SNAP_M && after < target - SWITCH_SNAP_M);
         if (!crosses) continue;
         const fraction = (target - before) / (after - before);
         if (!best || fraction < best.fraction) best = { tank: i, target, fraction };
@@ -239,7 +262,17 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
       stepped = d;
       const g = stepper.level[c.tank] - c.target;
       if (Math.abs(g) <= SWITCH_SNAP_M / 2 || hi - lo < 1e-9 * Math.max(1, dt)) break;
-      if (Math.sign(g) === Math.sign(ghi)) { hi = d; ghi = g; if (side === -1) glo /= 2; side = -1; } else { lo = d; glo = g; if (side === 1) ghi /= 2; side = 1; }
+      if (Math.sign(g) === Math.sign(ghi)) {
+        hi = d;
+        ghi = g;
+        if (side === -1) glo /= 2;
+        side = -1;
+      } else {
+        lo = d;
+        glo = g;
+        if (side === 1) ghi /= 2;
+        side = 1;
+      }
       d = (lo * ghi - hi * glo) / (ghi - glo);
     }
     if (stepped !== d) stepper.step(d);
@@ -292,22 +325,36 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
     for (const i of tanks) {
       const v = stepper.tankVolume[i];
       if (mode[i] === TANK_FULL) {
-        if (v >= 0) overflow[i] += v; else { level[i] = maxLevel[i] + v / model.tankArea[i]; mode[i] = TANK_NORMAL; }
+        if (v >= 0) overflow[i] += v;
+        else {
+          level[i] = maxLevel[i] + v / model.tankArea[i];
+          mode[i] = TANK_NORMAL;
+        }
       } else level[i] = stepper.level[i];
     }
-    for (const i of demandNodes) { delivered[i] += stepper.delivered[i]; unmet[i] += Math.max(stepper.unmet[i], 0); }
+    for (const i of demandNodes) {
+      delivered[i] += stepper.delivered[i];
+      unmet[i] += Math.max(stepper.unmet[i], 0);
+    }
     for (const k of controls.pumpLinks) pumped[k] += stepper.pumped[k];
     t += dt;
     // tank modes and switches at t
     for (const i of tanks) {
       const before = stepper.level0[i];
-      if (mode[i] === TANK_NORMAL && level[i] >= maxLevel[i] - SWITCH_SNAP_M && level[i] > before) { level[i] = maxLevel[i]; mode[i] = TANK_FULL; }
+      if (mode[i] === TANK_NORMAL && level[i] >= maxLevel[i] - SWITCH_SNAP_M && level[i] > before) {
+        level[i] = maxLevel[i];
+        mode[i] = TANK_FULL;
+      }
       if (mode[i] === TANK_NORMAL && level[i] <= minLevel[i] + SWITCH_SNAP_M && level[i] < before) {
-        level[i] = minLevel[i]; mode[i] = TANK_EMPTY;
+        level[i] = minLevel[i];
+        mode[i] = TANK_EMPTY;
         if (everEmpty[i] < 0) everEmpty[i] = t;
       }
       if (mode[i] === TANK_EMPTY && level[i] >= minLevel[i] + EMPTY_TANK_HYSTERESIS_M - SWITCH_SNAP_M) mode[i] = TANK_NORMAL;
-      if (level[i] < lowest[i] - 1e-12) { lowest[i] = level[i]; lowestAt[i] = t; }
+      if (level[i] < lowest[i] - 1e-12) {
+        lowest[i] = level[i];
+        lowestAt[i] = t;
+      }
     }
     while (reportIndex > 0 && reportTime(reportIndex) <= t + 1e-6) {
       const tr = reportTime(reportIndex);
@@ -315,7 +362,10 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
       reportIndex = tr >= duration - 1e-6 ? -1 : reportIndex + 1;
     }
     controls.update(level);
-    if (onProgress && t >= (progressed + 0.01) * duration && t < duration - 1e-6) { progressed = t / duration; onProgress(progressed); }
+    if (onProgress && t >= (progressed + 0.01) * duration && t < duration - 1e-6) {
+      progressed = t / duration;
+      onProgress(progressed);
+    }
   }
   onProgress?.(1);
 
@@ -340,9 +390,15 @@ export function simulate(doc: unknown, options: SimulateOptions): TimeSeriesResu
     const id = model.nodeIds[i];
     result.summary.outlets[id] = { delivered_m3: delivered[i], unmet_m3: unmet[i] };
     const total = delivered[i] + unmet[i];
-    if (unmet[i] > 0.01 * total && unmet[i] > 1e-6) result.warnings.push({ code: 'unmet-demand', element: id, message: `${id}: ${round(unmet[i] * 1000)} L of ${round(total * 1000)} L requested was not delivered` });
+    if (unmet[i] > 0.01 * total && unmet[i] > 1e-6)
+      result.warnings.push({
+        code: 'unmet-demand',
+        element: id,
+        message: `${id}: ${round(unmet[i] * 1000)} L of ${round(total * 1000)} L requested was not delivered`,
+      });
   }
-  if (failedSolves > 0) result.warnings.push({ code: 'not-converged', element: null, message: `network: ${failedSolves} network solves in the time steps did not converge` });
+  if (failedSolves > 0)
+    result.warnings.push({ code: 'not-converged', element: null, message: `network: ${failedSolves} network solves in the time steps did not converge` });
   return result;
 }
 

@@ -77,11 +77,17 @@ export class SparseLdl {
     const pj: Int32Array = 'j' in offDiagonal ? offDiagonal.j : Int32Array.from(Array.from(offDiagonal as ArrayLike<readonly [number, number]>, (p) => p[1]));
     // adjacency (deduplicated) in CSR
     const count = new Int32Array(n + 1);
-    for (let e = 0; e < pi.length; e++) { count[pi[e] + 1]++; count[pj[e] + 1]++; }
+    for (let e = 0; e < pi.length; e++) {
+      count[pi[e] + 1]++;
+      count[pj[e] + 1]++;
+    }
     for (let v = 0; v < n; v++) count[v + 1] += count[v];
     const raw = new Int32Array(count[n]);
     const fill = count.slice(0, n);
-    for (let e = 0; e < pi.length; e++) { raw[fill[pi[e]]++] = pj[e]; raw[fill[pj[e]]++] = pi[e]; }
+    for (let e = 0; e < pi.length; e++) {
+      raw[fill[pi[e]]++] = pj[e];
+      raw[fill[pj[e]]++] = pi[e];
+    }
     const adjPtr = new Int32Array(n + 1);
     const adjTmp = new Int32Array(raw.length);
     let nnzAdj = 0;
@@ -98,7 +104,10 @@ export class SparseLdl {
     for (let v = 0; v < n; v++) {
       let inserted = false;
       for (let a = adjPtr[v]; a < adjPtr[v + 1]; a++) {
-        if (!inserted && adjIdx[a] > v) { this.rowIdx[p++] = v; inserted = true; }
+        if (!inserted && adjIdx[a] > v) {
+          this.rowIdx[p++] = v;
+          inserted = true;
+        }
         this.rowIdx[p++] = adjIdx[a];
       }
       if (!inserted) this.rowIdx[p++] = v;
@@ -129,7 +138,9 @@ export class SparseLdl {
     const { n, perm, pinv, parent, lnz, flag, colPtr, rowIdx, lp } = this;
     for (let k = 0; k < n; k++) pinv[perm[k]] = k;
     for (let k = 0; k < n; k++) {
-      parent[k] = -1; flag[k] = k; lnz[k] = 0;
+      parent[k] = -1;
+      flag[k] = k;
+      lnz[k] = 0;
       const kk = perm[k];
       for (let q = colPtr[kk]; q < colPtr[kk + 1]; q++) {
         let i = pinv[rowIdx[q]];
@@ -146,7 +157,9 @@ export class SparseLdl {
   }
 
   /** Number of non-zeros below the diagonal of L (fill included). */
-  get factorNonZeros(): number { return this.lp[this.n]; }
+  get factorNonZeros(): number {
+    return this.lp[this.n];
+  }
 
   /** Index into `values` of entry (i, j); -1 when outside the pattern. */
   position(i: number, j: number): number {
@@ -156,7 +169,8 @@ export class SparseLdl {
       const mid = (lo + hi) >> 1;
       const r = this.rowIdx[mid];
       if (r === i) return mid;
-      if (r < i) lo = mid + 1; else hi = mid - 1;
+      if (r < i) lo = mid + 1;
+      else hi = mid - 1;
     }
     return -1;
   }
@@ -182,7 +196,10 @@ export class SparseLdl {
         if (i <= k) {
           y[i] += values[q];
           let len = 0;
-          for (; flag[i] !== k; i = parent[i]) { pattern[len++] = i; flag[i] = k; }
+          for (; flag[i] !== k; i = parent[i]) {
+            pattern[len++] = i;
+            flag[i] = k;
+          }
           while (len > 0) pattern[--top] = pattern[--len];
         }
       }
@@ -231,7 +248,10 @@ function postorder(parent: Int32Array): Int32Array {
   const next = new Int32Array(n);
   for (let j = n - 1; j >= 0; j--) {
     const p = parent[j];
-    if (p >= 0) { next[j] = head[p]; head[p] = j; }
+    if (p >= 0) {
+      next[j] = head[p];
+      head[p] = j;
+    }
   }
   const post = new Int32Array(n);
   const stack = new Int32Array(n);
@@ -243,7 +263,13 @@ function postorder(parent: Int32Array): Int32Array {
     while (top >= 0) {
       const v = stack[top];
       const child = head[v];
-      if (child === -1) { top--; post[k++] = v; } else { head[v] = next[child]; stack[++top] = child; }
+      if (child === -1) {
+        top--;
+        post[k++] = v;
+      } else {
+        head[v] = next[child];
+        stack[++top] = child;
+      }
     }
   }
   return post;

@@ -1,7 +1,24 @@
 import { steadyChecks, type CheckOptions } from './checks';
-import { GradientSolver, STATUS_ACTIVE as STATUS_ACTIVE_, STATUS_CHECK_CLOSED as STATUS_CHECK_CLOSED_, STATUS_OPEN as STATUS_OPEN_, STATUS_SHUT as STATUS_SHUT_, STATUS_CLOSED as STATUS_CLOSED_, STATUS_ISOLATED as STATUS_ISOLATED_, STATUS_NAMES as STATUS_NAMES_, type SolverState } from './gradient-solver';
+import {
+  GradientSolver,
+  STATUS_ACTIVE as STATUS_ACTIVE_,
+  STATUS_CHECK_CLOSED as STATUS_CHECK_CLOSED_,
+  STATUS_OPEN as STATUS_OPEN_,
+  STATUS_SHUT as STATUS_SHUT_,
+  STATUS_CLOSED as STATUS_CLOSED_,
+  STATUS_ISOLATED as STATUS_ISOLATED_,
+  STATUS_NAMES as STATUS_NAMES_,
+  type SolverState,
+} from './gradient-solver';
 import type { NetworkDocument } from './network-document';
-import { compileNetwork, LINK_PRV, LINK_PUMP_CURVE as LINK_PUMP_CURVE_, LINK_PUMP_FLOW as LINK_PUMP_FLOW_, NODE_JUNCTION as NODE_JUNCTION_, type NetworkModel } from './network-model';
+import {
+  compileNetwork,
+  LINK_PRV,
+  LINK_PUMP_CURVE as LINK_PUMP_CURVE_,
+  LINK_PUMP_FLOW as LINK_PUMP_FLOW_,
+  NODE_JUNCTION as NODE_JUNCTION_,
+  type NetworkModel,
+} from './network-model';
 import { migrateDocument } from './migrations';
 import { Controls } from './simulate-controls';
 import { parseDocument } from './validate';
@@ -46,8 +63,17 @@ export interface SteadyOptions extends CheckOptions {
   start?: Pick<SteadyResult, 'nodes' | 'links'>;
 }
 
-export interface NodeResult { head_m: number; pressure_m: number; demand_m3s: number }
-export interface LinkResult { flow_m3s: number; velocity_ms: number; headloss_m: number; status: string }
+export interface NodeResult {
+  head_m: number;
+  pressure_m: number;
+  demand_m3s: number;
+}
+export interface LinkResult {
+  flow_m3s: number;
+  velocity_ms: number;
+  headloss_m: number;
+  status: string;
+}
 
 export interface SteadyResult {
   converged: boolean;
@@ -84,7 +110,12 @@ export function steadyState(solver: GradientSolver, options: SteadyOptions = {})
   state.pressureDriven = options.pressureDriven ?? false;
   const level = new Float64Array(model.nodeCount);
   const max = new Float64Array(model.nodeCount);
-  model.doc.nodes.forEach((node, i) => { if (node.kind === 'tank') { level[i] = node.level_m; max[i] = node.max_level_m; } });
+  model.doc.nodes.forEach((node, i) => {
+    if (node.kind === 'tank') {
+      level[i] = node.level_m;
+      max[i] = node.max_level_m;
+    }
+  });
   new Controls(model, level, max).apply(state, null);
   return state;
 }
@@ -117,7 +148,8 @@ export function collectResult(model: NetworkModel, solver: GradientSolver): Pick
       flow_m3s: q,
       velocity_ms: isPump || model.area[k] === 0 ? 0 : q / model.area[k],
       headloss_m: solver.head[model.from[k]] - solver.head[model.to[k]],
-      status: STATUS_NAMES[solver.status[k] !== STATUS_CLOSED && (!solver.active[model.from[k]] || !solver.active[model.to[k]]) ? STATUS_ISOLATED : solver.status[k]],
+      status:
+        STATUS_NAMES[solver.status[k] !== STATUS_CLOSED && (!solver.active[model.from[k]] || !solver.active[model.to[k]]) ? STATUS_ISOLATED : solver.status[k]],
     };
   }
   return { nodes, links };
@@ -130,7 +162,10 @@ function startFrom(model: NetworkModel, solver: GradientSolver, state: SolverSta
   const head = new Float64Array(model.nodeCount).fill(Number.NaN);
   const flow = new Float64Array(model.linkCount).fill(Number.NaN);
   const status = new Int8Array(model.linkCount).fill(-1);
-  for (let i = 0; i < model.nodeCount; i++) { const r = start.nodes?.[model.nodeIds[i]]; if (r) head[i] = r.head_m; }
+  for (let i = 0; i < model.nodeCount; i++) {
+    const r = start.nodes?.[model.nodeIds[i]];
+    if (r) head[i] = r.head_m;
+  }
   for (let k = 0; k < model.linkCount; k++) {
     const r = start.links?.[model.linkIds[k]];
     if (!r) continue;
@@ -150,11 +185,16 @@ function startFrom(model: NetworkModel, solver: GradientSolver, state: SolverSta
  */
 export function solve(doc: unknown, options: SteadyOptions = {}): SteadyResult {
   const parsed = parseDocument(doc);
-  if (!parsed.ok) return { converged: false, reason: 'the document is invalid (see the warnings)', iterations: 0, nodes: {}, links: {}, warnings: parsed.warnings };
+  if (!parsed.ok)
+    return { converged: false, reason: 'the document is invalid (see the warnings)', iterations: 0, nodes: {}, links: {}, warnings: parsed.warnings };
   const network = parsed.doc;
   if (!network.nodes.some((node) => node.kind === 'source' || node.kind === 'tank')) {
     return {
-      converged: false, reason: 'no source or tank', iterations: 0, nodes: {}, links: {},
+      converged: false,
+      reason: 'no source or tank',
+      iterations: 0,
+      nodes: {},
+      links: {},
       warnings: [{ code: 'no-fixed-head', element: null, message: 'network: needs at least one source or tank to fix the head' }],
     };
   }
@@ -163,22 +203,41 @@ export function solve(doc: unknown, options: SteadyOptions = {}): SteadyResult {
     const solver = new GradientSolver(model);
     const state = steadyState(solver, options);
     if (options.start) startFrom(model, solver, state, options.start);
-    const outcome = solver.solve(state, { maxIterations: options.maxIterations, headTolerance_m: options.headTolerance_m, warmStart: options.start !== undefined, checkStart: true });
+    const outcome = solver.solve(state, {
+      maxIterations: options.maxIterations,
+      headTolerance_m: options.headTolerance_m,
+      warmStart: options.start !== undefined,
+      checkStart: true,
+    });
     const { nodes, links } = collectResult(model, solver);
     const warnings: Warning[] = [];
     if (!outcome.converged) {
-      warnings.push({ code: 'not-converged', element: null, message: `network: the solution did not converge in ${outcome.iterations} iterations: ${outcome.reason}` });
+      warnings.push({
+        code: 'not-converged',
+        element: null,
+        message: `network: the solution did not converge in ${outcome.iterations} iterations: ${outcome.reason}`,
+      });
     }
     const level = new Float64Array(model.nodeCount);
     const closed = new Uint8Array(model.linkCount);
     for (let k = 0; k < model.linkCount; k++) closed[k] = solver.status[k] === STATUS_CLOSED ? 1 : 0;
-    warnings.push(...steadyChecks(model, { head: solver.head, flow: solver.flow, demand: solver.demand, requested: solver.requested, active: solver.active, level, closed }, options));
+    warnings.push(
+      ...steadyChecks(
+        model,
+        { head: solver.head, flow: solver.flow, demand: solver.demand, requested: solver.requested, active: solver.active, level, closed },
+        options,
+      ),
+    );
     const result: SteadyResult = { converged: outcome.converged, iterations: outcome.iterations, nodes, links, warnings };
     if (!outcome.converged) result.reason = outcome.reason ?? 'not converged';
     return result;
   } catch (error) {
     return {
-      converged: false, reason: 'the solver failed', iterations: 0, nodes: {}, links: {},
+      converged: false,
+      reason: 'the solver failed',
+      iterations: 0,
+      nodes: {},
+      links: {},
       warnings: [{ code: 'not-converged', element: null, message: `network: the solver failed (${error instanceof Error ? error.message : String(error)})` }],
     };
   }

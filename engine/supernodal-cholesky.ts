@@ -80,9 +80,16 @@ export class SupernodalCholesky {
       const s0 = starts.length > 0 ? starts[starts.length - 1] : 0;
       const width = j - s0;
       const extra = j > 0 ? (count(j) + 1 - count(j - 1)) * width : 0;
-      const joins = j > 0 && parent[j - 1] === j && width < MAX_SUPERNODE_WIDTH
-        && (extra === 0 || zeros + extra <= Math.max(RELAX_ZEROS_FRACTION * (width + 1) * (count(j) + width + 1), 64));
-      if (joins) zeros += extra; else { starts.push(j); zeros = 0; }
+      const joins =
+        j > 0 &&
+        parent[j - 1] === j &&
+        width < MAX_SUPERNODE_WIDTH &&
+        (extra === 0 || zeros + extra <= Math.max(RELAX_ZEROS_FRACTION * (width + 1) * (count(j) + width + 1), 64));
+      if (joins) zeros += extra;
+      else {
+        starts.push(j);
+        zeros = 0;
+      }
     }
     starts.push(n);
     const ns = starts.length - 1;
@@ -105,18 +112,27 @@ export class SupernodalCholesky {
       const f = starts[s];
       const l = starts[s + 1] - 1;
       let w = this.rowPtr[s];
-      for (let j = f; j <= l; j++) { mark[j] = s; this.rows[w++] = j; }
+      for (let j = f; j <= l; j++) {
+        mark[j] = s;
+        this.rows[w++] = j;
+      }
       for (let j = f; j <= l; j++) {
         const col = perm[j];
         for (let q = colPtr[col]; q < colPtr[col + 1]; q++) {
           const i = pinv[rowIdx[q]];
-          if (i > l && mark[i] !== s) { mark[i] = s; this.rows[w++] = i; }
+          if (i > l && mark[i] !== s) {
+            mark[i] = s;
+            this.rows[w++] = i;
+          }
         }
       }
       for (const c of children[s]) {
         for (let q = this.rowPtr[c] + (starts[c + 1] - starts[c]); q < this.rowPtr[c + 1]; q++) {
           const i = this.rows[q];
-          if (i > l && mark[i] !== s) { mark[i] = s; this.rows[w++] = i; }
+          if (i > l && mark[i] !== s) {
+            mark[i] = s;
+            this.rows[w++] = i;
+          }
         }
       }
       if (w !== this.rowPtr[s + 1]) throw new Error(`supernodal structure mismatch at ${s}`);
@@ -146,7 +162,10 @@ export class SupernodalCholesky {
         const col = perm[f + c];
         for (let q = colPtr[col]; q < colPtr[col + 1]; q++) {
           const i = pinv[rowIdx[q]];
-          if (i >= f + c) { scatterFrom.push(q); scatterTo.push(this.blockPtr[s] + c * m + this.relative[i]); }
+          if (i >= f + c) {
+            scatterFrom.push(q);
+            scatterTo.push(this.blockPtr[s] + c * m + this.relative[i]);
+          }
         }
       }
     }
@@ -161,7 +180,9 @@ export class SupernodalCholesky {
   }
 
   /** Stored entries of L (dense blocks, including the diagonal). */
-  get factorNonZeros(): number { return this.blockPtr[this.supernodes]; }
+  get factorNonZeros(): number {
+    return this.blockPtr[this.supernodes];
+  }
 
   /** Numeric factorisation from pattern.values; returns n on success or the failing column. */
   factor(): number {
@@ -210,7 +231,10 @@ export class SupernodalCholesky {
           const base1 = b0 + (rows[dr0 + p1 + jj + 1] - f) * m;
           if (contiguous) subtractProductsPair(block, c0, dm, dw, jj, um, block, base + rel0, base1 + rel0);
           else {
-            for (let ii = jj; ii < um; ii++) { update[ii] = 0; update[half + ii] = 0; }
+            for (let ii = jj; ii < um; ii++) {
+              update[ii] = 0;
+              update[half + ii] = 0;
+            }
             subtractProductsPair(block, c0, dm, dw, jj, um, update, 0, half);
             for (let ii = jj; ii < um; ii++) block[base + map[ii]] += update[ii];
             for (let ii = jj + 1; ii < um; ii++) block[base1 + map[ii]] += update[half + ii];
@@ -227,7 +251,11 @@ export class SupernodalCholesky {
         }
         // move d on to the supernode of its next row
         position[d] = p2;
-        if (p2 < dm) { const t = superOf[rows[dr0 + p2]]; next[d] = head[t]; head[t] = d; }
+        if (p2 < dm) {
+          const t = superOf[rows[dr0 + p2]];
+          next[d] = head[t];
+          head[t] = d;
+        }
         d = nextD;
       }
       // dense Cholesky of the diagonal block and triangular solve of the rows below, left-looking
@@ -348,7 +376,17 @@ function subtractProducts(block: Float64Array, start: number, stride: number, wi
  * out[o1 + i]), rows from j: each source entry loaded serves both. The entry at row j of the
  * second column lies above its diagonal, where nothing is read.
  */
-function subtractProductsPair(block: Float64Array, start: number, stride: number, width: number, j: number, rows: number, out: Float64Array, o0: number, o1: number): void {
+function subtractProductsPair(
+  block: Float64Array,
+  start: number,
+  stride: number,
+  width: number,
+  j: number,
+  rows: number,
+  out: Float64Array,
+  o0: number,
+  o1: number,
+): void {
   const j1 = j + 1;
   let k = 0;
   let a = start;

@@ -17,4 +17,7 @@ export interface ParsedSurveyPoint {
 
 export type SurveyFormat = (typeof SURVEY_FORMATS)[number];
 
-export interface SurveyParse { format: SurveyFormat; points: ParsedSurveyPoint[] }
+export interface SurveyParse {
+  format: SurveyFormat;
+  points: ParsedSurveyPoint[];
+}

@@ -10,8 +10,20 @@
 
 export type UnitSystem = 'us' | 'si';
 export type Quantity =
-  | 'length' | 'elevation' | 'diameter' | 'flow' | 'pressure' | 'head' | 'velocity'
-  | 'volume' | 'area' | 'headloss-gradient' | 'daily-volume' | 'depth-rate' | 'duration' | 'emitter-flow';
+  | 'length'
+  | 'elevation'
+  | 'diameter'
+  | 'flow'
+  | 'pressure'
+  | 'head'
+  | 'velocity'
+  | 'volume'
+  | 'area'
+  | 'headloss-gradient'
+  | 'daily-volume'
+  | 'depth-rate'
+  | 'duration'
+  | 'emitter-flow';
 
 /** International foot, m (exact). Other files take unit factors from here, never retyped. */
 export const FOOT_M = 0.3048;
@@ -22,7 +34,12 @@ export const US_GALLON_M3 = 3.785411784e-3;
 /** psi per metre of water column at about 4–20 °C: 1 m H2O = 9806.65 Pa; 1 psi = 6894.757 Pa. */
 const PSI_PER_M_WATER = 9806.65 / 6894.757293168;
 
-interface UnitDef { label: string; fromSi: (v: number) => number; toSi: (v: number) => number; digits: number }
+interface UnitDef {
+  label: string;
+  fromSi: (v: number) => number;
+  toSi: (v: number) => number;
+  digits: number;
+}
 
 const TABLE: Record<Quantity, Record<UnitSystem, UnitDef>> = {
   length: {

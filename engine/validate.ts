@@ -49,7 +49,8 @@ export function validateDocument(doc: unknown): Warning[] {
 
 function failed(all: DocumentProblem[]): DocumentParse {
   const more = all.length - MAX_PROBLEMS;
-  const problems = more > 0 ? [...all.slice(0, MAX_PROBLEMS), { path: [], element: null, message: `document: … and ${more} more problem${more === 1 ? '' : 's'}` }] : all;
+  const problems =
+    more > 0 ? [...all.slice(0, MAX_PROBLEMS), { path: [], element: null, message: `document: … and ${more} more problem${more === 1 ? '' : 's'}` }] : all;
   return { ok: false, problems, warnings: problems.map((p) => ({ code: 'invalid', element: p.element, message: p.message })) };
 }
 

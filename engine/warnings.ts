@@ -7,8 +7,17 @@
  * const w: Warning = { code: 'velocity-high', element: 'P4', message: 'P4: velocity 1.9 m/s is above 1.5 m/s' };
  */
 export type WarningCode =
-  | 'invalid' | 'disconnected' | 'no-fixed-head' | 'not-converged' | 'negative-pressure' | 'velocity-high'
-  | 'over-rating' | 'below-minimum' | 'tank-empty' | 'tank-overflow' | 'unmet-demand';
+  | 'invalid'
+  | 'disconnected'
+  | 'no-fixed-head'
+  | 'not-converged'
+  | 'negative-pressure'
+  | 'velocity-high'
+  | 'over-rating'
+  | 'below-minimum'
+  | 'tank-empty'
+  | 'tank-overflow'
+  | 'unmet-demand';
 
 export interface Warning {
   code: WarningCode;

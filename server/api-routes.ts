@@ -8,7 +8,11 @@ import { guard, type Access } from './permissions';
 import { PROJECT_PATH } from './project-scope';
 
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
-export interface RouteSpec { method: Method; path: string; access: Access }
+export interface RouteSpec {
+  method: Method;
+  path: string;
+  access: Access;
+}
 
 export class ApiRoutes {
   readonly router = Router();
@@ -17,11 +21,21 @@ export class ApiRoutes {
   /** `projectScope`: the loadProject middleware of this app's database. */
   constructor(private readonly projectScope: RequestHandler) {}
 
-  get(path: string, access: Access, ...handlers: RequestHandler[]) { return this.add('get', path, access, handlers); }
-  post(path: string, access: Access, ...handlers: RequestHandler[]) { return this.add('post', path, access, handlers); }
-  put(path: string, access: Access, ...handlers: RequestHandler[]) { return this.add('put', path, access, handlers); }
-  patch(path: string, access: Access, ...handlers: RequestHandler[]) { return this.add('patch', path, access, handlers); }
-  delete(path: string, access: Access, ...handlers: RequestHandler[]) { return this.add('delete', path, access, handlers); }
+  get(path: string, access: Access, ...handlers: RequestHandler[]) {
+    return this.add('get', path, access, handlers);
+  }
+  post(path: string, access: Access, ...handlers: RequestHandler[]) {
+    return this.add('post', path, access, handlers);
+  }
+  put(path: string, access: Access, ...handlers: RequestHandler[]) {
+    return this.add('put', path, access, handlers);
+  }
+  patch(path: string, access: Access, ...handlers: RequestHandler[]) {
+    return this.add('patch', path, access, handlers);
+  }
+  delete(path: string, access: Access, ...handlers: RequestHandler[]) {
+    return this.add('delete', path, access, handlers);
+  }
 
   private add(method: Method, path: string, access: Access, handlers: RequestHandler[]): this {
     this.table.push({ method, path, access });

@@ -87,8 +87,9 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   const bcryptCost = options.bcryptCost ?? DEFAULT_BCRYPT_COST;
   warmEnginePool();
 
-  const database = options.database ?? await openDatabase(
-    config.databaseUrl ? { kind: 'postgres', url: config.databaseUrl } : { kind: 'pglite', dir: pgliteDir(config.dataDir) });
+  const database =
+    options.database ??
+    (await openDatabase(config.databaseUrl ? { kind: 'postgres', url: config.databaseUrl } : { kind: 'pglite', dir: pgliteDir(config.dataDir) }));
   const db = database.db;
 
   let sink: MailSink | null = null;
@@ -98,9 +99,16 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   const seeded = options.seed === false ? null : await database.exclusive(() => seedDemo(db, { bcryptCost }));
   const passwords = options.passwordPool ?? sharedPasswordPool();
   const ctx: AppContext = {
-    db, config, mailer, bcryptCost, log, passwords,
-    passwordBudget: passwordBudget(db, options.passwordBudget
-      ?? { ...DEFAULT_PASSWORD_BUDGET, max: config.passwordChecksPerIp ?? DEFAULT_PASSWORD_BUDGET.max }),
+    db,
+    config,
+    mailer,
+    bcryptCost,
+    log,
+    passwords,
+    passwordBudget: passwordBudget(
+      db,
+      options.passwordBudget ?? { ...DEFAULT_PASSWORD_BUDGET, max: config.passwordChecksPerIp ?? DEFAULT_PASSWORD_BUDGET.max },
+    ),
   };
 
   const store = new DrizzleSessionStore(db);
@@ -110,27 +118,29 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   const app = express();
   app.disable('x-powered-by');
   if (config.trustProxy !== undefined) app.set('trust proxy', config.trustProxy);
-  app.use(helmet({
-    contentSecurityPolicy: {
-      directives: {
-        defaultSrc: ["'self'"],
-        scriptSrc: ["'self'"],
-        scriptSrcAttr: ["'unsafe-hashes'", ANGULAR_STYLESHEET_ONLOAD],
-        styleSrc: ["'self'", "'unsafe-inline'"],
-        imgSrc: ["'self'", 'data:', 'blob:'],
-        fontSrc: ["'self'", 'data:'],
-        workerSrc: ["'self'", 'blob:'],
-        connectSrc: ["'self'"],
-        objectSrc: ["'none'"],
-        frameAncestors: ["'none'"],
-        baseUri: ["'self'"],
-        formAction: ["'self'"],
-        upgradeInsecureRequests: config.cookieSecure ? [] : null,
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          scriptSrcAttr: ["'unsafe-hashes'", ANGULAR_STYLESHEET_ONLOAD],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'", 'data:'],
+          workerSrc: ["'self'", 'blob:'],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          upgradeInsecureRequests: config.cookieSecure ? [] : null,
+        },
       },
-    },
-    // HSTS only where the site is served over HTTPS (the same switch as Secure cookies).
-    strictTransportSecurity: config.cookieSecure,
-  }));
+      // HSTS only where the site is served over HTTPS (the same switch as Secure cookies).
+      strictTransportSecurity: config.cookieSecure,
+    }),
+  );
   app.use(requestLogger(logger));
 
   const api = new ApiRoutes(loadProject(db));
@@ -149,7 +159,8 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   takeoffRoutes(api, ctx);
   walkRoutes(api, ctx);
 
-  app.use('/api',
+  app.use(
+    '/api',
     requireJsonOrMultipart,
     express.json({ limit: JSON_BODY_LIMIT }),
     checkJsonText,
@@ -184,7 +195,12 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   app.use(errorHandler(logger));
 
   return {
-    app, db, routes: api.table.map((r) => ({ ...r })), mailSinkPort: sink?.port ?? null, seeded, logger,
+    app,
+    db,
+    routes: api.table.map((r) => ({ ...r })),
+    mailSinkPort: sink?.port ?? null,
+    seeded,
+    logger,
     async close() {
       store.stop();
       mailer.close();

@@ -13,7 +13,10 @@ const envSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   HOST: z.string().default('127.0.0.1'),
   RUNNEL_DATA_DIR: z.string().default('./.data'),
-  DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'must start with postgres://').optional(),
+  DATABASE_URL: z
+    .string()
+    .regex(/^postgres(ql)?:\/\//, 'must start with postgres://')
+    .optional(),
   SESSION_SECRET: z.string().min(16, 'must be at least 16 characters').optional(),
   SMTP_HOST: z.string().optional(),
   SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(587),
@@ -31,14 +34,22 @@ const envSchema = z.object({
   /** Lowest level of the JSON log (server/logging.ts). */
   LOG_LEVEL: z.enum(LOG_LEVELS).default('info'),
   PASSWORD_CHECKS_PER_IP: z.coerce.number().int().min(1).max(1_000_000).default(50),
-  TRUST_PROXY: z.string().optional().superRefine((value, ctx) => {
-    if (value === undefined || value === '') return;
-    const problem = trustProxyProblem(value);
-    if (problem) ctx.addIssue({ code: 'custom', message: problem });
-  }),
+  TRUST_PROXY: z
+    .string()
+    .optional()
+    .superRefine((value, ctx) => {
+      if (value === undefined || value === '') return;
+      const problem = trustProxyProblem(value);
+      if (problem) ctx.addIssue({ code: 'custom', message: problem });
+    }),
 });
 
-export interface SmtpConfig { host: string; port: number; user?: string; pass?: string }
+export interface SmtpConfig {
+  host: string;
+  port: number;
+  user?: string;
+  pass?: string;
+}
 
 export interface Config {
   production: boolean;
@@ -114,11 +125,16 @@ function isProxyAddress(entry: string): boolean {
 /** Why a TRUST_PROXY value is refused, or null. */
 export function trustProxyProblem(value: string): string | null {
   if (/^(true|false|yes|no|on|off)$/i.test(value.trim())) {
-    return 'must be a hop count (e.g. 1) or a comma-separated list of proxy addresses (e.g. 10.0.0.5,10.0.1.0/24, loopback); '
-      + '"true" would trust any X-Forwarded-For and let a client choose its own IP';
+    return (
+      'must be a hop count (e.g. 1) or a comma-separated list of proxy addresses (e.g. 10.0.0.5,10.0.1.0/24, loopback); ' +
+      '"true" would trust any X-Forwarded-For and let a client choose its own IP'
+    );
   }
   if (/^\d+$/.test(value.trim())) return Number(value) <= 10 ? null : 'a hop count must be 10 or fewer';
-  const bad = value.split(',').map((e) => e.trim()).filter((e) => !isProxyAddress(e));
+  const bad = value
+    .split(',')
+    .map((e) => e.trim())
+    .filter((e) => !isProxyAddress(e));
   return bad.length ? `is not a hop count nor a list of proxy addresses: ${bad.map((b) => JSON.stringify(b)).join(', ')}` : null;
 }
 

@@ -8,10 +8,17 @@
 import { closeSync, linkSync, openSync, readFileSync, renameSync, unlinkSync, writeSync } from 'node:fs';
 import { hostname } from 'node:os';
 
-export interface LockOwner { pid: number; host: string; startedAt: string }
+export interface LockOwner {
+  pid: number;
+  host: string;
+  startedAt: string;
+}
 
 export class DataLockError extends Error {
-  constructor(message: string, readonly owner: LockOwner | null) {
+  constructor(
+    message: string,
+    readonly owner: LockOwner | null,
+  ) {
     super(message);
     this.name = 'DataLockError';
   }
@@ -45,7 +52,9 @@ export function acquireDataLock(pgliteDir: string): DataLock {
           if (!held.delete(file)) return;
           try {
             if (readFileSync(file, 'utf8') === content) unlinkSync(file);
-          } catch { /* already gone */ }
+          } catch {
+            /* already gone */
+          }
         },
       };
     }
@@ -121,7 +130,11 @@ function removeStale(file: string, stale: LockOwner | null): void {
   }
   const moved = readOwner(aside);
   if (JSON.stringify(moved) !== JSON.stringify(stale)) {
-    try { linkSync(aside, file); } catch { /* someone holds the path again */ }
+    try {
+      linkSync(aside, file);
+    } catch {
+      /* someone holds the path again */
+    }
     unlinkSync(aside);
     throw new DataLockError(`Another process took the lock ${file} while this one was recovering it; not starting.`, moved ?? null);
   }

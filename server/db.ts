@@ -26,8 +26,7 @@ export const MIGRATIONS_DIR = resolve(import.meta.dirname, '../drizzle/migration
 
 export type DatabaseTarget =
   /** dir undefined → in memory. `lock`: the folder's lock, already taken by the caller (server/main.ts). */
-  | { kind: 'pglite'; dir?: string; lock?: DataLock }
-  | { kind: 'postgres'; url: string };
+  { kind: 'pglite'; dir?: string; lock?: DataLock } | { kind: 'postgres'; url: string };
 
 export interface Database {
   db: Db;

@@ -6,15 +6,26 @@ import { z } from 'zod';
 import type { Logger } from './logging';
 
 export type ErrorCode =
-  | 'validation' | 'unauthenticated' | 'forbidden' | 'csrf' | 'not-found' | 'conflict'
-  | 'too-large' | 'unsupported-type' | 'rate-limited' | 'internal';
+  'validation' | 'unauthenticated' | 'forbidden' | 'csrf' | 'not-found' | 'conflict' | 'too-large' | 'unsupported-type' | 'rate-limited' | 'internal';
 
 const STATUS: Record<ErrorCode, number> = {
-  validation: 400, unauthenticated: 401, forbidden: 403, csrf: 403, 'not-found': 404, conflict: 409,
-  'too-large': 413, 'unsupported-type': 415, 'rate-limited': 429, internal: 500,
+  validation: 400,
+  unauthenticated: 401,
+  forbidden: 403,
+  csrf: 403,
+  'not-found': 404,
+  conflict: 409,
+  'too-large': 413,
+  'unsupported-type': 415,
+  'rate-limited': 429,
+  internal: 500,
 };
 
-export interface FieldError { path: string; message: string; element?: string }
+export interface FieldError {
+  path: string;
+  message: string;
+  element?: string;
+}
 
 /** Thrown by handlers; `extra` is merged into the `error` object (e.g. `line`), `body` beside it (e.g. `current`). */
 export class ApiError extends Error {
@@ -63,7 +74,9 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
     else if (isBodyParserError(err, 'entity.parse.failed')) apiError = new ApiError('validation', 'Request body is not valid JSON');
     else if (err instanceof URIError && (err as { status?: number }).status === 400) {
       // Express could not percent-decode a path parameter (e.g. /api/projects/%C0%AF).
-      apiError = new ApiError('validation', 'The address holds malformed percent-encoding', { fields: [{ path: 'url', message: 'is not valid percent-encoded UTF-8' }] });
+      apiError = new ApiError('validation', 'The address holds malformed percent-encoding', {
+        fields: [{ path: 'url', message: 'is not valid percent-encoded UTF-8' }],
+      });
     } else if (databaseInputError(err)) {
       // A backstop: input the routes let through but the database refuses is the client's, not a crash.
       apiError = new ApiError('validation', databaseInputError(err)!);

@@ -21,8 +21,12 @@ export type LogLevel = (typeof LOG_LEVELS)[number];
 /** Keys masked wherever they appear at the top level or one object down. */
 const SECRET_KEYS = ['password', 'passwordHash', 'token', 'csrf', 'cookie', 'authorization', 'params', 'body', 'detail'];
 export const REDACT_PATHS = [
-  'req.headers.cookie', 'req.headers.authorization', 'req.headers["x-csrf-token"]', 'res.headers["set-cookie"]',
-  ...SECRET_KEYS, ...SECRET_KEYS.map((k) => `*.${k}`),
+  'req.headers.cookie',
+  'req.headers.authorization',
+  'req.headers["x-csrf-token"]',
+  'res.headers["set-cookie"]',
+  ...SECRET_KEYS,
+  ...SECRET_KEYS.map((k) => `*.${k}`),
 ];
 export const REDACTED = '[redacted]';
 
@@ -45,8 +49,11 @@ export function requestLogger(logger: Logger): HttpLogger {
     genReqId: () => randomUUID(),
     wrapSerializers: false,
     serializers: {
-      req: (req: IncomingMessage & { id?: unknown; originalUrl?: string }) =>
-        ({ id: req.id, method: req.method, path: safePath(req.originalUrl ?? req.url ?? '') }),
+      req: (req: IncomingMessage & { id?: unknown; originalUrl?: string }) => ({
+        id: req.id,
+        method: req.method,
+        path: safePath(req.originalUrl ?? req.url ?? ''),
+      }),
       res: (res: ServerResponse) => ({ statusCode: res.statusCode }),
       err: safeError,
     },
@@ -60,7 +67,8 @@ export function requestLogger(logger: Logger): HttpLogger {
 export function safePath(url: string): string {
   const path = url.split('?')[0];
   return path.replace(/(\/invitations\/)([^/]+)/g, (whole, prefix: string, id: string) =>
-    (/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id) ? whole : `${prefix}${REDACTED}`));
+    /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id) ? whole : `${prefix}${REDACTED}`,
+  );
 }
 
 /** Fields of a database error that name things (never the row's values). */

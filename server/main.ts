@@ -34,7 +34,10 @@ async function main(): Promise<void> {
   try {
     await new Promise<void>((resolve, reject) => {
       server.once('error', reject);
-      server.listen(config.port, config.host, () => { server.off('error', reject); resolve(); });
+      server.listen(config.port, config.host, () => {
+        server.off('error', reject);
+        resolve();
+      });
     });
   } catch (err) {
     lock?.release();
@@ -45,9 +48,9 @@ async function main(): Promise<void> {
   let database: Database;
   let runnel: RunnelApp;
   try {
-    database = await openDatabase(config.databaseUrl
-      ? { kind: 'postgres', url: config.databaseUrl }
-      : { kind: 'pglite', dir: pgliteDir(config.dataDir), lock: lock! });
+    database = await openDatabase(
+      config.databaseUrl ? { kind: 'postgres', url: config.databaseUrl } : { kind: 'pglite', dir: pgliteDir(config.dataDir), lock: lock! },
+    );
     runnel = await createApp({ config, database });
   } catch (err) {
     server.close();
@@ -68,7 +71,16 @@ async function main(): Promise<void> {
     if (stopping) return;
     stopping = true;
     runnel.logger.info(`${signal}: shutting down`);
-    server.close(() => void runnel.close().then(() => database.close()).then(() => process.exit(0), () => process.exit(1)));
+    server.close(
+      () =>
+        void runnel
+          .close()
+          .then(() => database.close())
+          .then(
+            () => process.exit(0),
+            () => process.exit(1),
+          ),
+    );
     server.closeAllConnections();
   };
   process.on('SIGINT', () => stop('SIGINT'));

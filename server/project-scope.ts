@@ -19,7 +19,10 @@ export const PROJECT_PATH = /^\/projects\/:id(\/|$)/;
 /** The project `id` of team `teamId`, or 404. Use inside a transaction to re-read the row. */
 export async function findTeamProject(db: DbOrTx, teamId: string, rawId: unknown): Promise<ProjectRow> {
   const id = uuidParam(rawId, 'No such project');
-  const [row] = await db.select().from(projects).where(and(eq(projects.id, id), eq(projects.teamId, teamId)));
+  const [row] = await db
+    .select()
+    .from(projects)
+    .where(and(eq(projects.id, id), eq(projects.teamId, teamId)));
   if (!row) throw new ApiError('not-found', 'No such project');
   return row;
 }

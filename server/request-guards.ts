@@ -37,7 +37,12 @@ export function textProblem(value: string): string | null {
   return null;
 }
 
-interface Frame { value: unknown; key: string; parent: Frame | null; depth: number }
+interface Frame {
+  value: unknown;
+  key: string;
+  parent: Frame | null;
+  depth: number;
+}
 
 function pathOf(frame: Frame): string {
   const keys: string[] = [];
@@ -80,7 +85,10 @@ export function jsonProblem(root: unknown, maxDepth = MAX_JSON_DEPTH): { path: s
 
 /** 400 naming the first field with a NUL, a lone surrogate or too deep a nesting (body and query). */
 export const checkJsonText: RequestHandler = (req, _res, next) => {
-  for (const [where, value] of [['body', req.body], ['query', req.query]] as const) {
+  for (const [where, value] of [
+    ['body', req.body],
+    ['query', req.query],
+  ] as const) {
     const problem = jsonProblem(value);
     if (problem) {
       return next(new ApiError('validation', `Invalid request ${where}: ${problem.path} ${problem.message}`, { fields: [problem] }));

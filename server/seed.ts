@@ -35,7 +35,13 @@ export const DEMO_USERS: { email: string; name: string; role: Role }[] = [
 /** The only member (admin and designer) of the second team. */
 export const OTHER_USER = { email: 'other@runnel.test', name: 'Sam Other' };
 
-export interface SeedResult { seeded: boolean; demoTeamId: string; demoProjectId: string; otherTeamId: string; otherProjectId: string }
+export interface SeedResult {
+  seeded: boolean;
+  demoTeamId: string;
+  demoProjectId: string;
+  otherTeamId: string;
+  otherProjectId: string;
+}
 
 export async function seed(db: Db, { bcryptCost }: { bcryptCost: number }): Promise<SeedResult> {
   const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, DEMO_USERS[0].email));
@@ -44,21 +50,38 @@ export async function seed(db: Db, { bcryptCost }: { bcryptCost: number }): Prom
   const passwordHash = await hashPassword(DEMO_PASSWORD, bcryptCost);
   const ids = await db.transaction(async (tx) => {
     const [team] = await tx.insert(teams).values({ name: DEMO_TEAM }).returning({ id: teams.id });
-    const created = await tx.insert(users).values(DEMO_USERS.map((u) => ({ email: u.email, name: u.name, passwordHash })))
+    const created = await tx
+      .insert(users)
+      .values(DEMO_USERS.map((u) => ({ email: u.email, name: u.name, passwordHash })))
       .returning({ id: users.id, email: users.email });
-    await tx.insert(memberships).values(created.map((u) => ({
-      teamId: team.id, userId: u.id, roles: [DEMO_USERS.find((d) => d.email === u.email)!.role],
-    })));
-    const [project] = await tx.insert(projects).values({
-      teamId: team.id, name: DEMO_PROJECT, siteName: 'Ridgeback hill block', units: 'si',
-      notes: 'Invented demo: a spring-fed smallholding with storage on the ridge and gravity lines to garden, orchard, house and troughs.',
-    }).returning({ id: projects.id });
+    await tx.insert(memberships).values(
+      created.map((u) => ({
+        teamId: team.id,
+        userId: u.id,
+        roles: [DEMO_USERS.find((d) => d.email === u.email)!.role],
+      })),
+    );
+    const [project] = await tx
+      .insert(projects)
+      .values({
+        teamId: team.id,
+        name: DEMO_PROJECT,
+        siteName: 'Ridgeback hill block',
+        units: 'si',
+        notes: 'Invented demo: a spring-fed smallholding with storage on the ridge and gravity lines to garden, orchard, house and troughs.',
+      })
+      .returning({ id: projects.id });
     await audit(tx, { teamId: team.id, user: null, action: 'seed', target: DEMO_TEAM });
 
     const [otherTeam] = await tx.insert(teams).values({ name: OTHER_TEAM }).returning({ id: teams.id });
-    const [other] = await tx.insert(users).values({ ...OTHER_USER, passwordHash }).returning({ id: users.id });
+    const [other] = await tx
+      .insert(users)
+      .values({ ...OTHER_USER, passwordHash })
+      .returning({ id: users.id });
     await tx.insert(memberships).values({ teamId: otherTeam.id, userId: other.id, roles: ['admin', 'designer'] });
-    const [otherProject] = await tx.insert(projects).values({ teamId: otherTeam.id, name: OTHER_PROJECT, siteName: 'Cold Creek flats' })
+    const [otherProject] = await tx
+      .insert(projects)
+      .values({ teamId: otherTeam.id, name: OTHER_PROJECT, siteName: 'Cold Creek flats' })
       .returning({ id: projects.id });
     const designer = created.find((u) => u.email === 'designer@runnel.test')!;
     return { demoTeamId: team.id, demoProjectId: project.id, otherTeamId: otherTeam.id, otherProjectId: otherProject.id, designer };
@@ -66,13 +89,19 @@ export async function seed(db: Db, { bcryptCost }: { bcryptCost: number }): Prom
   // The demo network goes through the same save path as the API, so its results are computed; its
   // outlets already carry the demo budget's design flows, so saving the budget then changes nothing.
   await saveNetwork(db, {
-    projectId: ids.demoProjectId, teamId: ids.demoTeamId, user: ids.designer, expectedVersion: 0,
+    projectId: ids.demoProjectId,
+    teamId: ids.demoTeamId,
+    user: ids.designer,
+    expectedVersion: 0,
     document: applyBudget(hillSmallholding, planBudget(hillSmallholdingBudget, hillSmallholding)),
   });
   await saveBudget(db, { projectId: ids.demoProjectId, teamId: ids.demoTeamId, user: ids.designer, expectedVersion: 0, document: hillSmallholdingBudget });
   // Version 1 waits for review, so the reviewer has something to approve or return.
   await markSubmitted(db, {
-    projectId: ids.demoProjectId, teamId: ids.demoTeamId, version: 1, user: ids.designer,
+    projectId: ids.demoProjectId,
+    teamId: ids.demoTeamId,
+    version: 1,
+    user: ids.designer,
     note: 'First full layout: tanks on the ridge, gravity main, orchard PRV and four troughs. Please check the south trough line across the dip.',
   });
   await seedPricesAndOptions(db, { teamId: ids.demoTeamId, projectId: ids.demoProjectId, userId: ids.designer.id });
@@ -88,8 +117,12 @@ async function findSeeded(db: Db): Promise<Omit<SeedResult, 'seeded'>> {
 
 /** The seeded team and its project, oldest first; a user's team or project of the same name elsewhere is not taken. */
 async function findTeamProject(db: Db, teamName: string, projectName: string): Promise<{ teamId: string; projectId: string }> {
-  const [row] = await db.select({ teamId: teams.id, projectId: projects.id })
-    .from(teams).leftJoin(projects, and(eq(projects.teamId, teams.id), eq(projects.name, projectName)))
-    .where(eq(teams.name, teamName)).orderBy(asc(teams.createdAt), asc(projects.createdAt)).limit(1);
+  const [row] = await db
+    .select({ teamId: teams.id, projectId: projects.id })
+    .from(teams)
+    .leftJoin(projects, and(eq(projects.teamId, teams.id), eq(projects.name, projectName)))
+    .where(eq(teams.name, teamName))
+    .orderBy(asc(teams.createdAt), asc(projects.createdAt))
+    .limit(1);
   return { teamId: row?.teamId ?? '', projectId: row?.projectId ?? '' };
 }

@@ -2,8 +2,16 @@
 import type { Role } from './permissions';
 import type { ProjectRow } from './project-scope';
 
-export interface SessionUser { id: string; email: string; name: string }
-export interface CurrentMembership { teamId: string; teamName: string; roles: Role[] }
+export interface SessionUser {
+  id: string;
+  email: string;
+  name: string;
+}
+export interface CurrentMembership {
+  teamId: string;
+  teamName: string;
+  roles: Role[];
+}
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace

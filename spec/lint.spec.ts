@@ -13,4 +13,15 @@ describe('Lint', function () {
     expect(r.stdout + r.stderr, 'eslint output').to.equal('');
     expect(r.status).to.equal(0);
   });
+
+  // The formatter (.prettierrc.json, .prettierignore) over every source, template, style and doc:
+  // `npm run format` rewrites, this only checks.
+  it('prettier finds every file formatted (npm run format:check)', () => {
+    const r = spawnSync(process.execPath, ['node_modules/prettier/bin/prettier.cjs', '--check', '.', '--log-level', 'warn'], {
+      cwd: repoRoot,
+      encoding: 'utf8',
+    });
+    expect(r.stdout + r.stderr, 'files prettier would change').to.equal('');
+    expect(r.status).to.equal(0);
+  });
 });

@@ -10,7 +10,10 @@ const apiRoot = new URL('api', import.meta.url).pathname;
 process.env['RUNNEL_TEST_STORE'] = 'postgres';
 register();
 const mocha = new Mocha({ reporter: 'spec', timeout: 60000 });
-for (const name of readdirSync(apiRoot).filter((n) => n.endsWith('.spec.ts')).sort()) mocha.addFile(join(apiRoot, name));
+for (const name of readdirSync(apiRoot)
+  .filter((n) => n.endsWith('.spec.ts'))
+  .sort())
+  mocha.addFile(join(apiRoot, name));
 await mocha.loadFilesAsync();
 const runner = mocha.run();
 runner.on('end', () => {

@@ -29,7 +29,17 @@ describe('TypeScript sources', function () {
 
   // Runtime imports only (.madgerc skips `import type`, which vanish when compiled).
   it('has no import cycles (madge over client, server, engine and shared)', () => {
-    const r = run(['node_modules/madge/bin/cli.js', '--circular', '--no-spinner', '--no-color', 'client/src/main.ts', 'client/src/app', 'server', 'engine', 'shared']);
+    const r = run([
+      'node_modules/madge/bin/cli.js',
+      '--circular',
+      '--no-spinner',
+      '--no-color',
+      'client/src/main.ts',
+      'client/src/app',
+      'server',
+      'engine',
+      'shared',
+    ]);
     expect(r.output, 'madge output').to.match(/No circular dependency found/);
     expect(r.status).to.equal(0);
   });

@@ -18,15 +18,23 @@ function fail(message: string): never {
 
 function readJson(file: string): unknown {
   let text: string;
-  try { text = readFileSync(file, 'utf8'); } catch (error) { fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`); }
-  try { return JSON.parse(text); } catch (error) { fail(`${file}: not valid JSON (${(error as Error).message})`); }
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (error) {
+    fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
+  }
+  try {
+    return JSON.parse(text);
+  } catch (error) {
+    fail(`${file}: not valid JSON (${(error as Error).message})`);
+  }
 }
 
 function main(argv: string[]): void {
   const n = argv.indexOf('--network');
   const networkFile = n >= 0 ? argv[n + 1] : undefined;
   if (n >= 0 && !networkFile) fail('--network: give the network file, e.g. --network network.json');
-  const file = argv.find((a, i) => !a.startsWith("--") && (n < 0 || i !== n + 1));
+  const file = argv.find((a, i) => !a.startsWith('--') && (n < 0 || i !== n + 1));
   if (!file) fail('usage: budget <plan.json> [--network network.json]');
   const input = readJson(file);
   let budget: unknown = input;

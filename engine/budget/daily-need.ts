@@ -32,11 +32,12 @@ export interface UseNeed {
 
 /** A drip block's flow, m³/s (rows × length × flow per length). */
 export function dripFlow(drip: DripRows): number {
-  const perM = drip.tape_flow_m3s_per_m ?? ((drip.emitter_flow_m3s ?? 0) / (drip.emitter_spacing_m ?? 1));
+  const perM = drip.tape_flow_m3s_per_m ?? (drip.emitter_flow_m3s ?? 0) / (drip.emitter_spacing_m ?? 1);
   return drip.rows * drip.row_length_m * perM;
 }
 
-export const DRIP_SOURCE = 'drip rows: rows × length × emitter flow ÷ spacing (or tape flow per length) × run hours; the emitter or tape maker\'s figures (common practice)';
+export const DRIP_SOURCE =
+  "drip rows: rows × length × emitter flow ÷ spacing (or tape flow per length) × run hours; the emitter or tape maker's figures (common practice)";
 
 export function useNeed(budget: BudgetDocument, use: BudgetUse): UseNeed {
   if (use.drip && (use.kind === 'garden' || use.kind === 'tunnel')) return dripNeed(budget, use, use.drip);
@@ -50,11 +51,20 @@ export function useNeed(budget: BudgetDocument, use: BudgetUse): UseNeed {
   const typed = use.kind === 'garden' || use.kind === 'tunnel' ? use.depth_m_day : use.kind === 'other' ? use.daily_m3 : use.rate_m3_day;
   const typedHot = use.kind === 'garden' || use.kind === 'tunnel' ? use.hot_depth_m_day : use.hot_rate_m3_day;
   if (typed !== undefined) {
-    rate = typed; hot = typedHot ?? typed; from = 'typed'; source = 'typed by the designer';
+    rate = typed;
+    hot = typedHot ?? typed;
+    from = 'typed';
+    source = 'typed by the designer';
   } else if (project) {
-    rate = project.rate; hot = project.hot_rate ?? project.rate; from = 'project'; source = project.source ?? 'project figure';
+    rate = project.rate;
+    hot = project.hot_rate ?? project.rate;
+    from = 'project';
+    source = project.source ?? 'project figure';
   } else {
-    rate = row.rate; hot = row.hot_rate; from = 'table'; source = row.source;
+    rate = row.rate;
+    hot = row.hot_rate;
+    from = 'table';
+    source = row.source;
   }
   const units = unitsOf(use);
   const hotMonths = new Set(budget.hot_months ?? DEFAULT_HOT_MONTHS);
@@ -62,10 +72,24 @@ export function useNeed(budget: BudgetDocument, use: BudgetUse): UseNeed {
   const monthly = Array.from({ length: 12 }, (_, j) => (season.has(j + 1) ? units * (hotMonths.has(j + 1) ? hot : rate) : 0));
   let peak = 0;
   let peakMonth = 0;
-  monthly.forEach((v, j) => { if (v > peak) { peak = v; peakMonth = j + 1; } });
+  monthly.forEach((v, j) => {
+    if (v > peak) {
+      peak = v;
+      peakMonth = j + 1;
+    }
+  });
   return {
-    id: use.id, name: use.name, rate, hot_rate: hot, unit: use.kind === 'other' ? 'fixed' : row.unit, units,
-    rate_from: from, source, monthly_m3_day: monthly, peak_m3_day: peak, peak_month: peakMonth,
+    id: use.id,
+    name: use.name,
+    rate,
+    hot_rate: hot,
+    unit: use.kind === 'other' ? 'fixed' : row.unit,
+    units,
+    rate_from: from,
+    source,
+    monthly_m3_day: monthly,
+    peak_m3_day: peak,
+    peak_month: peakMonth,
   };
 }
 
@@ -78,21 +102,46 @@ function dripNeed(budget: BudgetDocument, use: BudgetUse, drip: DripRows): UseNe
   return finish(budget, use, { rate, hot, unit: 'per-row-metre', units: length, from: 'typed', source: DRIP_SOURCE });
 }
 
-function finish(budget: BudgetDocument, use: BudgetUse, r: { rate: number; hot: number; unit: RateUnit; units: number; from: UseNeed['rate_from']; source: string }): UseNeed {
+function finish(
+  budget: BudgetDocument,
+  use: BudgetUse,
+  r: { rate: number; hot: number; unit: RateUnit; units: number; from: UseNeed['rate_from']; source: string },
+): UseNeed {
   const hotMonths = new Set(budget.hot_months ?? DEFAULT_HOT_MONTHS);
   const season = new Set(use.months);
   const monthly = Array.from({ length: 12 }, (_, j) => (season.has(j + 1) ? r.units * (hotMonths.has(j + 1) ? r.hot : r.rate) : 0));
   let peak = 0;
   let peakMonth = 0;
-  monthly.forEach((v, j) => { if (v > peak) { peak = v; peakMonth = j + 1; } });
-  return { id: use.id, name: use.name, rate: r.rate, hot_rate: r.hot, unit: r.unit, units: r.units, rate_from: r.from, source: r.source, monthly_m3_day: monthly, peak_m3_day: peak, peak_month: peakMonth };
+  monthly.forEach((v, j) => {
+    if (v > peak) {
+      peak = v;
+      peakMonth = j + 1;
+    }
+  });
+  return {
+    id: use.id,
+    name: use.name,
+    rate: r.rate,
+    hot_rate: r.hot,
+    unit: r.unit,
+    units: r.units,
+    rate_from: r.from,
+    source: r.source,
+    monthly_m3_day: monthly,
+    peak_m3_day: peak,
+    peak_month: peakMonth,
+  };
 }
 
 function unitsOf(use: BudgetUse): number {
   switch (use.kind) {
-    case 'garden': case 'tunnel': return use.area_m2 ?? 0;
-    case 'other': return 1;
-    default: return use.count ?? 0;
+    case 'garden':
+    case 'tunnel':
+      return use.area_m2 ?? 0;
+    case 'other':
+      return 1;
+    default:
+      return use.count ?? 0;
   }
 }
 
@@ -111,7 +160,10 @@ export function monthTotals(budget: BudgetDocument, needs: UseNeed[]): MonthTota
   return Array.from({ length: 12 }, (_, j) => {
     const per: Record<string, number> = {};
     let total = 0;
-    for (const need of needs) { per[need.id] = need.monthly_m3_day[j]; total += need.monthly_m3_day[j]; }
+    for (const need of needs) {
+      per[need.id] = need.monthly_m3_day[j];
+      total += need.monthly_m3_day[j];
+    }
     return { month: j + 1, daily_m3: total, peak_flow_m3s: (total / 86400) * budget.peak_factor, per_use: per };
   });
 }

@@ -34,8 +34,14 @@ export interface Fixture {
   source: string;
 }
 
-const row = (key: FixtureKey, label: string, wsfu: number, gpm: number, psi: number, source: string): Fixture =>
-  ({ key, label, fixture_units: wsfu, flow_m3s: gpm * GPM, min_pressure_m: psi * PSI_M, source });
+const row = (key: FixtureKey, label: string, wsfu: number, gpm: number, psi: number, source: string): Fixture => ({
+  key,
+  label,
+  fixture_units: wsfu,
+  flow_m3s: gpm * GPM,
+  min_pressure_m: psi * PSI_M,
+  source,
+});
 
 const FU = 'fixture units IPC Table E103.3(2), M';
 export const FIXTURES: readonly Fixture[] = [
@@ -49,17 +55,48 @@ export const FIXTURES: readonly Fixture[] = [
   row('laundry-tray', 'Laundry tub', 1.4, 4, 8, `IPC Table 604.3: 4 gpm at 8 psi (M); ${FU}`),
   row('hose-bibb', 'Hose bibb (outdoor tap)', 2.5, 5, 8, `IPC 2018 Table 604.3: 5 gpm at 8 psi (V2); ${FU}: 2.5, each further one 1.0`),
 ];
-export const FIXTURE_BY_KEY: Readonly<Record<FixtureKey, Fixture>> = Object.freeze(Object.fromEntries(FIXTURES.map((f) => [f.key, f])) as Record<FixtureKey, Fixture>);
+export const FIXTURE_BY_KEY: Readonly<Record<FixtureKey, Fixture>> = Object.freeze(
+  Object.fromEntries(FIXTURES.map((f) => [f.key, f])) as Record<FixtureKey, Fixture>,
+);
 
 /** Demand table for flush-tank systems: [fixture units, gpm] (IPC Table E103.3(3), M). */
 const DEMAND: readonly [number, number][] = [
-  [1, 3.0], [2, 5.0], [3, 6.5], [4, 8.0], [5, 9.4], [6, 10.7], [7, 11.8], [8, 12.8], [9, 13.7], [10, 14.6],
-  [11, 15.4], [12, 16.0], [13, 16.5], [14, 17.0], [15, 17.5], [16, 18.0], [17, 18.4], [18, 18.8], [19, 19.2], [20, 19.6],
-  [25, 21.5], [30, 23.3], [35, 24.9], [40, 26.3], [45, 27.7], [50, 29.1], [60, 32.0], [70, 35.0], [80, 38.0], [90, 41.0], [100, 43.5],
+  [1, 3.0],
+  [2, 5.0],
+  [3, 6.5],
+  [4, 8.0],
+  [5, 9.4],
+  [6, 10.7],
+  [7, 11.8],
+  [8, 12.8],
+  [9, 13.7],
+  [10, 14.6],
+  [11, 15.4],
+  [12, 16.0],
+  [13, 16.5],
+  [14, 17.0],
+  [15, 17.5],
+  [16, 18.0],
+  [17, 18.4],
+  [18, 18.8],
+  [19, 19.2],
+  [20, 19.6],
+  [25, 21.5],
+  [30, 23.3],
+  [35, 24.9],
+  [40, 26.3],
+  [45, 27.7],
+  [50, 29.1],
+  [60, 32.0],
+  [70, 35.0],
+  [80, 38.0],
+  [90, 41.0],
+  [100, 43.5],
 ];
 /** Largest load the table here covers; a bigger building needs the code's full table and a plumber. */
 export const MAX_FIXTURE_UNITS = 100;
-export const FIXTURE_METHOD_SOURCE = 'water-supply fixture units and the flush-tank demand table, IPC Appendix E Tables E103.3(2) and E103.3(3) (M, from memory); fixture flows IPC 2018 Table 604.3 (V2)';
+export const FIXTURE_METHOD_SOURCE =
+  'water-supply fixture units and the flush-tank demand table, IPC Appendix E Tables E103.3(2) and E103.3(3) (M, from memory); fixture flows IPC 2018 Table 604.3 (V2)';
 
 export interface FixturePeak {
   fixture_units: number;

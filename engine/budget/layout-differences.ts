@@ -35,7 +35,11 @@ export function sameFlow(a: number, b: number): boolean {
 
 /** Outlet design flows of a budget alone (they do not depend on the network). */
 export function budgetOutletFlows(budget: BudgetDocument): OutletFlow[] {
-  return outletFlows(budget, budget.uses, budget.uses.map((u) => useNeed(budget, u)));
+  return outletFlows(
+    budget,
+    budget.uses,
+    budget.uses.map((u) => useNeed(budget, u)),
+  );
 }
 
 export function layoutDifferences(network: NetworkDocument, previous: BudgetDocument | null, plan: { outlets: OutletFlow[] }): LayoutDifference[] {
@@ -47,7 +51,13 @@ export function layoutDifferences(network: NetworkDocument, previous: BudgetDocu
     if (!o.from_budget || node?.kind !== 'outlet' || sameFlow(node.demand_m3s, o.design_flow_m3s)) continue;
     const prev = before.get(o.id);
     if (prev !== undefined && sameFlow(node.demand_m3s, prev)) continue;
-    out.push({ id: o.id, network_m3s: node.demand_m3s, budget_m3s: o.design_flow_m3s, previous_m3s: prev ?? null, reason: prev === undefined ? 'not-yet-from-budget' : 'edited-on-layout' });
+    out.push({
+      id: o.id,
+      network_m3s: node.demand_m3s,
+      budget_m3s: o.design_flow_m3s,
+      previous_m3s: prev ?? null,
+      reason: prev === undefined ? 'not-yet-from-budget' : 'edited-on-layout',
+    });
   }
   return out;
 }

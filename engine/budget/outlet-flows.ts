@@ -19,7 +19,12 @@ import { FIXTURE_METHOD_SOURCE, fixturePeak, fixtureUnits } from './fixtures';
 
 /** Default window per kind, h (stock: 4 h, Ohio State ANR-12; the rest common practice). */
 export const DEFAULT_WINDOW_H: Readonly<Record<UseKind, number>> = {
-  livestock: 4, garden: 2, tunnel: 2, orchard: 6, household: 6, other: 12,
+  livestock: 4,
+  garden: 2,
+  tunnel: 2,
+  orchard: 6,
+  household: 6,
+  other: 12,
 };
 /** Stock water allowance for evaporation and waste (Nebraska Stockwater Pipeline Handbook, V2). */
 export const DEFAULT_WASTE_ALLOWANCE = 0.1;
@@ -57,11 +62,23 @@ export function windowRule(use: BudgetUse, waste: number): { rule: string; sourc
   const w = windowOf(use);
   if (use.kind === 'livestock') {
     const pct = Math.round(waste * 100);
-    if (w <= 1) return { rule: `herd drinks as a group: refill within ${w} h, +${pct} % for evaporation and waste`, source: 'Ohio State ANR-12 (2003) after Gerrish & Davis 1995, V2; Nebraska Stockwater Pipeline Handbook (USDA-NRCS 2008), V2' };
-    if (w <= 4) return { rule: `stock drink singly: the daily need in ${w} h, +${pct} % for evaporation and waste`, source: 'Ohio State ANR-12 (2003), V2; Nebraska Stockwater Pipeline Handbook (USDA-NRCS 2008), V2' };
-    return { rule: `the daily need in ${w} h (24 h at the least, better 4–12 h), +${pct} % for evaporation and waste`, source: 'Nebraska Stockwater Pipeline Handbook (USDA-NRCS 2008), V2' };
+    if (w <= 1)
+      return {
+        rule: `herd drinks as a group: refill within ${w} h, +${pct} % for evaporation and waste`,
+        source: 'Ohio State ANR-12 (2003) after Gerrish & Davis 1995, V2; Nebraska Stockwater Pipeline Handbook (USDA-NRCS 2008), V2',
+      };
+    if (w <= 4)
+      return {
+        rule: `stock drink singly: the daily need in ${w} h, +${pct} % for evaporation and waste`,
+        source: 'Ohio State ANR-12 (2003), V2; Nebraska Stockwater Pipeline Handbook (USDA-NRCS 2008), V2',
+      };
+    return {
+      rule: `the daily need in ${w} h (24 h at the least, better 4–12 h), +${pct} % for evaporation and waste`,
+      source: 'Nebraska Stockwater Pipeline Handbook (USDA-NRCS 2008), V2',
+    };
   }
-  if (use.kind === 'garden' || use.kind === 'tunnel' || use.kind === 'orchard') return { rule: `the day's water applied in a ${w} h run`, source: 'common practice (run time set by the designer)' };
+  if (use.kind === 'garden' || use.kind === 'tunnel' || use.kind === 'orchard')
+    return { rule: `the day's water applied in a ${w} h run`, source: 'common practice (run time set by the designer)' };
   return { rule: `the day's water drawn over ${w} h`, source: 'common practice' };
 }
 
@@ -70,13 +87,22 @@ function peakFlowOf(use: BudgetUse): { flow_m3s: number; window_h: number; min_p
   if (use.drip && (use.kind === 'garden' || use.kind === 'tunnel')) {
     const d = use.drip;
     const how = d.tape_flow_m3s_per_m !== undefined ? 'drip tape flow per length' : 'emitter flow ÷ emitter spacing';
-    return { flow_m3s: dripFlow(d), window_h: d.hot_run_h ?? d.run_h, rule: { rule: `the drip block's flow: ${d.rows} rows × row length × ${how}`, source: DRIP_SOURCE } };
+    return {
+      flow_m3s: dripFlow(d),
+      window_h: d.hot_run_h ?? d.run_h,
+      rule: { rule: `the drip block's flow: ${d.rows} rows × row length × ${how}`, source: DRIP_SOURCE },
+    };
   }
   if (use.kind === 'household' && use.fixtures && fixtureUnits(use.fixtures) > 0) {
     const p = fixturePeak(use.fixtures);
     return {
-      flow_m3s: p.flow_m3s, window_h: windowOf(use), min_pressure_m: p.min_pressure_m,
-      rule: { rule: `the house's probable peak from ${p.fixture_units} fixture units (flush-tank demand table; ${p.min_pressure_for.toLowerCase()} asks the most pressure)`, source: FIXTURE_METHOD_SOURCE },
+      flow_m3s: p.flow_m3s,
+      window_h: windowOf(use),
+      min_pressure_m: p.min_pressure_m,
+      rule: {
+        rule: `the house's probable peak from ${p.fixture_units} fixture units (flush-tank demand table; ${p.min_pressure_for.toLowerCase()} asks the most pressure)`,
+        source: FIXTURE_METHOD_SOURCE,
+      },
     };
   }
   return null;
@@ -100,8 +126,19 @@ export function outletFlows(budget: BudgetDocument, uses: BudgetUse[], needs: Us
       // drip rows and house fixtures set a flow of their own; the rest deliver the day in the window
       const flow = peak ? peak.flow_m3s / linked.length : (share * extra) / (w * 3600);
       let out = byOutlet.get(id);
-      if (!out) { out = { id, design_flow_m3s: 0, daily_m3: 0, shares: [], from_budget: !manual.has(id) }; byOutlet.set(id, out); }
-      out.shares.push({ use: use.id, share_m3_day: share, window_h: peak?.window_h ?? w, flow_m3s: flow, rule, source, ...(peak?.min_pressure_m ? { min_pressure_m: peak.min_pressure_m } : {}) });
+      if (!out) {
+        out = { id, design_flow_m3s: 0, daily_m3: 0, shares: [], from_budget: !manual.has(id) };
+        byOutlet.set(id, out);
+      }
+      out.shares.push({
+        use: use.id,
+        share_m3_day: share,
+        window_h: peak?.window_h ?? w,
+        flow_m3s: flow,
+        rule,
+        source,
+        ...(peak?.min_pressure_m ? { min_pressure_m: peak.min_pressure_m } : {}),
+      });
       out.design_flow_m3s += flow;
       out.daily_m3 += share;
     }

@@ -35,7 +35,10 @@ export interface BudgetPlan {
 
 /** Validate, then plan; throws BudgetInputError naming row and field on bad input. */
 export class BudgetInputError extends Error {
-  constructor(readonly problems: string[]) { super(problems.join('\n')); this.name = 'BudgetInputError'; }
+  constructor(readonly problems: string[]) {
+    super(problems.join('\n'));
+    this.name = 'BudgetInputError';
+  }
 }
 
 export function planBudget(budget: unknown, network?: unknown): BudgetPlan {
@@ -49,7 +52,9 @@ function plan(budget: BudgetDocument, network: NetworkDocument | undefined): Bud
   const needs = budget.uses.map((u) => useNeed(budget, u));
   const months = monthTotals(budget, needs);
   let peakMonth = 0;
-  months.forEach((m) => { if (m.daily_m3 > (months[peakMonth - 1]?.daily_m3 ?? 0)) peakMonth = m.month; });
+  months.forEach((m) => {
+    if (m.daily_m3 > (months[peakMonth - 1]?.daily_m3 ?? 0)) peakMonth = m.month;
+  });
   const outlets = outletFlows(budget, budget.uses, needs);
   const warnings: string[] = [];
   if (!network) return { uses: needs, months, peak_month: peakMonth, outlets, storage: null, fill: null, verdicts: null, warnings };
@@ -75,10 +80,14 @@ function plan(budget: BudgetDocument, network: NetworkDocument | undefined): Bud
   for (const v of verdicts) {
     const name = MONTH_NAMES[v.month - 1];
     if (v.status === 'short' || v.status === 'short-and-storage-low') {
-      warnings.push(`${fill.pump}: fill pump too small in ${name}: fills ${litres(v.daily_fill_m3)} L/day for a need of ${litres(v.daily_need_m3)} L/day (short by ${litres(-v.balance_m3)} L/day)`);
+      warnings.push(
+        `${fill.pump}: fill pump too small in ${name}: fills ${litres(v.daily_fill_m3)} L/day for a need of ${litres(v.daily_need_m3)} L/day (short by ${litres(-v.balance_m3)} L/day)`,
+      );
     }
     if (v.status === 'storage-low' || v.status === 'short-and-storage-low') {
-      warnings.push(`storage: ${name} needs ${v.required_days.toFixed(1)} days (${litres(v.required_m3)} L); the tanks hold ${v.reserve_days.toFixed(1)} days (${litres(v.usable_m3)} L)`);
+      warnings.push(
+        `storage: ${name} needs ${v.required_days.toFixed(1)} days (${litres(v.required_m3)} L); the tanks hold ${v.reserve_days.toFixed(1)} days (${litres(v.usable_m3)} L)`,
+      );
     }
   }
   return { uses: needs, months, peak_month: peakMonth, outlets, storage, fill, verdicts, warnings };

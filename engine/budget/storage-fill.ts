@@ -20,7 +20,12 @@ import type { MonthTotal } from './daily-need';
  * monthlyVerdicts(budget, totals, storageOf(network, budget), fillOf(network, budget, 0.00075))
  */
 
-export interface TankStorage { id: string; full_level_m: number; low_level_m: number; usable_m3: number }
+export interface TankStorage {
+  id: string;
+  full_level_m: number;
+  low_level_m: number;
+  usable_m3: number;
+}
 
 export interface Storage {
   usable_m3: number;
@@ -72,7 +77,11 @@ export function storageOf(network: NetworkDocument, budget: BudgetDocument): Sto
   let stopTank: string | undefined;
   if (pump?.control) {
     const t = network.nodes.find((n) => n.id === pump.control?.tank);
-    if (t && t.kind === 'tank') { stopSurface = t.elevation_m + pump.control.stop_level_m; stopBank = t.bank; stopTank = t.id; }
+    if (t && t.kind === 'tank') {
+      stopSurface = t.elevation_m + pump.control.stop_level_m;
+      stopBank = t.bank;
+      stopTank = t.id;
+    }
   }
   const list = tanks.map((t) => {
     let full = t.max_level_m;
@@ -126,9 +135,18 @@ export function monthlyVerdicts(budget: BudgetDocument, totals: MonthTotal[], st
     const low = need > 0 && storage.usable_m3 < required - 1e-9;
     const status: VerdictStatus = need <= 0 ? 'no-use' : short && low ? 'short-and-storage-low' : short ? 'short' : low ? 'storage-low' : 'enough';
     return {
-      month: j + 1, status, daily_need_m3: need, peak_sun_hours: psh, daily_fill_m3: dailyFill, balance_m3: dailyFill - need,
-      usable_m3: storage.usable_m3, reserve_days: need > 0 ? storage.usable_m3 / need : Number.POSITIVE_INFINITY,
-      required_m3: required, required_days: need > 0 ? required / need : days, rule, source,
+      month: j + 1,
+      status,
+      daily_need_m3: need,
+      peak_sun_hours: psh,
+      daily_fill_m3: dailyFill,
+      balance_m3: dailyFill - need,
+      usable_m3: storage.usable_m3,
+      reserve_days: need > 0 ? storage.usable_m3 / need : Number.POSITIVE_INFINITY,
+      required_m3: required,
+      required_days: need > 0 ? required / need : days,
+      rule,
+      source,
     };
   });
 }

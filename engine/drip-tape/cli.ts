@@ -14,7 +14,11 @@ function fail(message: string): never {
 const file = process.argv[2];
 if (!file) fail('usage: drip-tape <zone.json>   ({ rows, row_length_m, spacing_m, emitter_flow_m3s } or { rows, row_length_m, flow_per_m_m3s })');
 let data: unknown;
-try { data = JSON.parse(readFileSync(file, 'utf8')); } catch (e) { fail(`${file}: ${(e as Error).message}`); }
+try {
+  data = JSON.parse(readFileSync(file, 'utf8'));
+} catch (e) {
+  fail(`${file}: ${(e as Error).message}`);
+}
 const many = Array.isArray(data);
 const zones = (many ? data : [data]) as unknown[];
 const out = zones.map((z, i) => {

@@ -36,29 +36,54 @@ export interface SummaryInputs {
   budget?: unknown;
 }
 
-export interface DesignEvaluation { summary: DesignSummary; steady: SteadyResult; takeoff: Takeoff; estimate: Estimate }
+export interface DesignEvaluation {
+  summary: DesignSummary;
+  steady: SteadyResult;
+  takeoff: Takeoff;
+  estimate: Estimate;
+}
 
 /** Solve, check, take off and price one design. */
 export function evaluateDesign(doc: NetworkDocument, inputs: SummaryInputs): DesignEvaluation {
   const steady = solve(doc);
   const check = designChecks(doc, steady, {});
-  const lowest = check.outlets.reduce<DesignSummary['lowestOutlet']>((m, o) => (!m || o.margin_m < m.margin_m ? { id: o.id, pressure_m: o.pressure_m, required_m: o.required_m, margin_m: o.margin_m } : m), null);
+  const lowest = check.outlets.reduce<DesignSummary['lowestOutlet']>(
+    (m, o) => (!m || o.margin_m < m.margin_m ? { id: o.id, pressure_m: o.pressure_m, required_m: o.required_m, margin_m: o.margin_m } : m),
+    null,
+  );
   let failing = 0;
-  try { failing = failingCheckCount(doc); } catch { failing = Number.NaN; }
+  try {
+    failing = failingCheckCount(doc);
+  } catch {
+    failing = Number.NaN;
+  }
   let storageDays: number | null = null;
   if (inputs.budget) {
     try {
       const plan = planBudget(inputs.budget, doc);
       const peak = plan.verdicts?.find((v) => v.month === plan.peak_month) ?? null;
       storageDays = peak && Number.isFinite(peak.reserve_days) ? peak.reserve_days : null;
-    } catch { storageDays = null; }
+    } catch {
+      storageDays = null;
+    }
   }
   const t = takeoff(doc, inputs.takeoffSettings ?? {}, steady);
   const e = estimate(t, inputs.prices, inputs.estimateSettings ?? {});
   const pipeCost = Math.round(e.lines.filter((l) => l.group === 'pipe').reduce((s, l) => s + l.amount, 0) * 100) / 100;
   return {
-    summary: { lowestOutlet: lowest, worstVelocity: check.worstVelocity, worstRating: check.worstRating, failingChecks: failing, storageDays, pipeCost, total: e.total, missingPrices: e.missing.length },
-    steady, takeoff: t, estimate: e,
+    summary: {
+      lowestOutlet: lowest,
+      worstVelocity: check.worstVelocity,
+      worstRating: check.worstRating,
+      failingChecks: failing,
+      storageDays,
+      pipeCost,
+      total: e.total,
+      missingPrices: e.missing.length,
+    },
+    steady,
+    takeoff: t,
+    estimate: e,
   };
 }
 
@@ -75,12 +100,14 @@ export function designDifferences(base: NetworkDocument, other: NetworkDocument)
     const b = baseLinks.get(l.id);
     if (l.kind !== 'pipe') continue;
     const p = b as PipeLink | undefined;
-    if (!p || p.diameter_m !== l.diameter_m || p.series !== l.series || p.nominal !== l.nominal || p.length_m !== l.length_m || p.roughness !== l.roughness) pipes.push(l.id);
+    if (!p || p.diameter_m !== l.diameter_m || p.series !== l.series || p.nominal !== l.nominal || p.length_m !== l.length_m || p.roughness !== l.roughness)
+      pipes.push(l.id);
   }
   const nodes: string[] = [];
   for (const n of other.nodes) {
     const b = baseNodes.get(n.id);
-    if (!b || b.elevation_m !== n.elevation_m || (n.kind === 'tank' && b.kind === 'tank' && (n.level_m !== b.level_m || n.max_level_m !== b.max_level_m))) nodes.push(n.id);
+    if (!b || b.elevation_m !== n.elevation_m || (n.kind === 'tank' && b.kind === 'tank' && (n.level_m !== b.level_m || n.max_level_m !== b.max_level_m)))
+      nodes.push(n.id);
   }
   return { pipes, nodes };
 }

@@ -40,13 +40,18 @@ function main(args: string[]): void {
   const file = args.find((a, i) => !a.startsWith('--') && !valued.has(args[i - 1]));
   if (!file) fail('usage: profile <network.json> [--from ID --to ID] [--routes N] [--route N] [--cover M]');
   let doc: unknown;
-  try { doc = JSON.parse(readFileSync(file, 'utf8')); } catch (error) { fail(`${file}: cannot read as JSON (${(error as Error).message})`); }
+  try {
+    doc = JSON.parse(readFileSync(file, 'utf8'));
+  } catch (error) {
+    fail(`${file}: cannot read as JSON (${(error as Error).message})`);
+  }
   const invalid = validateDocument(doc);
   if (invalid.length > 0) fail(invalid.map((w) => w.message).join('\n'));
   const network = doc as NetworkDocument;
   const from = option(args, '--from');
   const to = option(args, '--to');
-  if ((from === undefined) !== (to === undefined)) fail(`${from === undefined ? '--from' : '--to'}: give both --from and --to, or neither for the longest supply route`);
+  if ((from === undefined) !== (to === undefined))
+    fail(`${from === undefined ? '--from' : '--to'}: give both --from and --to, or neither for the longest supply route`);
   let routes: Route[];
   try {
     if (from !== undefined && to !== undefined) routes = findRoutes(network, from, to, positive(args, '--routes') ?? 3);

@@ -44,15 +44,18 @@ export const WORKING_SHARE = 0.72;
 const AIR_SOURCE = 'NRCS Washington Eng. Tech. Note 16 (2009); NRCS Missouri, Watering Systems for Serious Graziers (V2)';
 export const FINDING_TEXT: Record<FindingKind, { caution: string; source: string }> = {
   'hgl-below-pipe': {
-    caution: 'The hydraulic grade line is below the pipe: the water here is under suction. Air gathers and the line can air-lock or siphon, and dirty water can be drawn in at a leak. Lower the pipe, enlarge it upstream or feed this stretch from higher storage; an air valve here would let air in.',
+    caution:
+      'The hydraulic grade line is below the pipe: the water here is under suction. Air gathers and the line can air-lock or siphon, and dirty water can be drawn in at a leak. Lower the pipe, enlarge it upstream or feed this stretch from higher storage; an air valve here would let air in.',
     source: `HGL above the pipe at design flow: common practice (hydraulics texts); air at high points: ${AIR_SOURCE}`,
   },
   'over-rating': {
-    caution: 'Static pressure (tanks full, no flow) is above the pipe\'s pressure rating: the pipe can burst when the line is shut off. Use a higher pressure class, or a pressure-reducing valve or break tank upstream, and have the design checked against local codes.',
+    caution:
+      "Static pressure (tanks full, no flow) is above the pipe's pressure rating: the pipe can burst when the line is shut off. Use a higher pressure class, or a pressure-reducing valve or break tank upstream, and have the design checked against local codes.",
     source: 'NRCS Conservation Practice Standard 430: internal pressure including transients below the rating (V2)',
   },
   'over-working': {
-    caution: 'Static pressure is above 72 % of the pipe\'s rating: without a surge analysis that leaves too little room for water hammer from a closing valve or float. Use the next pressure class or reduce the pressure.',
+    caution:
+      "Static pressure is above 72 % of the pipe's rating: without a surge analysis that leaves too little room for water hammer from a closing valve or float. Use the next pressure class or reduce the pressure.",
     source: 'ASAE S376.1 as quoted by the Missouri Livestock Watering Systems Handbook ch. 5 (1997), V2; some NRCS state guidance uses 70 % (M)',
   },
   'high-point': {
@@ -65,18 +68,42 @@ export const FINDING_TEXT: Record<FindingKind, { caution: string; source: string
   },
 };
 
-export interface FindingOptions { working_share: number; min_relief_m: number }
+export interface FindingOptions {
+  working_share: number;
+  min_relief_m: number;
+}
 
 export function profileFindings(points: ProfilePoint[], segments: ProfileSegment[], options: FindingOptions): ProfileFinding[] {
   const out: ProfileFinding[] = [];
   for (const seg of segments) {
     if (seg.kind !== 'pipe') continue;
     const pts = points.filter((p) => p.link === seg.link);
-    stretches(out, pts, seg.link, 'hgl-below-pipe', (p) => p.pipe_m - p.hgl_m, () => undefined);
+    stretches(
+      out,
+      pts,
+      seg.link,
+      'hgl-below-pipe',
+      (p) => p.pipe_m - p.hgl_m,
+      () => undefined,
+    );
     if (seg.rating_m !== undefined) {
       const rating = seg.rating_m;
-      stretches(out, pts, seg.link, 'over-rating', (p) => p.static_m - p.pipe_m - rating, () => rating);
-      stretches(out, pts, seg.link, 'over-working', (p) => p.static_m - p.pipe_m - options.working_share * rating, () => options.working_share * rating);
+      stretches(
+        out,
+        pts,
+        seg.link,
+        'over-rating',
+        (p) => p.static_m - p.pipe_m - rating,
+        () => rating,
+      );
+      stretches(
+        out,
+        pts,
+        seg.link,
+        'over-working',
+        (p) => p.static_m - p.pipe_m - options.working_share * rating,
+        () => options.working_share * rating,
+      );
     }
   }
   turningPoints(out, points, options.min_relief_m);
@@ -84,15 +111,28 @@ export function profileFindings(points: ProfilePoint[], segments: ProfileSegment
 }
 
 /** Stretches where excess(p) > 0, with crossings interpolated; the worst point carries the value. */
-function stretches(out: ProfileFinding[], pts: ProfilePoint[], link: string, kind: FindingKind, excess: (p: ProfilePoint) => number,
-  limit: () => number | undefined): void {
+function stretches(
+  out: ProfileFinding[],
+  pts: ProfilePoint[],
+  link: string,
+  kind: FindingKind,
+  excess: (p: ProfilePoint) => number,
+  limit: () => number | undefined,
+): void {
   let open: ProfileFinding | null = null;
   let worst = -Infinity;
-  const close = (): void => { if (open) out.push(open); open = null; worst = -Infinity; };
+  const close = (): void => {
+    if (open) out.push(open);
+    open = null;
+    worst = -Infinity;
+  };
   for (let i = 0; i < pts.length; i++) {
     const p = pts[i];
     const e = excess(p);
-    if (!Number.isFinite(e)) { close(); continue; }
+    if (!Number.isFinite(e)) {
+      close();
+      continue;
+    }
     const prev = i > 0 ? pts[i - 1] : null;
     const ePrev = prev ? excess(prev) : Number.NaN;
     if (e > 1e-9) {
@@ -132,13 +172,27 @@ function turningPoints(out: ProfileFinding[], points: ProfilePoint[], relief: nu
   for (let i = 1; i < points.length; i++) {
     const v = points[i].pipe_m;
     if (dir === 0) {
-      if (v >= points[ref].pipe_m + relief) { dir = 1; ext = i; } else if (v <= points[ref].pipe_m - relief) { dir = -1; ext = i; }
+      if (v >= points[ref].pipe_m + relief) {
+        dir = 1;
+        ext = i;
+      } else if (v <= points[ref].pipe_m - relief) {
+        dir = -1;
+        ext = i;
+      }
     } else if (dir === 1) {
       if (v > points[ext].pipe_m) ext = i;
-      else if (v <= points[ext].pipe_m - relief) { record(ext, 'high-point'); dir = -1; ext = i; }
+      else if (v <= points[ext].pipe_m - relief) {
+        record(ext, 'high-point');
+        dir = -1;
+        ext = i;
+      }
     } else {
       if (v < points[ext].pipe_m) ext = i;
-      else if (v >= points[ext].pipe_m + relief) { record(ext, 'low-point'); dir = 1; ext = i; }
+      else if (v >= points[ext].pipe_m + relief) {
+        record(ext, 'low-point');
+        dir = 1;
+        ext = i;
+      }
     }
   }
 }

@@ -9,6 +9,14 @@
  */
 export { findRoutes, longestSupplyRoute, supplyRoutes, RouteError, type Route } from './routes';
 export { networkTurningPoints, type NetworkTurningPoint } from './network-points';
-export { profileRoute, type RouteProfile, type ProfilePoint, type ProfileElement, type ProfileSegment, type ProfileOptions, type StaticMargin } from './profile-line';
+export {
+  profileRoute,
+  type RouteProfile,
+  type ProfilePoint,
+  type ProfileElement,
+  type ProfileSegment,
+  type ProfileOptions,
+  type StaticMargin,
+} from './profile-line';
 export { profileFindings, WORKING_SHARE, FINDING_TEXT, type ProfileFinding, type FindingKind } from './findings';
 export { pressureState, pressureText, unsuppliedIds, PRESSURE_STATE_TEXT, VACUUM_HEAD_M, type PressureState } from './pressure-state';

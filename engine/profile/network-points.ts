@@ -44,7 +44,14 @@ function pointsOf(profile: RouteProfile, route: Route, doc: NetworkDocument): Ne
     const fromRouteSide = f.at_m - seg.from_m;
     const length = seg.to_m - seg.from_m;
     const along = forward ? fromRouteSide : length - fromRouteSide;
-    out.push({ kind: f.kind, link: f.link, ...(node ? { node } : {}), along_m: Math.round(along * 1000) / 1000, elevation_m: f.elevation_m, fitted: f.fitted === true });
+    out.push({
+      kind: f.kind,
+      link: f.link,
+      ...(node ? { node } : {}),
+      along_m: Math.round(along * 1000) / 1000,
+      elevation_m: f.elevation_m,
+      fitted: f.fitted === true,
+    });
   }
   return out;
 }

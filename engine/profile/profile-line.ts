@@ -114,7 +114,16 @@ export function profileRoute(input: NetworkDocument, route: Route, options: Prof
     const sh = staticOf(id);
     points.push({ distance_m: distance, ground_m: node.elevation_m, pipe_m: node.elevation_m, hgl_m: h, static_m: sh, link, element: id });
     if (elements.length === 0 || elements[elements.length - 1].id !== id) {
-      elements.push({ id, name: node.name, kind: node.kind, distance_m: distance, elevation_m: node.elevation_m, pressure_m: h - node.elevation_m, static_pressure_m: sh - node.elevation_m, supplied: Number.isFinite(h) });
+      elements.push({
+        id,
+        name: node.name,
+        kind: node.kind,
+        distance_m: distance,
+        elevation_m: node.elevation_m,
+        pressure_m: h - node.elevation_m,
+        static_pressure_m: sh - node.elevation_m,
+        supplied: Number.isFinite(h),
+      });
     }
   };
   route.links.forEach((linkId, j) => {
@@ -137,18 +146,36 @@ export function profileRoute(input: NetworkDocument, route: Route, options: Prof
         points.push({ distance_m: start + d, ground_m: g, pipe_m: g - cover, hgl_m: ha + (hb - ha) * f, static_m: sa, link: linkId });
       }
       distance = start + pipe.length_m;
-      segments.push({ link: linkId, kind: 'pipe', from_m: start, to_m: distance, ground: interior.length > 0 ? 'survey' : 'straight', cover_m: cover, rating_m: pipe.rating_m });
+      segments.push({
+        link: linkId,
+        kind: 'pipe',
+        from_m: start,
+        to_m: distance,
+        ground: interior.length > 0 ? 'survey' : 'straight',
+        cover_m: cover,
+        rating_m: pipe.rating_m,
+      });
     } else {
       segments.push({ link: linkId, kind: link.kind, from_m: start, to_m: start, ground: 'none', cover_m: 0 });
     }
     addElement(b, linkId);
   });
   const share = options.working_share ?? WORKING_SHARE;
-  const findings = markFitted(doc, route, segments, profileFindings(points, segments, { working_share: share, min_relief_m: options.min_relief_m ?? PROFILE_PROMINENCE_M }));
+  const findings = markFitted(
+    doc,
+    route,
+    segments,
+    profileFindings(points, segments, { working_share: share, min_relief_m: options.min_relief_m ?? PROFILE_PROMINENCE_M }),
+  );
   const pipeSegs = segments.filter((s) => s.kind === 'pipe');
   const kinds = new Set(pipeSegs.map((s) => s.ground));
   return {
-    route, points, elements, segments, findings, static_margin: staticMargin(points, segments, share),
+    route,
+    points,
+    elements,
+    segments,
+    findings,
+    static_margin: staticMargin(points, segments, share),
     ground: kinds.size === 1 ? (kinds.has('survey') ? 'survey' : 'straight') : kinds.size === 0 ? 'straight' : 'mixed',
   };
 }
@@ -164,8 +191,13 @@ function markFitted(doc: NetworkDocument, route: Route, segments: ProfileSegment
     const seg = segments.find((s) => s.link === f.link);
     const link = doc.links.find((l) => l.id === f.link);
     let fitted = false;
-    const node = doc.nodes.find((n, _i) => n.kind === 'tee' && seg && (Math.abs(f.at_m - seg.from_m) < 1e-9 || Math.abs(f.at_m - seg.to_m) < 1e-9)
-      && route.nodes[route.links.indexOf(f.link) + (Math.abs(f.at_m - seg.from_m) < 1e-9 ? 0 : 1)] === n.id);
+    const node = doc.nodes.find(
+      (n, _i) =>
+        n.kind === 'tee' &&
+        seg &&
+        (Math.abs(f.at_m - seg.from_m) < 1e-9 || Math.abs(f.at_m - seg.to_m) < 1e-9) &&
+        route.nodes[route.links.indexOf(f.link) + (Math.abs(f.at_m - seg.from_m) < 1e-9 ? 0 : 1)] === n.id,
+    );
     if (node?.kind === 'tee') fitted = high ? node.air_valve === true : node.drain === true;
     if (!fitted && seg && link?.kind === 'pipe') {
       const forward = route.nodes[route.links.indexOf(link.id)] === link.from;

@@ -21,10 +21,20 @@ export interface Route {
 
 /** A route cannot be found: unknown elements or no path; the message names the field. */
 export class RouteError extends Error {
-  constructor(readonly field: string, message: string) { super(`${field}: ${message}`); this.name = 'RouteError'; }
+  constructor(
+    readonly field: string,
+    message: string,
+  ) {
+    super(`${field}: ${message}`);
+    this.name = 'RouteError';
+  }
 }
 
-interface Edge { to: number; link: number; w: number }
+interface Edge {
+  to: number;
+  link: number;
+  w: number;
+}
 
 function graph(doc: NetworkDocument): { index: Map<string, number>; adj: Edge[][] } {
   const index = new Map(doc.nodes.map((n, i) => [n.id, i]));
@@ -44,14 +54,18 @@ function graph(doc: NetworkDocument): { index: Map<string, number>; adj: Edge[][
 class Heap {
   private d: number[] = [];
   private v: number[] = [];
-  get size(): number { return this.d.length; }
+  get size(): number {
+    return this.d.length;
+  }
   push(dist: number, node: number): void {
     let i = this.d.length;
-    this.d.push(dist); this.v.push(node);
+    this.d.push(dist);
+    this.v.push(node);
     while (i > 0) {
       const p = (i - 1) >> 1;
       if (this.d[p] <= this.d[i]) break;
-      this.swap(i, p); i = p;
+      this.swap(i, p);
+      i = p;
     }
   }
   pop(): [number, number] {
@@ -59,7 +73,8 @@ class Heap {
     const lastD = this.d.pop() as number;
     const lastV = this.v.pop() as number;
     if (this.d.length > 0) {
-      this.d[0] = lastD; this.v[0] = lastV;
+      this.d[0] = lastD;
+      this.v[0] = lastV;
       let i = 0;
       for (;;) {
         const l = 2 * i + 1;
@@ -68,7 +83,8 @@ class Heap {
         if (l < this.d.length && this.d[l] < this.d[m]) m = l;
         if (r < this.d.length && this.d[r] < this.d[m]) m = r;
         if (m === i) break;
-        this.swap(i, m); i = m;
+        this.swap(i, m);
+        i = m;
       }
     }
     return top;
@@ -79,7 +95,11 @@ class Heap {
   }
 }
 
-interface Tree { dist: Float64Array; prevNode: Int32Array; prevLink: Int32Array }
+interface Tree {
+  dist: Float64Array;
+  prevNode: Int32Array;
+  prevLink: Int32Array;
+}
 
 /** Dijkstra from the sources (all at distance 0), avoiding banned nodes and links; stops at t when given. */
 function dijkstra(adj: Edge[][], sources: number[], t: number, bannedNodes: Set<number>, bannedLinks: Set<number>): Tree {
@@ -89,7 +109,10 @@ function dijkstra(adj: Edge[][], sources: number[], t: number, bannedNodes: Set<
   const prevLink = new Int32Array(n).fill(-1);
   const done = new Uint8Array(n);
   const heap = new Heap();
-  for (const s of sources) { dist[s] = 0; heap.push(0, s); }
+  for (const s of sources) {
+    dist[s] = 0;
+    heap.push(0, s);
+  }
   while (heap.size > 0) {
     const [d, u] = heap.pop();
     if (done[u] || d > dist[u]) continue;
@@ -98,7 +121,12 @@ function dijkstra(adj: Edge[][], sources: number[], t: number, bannedNodes: Set<
     for (const e of adj[u]) {
       if (bannedNodes.has(e.to) || bannedLinks.has(e.link) || done[e.to]) continue;
       const nd = d + e.w;
-      if (nd < dist[e.to]) { dist[e.to] = nd; prevNode[e.to] = u; prevLink[e.to] = e.link; heap.push(nd, e.to); }
+      if (nd < dist[e.to]) {
+        dist[e.to] = nd;
+        prevNode[e.to] = u;
+        prevLink[e.to] = e.link;
+        heap.push(nd, e.to);
+      }
     }
   }
   return { dist, prevNode, prevLink };
@@ -107,12 +135,21 @@ function dijkstra(adj: Edge[][], sources: number[], t: number, bannedNodes: Set<
 function pathTo(tree: Tree, t: number): { nodes: number[]; links: number[]; w: number } {
   const nodes = [t];
   const links: number[] = [];
-  for (let v = t; tree.prevNode[v] >= 0; v = tree.prevNode[v]) { links.push(tree.prevLink[v]); nodes.push(tree.prevNode[v]); }
+  for (let v = t; tree.prevNode[v] >= 0; v = tree.prevNode[v]) {
+    links.push(tree.prevLink[v]);
+    nodes.push(tree.prevNode[v]);
+  }
   return { nodes: nodes.reverse(), links: links.reverse(), w: tree.dist[t] };
 }
 
 /** Dijkstra from s to t avoiding banned nodes and links; null when t is unreachable. */
-function shortest(adj: Edge[][], s: number, t: number, bannedNodes: Set<number>, bannedLinks: Set<number>): { nodes: number[]; links: number[]; w: number } | null {
+function shortest(
+  adj: Edge[][],
+  s: number,
+  t: number,
+  bannedNodes: Set<number>,
+  bannedLinks: Set<number>,
+): { nodes: number[]; links: number[]; w: number } | null {
   const tree = dijkstra(adj, [s], t, bannedNodes, bannedLinks);
   return tree.dist[t] === Infinity ? null : pathTo(tree, t);
 }
@@ -130,7 +167,11 @@ export function findRoutes(doc: NetworkDocument, from: string, to: string, count
   if (s === t) throw new RouteError('to', 'must differ from the start of the route');
   const first = shortest(adj, s, t, new Set(), new Set());
   if (!first) throw new RouteError('to', `${to} is not connected to ${from} by any pipe, valve or pump`);
-  const weight = (links: number[]): number => links.reduce((sum, k) => { const l = doc.links[k]; return sum + (l.kind === 'pipe' ? l.length_m : 0); }, 0);
+  const weight = (links: number[]): number =>
+    links.reduce((sum, k) => {
+      const l = doc.links[k];
+      return sum + (l.kind === 'pipe' ? l.length_m : 0);
+    }, 0);
   const found = [first];
   const candidates: { nodes: number[]; links: number[]; w: number }[] = [];
   const key = (links: number[]): string => links.join(',');

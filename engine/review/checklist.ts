@@ -25,9 +25,7 @@ export interface ChecklistOptions {
 /** Every check of a validated document (validate first: the checks trust the types). */
 export function reviewChecklist(doc: NetworkDocument, options: ChecklistOptions = {}): Checklist {
   const ctx = reviewContext(doc);
-  const rows: CheckRow[] = [
-    ...outletChecks(ctx), ...pipeChecks(ctx), ...profileChecks(ctx), ...supplyChecks(ctx, options.supply), ...safetyChecks(ctx),
-  ];
+  const rows: CheckRow[] = [...outletChecks(ctx), ...pipeChecks(ctx), ...profileChecks(ctx), ...supplyChecks(ctx, options.supply), ...safetyChecks(ctx)];
   const counts: Record<CheckStatus, number> = { pass: 0, caution: 0, fail: 0 };
   for (const r of rows) counts[r.status]++;
   return { rows, counts, solved: ctx.solved };

@@ -23,9 +23,17 @@ function main(argv: string[]): void {
   const file = argv.find((a) => !a.startsWith('--'));
   if (!file) fail('usage: review <network.json> [--what-ifs]');
   let text = '';
-  try { text = readFileSync(file, 'utf8'); } catch (error) { fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`); }
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (error) {
+    fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
+  }
   let doc: unknown;
-  try { doc = JSON.parse(text); } catch (error) { fail(`${file}: not valid JSON (${(error as Error).message})`); }
+  try {
+    doc = JSON.parse(text);
+  } catch (error) {
+    fail(`${file}: not valid JSON (${(error as Error).message})`);
+  }
   const invalid = validateDocument(doc);
   if (invalid.length > 0) fail(invalid.map((w) => w.message).join('\n'));
   const network = normaliseDocument(doc as NetworkDocument);

@@ -33,30 +33,64 @@ export function outletChecks(ctx: ReviewContext): CheckRow[] {
     const required = requiredPressure(node);
     const rule = RULES['outlet-pressure'];
     if (!r) {
-      rows.push({ ...base, key: `${rule.id}:${node.id}`, rule: rule.id, title: rule.title, status: 'fail', note: 'The network did not solve, so this outlet\'s pressure is unknown', ruleText: rule.text, source: rule.source });
+      rows.push({
+        ...base,
+        key: `${rule.id}:${node.id}`,
+        rule: rule.id,
+        title: rule.title,
+        status: 'fail',
+        note: "The network did not solve, so this outlet's pressure is unknown",
+        ruleText: rule.text,
+        source: rule.source,
+      });
     } else if (required === undefined) {
-      rows.push({ ...base, key: `${rule.id}:${node.id}`, rule: rule.id, title: rule.title, status: 'caution', measured: { value: r.pressure_m, quantity: 'pressure' },
-        note: 'No required pressure is set for this device, so its margin cannot be judged', ruleText: rule.text, source: rule.source });
+      rows.push({
+        ...base,
+        key: `${rule.id}:${node.id}`,
+        rule: rule.id,
+        title: rule.title,
+        status: 'caution',
+        measured: { value: r.pressure_m, quantity: 'pressure' },
+        note: 'No required pressure is set for this device, so its margin cannot be judged',
+        ruleText: rule.text,
+        source: rule.source,
+      });
     } else {
       const status = outletPressureStatus(r.pressure_m, required);
       rows.push({
-        ...base, key: `${rule.id}:${node.id}`, rule: rule.id, title: rule.title, status,
-        measured: { value: r.pressure_m, quantity: 'pressure' }, limit: { value: required, quantity: 'pressure' },
+        ...base,
+        key: `${rule.id}:${node.id}`,
+        rule: rule.id,
+        title: rule.title,
+        status,
+        measured: { value: r.pressure_m, quantity: 'pressure' },
+        limit: { value: required, quantity: 'pressure' },
         margin: { value: r.pressure_m - required, quantity: 'pressure' },
-        note: status === 'fail' ? 'Below what the device needs: it will run weak or not at all'
-          : status === 'caution' ? 'Meets the device\'s need with little to spare' : 'Meets the device\'s need with margin',
-        ruleText: rule.text, source: rule.source,
+        note:
+          status === 'fail'
+            ? 'Below what the device needs: it will run weak or not at all'
+            : status === 'caution'
+              ? "Meets the device's need with little to spare"
+              : "Meets the device's need with margin",
+        ruleText: rule.text,
+        source: rule.source,
       });
     }
     const d = RULES['outlet-delivery'];
     if (r && node.demand_m3s > 0) {
       const status = deliveryStatus(r.demand_m3s, node.demand_m3s);
       rows.push({
-        ...base, key: `${d.id}:${node.id}`, rule: d.id, title: d.title, status,
-        measured: { value: r.demand_m3s, quantity: 'flow' }, limit: { value: node.demand_m3s, quantity: 'flow' },
+        ...base,
+        key: `${d.id}:${node.id}`,
+        rule: d.id,
+        title: d.title,
+        status,
+        measured: { value: r.demand_m3s, quantity: 'flow' },
+        limit: { value: node.demand_m3s, quantity: 'flow' },
         margin: { value: r.demand_m3s - node.demand_m3s, quantity: 'flow' },
         note: status === 'pass' ? 'Delivers its design flow' : 'Delivers less than its design flow at the pressure it gets',
-        ruleText: d.text, source: d.source,
+        ruleText: d.text,
+        source: d.source,
       });
     }
     const sensitive = node.outlet_type === 'house' || node.float_valve === true;
@@ -66,11 +100,20 @@ export function outletChecks(ctx: ReviewContext): CheckRow[] {
       const ps = hs - node.elevation_m;
       const status: CheckStatus = ps > HIGH_STATIC_PRESSURE_M ? 'caution' : 'pass';
       rows.push({
-        ...base, key: `${s.id}:${node.id}`, rule: s.id, title: s.title, status,
-        measured: { value: ps, quantity: 'pressure' }, limit: { value: HIGH_STATIC_PRESSURE_M, quantity: 'pressure' },
+        ...base,
+        key: `${s.id}:${node.id}`,
+        rule: s.id,
+        title: s.title,
+        status,
+        measured: { value: ps, quantity: 'pressure' },
+        limit: { value: HIGH_STATIC_PRESSURE_M, quantity: 'pressure' },
         margin: { value: HIGH_STATIC_PRESSURE_M - ps, quantity: 'pressure' },
-        note: status === 'caution' ? 'Fit a pressure-reducing valve ahead of this device; local plumbing code governs' : 'Within what the device is usually rated for',
-        ruleText: s.text, source: s.source,
+        note:
+          status === 'caution'
+            ? 'Fit a pressure-reducing valve ahead of this device; local plumbing code governs'
+            : 'Within what the device is usually rated for',
+        ruleText: s.text,
+        source: s.source,
       });
     }
   }

@@ -51,11 +51,14 @@ export function pipeChecks(ctx: ReviewContext): CheckRow[] {
     const v = r ? Math.abs(r.velocity_ms) : NaN;
     if (r) {
       const status = velocityStatus(v);
-      rows.push(row('pipe-velocity', status, {
-        measured: { value: v, quantity: 'velocity' }, limit: { value: VELOCITY_LIMIT_MS, quantity: 'velocity' },
-        margin: { value: VELOCITY_LIMIT_MS - v, quantity: 'velocity' },
-        note: status === 'pass' ? 'Moderate velocity' : 'Fast water: more friction, wear and surge; a size up slows it',
-      }));
+      rows.push(
+        row('pipe-velocity', status, {
+          measured: { value: v, quantity: 'velocity' },
+          limit: { value: VELOCITY_LIMIT_MS, quantity: 'velocity' },
+          margin: { value: VELOCITY_LIMIT_MS - v, quantity: 'velocity' },
+          note: status === 'pass' ? 'Moderate velocity' : 'Fast water: more friction, wear and surge; a size up slows it',
+        }),
+      );
     }
     const low = lowestPoint(ctx, link);
     const hs = Math.max(ctx.staticHead.get(link.from) ?? -Infinity, ctx.staticHead.get(link.to) ?? -Infinity);
@@ -63,33 +66,57 @@ export function pipeChecks(ctx: ReviewContext): CheckRow[] {
     const working = Math.max(hs, running) - low.elevation_m;
     const rating = link.rating_m;
     if (rating === undefined) {
-      rows.push(row('pipe-static-rating', 'caution', {
-        measured: Number.isFinite(working) ? { value: working, quantity: 'pressure' } : undefined, at_m: low.at_m,
-        note: 'No pressure rating is set for this pipe (choose it from the catalogue), so the rating checks cannot be made',
-      }));
+      rows.push(
+        row('pipe-static-rating', 'caution', {
+          measured: Number.isFinite(working) ? { value: working, quantity: 'pressure' } : undefined,
+          at_m: low.at_m,
+          note: 'No pressure rating is set for this pipe (choose it from the catalogue), so the rating checks cannot be made',
+        }),
+      );
     } else if (Number.isFinite(working)) {
       const st = ratingStatus(working, rating);
-      rows.push(row('pipe-static-rating', st, {
-        measured: { value: working, quantity: 'pressure' }, limit: { value: rating, quantity: 'pressure' },
-        margin: { value: rating - working, quantity: 'pressure' }, at_m: low.at_m,
-        note: st === 'pass' ? 'Working pressure at the lowest point is within the rating' : 'Working pressure at the lowest point is over the pipe\'s rating: choose a higher class or reduce the pressure',
-      }));
+      rows.push(
+        row('pipe-static-rating', st, {
+          measured: { value: working, quantity: 'pressure' },
+          limit: { value: rating, quantity: 'pressure' },
+          margin: { value: rating - working, quantity: 'pressure' },
+          at_m: low.at_m,
+          note:
+            st === 'pass'
+              ? 'Working pressure at the lowest point is within the rating'
+              : "Working pressure at the lowest point is over the pipe's rating: choose a higher class or reduce the pressure",
+        }),
+      );
       const share = workingShareStatus(working, rating);
-      rows.push(row('pipe-working-share', share, {
-        measured: { value: (100 * working) / rating, quantity: 'percent' }, limit: { value: 100 * WORKING_SHARE, quantity: 'percent' },
-        margin: { value: 100 * (WORKING_SHARE - working / rating), quantity: 'percent' }, at_m: low.at_m,
-        note: share === 'pass' ? 'Leaves the usual allowance for surge' : 'Near its rating at the lowest point: little left for surge; a higher class or a pressure reducer gives room',
-      }));
+      rows.push(
+        row('pipe-working-share', share, {
+          measured: { value: (100 * working) / rating, quantity: 'percent' },
+          limit: { value: 100 * WORKING_SHARE, quantity: 'percent' },
+          margin: { value: 100 * (WORKING_SHARE - working / rating), quantity: 'percent' },
+          at_m: low.at_m,
+          note:
+            share === 'pass'
+              ? 'Leaves the usual allowance for surge'
+              : 'Near its rating at the lowest point: little left for surge; a higher class or a pressure reducer gives room',
+        }),
+      );
       if (r) {
         const wave = pipeWaveSpeed(link);
         const surge = joukowskyHead(wave.waveSpeed_ms, v);
         const ss = surgeStatus(working, surge, rating);
-        rows.push(row('pipe-surge', ss, {
-          measured: { value: working + surge, quantity: 'pressure' }, limit: { value: rating, quantity: 'pressure' },
-          margin: { value: rating - working - surge, quantity: 'pressure' }, at_m: low.at_m,
-          detail: [{ label: 'wave speed', amount: { value: wave.waveSpeed_ms, quantity: 'velocity' } }, { label: 'surge head', amount: { value: surge, quantity: 'head' } }],
-          note: `${ss === 'pass' ? 'Stays within the rating' : 'Exceeds the rating: close valves slowly, fit surge relief or choose a higher class'}; wave speed ${wave.basis === 'catalogue' ? 'from the pipe\'s material and dimension ratio' : 'of a rigid pipe (wall unknown), the safe side'}`,
-        }));
+        rows.push(
+          row('pipe-surge', ss, {
+            measured: { value: working + surge, quantity: 'pressure' },
+            limit: { value: rating, quantity: 'pressure' },
+            margin: { value: rating - working - surge, quantity: 'pressure' },
+            at_m: low.at_m,
+            detail: [
+              { label: 'wave speed', amount: { value: wave.waveSpeed_ms, quantity: 'velocity' } },
+              { label: 'surge head', amount: { value: surge, quantity: 'head' } },
+            ],
+            note: `${ss === 'pass' ? 'Stays within the rating' : 'Exceeds the rating: close valves slowly, fit surge relief or choose a higher class'}; wave speed ${wave.basis === 'catalogue' ? "from the pipe's material and dimension ratio" : 'of a rigid pipe (wall unknown), the safe side'}`,
+          }),
+        );
       }
     }
     if (from && to && r && r.status !== 'closed') {
@@ -97,10 +124,18 @@ export function pipeChecks(ctx: ReviewContext): CheckRow[] {
       const toElev = ctx.node.get(link.to)?.elevation_m ?? 0;
       const h = hglClearance(link, from.head_m, to.head_m, fromElev, toElev);
       const status: CheckStatus = h.clearance_m >= 0 ? 'pass' : 'fail';
-      rows.push(row('pipe-hgl', status, {
-        measured: { value: h.clearance_m, quantity: 'head' }, limit: { value: 0, quantity: 'head' }, margin: { value: h.clearance_m, quantity: 'head' }, at_m: h.at_m,
-        note: status === 'pass' ? `The HGL stays above the pipe${link.profile?.length ? ' along its profile' : ''}` : 'The HGL falls below the pipe here: air gathers or the line siphons; lower the line or add head',
-      }));
+      rows.push(
+        row('pipe-hgl', status, {
+          measured: { value: h.clearance_m, quantity: 'head' },
+          limit: { value: 0, quantity: 'head' },
+          margin: { value: h.clearance_m, quantity: 'head' },
+          at_m: h.at_m,
+          note:
+            status === 'pass'
+              ? `The HGL stays above the pipe${link.profile?.length ? ' along its profile' : ''}`
+              : 'The HGL falls below the pipe here: air gathers or the line siphons; lower the line or add head',
+        }),
+      );
     }
   }
   return rows;

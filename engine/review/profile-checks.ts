@@ -17,11 +17,20 @@ export function profileChecks(ctx: ReviewContext): CheckRow[] {
     const fitting = high ? 'an air-release valve' : 'a drain';
     const word = high ? 'high' : 'low';
     return {
-      key: `${rule.id}:${id}${p.node ? '' : `@${p.along_m}`}`, group: 'profile', rule: rule.id, title: rule.title,
-      element: id, ...nameOf(element), status: p.fitted ? 'pass' : 'caution',
-      measured: { value: p.elevation_m, quantity: 'elevation' }, ...(p.node ? {} : { at_m: p.along_m }),
-      note: p.fitted ? `${fitting[0].toUpperCase()}${fitting.slice(1)} serves this ${word} point` : `${high ? 'High' : 'Low'} point without ${fitting}${high ? ': air gathers here and can block the line' : ': the line cannot be emptied for winter or repairs'}`,
-      ruleText: rule.text, source: rule.source,
+      key: `${rule.id}:${id}${p.node ? '' : `@${p.along_m}`}`,
+      group: 'profile',
+      rule: rule.id,
+      title: rule.title,
+      element: id,
+      ...nameOf(element),
+      status: p.fitted ? 'pass' : 'caution',
+      measured: { value: p.elevation_m, quantity: 'elevation' },
+      ...(p.node ? {} : { at_m: p.along_m }),
+      note: p.fitted
+        ? `${fitting[0].toUpperCase()}${fitting.slice(1)} serves this ${word} point`
+        : `${high ? 'High' : 'Low'} point without ${fitting}${high ? ': air gathers here and can block the line' : ': the line cannot be emptied for winter or repairs'}`,
+      ruleText: rule.text,
+      source: rule.source,
     };
   });
 }

@@ -27,7 +27,9 @@ export function reviewContext(doc: NetworkDocument): ReviewContext {
     model.nodeIds.forEach((id, i) => staticHead.set(id, heads[i]));
   }
   return {
-    doc: network, result, solved: result.converged,
+    doc: network,
+    result,
+    solved: result.converged,
     node: new Map(network.nodes.map((n) => [n.id, n])),
     link: new Map(network.links.map((l) => [l.id, l])),
     staticHead,

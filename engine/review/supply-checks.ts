@@ -84,14 +84,16 @@ export function fillStatus(volume: number, need: number): CheckStatus {
 }
 /** Refill verdict: the delivered flow must supply the daily need within TROUGH_REFILL_HOURS. */
 export const refillStatus = (delivered_m3s: number, dailyNeed_m3: number): CheckStatus =>
-  (delivered_m3s * TROUGH_REFILL_HOURS * 3600 >= dailyNeed_m3 ? 'pass' : 'fail');
+  delivered_m3s * TROUGH_REFILL_HOURS * 3600 >= dailyNeed_m3 ? 'pass' : 'fail';
 
 export function supplyChecks(ctx: ReviewContext, inputs: SupplyInputs = {}): CheckRow[] {
   const rows: CheckRow[] = [];
   const doc = ctx.doc;
   const fromBudget = inputs.worstDailyNeed_m3 !== undefined;
   const need = inputs.worstDailyNeed_m3 ?? dailyNeedFromFlows(doc);
-  const needText = fromBudget ? `the water budget's worst month${inputs.worstMonth ? ` (${inputs.worstMonth})` : ''}` : 'the outlets\' design flows and patterns (no water budget yet)';
+  const needText = fromBudget
+    ? `the water budget's worst month${inputs.worstMonth ? ` (${inputs.worstMonth})` : ''}`
+    : "the outlets' design flows and patterns (no water budget yet)";
   const pumps = doc.links.filter((l) => l.kind === 'pump');
   const unreliable = pumps.some((p) => p.kind === 'pump' && (p.schedule ?? []).some((f) => f < 1));
   const storage = usableStorage(doc);
@@ -101,12 +103,22 @@ export function supplyChecks(ctx: ReviewContext, inputs: SupplyInputs = {}): Che
     const days = storage / storageNeed;
     const status: CheckStatus = unreliable ? storageStatus(days) : 'pass';
     rows.push({
-      key: rule.id, group: 'storage', rule: rule.id, title: rule.title, element: null, status,
-      measured: { value: days, quantity: 'days' }, limit: { value: STORAGE_DAYS_UNRELIABLE, quantity: 'days' },
+      key: rule.id,
+      group: 'storage',
+      rule: rule.id,
+      title: rule.title,
+      element: null,
+      status,
+      measured: { value: days, quantity: 'days' },
+      limit: { value: STORAGE_DAYS_UNRELIABLE, quantity: 'days' },
       margin: { value: days - STORAGE_DAYS_UNRELIABLE, quantity: 'days' },
-      detail: [{ label: 'usable storage', amount: { value: storage, quantity: 'volume' } }, { label: 'daily need', amount: { value: storageNeed, quantity: 'volume-per-day' } }],
-      note: `${!unreliable ? 'The fill is not on a sun or time schedule, so the 3-day rule for unreliable sources does not apply' : status === 'pass' ? 'Enough storage to ride out cloudy days' : 'Too little storage for a solar fill: add tanks or cut the daily need'}; need from ${fromBudget ? 'the water budget\'s peak month' : needText}`,
-      ruleText: rule.text, source: rule.source,
+      detail: [
+        { label: 'usable storage', amount: { value: storage, quantity: 'volume' } },
+        { label: 'daily need', amount: { value: storageNeed, quantity: 'volume-per-day' } },
+      ],
+      note: `${!unreliable ? 'The fill is not on a sun or time schedule, so the 3-day rule for unreliable sources does not apply' : status === 'pass' ? 'Enough storage to ride out cloudy days' : 'Too little storage for a solar fill: add tanks or cut the daily need'}; need from ${fromBudget ? "the water budget's peak month" : needText}`,
+      ruleText: rule.text,
+      source: rule.source,
     });
   }
   if (pumps.length && need > 0) {
@@ -114,11 +126,19 @@ export function supplyChecks(ctx: ReviewContext, inputs: SupplyInputs = {}): Che
     const volume = inputs.fillDailyVolume_m3 ?? pumpDailyVolume(ctx);
     const status = fillStatus(volume, need);
     rows.push({
-      key: rule.id, group: 'storage', rule: rule.id, title: rule.title, element: pumps[0].id, ...nameOf(pumps[0]), status,
-      measured: { value: volume, quantity: 'volume-per-day' }, limit: { value: need * (1 + WASTE_ALLOWANCE), quantity: 'volume-per-day' },
+      key: rule.id,
+      group: 'storage',
+      rule: rule.id,
+      title: rule.title,
+      element: pumps[0].id,
+      ...nameOf(pumps[0]),
+      status,
+      measured: { value: volume, quantity: 'volume-per-day' },
+      limit: { value: need * (1 + WASTE_ALLOWANCE), quantity: 'volume-per-day' },
       margin: { value: volume - need * (1 + WASTE_ALLOWANCE), quantity: 'volume-per-day' },
       note: `${status === 'pass' ? 'The fill keeps up with the need and its allowance' : status === 'caution' ? 'The fill only just keeps up: nothing left for evaporation and waste' : 'The fill cannot keep up: the tanks draw down day after day'}; need from ${needText}`,
-      ruleText: rule.text, source: rule.source,
+      ruleText: rule.text,
+      source: rule.source,
     });
   }
   for (const n of doc.nodes) {
@@ -126,18 +146,38 @@ export function supplyChecks(ctx: ReviewContext, inputs: SupplyInputs = {}): Che
     const rule = RULES['trough-refill'];
     const herdNeed = inputs.troughDailyNeed_m3?.[n.id];
     const delivered = ctx.result.nodes[n.id]?.demand_m3s ?? 0;
-    const base = { key: `${rule.id}:${n.id}`, group: 'storage' as const, rule: rule.id, title: rule.title, element: n.id, ...nameOf(n), ruleText: rule.text, source: rule.source };
+    const base = {
+      key: `${rule.id}:${n.id}`,
+      group: 'storage' as const,
+      rule: rule.id,
+      title: rule.title,
+      element: n.id,
+      ...nameOf(n),
+      ruleText: rule.text,
+      source: rule.source,
+    };
     if (herdNeed === undefined) {
-      rows.push({ ...base, status: 'caution', measured: { value: delivered, quantity: 'flow' }, note: 'No herd is linked to this trough in the water budget, so its refill time cannot be judged' });
+      rows.push({
+        ...base,
+        status: 'caution',
+        measured: { value: delivered, quantity: 'flow' },
+        note: 'No herd is linked to this trough in the water budget, so its refill time cannot be judged',
+      });
       continue;
     }
     const status = refillStatus(delivered, herdNeed);
     const hours = delivered > 0 ? herdNeed / delivered / 3600 : Infinity;
     rows.push({
-      ...base, status, measured: { value: hours, quantity: 'hours' }, limit: { value: TROUGH_REFILL_HOURS, quantity: 'hours' },
+      ...base,
+      status,
+      measured: { value: hours, quantity: 'hours' },
+      limit: { value: TROUGH_REFILL_HOURS, quantity: 'hours' },
       margin: { value: TROUGH_REFILL_HOURS - hours, quantity: 'hours' },
       detail: [{ label: 'herd daily need', amount: { value: herdNeed, quantity: 'volume-per-day' } }],
-      note: status === 'pass' ? 'Refills the herd\'s daily need in time' : 'Too slow: stock wait at the trough; a bigger line, more pressure or a bigger trough helps',
+      note:
+        status === 'pass'
+          ? "Refills the herd's daily need in time"
+          : 'Too slow: stock wait at the trough; a bigger line, more pressure or a bigger trough helps',
     });
   }
   return rows;

@@ -8,7 +8,10 @@ export type CheckStatus = 'pass' | 'caution' | 'fail';
 export type CheckGroup = 'outlets' | 'pipes' | 'profile' | 'storage' | 'safety';
 
 /** A number and what it measures: a display quantity (engine/units.ts) or a plain ratio / count. */
-export interface Amount { value: number; quantity: Quantity | 'percent' | 'days' | 'hours' | 'volume-per-day' }
+export interface Amount {
+  value: number;
+  quantity: Quantity | 'percent' | 'days' | 'hours' | 'volume-per-day';
+}
 
 export interface CheckRow {
   /** `${rule}:${element}` (or the rule alone for design-wide checks); unique in a checklist. */

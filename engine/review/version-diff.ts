@@ -11,9 +11,19 @@ import type { NetworkDocument, NetworkLink, NetworkNode } from '../network-docum
 
 type Element = NetworkNode | NetworkLink;
 
-export interface FieldChange { field: string; before: unknown; after: unknown }
-export interface ElementRef { id: string; kind: string; name?: string }
-export interface ChangedElement extends ElementRef { fields: FieldChange[] }
+export interface FieldChange {
+  field: string;
+  before: unknown;
+  after: unknown;
+}
+export interface ElementRef {
+  id: string;
+  kind: string;
+  name?: string;
+}
+export interface ChangedElement extends ElementRef {
+  fields: FieldChange[];
+}
 
 export interface VersionDiff {
   added: ElementRef[];
@@ -28,11 +38,17 @@ const PLACEMENT_FIELDS = new Set(['x_m', 'y_m', 'vertices']);
 
 /** JSON text with object keys sorted and undefined dropped, so key order never counts as a change. */
 export function canonicalJson(v: unknown): string {
-  return JSON.stringify(v, (_k, val: unknown) =>
-    val && typeof val === 'object' && !Array.isArray(val)
-      ? Object.fromEntries(Object.entries(val as Record<string, unknown>).filter(([, x]) => x !== undefined)
-        .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)))
-      : val) ?? 'undefined';
+  return (
+    JSON.stringify(v, (_k, val: unknown) =>
+      val && typeof val === 'object' && !Array.isArray(val)
+        ? Object.fromEntries(
+            Object.entries(val as Record<string, unknown>)
+              .filter(([, x]) => x !== undefined)
+              .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)),
+          )
+        : val,
+    ) ?? 'undefined'
+  );
 }
 
 function ref(e: Element): ElementRef {
@@ -61,7 +77,10 @@ export function diffVersions(before: NetworkDocument, after: NetworkDocument): V
   const out: VersionDiff = { added: [], removed: [], changed: [], settings: [] };
   for (const [id, e] of b) {
     const old = a.get(id);
-    if (!old) { out.added.push(ref(e)); continue; }
+    if (!old) {
+      out.added.push(ref(e));
+      continue;
+    }
     const fields = fieldChanges(old as unknown as Record<string, unknown>, e as unknown as Record<string, unknown>);
     if (fields.length) out.changed.push({ ...ref(e), fields });
   }
@@ -84,7 +103,17 @@ export function summariseDiff(d: VersionDiff, maxIds = 4): string {
   const edited = d.changed.filter((c) => !moved.includes(c));
   const parts: string[] = [];
   if (edited.length) {
-    parts.push(`changed ${list(edited.map((c) => `${c.id} (${c.fields.filter((f) => !PLACEMENT_FIELDS.has(f.field)).map((f) => f.field).join(', ')})`))}`);
+    parts.push(
+      `changed ${list(
+        edited.map(
+          (c) =>
+            `${c.id} (${c.fields
+              .filter((f) => !PLACEMENT_FIELDS.has(f.field))
+              .map((f) => f.field)
+              .join(', ')})`,
+        ),
+      )}`,
+    );
   }
   if (d.added.length) parts.push(`added ${list(d.added.map((e) => e.id))}`);
   if (d.removed.length) parts.push(`removed ${list(d.removed.map((e) => e.id))}`);
@@ -95,7 +124,9 @@ export function summariseDiff(d: VersionDiff, maxIds = 4): string {
 }
 
 /** What the comparison needs from a steady result (engine SteadyResult fits). */
-export interface OutletResults { nodes: Record<string, { pressure_m: number; demand_m3s: number }> }
+export interface OutletResults {
+  nodes: Record<string, { pressure_m: number; demand_m3s: number }>;
+}
 
 export interface OutletComparison {
   id: string;
@@ -109,8 +140,10 @@ export interface OutletComparison {
 
 /** Each outlet of either version with its pressure and delivered flow before and after. */
 export function compareOutlets(
-  before: NetworkDocument, beforeResults: OutletResults | null,
-  after: NetworkDocument, afterResults: OutletResults | null,
+  before: NetworkDocument,
+  beforeResults: OutletResults | null,
+  after: NetworkDocument,
+  afterResults: OutletResults | null,
 ): OutletComparison[] {
   const outlets = new Map<string, NetworkNode>();
   for (const n of [...(before.nodes ?? []), ...(after.nodes ?? [])]) if (n.kind === 'outlet') outlets.set(n.id, n);
@@ -119,13 +152,18 @@ export function compareOutlets(
     const v = r.nodes[id];
     return v ? { pressure_m: v.pressure_m, flow_m3s: v.demand_m3s } : null;
   };
-  return [...outlets.values()].map((n) => {
-    const b = read(before, beforeResults, n.id);
-    const a = read(after, afterResults, n.id);
-    return {
-      id: n.id, ...(n.name ? { name: n.name } : {}), before: b, after: a,
-      pressureChange_m: a && b ? a.pressure_m - b.pressure_m : null,
-      flowChange_m3s: a && b ? a.flow_m3s - b.flow_m3s : null,
-    };
-  }).sort((x, y) => x.id.localeCompare(y.id));
+  return [...outlets.values()]
+    .map((n) => {
+      const b = read(before, beforeResults, n.id);
+      const a = read(after, afterResults, n.id);
+      return {
+        id: n.id,
+        ...(n.name ? { name: n.name } : {}),
+        before: b,
+        after: a,
+        pressureChange_m: a && b ? a.pressure_m - b.pressure_m : null,
+        flowChange_m3s: a && b ? a.flow_m3s - b.flow_m3s : null,
+      };
+    })
+    .sort((x, y) => x.id.localeCompare(y.id));
 }

@@ -29,7 +29,7 @@ export interface WaveSpeedInput {
 /** Korteweg wave speed, m/s. */
 export function kortewegWaveSpeed(input: WaveSpeedInput, K = WATER_BULK_MODULUS_PA, rho = WATER_DENSITY_KGM3): number {
   const stiffness = Number.isFinite(input.modulus_pa) ? (K / input.modulus_pa) * input.diameterToWall : 0;
-  return Math.sqrt((K / rho) / (1 + stiffness));
+  return Math.sqrt(K / rho / (1 + stiffness));
 }
 
 export interface PipeWave {

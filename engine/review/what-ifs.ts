@@ -110,15 +110,21 @@ export function whatIfs(input: NetworkDocument, options: WhatIfOptions = {}): Wh
       const b = base.values[j];
       const share = (q: number) => (o.demand_m3s > 0 ? q / o.demand_m3s : 1);
       const worse = !v.active || b.p - v.p > PRESSURE_TOL_M || share(b.q) - share(v.q) > SHARE_TOL;
-      if (!short(o, v) || !worse) { unaffected.push(o.id); return; }
+      if (!short(o, v) || !worse) {
+        unaffected.push(o.id);
+        return;
+      }
       const req = requiredPressure(o);
       const p = v.active ? v.p : Number.NaN;
       const q = v.active ? v.q : 0;
       hit.push({
-        outlet: o.id, ...(o.name ? { name: o.name } : {}),
-        ...(v.active ? { pressure_m: p } : {}), pressureShort_m: req !== undefined && !(p >= req) ? (v.active ? req - p : req) : 0,
-        delivered_m3s: q, deliveryShort_m3s: Math.max(0, o.demand_m3s - q),
-        lostShare: o.demand_m3s > 0 ? Math.min(1, Math.max(0, 1 - q / o.demand_m3s)) : (v.active ? 0 : 1),
+        outlet: o.id,
+        ...(o.name ? { name: o.name } : {}),
+        ...(v.active ? { pressure_m: p } : {}),
+        pressureShort_m: req !== undefined && !(p >= req) ? (v.active ? req - p : req) : 0,
+        delivered_m3s: q,
+        deliveryShort_m3s: Math.max(0, o.demand_m3s - q),
+        lostShare: o.demand_m3s > 0 ? Math.min(1, Math.max(0, 1 - q / o.demand_m3s)) : v.active ? 0 : 1,
         noSupply: !v.active,
       });
     });

@@ -25,13 +25,24 @@ const VALUE_OPTIONS = ['--catalogue', '--min-pressure-m', '--omega', '--velocity
 
 function readJson(file: string): unknown {
   let text: string;
-  try { text = readFileSync(file, 'utf8'); } catch (error) { fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`); }
-  try { return JSON.parse(text); } catch (error) { fail(`${file}: not valid JSON (${(error as Error).message})`); }
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (error) {
+    fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
+  }
+  try {
+    return JSON.parse(text);
+  } catch (error) {
+    fail(`${file}: not valid JSON (${(error as Error).message})`);
+  }
 }
 
 function main(args: string[]): void {
   const file = args.find((a, i) => !a.startsWith('--') && !VALUE_OPTIONS.includes(args[i - 1]));
-  const value = (name: string): string | undefined => { const i = args.indexOf(name); return i < 0 ? undefined : (args[i + 1] ?? ''); };
+  const value = (name: string): string | undefined => {
+    const i = args.indexOf(name);
+    return i < 0 ? undefined : (args[i + 1] ?? '');
+  };
   const number = (name: string): number | undefined => {
     const v = value(name);
     if (v === undefined) return undefined;
@@ -40,7 +51,10 @@ function main(args: string[]): void {
     return n;
   };
   const catalogueFile = value('--catalogue');
-  if (!file || !catalogueFile) fail('usage: size <doc.json> --catalogue <prices.json> [--min-pressure-m P] [--omega W] [--velocity-limit V] [--rating-fraction F] [--pipes P1,P2] [--same-series]');
+  if (!file || !catalogueFile)
+    fail(
+      'usage: size <doc.json> --catalogue <prices.json> [--min-pressure-m P] [--omega W] [--velocity-limit V] [--rating-fraction F] [--pipes P1,P2] [--same-series]',
+    );
   const doc = readJson(file);
   const invalid = validateDocument(doc);
   if (invalid.length > 0) fail(invalid.map((w) => `${file}: ${w.message}`).join('\n'));
@@ -50,8 +64,13 @@ function main(args: string[]): void {
   const pipes = value('--pipes')?.split(',').filter(Boolean);
   for (const id of pipes ?? []) if (!typed.links.some((l) => l.id === id && l.kind === 'pipe')) fail(`--pipes: ${id} is not a pipe of ${file}`);
   const result = sizeNetwork(typed, catalogue.candidates, {
-    minPressure_m: number('--min-pressure-m'), omega: number('--omega'), velocityLimit_ms: number('--velocity-limit'),
-    ratingFraction: number('--rating-fraction'), maxEvaluations: number('--max-evaluations'), pipes, sameSeries: args.includes('--same-series'),
+    minPressure_m: number('--min-pressure-m'),
+    omega: number('--omega'),
+    velocityLimit_ms: number('--velocity-limit'),
+    ratingFraction: number('--rating-fraction'),
+    maxEvaluations: number('--max-evaluations'),
+    pipes,
+    sameSeries: args.includes('--same-series'),
   });
   const { document, ...rest } = result;
   process.stdout.write(`${JSON.stringify({ ...rest, currency: catalogue.currency, document })}\n`);

@@ -43,7 +43,14 @@ export function localSearch(costs: number[][], feasible: (x: Int32Array) => bool
   const maxEval = options.maxEvaluations ?? 40000;
   const patience = options.patience ?? 60;
   let seed = (options.seed ?? 0x9e3779b9) >>> 0 || 1;
-  const rand = (): number => { seed ^= seed << 13; seed >>>= 0; seed ^= seed >>> 17; seed ^= seed << 5; seed >>>= 0; return seed / 4294967296; };
+  const rand = (): number => {
+    seed ^= seed << 13;
+    seed >>>= 0;
+    seed ^= seed >>> 17;
+    seed ^= seed << 5;
+    seed >>>= 0;
+    return seed / 4294967296;
+  };
   const memo = new Map<string, boolean>();
   let evaluations = 0;
   const test = (x: Int32Array): boolean => {
@@ -55,7 +62,11 @@ export function localSearch(costs: number[][], feasible: (x: Int32Array) => bool
     memo.set(key, ok);
     return ok;
   };
-  const costOf = (x: Int32Array): number => { let c = 0; for (let i = 0; i < n; i++) c += costs[i][x[i]]; return c; };
+  const costOf = (x: Int32Array): number => {
+    let c = 0;
+    for (let i = 0; i < n; i++) c += costs[i][x[i]];
+    return c;
+  };
   const start = Int32Array.from(costs, (c) => c.length - 1);
   if (!test(start)) return { feasible: false, choice: start, cost: costOf(start), evaluations, kicks: 0 };
 
@@ -67,41 +78,52 @@ export function localSearch(costs: number[][], feasible: (x: Int32Array) => bool
       if (evaluations >= maxEval) return;
       // single moves, largest saving first
       const singles: [number, number, number][] = [];
-      for (let i = 0; i < n; i++) for (let j = 0; j < costs[i].length; j++) {
-        const d = costs[i][j] - costs[i][x[i]];
-        if (d < -1e-9) singles.push([d, i, j]);
-      }
+      for (let i = 0; i < n; i++)
+        for (let j = 0; j < costs[i].length; j++) {
+          const d = costs[i][j] - costs[i][x[i]];
+          if (d < -1e-9) singles.push([d, i, j]);
+        }
       singles.sort((a, b) => a[0] - b[0]);
       let moved = false;
       for (const [, i, j] of singles) {
         if (evaluations >= maxEval) return;
         const old = x[i];
         x[i] = j;
-        if (test(x)) { moved = true; break; }
+        if (test(x)) {
+          moved = true;
+          break;
+        }
         x[i] = old;
       }
       if (moved) continue;
       // pair moves, cheapest result first (skipped on large problems: the list grows as n²·m²)
       if (!pairMoves) return;
       const pairs: [number, number, number, number, number][] = [];
-      for (let i = 0; i < n; i++) for (let k = i + 1; k < n; k++) {
-        const base = costs[i][x[i]] + costs[k][x[k]];
-        for (let a = 0; a < costs[i].length; a++) for (let b = 0; b < costs[k].length; b++) {
-          // one larger, one smaller: making both smaller cannot work when neither alone did (pressures
-          // fall as any pipe shrinks in a network fed from one head)
-          if ((a > x[i]) === (b > x[k]) || a === x[i] || b === x[k]) continue;
-          const d = costs[i][a] + costs[k][b] - base;
-          if (d < -1e-9) pairs.push([d, i, a, k, b]);
+      for (let i = 0; i < n; i++)
+        for (let k = i + 1; k < n; k++) {
+          const base = costs[i][x[i]] + costs[k][x[k]];
+          for (let a = 0; a < costs[i].length; a++)
+            for (let b = 0; b < costs[k].length; b++) {
+              // one larger, one smaller: making both smaller cannot work when neither alone did (pressures
+              // fall as any pipe shrinks in a network fed from one head)
+              if (a > x[i] === b > x[k] || a === x[i] || b === x[k]) continue;
+              const d = costs[i][a] + costs[k][b] - base;
+              if (d < -1e-9) pairs.push([d, i, a, k, b]);
+            }
         }
-      }
       pairs.sort((p, q) => p[0] - q[0]);
       for (const [, i, a, k, b] of pairs) {
         if (evaluations >= maxEval) return;
         const oi = x[i];
         const ok = x[k];
-        x[i] = a; x[k] = b;
-        if (test(x)) { moved = true; break; }
-        x[i] = oi; x[k] = ok;
+        x[i] = a;
+        x[k] = b;
+        if (test(x)) {
+          moved = true;
+          break;
+        }
+        x[i] = oi;
+        x[k] = ok;
       }
       if (!moved) return;
     }
@@ -127,13 +149,26 @@ export function localSearch(costs: number[][], feasible: (x: Int32Array) => bool
       const i = Math.floor(rand() * n);
       if (x[i] < costs[i].length - 1) x[i]++;
     }
-    if (!test(x)) { idle++; continue; }
+    if (!test(x)) {
+      idle++;
+      continue;
+    }
     descend(x);
     const c = costOf(x);
-    if (c < bestCost - 1e-9) { best.set(x); bestCost = c; idle = 0; } else idle++;
+    if (c < bestCost - 1e-9) {
+      best.set(x);
+      bestCost = c;
+      idle = 0;
+    } else idle++;
     // walk on from a local optimum up to 3 % dearer than the current one, so the search can leave a basin
-    if (c <= currentCost * 1.03) { current.set(x); currentCost = c; }
-    if (idle > 0 && idle % 20 === 0) { current.set(best); currentCost = bestCost; }
+    if (c <= currentCost * 1.03) {
+      current.set(x);
+      currentCost = c;
+    }
+    if (idle > 0 && idle % 20 === 0) {
+      current.set(best);
+      currentCost = bestCost;
+    }
   }
   return { feasible: true, choice: best, cost: bestCost, evaluations, kicks };
 }

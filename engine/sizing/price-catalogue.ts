@@ -49,13 +49,25 @@ export function pipeKey(series: string, nominal: string): string {
  * Candidate from one catalogue series and size at a price (undefined for an unknown size).
  * @example catalogueCandidate('pe-sidr9', '1"', 1.9, 'hazen-williams')?.roughness // 140
  */
-export function catalogueCandidate(series: string, nominal: string, price_per_m: number, headloss: 'hazen-williams' | 'darcy-weisbach' = 'hazen-williams'): SizingCandidate | undefined {
+export function catalogueCandidate(
+  series: string,
+  nominal: string,
+  price_per_m: number,
+  headloss: 'hazen-williams' | 'darcy-weisbach' = 'hazen-williams',
+): SizingCandidate | undefined {
   const s = pipeSeries.find((p) => p.id === series);
   const size = findPipeSize(series, nominal);
   if (!s || !size) return undefined;
   return {
-    key: pipeKey(series, nominal), label: `${s.label} ${nominal}`, diameter_m: size.id_m, price_per_m,
-    roughness: defaultRoughness(s.material, headloss), rating_m: size.rating_m, series, nominal, material: s.material,
+    key: pipeKey(series, nominal),
+    label: `${s.label} ${nominal}`,
+    diameter_m: size.id_m,
+    price_per_m,
+    roughness: defaultRoughness(s.material, headloss),
+    rating_m: size.rating_m,
+    series,
+    nominal,
+    material: s.material,
   };
 }
 
@@ -79,34 +91,56 @@ export function parsePriceCatalogue(raw: unknown, headloss: 'hazen-williams' | '
   const seen = new Set<string>();
   obj.items.forEach((item, i) => {
     const at = `items[${i}]`;
-    if (typeof item !== 'object' || item === null) { errors.push(`${at}: must be an object`); return; }
+    if (typeof item !== 'object' || item === null) {
+      errors.push(`${at}: must be an object`);
+      return;
+    }
     const it = item as Record<string, unknown>;
     if (!num(it['price_per_m']) || (it['price_per_m'] as number) < 0) {
-      errors.push(`${at}.price_per_m: must be a non-negative number (got ${JSON.stringify(it['price_per_m'])})`); return;
+      errors.push(`${at}.price_per_m: must be a non-negative number (got ${JSON.stringify(it['price_per_m'])})`);
+      return;
     }
     const price = it['price_per_m'] as number;
     let cand: SizingCandidate | undefined;
     if (it['series'] !== undefined || it['nominal'] !== undefined) {
       if (typeof it['series'] !== 'string' || !pipeSeries.some((s) => s.id === it['series'])) {
-        errors.push(`${at}.series: unknown pipe series ${JSON.stringify(it['series'])} (see engine/pipe-catalogue.ts)`); return;
+        errors.push(`${at}.series: unknown pipe series ${JSON.stringify(it['series'])} (see engine/pipe-catalogue.ts)`);
+        return;
       }
       cand = catalogueCandidate(it['series'], String(it['nominal']), price, headloss);
-      if (!cand) { errors.push(`${at}.nominal: ${JSON.stringify(it['nominal'])} is not a size of ${it['series']}`); return; }
+      if (!cand) {
+        errors.push(`${at}.nominal: ${JSON.stringify(it['nominal'])} is not a size of ${it['series']}`);
+        return;
+      }
     } else {
-      if (typeof it['id'] !== 'string' || !it['id'].trim()) { errors.push(`${at}.id: a custom item needs an id (or give series and nominal)`); return; }
+      if (typeof it['id'] !== 'string' || !it['id'].trim()) {
+        errors.push(`${at}.id: a custom item needs an id (or give series and nominal)`);
+        return;
+      }
       if (!num(it['diameter_m']) || (it['diameter_m'] as number) <= 0) {
-        errors.push(`${at}.diameter_m: must be a positive number (got ${JSON.stringify(it['diameter_m'])})`); return;
+        errors.push(`${at}.diameter_m: must be a positive number (got ${JSON.stringify(it['diameter_m'])})`);
+        return;
       }
       for (const f of ['roughness', 'rating_m'] as const) {
-        if (it[f] !== undefined && (!num(it[f]) || (it[f] as number) <= 0)) { errors.push(`${at}.${f}: must be a positive number (got ${JSON.stringify(it[f])})`); return; }
+        if (it[f] !== undefined && (!num(it[f]) || (it[f] as number) <= 0)) {
+          errors.push(`${at}.${f}: must be a positive number (got ${JSON.stringify(it[f])})`);
+          return;
+        }
       }
       cand = {
-        key: it['id'], label: typeof it['label'] === 'string' ? it['label'] : it['id'], diameter_m: it['diameter_m'] as number,
-        price_per_m: price, roughness: it['roughness'] as number | undefined, rating_m: it['rating_m'] as number | undefined,
+        key: it['id'],
+        label: typeof it['label'] === 'string' ? it['label'] : it['id'],
+        diameter_m: it['diameter_m'] as number,
+        price_per_m: price,
+        roughness: it['roughness'] as number | undefined,
+        rating_m: it['rating_m'] as number | undefined,
         material: typeof it['material'] === 'string' ? it['material'] : undefined,
       };
     }
-    if (seen.has(cand.key)) { errors.push(`${at}: ${cand.key} is listed twice`); return; }
+    if (seen.has(cand.key)) {
+      errors.push(`${at}: ${cand.key} is listed twice`);
+      return;
+    }
     seen.add(cand.key);
     candidates.push(cand);
   });

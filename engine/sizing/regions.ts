@@ -50,10 +50,16 @@ export function partitionNetwork(doc: NetworkDocument): Partition {
   for (const n of doc.nodes) if (!isFixed(n)) parent.set(n.id, n.id);
   const outside: Partition['outside'] = [];
   for (const link of doc.links) {
-    if (isClosed(link)) { outside.push({ link: link.id, reason: 'closed' }); continue; }
+    if (isClosed(link)) {
+      outside.push({ link: link.id, reason: 'closed' });
+      continue;
+    }
     const a = byId.get(link.from);
     const b = byId.get(link.to);
-    if (isFixed(a) && isFixed(b)) { outside.push({ link: link.id, reason: 'joins two fixed heads (a tank header or bypass): carries no design flow' }); continue; }
+    if (isFixed(a) && isFixed(b)) {
+      outside.push({ link: link.id, reason: 'joins two fixed heads (a tank header or bypass): carries no design flow' });
+      continue;
+    }
     if (!isFixed(a) && !isFixed(b)) {
       const ra = find(link.from);
       const rb = find(link.to);
@@ -80,7 +86,10 @@ export function partitionNetwork(doc: NetworkDocument): Partition {
   for (const g of groups.values()) {
     const all = [...g.internal, ...g.boundary];
     const links = all.map((l) => l.id);
-    if (all.some((l) => l.kind === 'pump')) { regions.push({ kind: 'pump', nodes: g.nodes, links }); continue; }
+    if (all.some((l) => l.kind === 'pump')) {
+      regions.push({ kind: 'pump', nodes: g.nodes, links });
+      continue;
+    }
     if (g.boundary.length === 0) continue; // disconnected: nothing feeds it (the solver reports it)
     const tree = g.boundary.length === 1 && g.internal.length === g.nodes.length - 1;
     if (tree) {

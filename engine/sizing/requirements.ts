@@ -54,9 +54,10 @@ export function candidateRoughness(pipe: PipeLink, cand: SizingCandidate): numbe
 export function pipeHeadloss(pipe: PipeLink, cand: SizingCandidate, flow_m3s: number, s: HydraulicSettings): number {
   const d = cand.diameter_m;
   const q = Math.abs(flow_m3s);
-  const friction = s.headloss === 'darcy-weisbach'
-    ? darcyWeisbachHeadloss(q, pipe.length_m, d, candidateRoughness(pipe, cand))
-    : hazenWilliamsHeadloss(q, pipe.length_m, d, candidateRoughness(pipe, cand), s.omega ?? HW_OMEGA_SI);
+  const friction =
+    s.headloss === 'darcy-weisbach'
+      ? darcyWeisbachHeadloss(q, pipe.length_m, d, candidateRoughness(pipe, cand))
+      : hazenWilliamsHeadloss(q, pipe.length_m, d, candidateRoughness(pipe, cand), s.omega ?? HW_OMEGA_SI);
   const area = (Math.PI * d * d) / 4;
   const v = q / area;
   return friction + ((pipe.minor_loss ?? 0) * v * v) / (2 * GRAVITY_MS2);

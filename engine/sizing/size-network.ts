@@ -96,8 +96,17 @@ const describe = (p: PipeLink): string => (p.series && p.nominal ? `${p.series}/
  */
 export function applyCandidate(pipe: PipeLink, c: SizingCandidate): PipeLink {
   const out: PipeLink = { ...pipe, diameter_m: c.diameter_m, roughness: c.roughness ?? pipe.roughness };
-  if (c.series) { out.series = c.series; out.nominal = c.nominal; out.material = c.material; } else { delete out.series; delete out.nominal; if (c.material) out.material = c.material; }
-  if (c.rating_m !== undefined) out.rating_m = c.rating_m; else delete out.rating_m;
+  if (c.series) {
+    out.series = c.series;
+    out.nominal = c.nominal;
+    out.material = c.material;
+  } else {
+    delete out.series;
+    delete out.nominal;
+    if (c.material) out.material = c.material;
+  }
+  if (c.rating_m !== undefined) out.rating_m = c.rating_m;
+  else delete out.rating_m;
   return out;
 }
 
@@ -135,20 +144,33 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
   const pipeOf = (id: string): PipeLink => doc.links[linkIndex.get(id) as number] as PipeLink;
   const filterByRating = (p: PipeLink): SizingCandidate[] => {
     const ps = statics.get(p.id) ?? -Infinity;
-    return candidates.filter((c) => (!options.sameSeries || !p.series || c.series === p.series) && (c.rating_m === undefined || ps <= share * c.rating_m + 1e-9));
+    return candidates.filter(
+      (c) => (!options.sameSeries || !p.series || c.series === p.series) && (c.rating_m === undefined || ps <= share * c.rating_m + 1e-9),
+    );
   };
-  const prune = (list: SizingCandidate[]): SizingCandidate[] => list
-    .filter((c, i) => !list.some((o, j) => j !== i && better(o, c, doc.headloss) && (!better(c, o, doc.headloss) || j < i)))
-    .sort((a, b) => a.diameter_m - b.diameter_m || a.price_per_m - b.price_per_m);
+  const prune = (list: SizingCandidate[]): SizingCandidate[] =>
+    list
+      .filter((c, i) => !list.some((o, j) => j !== i && better(o, c, doc.headloss) && (!better(c, o, doc.headloss) || j < i)))
+      .sort((a, b) => a.diameter_m - b.diameter_m || a.price_per_m - b.price_per_m);
 
   for (const region of partition.regions) {
     const pipes = region.links.filter((id) => pipeOf(id).kind === 'pipe' && (!wanted || wanted.has(id)));
     if (region.kind === 'pump') {
-      for (const id of region.links) if (pipeOf(id).kind === 'pipe') skipped.push({ pipe: id, reason: 'on a pump line (rising main): size it for the pump, not here' });
-      reports.push({ kind: 'pump', pipes: [], method: 'not sized', exact: false, feasible: true, note: 'pump side: the pump sets the flow, so pipe size trades against pump head, which sizing does not price' });
+      for (const id of region.links)
+        if (pipeOf(id).kind === 'pipe') skipped.push({ pipe: id, reason: 'on a pump line (rising main): size it for the pump, not here' });
+      reports.push({
+        kind: 'pump',
+        pipes: [],
+        method: 'not sized',
+        exact: false,
+        feasible: true,
+        note: 'pump side: the pump sets the flow, so pipe size trades against pump head, which sizing does not price',
+      });
       continue;
     }
-    if (wanted) for (const id of region.links) if (pipeOf(id).kind === 'pipe' && !wanted.has(id)) skipped.push({ pipe: id, reason: 'not chosen for sizing (kept as drawn)' });
+    if (wanted)
+      for (const id of region.links)
+        if (pipeOf(id).kind === 'pipe' && !wanted.has(id)) skipped.push({ pipe: id, reason: 'not chosen for sizing (kept as drawn)' });
     if (region.kind === 'tree') reports.push(sizeTree(region, pipes));
     else reports.push(sizeLooped(region, pipes));
   }
@@ -166,7 +188,10 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
     const adjacency = new Map<string, NetworkLink[]>();
     for (const id of region.links) {
       const l = doc.links[linkIndex.get(id) as number];
-      for (const end of [l.from, l.to]) { if (!adjacency.has(end)) adjacency.set(end, []); adjacency.get(end)?.push(l); }
+      for (const end of [l.from, l.to]) {
+        if (!adjacency.has(end)) adjacency.set(end, []);
+        adjacency.get(end)?.push(l);
+      }
     }
     const queue = [first];
     seen.add(first);
@@ -188,14 +213,20 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
     for (let i = order.length - 1; i >= 0; i--) {
       const v = order[i];
       let q = designDemand(nodeById.get(v) as never);
-      for (const c of children.get(v) ?? []) { q += subtree.get(c.child) ?? 0; flows.set(c.link.id, subtree.get(c.child) ?? 0); }
+      for (const c of children.get(v) ?? []) {
+        q += subtree.get(c.child) ?? 0;
+        flows.set(c.link.id, subtree.get(c.child) ?? 0);
+      }
       subtree.set(v, q);
     }
     flows.set(rootLink.id, subtree.get(first) ?? 0);
     const rootNode = nodeById.get(root.node);
     const rootHead = rootNode?.kind === 'source' ? rootNode.head_m : rootNode?.kind === 'tank' ? rootNode.elevation_m + rootNode.level_m : 0;
     const required = new Map<string, number>();
-    for (const v of order) { const n = nodeById.get(v); if (n) required.set(v, n.elevation_m + requiredPressure(n, options.minPressure_m)); }
+    for (const v of order) {
+      const n = nodeById.get(v);
+      if (n) required.set(v, n.elevation_m + requiredPressure(n, options.minPressure_m));
+    }
     const only = new Set([...region.nodes, ...region.links]);
     let exact = true;
     let problem = '';
@@ -207,16 +238,25 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
         const downNode = nodeById.get(child);
         if (l.kind === 'pipe' && sized.has(l.id)) {
           const ps = statics.get(l.id) ?? -Infinity;
-          const list = prune(filterByRating(l).filter((c) => {
-            const v = q / ((Math.PI * c.diameter_m ** 2) / 4);
-            if (v > limit + 1e-12) return false;
-            if (options.surge === false || c.rating_m === undefined || !Number.isFinite(ps)) return true;
-            return ps + joukowskyHead(pipeWaveSpeed(applyCandidate(l, c)).waveSpeed_ms, v) <= c.rating_m + 1e-9;
-          }));
+          const list = prune(
+            filterByRating(l).filter((c) => {
+              const v = q / ((Math.PI * c.diameter_m ** 2) / 4);
+              if (v > limit + 1e-12) return false;
+              if (options.surge === false || c.rating_m === undefined || !Number.isFinite(ps)) return true;
+              return ps + joukowskyHead(pipeWaveSpeed(applyCandidate(l, c)).waveSpeed_ms, v) <= c.rating_m + 1e-9;
+            }),
+          );
           lists.set(l.id, list);
           allowed.set(l.id, list);
           if (list.length === 0) problem ||= `${l.id}: no catalogue pipe meets the rating, surge and velocity checks at ${Math.round(q * 1e5) / 100} L/s`;
-          return { link: l.id, child, options: list.map((c, j) => { const hl = pipeHeadloss(l, c, q, hyd); return { tag: j, cost: c.price_per_m * l.length_m, headloss: hl, floor: profileHeadFloor(l, hl, up), cap: Infinity }; }) };
+          return {
+            link: l.id,
+            child,
+            options: list.map((c, j) => {
+              const hl = pipeHeadloss(l, c, q, hyd);
+              return { tag: j, cost: c.price_per_m * l.length_m, headloss: hl, floor: profileHeadFloor(l, hl, up), cap: Infinity };
+            }),
+          };
         }
         let option: EdgeOption;
         if (l.kind === 'pipe') {
@@ -234,30 +274,57 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
         return { link: l.id, child, options: [option] };
       };
       const treeChildren = new Map<string, TreeEdge[]>();
-      for (const [v, list] of children) treeChildren.set(v, list.map((c) => edgeOf(c.link, c.child)));
+      for (const [v, list] of children)
+        treeChildren.set(
+          v,
+          list.map((c) => edgeOf(c.link, c.child)),
+        );
       const sol = solveTree({ rootHead, rootEdge: edgeOf(rootLink, first), children: treeChildren, required });
       exact = exact && sol.exact;
       if (problem) return { kind: 'tree', pipes, method: 'exact dynamic programming', exact, feasible: false, note: problem };
       if (!sol.feasible) {
-        return { kind: 'tree', pipes, method: 'exact dynamic programming', exact, feasible: false,
-          note: `no combination works: the region needs ${Math.round(sol.minimumRootHead * 100) / 100} m of head at ${root.node}, which supplies ${Math.round(rootHead * 100) / 100} m` };
+        return {
+          kind: 'tree',
+          pipes,
+          method: 'exact dynamic programming',
+          exact,
+          feasible: false,
+          note: `no combination works: the region needs ${Math.round(sol.minimumRootHead * 100) / 100} m of head at ${root.node}, which supplies ${Math.round(rootHead * 100) / 100} m`,
+        };
       }
-      for (const id of pipes) { const c = lists.get(id)?.[sol.picks.get(id) ?? -1]; if (c) { choices.set(id, c); doc.links[linkIndex.get(id) as number] = applyCandidate(pipeOf(id), c); } }
+      for (const id of pipes) {
+        const c = lists.get(id)?.[sol.picks.get(id) ?? -1];
+        if (c) {
+          choices.set(id, c);
+          doc.links[linkIndex.get(id) as number] = applyCandidate(pipeOf(id), c);
+        }
+      }
       const solved = solve(doc, { omega });
       const check = designChecks(doc, solved, checkSettings, only, statics);
       let raised = false;
       for (const [id, q] of flows) {
         const got = Math.abs(solved.links[id]?.flow_m3s ?? 0);
-        if (got > q * (1 + 1e-6) + 1e-12) { flows.set(id, got); raised = true; }
+        if (got > q * (1 + 1e-6) + 1e-12) {
+          flows.set(id, got);
+          raised = true;
+        }
       }
       if (check.failures.length === 0 || !raised) {
-        const note = check.failures.length === 0
-          ? `flows fixed by the demands (${pipes.length} pipes, ${order.length} tees and outlets); largest frontier ${sol.largestFrontier}${round > 0 ? `; sized again at the flows the solve drew (round ${round + 1})` : ''}`
-          : `the solve of the sized design still fails: ${check.failures.map((f) => f.message).join('; ')}`;
+        const note =
+          check.failures.length === 0
+            ? `flows fixed by the demands (${pipes.length} pipes, ${order.length} tees and outlets); largest frontier ${sol.largestFrontier}${round > 0 ? `; sized again at the flows the solve drew (round ${round + 1})` : ''}`
+            : `the solve of the sized design still fails: ${check.failures.map((f) => f.message).join('; ')}`;
         return { kind: 'tree', pipes, method: 'exact dynamic programming', exact: exact && round === 0, feasible: check.failures.length === 0, note };
       }
     }
-    return { kind: 'tree', pipes, method: 'exact dynamic programming', exact: false, feasible: false, note: 'the sized design still fails after re-sizing at the solved flows three times' };
+    return {
+      kind: 'tree',
+      pipes,
+      method: 'exact dynamic programming',
+      exact: false,
+      feasible: false,
+      note: 'the sized design still fails after re-sizing at the solved flows three times',
+    };
   }
 
   function sizeLooped(region: Region, pipes: string[]): RegionReport {
@@ -265,9 +332,21 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
     const lists = pipes.map((id) => prune(filterByRating(pipeOf(id))));
     pipes.forEach((id, i) => allowed.set(id, lists[i]));
     const empty = pipes.find((_, i) => lists[i].length === 0);
-    if (empty) return { kind: 'looped', pipes, method: 'heuristic local search', exact: false, feasible: false, note: `${empty}: no catalogue pipe meets its rating check` };
+    if (empty)
+      return {
+        kind: 'looped',
+        pipes,
+        method: 'heuristic local search',
+        exact: false,
+        feasible: false,
+        note: `${empty}: no catalogue pipe meets its rating check`,
+      };
     const base = pipes.map((id) => pipeOf(id));
-    const apply = (x: Int32Array): void => { pipes.forEach((id, i) => { doc.links[linkIndex.get(id) as number] = applyCandidate(base[i], lists[i][x[i]]); }); };
+    const apply = (x: Int32Array): void => {
+      pipes.forEach((id, i) => {
+        doc.links[linkIndex.get(id) as number] = applyCandidate(base[i], lists[i][x[i]]);
+      });
+    };
     const feasible = (x: Int32Array): boolean => {
       apply(x);
       return designChecks(doc, solve(doc, { omega }), checkSettings, only, statics).failures.length === 0;
@@ -277,7 +356,11 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
     apply(res.choice);
     pipes.forEach((id, i) => choices.set(id, lists[i][res.choice[i]]));
     return {
-      kind: 'looped', pipes, method: 'heuristic local search', exact: false, feasible: res.feasible,
+      kind: 'looped',
+      pipes,
+      method: 'heuristic local search',
+      exact: false,
+      feasible: res.feasible,
       note: res.feasible
         ? `looped: flows move with the sizes, so each design is solved; iterated local search (${res.evaluations} solves, ${res.kicks} restarts) finds a good design, not a proven least cost`
         : 'even the largest pipes in the catalogue do not meet every requirement (pressure, velocity, rating and surge)',
@@ -296,7 +379,16 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
     const largest = list[list.length - 1];
     cost += c.price_per_m * p.length_m;
     largestCost += (largest?.price_per_m ?? 0) * p.length_m;
-    chosen.push({ pipe: id, key: c.key, label: c.label, diameter_m: c.diameter_m, length_m: p.length_m, price_per_m: c.price_per_m, cost: c.price_per_m * p.length_m, was: describe(p) });
+    chosen.push({
+      pipe: id,
+      key: c.key,
+      label: c.label,
+      diameter_m: c.diameter_m,
+      length_m: p.length_m,
+      price_per_m: c.price_per_m,
+      cost: c.price_per_m * p.length_m,
+      was: describe(p),
+    });
   }
   const feasible = reports.every((r) => r.feasible) && check.failures.length === 0;
   return { feasible, document: doc, cost, largestCost, choices: chosen, skipped, regions: reports, check, settings };

@@ -29,7 +29,11 @@ export interface EdgeOption {
   cap: number;
 }
 
-export interface TreeEdge { link: string; child: string; options: EdgeOption[] }
+export interface TreeEdge {
+  link: string;
+  child: string;
+  options: EdgeOption[];
+}
 
 export interface TreeProblem {
   /** Head of the fixed head feeding the tree, m. */
@@ -53,9 +57,17 @@ export interface TreeSolution {
   largestFrontier: number;
 }
 
-interface Frontier { heads: number[]; costs: number[] }
-interface EdgeFrontier extends Frontier { opt: number[]; entry: number[] }
-interface NodeFrontier extends Frontier { picks: Int32Array[] }
+interface Frontier {
+  heads: number[];
+  costs: number[];
+}
+interface EdgeFrontier extends Frontier {
+  opt: number[];
+  entry: number[];
+}
+interface NodeFrontier extends Frontier {
+  picks: Int32Array[];
+}
 
 function thin<T extends Frontier>(f: T, cap: number, keep: (from: number, to: number) => void): boolean {
   if (f.heads.length <= cap) return false;
@@ -64,8 +76,12 @@ function thin<T extends Frontier>(f: T, cap: number, keep: (from: number, to: nu
   let w = 0;
   for (let i = 0; i < f.heads.length; i++) {
     const h = lo + Math.ceil((f.heads[i] - lo) / step - 1e-12) * step;
-    if (w > 0 && f.heads[w - 1] >= h - 1e-12) { // same bucket: this entry is cheaper (costs fall), needs at most h
-      if (f.costs[i] < f.costs[w - 1]) { f.costs[w - 1] = f.costs[i]; keep(i, w - 1); }
+    if (w > 0 && f.heads[w - 1] >= h - 1e-12) {
+      // same bucket: this entry is cheaper (costs fall), needs at most h
+      if (f.costs[i] < f.costs[w - 1]) {
+        f.costs[w - 1] = f.costs[i];
+        keep(i, w - 1);
+      }
       continue;
     }
     f.heads[w] = Math.max(h, f.heads[i]);
@@ -92,7 +108,10 @@ function edgeFrontier(child: NodeFrontier, options: EdgeOption[]): EdgeFrontier 
   const out: EdgeFrontier = { heads: [], costs: [], opt: [], entry: [] };
   for (const [h, c, o, e] of items) {
     if (out.costs.length > 0 && c >= out.costs[out.costs.length - 1]) continue;
-    out.heads.push(h); out.costs.push(c); out.opt.push(o); out.entry.push(e);
+    out.heads.push(h);
+    out.costs.push(c);
+    out.opt.push(o);
+    out.entry.push(e);
   }
   return out;
 }
@@ -114,7 +133,9 @@ function nodeFrontier(required: number, edges: EdgeFrontier[]): NodeFrontier {
       cost += f.costs[ptr[k]];
     }
     if (out.costs.length > 0 && cost >= out.costs[out.costs.length - 1]) continue;
-    out.heads.push(h); out.costs.push(cost); out.picks.push(Int32Array.from(ptr));
+    out.heads.push(h);
+    out.costs.push(cost);
+    out.picks.push(Int32Array.from(ptr));
   }
   return out;
 }
@@ -137,13 +158,29 @@ export function solveTree(p: TreeProblem, cap = 20000): TreeSolution {
     const v = order[i];
     const edges = (p.children.get(v) ?? []).map((e) => {
       const f = edgeFrontier(nodeF.get(e.child) as NodeFrontier, e.options);
-      if (thin(f, cap, (from, to) => { f.opt[to] = f.opt[from]; f.entry[to] = f.entry[from]; })) { exact = false; f.opt.length = f.heads.length; f.entry.length = f.heads.length; }
+      if (
+        thin(f, cap, (from, to) => {
+          f.opt[to] = f.opt[from];
+          f.entry[to] = f.entry[from];
+        })
+      ) {
+        exact = false;
+        f.opt.length = f.heads.length;
+        f.entry.length = f.heads.length;
+      }
       edgeF.set(e.link, f);
       largest = Math.max(largest, f.heads.length);
       return f;
     });
     const nf = nodeFrontier(p.required.get(v) ?? -Infinity, edges);
-    if (thin(nf, cap, (from, to) => { nf.picks[to] = nf.picks[from]; })) { exact = false; nf.picks.length = nf.heads.length; }
+    if (
+      thin(nf, cap, (from, to) => {
+        nf.picks[to] = nf.picks[from];
+      })
+    ) {
+      exact = false;
+      nf.picks.length = nf.heads.length;
+    }
     nodeF.set(v, nf);
     largest = Math.max(largest, nf.heads.length);
   }

@@ -38,7 +38,11 @@ export interface OutletCheck {
   passes: boolean;
 }
 
-export interface Failure { element: string; code: string; message: string }
+export interface Failure {
+  element: string;
+  code: string;
+  message: string;
+}
 
 export interface DesignCheck {
   outlets: OutletCheck[];
@@ -72,8 +76,13 @@ export function pipeStaticPressures(doc: NetworkDocument): Map<string, number> {
 }
 
 /** Check a design against its solve; `only` restricts to those element ids (a region). */
-export function designChecks(doc: NetworkDocument, result: SteadyResult, s: CheckSettings, only?: Set<string>,
-  statics: Map<string, number> = pipeStaticPressures(doc)): DesignCheck {
+export function designChecks(
+  doc: NetworkDocument,
+  result: SteadyResult,
+  s: CheckSettings,
+  only?: Set<string>,
+  statics: Map<string, number> = pipeStaticPressures(doc),
+): DesignCheck {
   const failures: Failure[] = [];
   const outlets: OutletCheck[] = [];
   const limit = s.velocityLimit_ms ?? DEFAULT_VELOCITY_LIMIT_MS;
@@ -90,7 +99,12 @@ export function designChecks(doc: NetworkDocument, result: SteadyResult, s: Chec
     const passes = margin >= -1e-3;
     if (node.kind === 'outlet' || required > 0) lowestMargin = Math.min(lowestMargin, margin);
     if (node.kind === 'outlet') outlets.push({ id: node.id, name: node.name, pressure_m: r.pressure_m, required_m: required, margin_m: margin, passes });
-    if (!passes) failures.push({ element: node.id, code: 'below-required', message: `${node.id}: pressure ${r2(r.pressure_m)} m is below the ${r2(required)} m it needs` });
+    if (!passes)
+      failures.push({
+        element: node.id,
+        code: 'below-required',
+        message: `${node.id}: pressure ${r2(r.pressure_m)} m is below the ${r2(required)} m it needs`,
+      });
   }
   let worstVelocity: DesignCheck['worstVelocity'] = null;
   let worstRating: DesignCheck['worstRating'] = null;
@@ -106,16 +120,27 @@ export function designChecks(doc: NetworkDocument, result: SteadyResult, s: Chec
     if (ps !== undefined && pipe.rating_m !== undefined) {
       const sh = ps / pipe.rating_m;
       if (!worstRating || sh > worstRating.share) worstRating = { pipe: link.id, static_m: ps, rating_m: pipe.rating_m, share: sh };
-      if (ps > share * pipe.rating_m + 1e-9) failures.push({ element: link.id, code: 'over-rating', message: `${link.id}: static pressure ${r2(ps)} m is above ${share === 1 ? '' : `${Math.round(share * 100)} % of `}its rating ${r2(pipe.rating_m)} m` });
+      if (ps > share * pipe.rating_m + 1e-9)
+        failures.push({
+          element: link.id,
+          code: 'over-rating',
+          message: `${link.id}: static pressure ${r2(ps)} m is above ${share === 1 ? '' : `${Math.round(share * 100)} % of `}its rating ${r2(pipe.rating_m)} m`,
+        });
       if (s.surge) {
         const surge = joukowskyHead(pipeWaveSpeed(pipe).waveSpeed_ms, v);
-        if (ps + surge > pipe.rating_m + 1e-9) failures.push({ element: link.id, code: 'surge-over-rating', message: `${link.id}: static pressure ${r2(ps)} m plus the surge of a sudden stop ${r2(surge)} m is above its rating ${r2(pipe.rating_m)} m` });
+        if (ps + surge > pipe.rating_m + 1e-9)
+          failures.push({
+            element: link.id,
+            code: 'surge-over-rating',
+            message: `${link.id}: static pressure ${r2(ps)} m plus the surge of a sudden stop ${r2(surge)} m is above its rating ${r2(pipe.rating_m)} m`,
+          });
       }
     }
   }
   for (const w of result.warnings) {
     const at = w.element ?? '';
-    if (w.code === 'negative-pressure' && doc.links.some((l) => l.id === at) && (!only || only.has(at))) failures.push({ element: at, code: w.code, message: w.message });
+    if (w.code === 'negative-pressure' && doc.links.some((l) => l.id === at) && (!only || only.has(at)))
+      failures.push({ element: at, code: w.code, message: w.message });
   }
   return { outlets, failures, lowestMargin_m: lowestMargin, worstVelocity, worstRating };
 }

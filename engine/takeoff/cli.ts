@@ -21,8 +21,16 @@ function fail(message: string): never {
 
 function readJson(file: string): unknown {
   let text: string;
-  try { text = readFileSync(file, 'utf8'); } catch (error) { fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`); }
-  try { return JSON.parse(text); } catch (error) { fail(`${file}: not valid JSON (${(error as Error).message})`); }
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (error) {
+    fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
+  }
+  try {
+    return JSON.parse(text);
+  } catch (error) {
+    fail(`${file}: not valid JSON (${(error as Error).message})`);
+  }
 }
 
 const VALUES = ['--prices', '--waste', '--bend-angle', '--labour-hours', '--labour-rate', '--markup', '--tax'];
@@ -50,10 +58,19 @@ function main(args: string[]): void {
     list.forEach((row, i) => {
       const r = row as { code?: unknown; price?: unknown };
       if (typeof r?.code !== 'string' || !r.code.trim()) fail(`${pricesFile}: row ${i + 1}, code: must be text`);
-      if (r.price !== null && (typeof r.price !== 'number' || !Number.isFinite(r.price) || r.price < 0)) fail(`${pricesFile}: row ${i + 1}, price: must be a non-negative number or null (got ${JSON.stringify(r.price)})`);
+      if (r.price !== null && (typeof r.price !== 'number' || !Number.isFinite(r.price) || r.price < 0))
+        fail(`${pricesFile}: row ${i + 1}, price: must be a non-negative number or null (got ${JSON.stringify(r.price)})`);
       prices.set(r.code, r.price as number | null);
     });
-    out = { takeoff: t, estimate: estimate(t, prices, { labour_hours: value('--labour-hours'), labour_rate: value('--labour-rate'), markup_fraction: value('--markup'), tax_fraction: value('--tax') }) };
+    out = {
+      takeoff: t,
+      estimate: estimate(t, prices, {
+        labour_hours: value('--labour-hours'),
+        labour_rate: value('--labour-rate'),
+        markup_fraction: value('--markup'),
+        tax_fraction: value('--tax'),
+      }),
+    };
   }
   process.stdout.write(`${JSON.stringify(out)}\n`);
 }

@@ -47,7 +47,7 @@ export const DEFAULT_ESTIMATE_SETTINGS: Required<EstimateSettings> = { labour_ho
 
 /** Round to cents (half away from zero, as a spreadsheet's ROUND). */
 export function cents(v: number): number {
-  return Math.sign(v) * Math.round(Math.abs(v) * 100 + 1e-9) / 100;
+  return (Math.sign(v) * Math.round(Math.abs(v) * 100 + 1e-9)) / 100;
 }
 
 export function estimate(t: Takeoff, prices: Map<string, number | null>, settings: Partial<EstimateSettings> = {}): Estimate {
@@ -58,7 +58,15 @@ export function estimate(t: Takeoff, prices: Map<string, number | null>, setting
     const price = prices.get(r.code);
     const unitPrice = price === undefined || price === null ? null : price;
     if (unitPrice === null && r.quantity > 0) missing.push(r.code);
-    return { code: r.code, group: r.group, description: r.description, quantity: r.quantity, unit: r.unit, unit_price: unitPrice, amount: unitPrice === null ? 0 : cents(r.quantity * unitPrice) };
+    return {
+      code: r.code,
+      group: r.group,
+      description: r.description,
+      quantity: r.quantity,
+      unit: r.unit,
+      unit_price: unitPrice,
+      amount: unitPrice === null ? 0 : cents(r.quantity * unitPrice),
+    };
   });
   const materials = cents(lines.reduce((sum, l) => sum + l.amount, 0));
   const labour = cents(s.labour_hours * s.labour_rate);

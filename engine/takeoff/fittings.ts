@@ -58,8 +58,15 @@ export function countFittings(doc: NetworkDocument, options: { bendAngle_deg?: n
   const out: CountedFitting[] = [];
   const nodes = new Map<string, NetworkNode>(doc.nodes.map((n) => [n.id, n]));
   const at = new Map<string, NetworkLink[]>();
-  for (const l of doc.links) for (const end of [l.from, l.to]) { if (!at.has(end)) at.set(end, []); at.get(end)?.push(l); }
-  const xy = (id: string): [number, number] | null => { const n = nodes.get(id); return n && n.x_m !== undefined && n.y_m !== undefined ? [n.x_m, n.y_m] : null; };
+  for (const l of doc.links)
+    for (const end of [l.from, l.to]) {
+      if (!at.has(end)) at.set(end, []);
+      at.get(end)?.push(l);
+    }
+  const xy = (id: string): [number, number] | null => {
+    const n = nodes.get(id);
+    return n && n.x_m !== undefined && n.y_m !== undefined ? [n.x_m, n.y_m] : null;
+  };
   const elbow = (angle: number, size: string, where: string, pipe?: string): void => {
     if (angle > bend) out.push({ kind: angle > 67.5 ? 'elbow-90' : 'elbow-45', size, at: where, pipe });
   };
@@ -100,13 +107,15 @@ export function countFittings(doc: NetworkDocument, options: { bendAngle_deg?: n
       }
     }
     flowLinks.forEach((l, i) => {
-      if (sizeRank(sizes[i]) < largestRank - 1e-9) out.push({ kind: 'reducer', size: `${largest}x${sizes[i]}`, at: node.id, pipe: l.kind === 'pipe' ? l.id : undefined });
+      if (sizeRank(sizes[i]) < largestRank - 1e-9)
+        out.push({ kind: 'reducer', size: `${largest}x${sizes[i]}`, at: node.id, pipe: l.kind === 'pipe' ? l.id : undefined });
     });
     if (flowLinks.length === 2) {
       const [a, b] = flowLinks;
       const la = line(a, node.id);
       const lb = line(b, node.id);
-      if (la.length >= 2 && lb.length >= 2) elbow(deflection(la[1], la[0], lb[1]), largest, node.id, b.kind === 'pipe' ? b.id : a.kind === 'pipe' ? a.id : undefined);
+      if (la.length >= 2 && lb.length >= 2)
+        elbow(deflection(la[1], la[0], lb[1]), largest, node.id, b.kind === 'pipe' ? b.id : a.kind === 'pipe' ? a.id : undefined);
     }
   }
   return out;

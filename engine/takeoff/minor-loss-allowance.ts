@@ -13,21 +13,28 @@ import type { CountedFitting } from './fittings';
  * @example minorLossAllowance(doc, takeoff(doc).fittings, 0.05)['L-TR4'].k
  */
 
-export interface Allowance { k: number; parts: { fitting: FittingKind; count: number; k: number }[] }
+export interface Allowance {
+  k: number;
+  parts: { fitting: FittingKind; count: number; k: number }[];
+}
 
 export function minorLossAllowance(doc: NetworkDocument, fittings: CountedFitting[], waste_fraction = 0.05): Record<string, Allowance> {
   const out: Record<string, Allowance> = {};
   const addPart = (pipe: string, fitting: FittingKind, k: number, count = 1): void => {
     const a = (out[pipe] ??= { k: 0, parts: [] });
     const part = a.parts.find((p) => p.fitting === fitting && p.k === k);
-    if (part) part.count += count; else a.parts.push({ fitting, count, k });
+    if (part) part.count += count;
+    else a.parts.push({ fitting, count, k });
     a.k = Math.round((a.k + k * count) * 1e6) / 1e6;
   };
   for (const l of doc.links) if (l.kind === 'pipe') out[l.id] = { k: 0, parts: [] };
   for (const f of fittings) {
     if (!f.pipe || !out[f.pipe]) continue;
     const spec = FITTINGS[f.kind];
-    if (f.kind === 'tee') { if (f.branch) addPart(f.pipe, 'tee', spec.kBranch ?? spec.k); continue; }
+    if (f.kind === 'tee') {
+      if (f.branch) addPart(f.pipe, 'tee', spec.kBranch ?? spec.k);
+      continue;
+    }
     if (f.kind === 'elbow-90' || f.kind === 'elbow-45' || f.kind === 'reducer' || f.kind === 'tank-adapter') addPart(f.pipe, f.kind, spec.k);
   }
   for (const l of doc.links) {

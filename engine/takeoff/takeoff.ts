@@ -79,7 +79,11 @@ const round = (v: number, d = 3): number => Math.round(v * 10 ** d) / 10 ** d;
 
 function add(rows: Map<string, TakeoffRow>, code: string, group: TakeoffGroup, description: string, unit: string, element: string, quantity = 1): void {
   const row = rows.get(code);
-  if (row) { row.quantity += quantity; if (!row.elements.includes(element)) row.elements.push(element); return; }
+  if (row) {
+    row.quantity += quantity;
+    if (!row.elements.includes(element)) row.elements.push(element);
+    return;
+  }
   rows.set(code, { code, group, description, quantity, unit, elements: [element] });
 }
 
@@ -110,8 +114,16 @@ export function takeoff(doc: NetworkDocument, settings: TakeoffSettings = {}, st
     const withWaste = network * (1 + waste);
     const pieces = unit ? Math.ceil(withWaste / unit.length_m - 1e-9) : 0;
     rows.set(code, {
-      code, group: 'pipe', description: g.label, unit: 'm', elements: g.pipes.map((p) => p.id),
-      network_m: round(network), with_waste_m: round(withWaste), piece_unit: unit?.unit ?? 'm', piece_m: unit?.length_m ?? 0, pieces,
+      code,
+      group: 'pipe',
+      description: g.label,
+      unit: 'm',
+      elements: g.pipes.map((p) => p.id),
+      network_m: round(network),
+      with_waste_m: round(withWaste),
+      piece_unit: unit?.unit ?? 'm',
+      piece_m: unit?.length_m ?? 0,
+      pieces,
       quantity: unit ? round(pieces * unit.length_m) : round(withWaste),
       note: unit ? `${pieces} ${unit.unit}${pieces === 1 ? '' : 's'} of ${unit.length_ft} ft` : 'custom size: bought by the metre',
     });
@@ -128,13 +140,22 @@ export function takeoff(doc: NetworkDocument, settings: TakeoffSettings = {}, st
   }
   for (const [size, c] of couplings) {
     const code = fittingCode('coupling', size);
-    rows.set(code, { code, group: 'fitting', description: `${FITTINGS.coupling.label} ${size}`, quantity: c.count, unit: 'each', elements: c.pipes, note: 'joints where a run is longer than one coil or stick' });
+    rows.set(code, {
+      code,
+      group: 'fitting',
+      description: `${FITTINGS.coupling.label} ${size}`,
+      quantity: c.count,
+      unit: 'each',
+      elements: c.pipes,
+      note: 'joints where a run is longer than one coil or stick',
+    });
   }
   const fittings = countFittings(doc, { bendAngle_deg: bendAngle });
   for (const f of fittings) add(rows, fittingCode(f.kind, f.size), 'fitting', `${FITTINGS[f.kind].label} ${f.size}`, 'each', f.at);
   // valves by kind, float valves at troughs
   for (const l of doc.links) {
-    if (l.kind === 'valve') add(rows, fittingCode(`valve-${l.valve_type}`, linkSize(l)), 'valve', `${FITTINGS[`valve-${l.valve_type}`].label} ${linkSize(l)}`, 'each', l.id);
+    if (l.kind === 'valve')
+      add(rows, fittingCode(`valve-${l.valve_type}`, linkSize(l)), 'valve', `${FITTINGS[`valve-${l.valve_type}`].label} ${linkSize(l)}`, 'each', l.id);
   }
   for (const n of doc.nodes) {
     if (n.kind !== 'outlet' || !n.float_valve) continue;
@@ -161,7 +182,15 @@ export function takeoff(doc: NetworkDocument, settings: TakeoffSettings = {}, st
   }
   for (const o of other) {
     const quantity = o.per_pipe_m !== undefined ? round(o.per_pipe_m * pipeTotal) : (o.quantity ?? 0);
-    rows.set(o.code, { code: o.code, group: 'other', description: o.description, quantity, unit: o.unit, elements: [], note: o.per_pipe_m !== undefined ? `${o.per_pipe_m} ${o.unit} per m of pipe` : undefined });
+    rows.set(o.code, {
+      code: o.code,
+      group: 'other',
+      description: o.description,
+      quantity,
+      unit: o.unit,
+      elements: [],
+      note: o.per_pipe_m !== undefined ? `${o.per_pipe_m} ${o.unit} per m of pipe` : undefined,
+    });
   }
   const order: TakeoffGroup[] = ['pipe', 'fitting', 'valve', 'tank', 'pump', 'other'];
   const list = [...rows.values()].sort((a, b) => order.indexOf(a.group) - order.indexOf(b.group) || (a.group === 'other' ? 0 : a.code.localeCompare(b.code)));

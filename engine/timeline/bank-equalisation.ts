@@ -30,7 +30,7 @@ export function bankEqualisation(doc: NetworkDocument, sim: TimeSeriesResult): B
     if (tanks.length < 2) continue;
     const ids = new Set(tanks.map((t) => t.id));
     const pump = doc.links.find((l) => l.kind === 'pump' && (ids.has(l.to) || (l.control && ids.has(l.control.tank))));
-    const filled = tanks.find((t) => pump && (t.id === pump.to)) ?? tanks[0];
+    const filled = tanks.find((t) => pump && t.id === pump.to) ?? tanks[0];
     const control = pump?.kind === 'pump' && pump.control && pump.control.tank === filled.id ? pump.control.stop_level_m : undefined;
     const full = Math.min(filled.max_level_m, control ?? filled.max_level_m);
     const start: NetworkDocument = {

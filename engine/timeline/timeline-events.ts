@@ -14,9 +14,14 @@ import type { TimelineSeries } from './timeline-series';
  */
 
 export type TimelineEventKind =
-  | 'tank-low' | 'tank-empty' | 'tank-full' | 'overflow' | 'pump-stop' | 'pump-start' | 'low-cutoff' | 'outlet-short' | 'outlet-recovered';
+  'tank-low' | 'tank-empty' | 'tank-full' | 'overflow' | 'pump-stop' | 'pump-start' | 'low-cutoff' | 'outlet-short' | 'outlet-recovered';
 
-export interface TimelineEvent { time_s: number; kind: TimelineEventKind; element: string; message: string }
+export interface TimelineEvent {
+  time_s: number;
+  kind: TimelineEventKind;
+  element: string;
+  message: string;
+}
 
 /** Share of the min–max band counted as "low". */
 export const LOW_BAND = 0.2;
@@ -47,7 +52,10 @@ export function timelineEvents(doc: NetworkDocument, s: TimelineSeries): Timelin
       if (isEmpty && !wasEmpty) out.push({ time_s: t, kind: 'tank-empty', element: id, message: `${name(id)} ran empty` });
       if (isFull && !wasFull) out.push({ time_s: t, kind: 'tank-full', element: id, message: `${name(id)} is full` });
       if (isOver && !wasOver) out.push({ time_s: t, kind: 'overflow', element: id, message: `${name(id)} overflows while the pump runs` });
-      wasLow = isLow; wasEmpty = isEmpty; wasFull = isFull; wasOver = isOver;
+      wasLow = isLow;
+      wasEmpty = isEmpty;
+      wasFull = isFull;
+      wasOver = isOver;
     }
   }
   for (const link of doc.links) {
@@ -62,11 +70,22 @@ export function timelineEvents(doc: NetworkDocument, s: TimelineSeries): Timelin
         const cut = p.low_cutoff && (level(p.low_cutoff.tank) ?? Infinity) <= p.low_cutoff.level_m + EPS_M;
         const stop = p.control && (level(p.control.tank) ?? -Infinity) >= p.control.stop_level_m - REASON_M;
         if (cut) out.push({ time_s: t, kind: 'low-cutoff', element: p.id, message: `${name(p.id)} stops at the low-water cut-off` });
-        else out.push({ time_s: t, kind: 'pump-stop', element: p.id, message: `${name(p.id)} stops ${stop ? 'at the stop level' : series.sun[i] === 0 ? '(no sun)' : ''}`.trim() });
+        else
+          out.push({
+            time_s: t,
+            kind: 'pump-stop',
+            element: p.id,
+            message: `${name(p.id)} stops ${stop ? 'at the stop level' : series.sun[i] === 0 ? '(no sun)' : ''}`.trim(),
+          });
       } else {
         const sunUp = series.sun[i - 1] === 0 && series.sun[i] > 0;
         const start = p.control && (level(p.control.tank) ?? Infinity) <= p.control.start_level_m + REASON_M;
-        out.push({ time_s: t, kind: 'pump-start', element: p.id, message: `${name(p.id)} starts ${sunUp ? '(sun up)' : start ? 'at the start level' : ''}`.trim() });
+        out.push({
+          time_s: t,
+          kind: 'pump-start',
+          element: p.id,
+          message: `${name(p.id)} starts ${sunUp ? '(sun up)' : start ? 'at the start level' : ''}`.trim(),
+        });
       }
     }
   }
@@ -75,8 +94,15 @@ export function timelineEvents(doc: NetworkDocument, s: TimelineSeries): Timelin
     for (let i = 1; i < n; i++) {
       const req = o.requested_m3s[i];
       const isShort = req > 1e-12 && o.delivered_m3s[i] < 0.99 * req;
-      if (isShort && !short) out.push({ time_s: s.times_s[i], kind: 'outlet-short', element: id, message: `${name(id)} delivers ${Math.round((100 * o.delivered_m3s[i]) / req)} % of its request` });
-      if (!isShort && short && req > 1e-12) out.push({ time_s: s.times_s[i], kind: 'outlet-recovered', element: id, message: `${name(id)} is back to full flow` });
+      if (isShort && !short)
+        out.push({
+          time_s: s.times_s[i],
+          kind: 'outlet-short',
+          element: id,
+          message: `${name(id)} delivers ${Math.round((100 * o.delivered_m3s[i]) / req)} % of its request`,
+        });
+      if (!isShort && short && req > 1e-12)
+        out.push({ time_s: s.times_s[i], kind: 'outlet-recovered', element: id, message: `${name(id)} is back to full flow` });
       if (req > 1e-12) short = isShort;
     }
   }

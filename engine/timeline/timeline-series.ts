@@ -38,7 +38,9 @@ export function timelineSeries(doc: NetworkDocument, result: TimeSeriesResult): 
     const area = (Math.PI * t.diameter_m * t.diameter_m) / 4;
     const level = result.tanks[t.id].level_m;
     tanks[t.id] = { level_m: level, min_level_m: t.min_level_m, max_level_m: t.max_level_m, area_m2: area };
-    level.forEach((l, i) => { bank[i] += area * l; });
+    level.forEach((l, i) => {
+      bank[i] += area * l;
+    });
   }
   const pumps: TimelineSeries['pumps'] = {};
   for (const link of doc.links) {

@@ -5,7 +5,11 @@ import type { DbOrTx } from '../db';
 import { isRole, permissionsFor, type Permission, type Role } from '../permissions';
 import type { SessionUser } from '../types';
 
-export interface TeamRef { id: string; name: string; roles: Role[] }
+export interface TeamRef {
+  id: string;
+  name: string;
+  roles: Role[];
+}
 export interface Me {
   user: SessionUser;
   teams: TeamRef[];
@@ -16,9 +20,12 @@ export interface Me {
 
 /** The user's teams, oldest membership first. */
 export async function teamsOf(db: DbOrTx, userId: string): Promise<TeamRef[]> {
-  const rows = await db.select({ id: teams.id, name: teams.name, roles: memberships.roles })
-    .from(memberships).innerJoin(teams, eq(teams.id, memberships.teamId))
-    .where(eq(memberships.userId, userId)).orderBy(asc(memberships.createdAt), asc(teams.name));
+  const rows = await db
+    .select({ id: teams.id, name: teams.name, roles: memberships.roles })
+    .from(memberships)
+    .innerJoin(teams, eq(teams.id, memberships.teamId))
+    .where(eq(memberships.userId, userId))
+    .orderBy(asc(memberships.createdAt), asc(teams.name));
   return rows.map((r) => ({ id: r.id, name: r.name, roles: r.roles.filter(isRole) }));
 }
 

@@ -18,17 +18,24 @@ export function normaliseEmail(email: string): string {
 /** A passport instance of our own (not the global singleton), so several apps can run in one process. */
 export function createPassport(db: Db, bcryptCost: number, pool: PasswordPool): passport.Authenticator {
   const auth = new passport.Authenticator();
-  auth.use(new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
-    // A refused check (pool busy) must reach `done`, or the request would hang.
-    (async () => {
-      const [row] = await db.select().from(users).where(eq(users.email, normaliseEmail(email)));
-      const ok = await checkPassword(password, row?.passwordHash ?? await dummyHash(bcryptCost, pool), pool);
-      return row && ok ? { id: row.id, email: row.email, name: row.name } : false;
-    })().then((user) => done(null, user), done);
-  }));
+  auth.use(
+    new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
+      // A refused check (pool busy) must reach `done`, or the request would hang.
+      (async () => {
+        const [row] = await db
+          .select()
+          .from(users)
+          .where(eq(users.email, normaliseEmail(email)));
+        const ok = await checkPassword(password, row?.passwordHash ?? (await dummyHash(bcryptCost, pool)), pool);
+        return row && ok ? { id: row.id, email: row.email, name: row.name } : false;
+      })().then((user) => done(null, user), done);
+    }),
+  );
   auth.serializeUser<string>((user, done) => done(null, user.id));
   auth.deserializeUser<string>((id, done) => {
-    db.select({ id: users.id, email: users.email, name: users.name }).from(users).where(eq(users.id, id))
+    db.select({ id: users.id, email: users.email, name: users.name })
+      .from(users)
+      .where(eq(users.id, id))
       .then(([row]) => done(null, row ?? false), done);
   });
   return auth;

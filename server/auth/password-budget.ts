@@ -10,7 +10,10 @@ import rateLimit, { ipKeyGenerator } from 'express-rate-limit';
 import type { Db } from '../db';
 import { DrizzleRateLimitStore } from './rate-limit-store';
 
-export interface PasswordBudget { max: number; windowMs: number }
+export interface PasswordBudget {
+  max: number;
+  windowMs: number;
+}
 
 /** 50 checks per IP per 15 minutes: far above a person, far below a flood. */
 export const DEFAULT_PASSWORD_BUDGET: PasswordBudget = { max: 50, windowMs: 15 * 60 * 1000 };

@@ -18,7 +18,11 @@ export interface PasswordPoolOptions {
 }
 
 type Job = { kind: 'hash'; password: string; cost: number } | { kind: 'compare'; password: string; hash: string };
-interface Pending { job: Job; resolve(value: unknown): void; reject(err: Error): void }
+interface Pending {
+  job: Job;
+  resolve(value: unknown): void;
+  reject(err: Error): void;
+}
 
 const WORKER_URL = new URL('./password-worker.mjs', import.meta.url);
 
@@ -86,7 +90,9 @@ export class PasswordPool {
       else this.idle.push(worker);
     });
     worker.on('error', (err) => this.lose(worker, err));
-    worker.on('exit', (code) => { if (this.busy.has(worker) || code !== 0) this.lose(worker, new Error(`password worker exited with ${code}`)); });
+    worker.on('exit', (code) => {
+      if (this.busy.has(worker) || code !== 0) this.lose(worker, new Error(`password worker exited with ${code}`));
+    });
     return worker;
   }
 

@@ -13,14 +13,20 @@ export class DrizzleRateLimitStore implements Store {
   private windowMs = 60_000;
   private increments = 0;
 
-  constructor(private readonly db: Db, readonly prefix = 'signin:') {}
+  constructor(
+    private readonly db: Db,
+    readonly prefix = 'signin:',
+  ) {}
 
   init(options: Options): void {
     this.windowMs = options.windowMs;
   }
 
   async get(key: string): Promise<ClientRateLimitInfo | undefined> {
-    const [row] = await this.db.select().from(rateLimits).where(eq(rateLimits.key, this.prefix + key));
+    const [row] = await this.db
+      .select()
+      .from(rateLimits)
+      .where(eq(rateLimits.key, this.prefix + key));
     if (!row || row.resetAt.getTime() <= Date.now()) return undefined;
     return { totalHits: row.hits, resetTime: row.resetAt };
   }
@@ -28,7 +34,9 @@ export class DrizzleRateLimitStore implements Store {
   /** One atomic upsert: a window that has ended starts again at 1. */
   async increment(key: string): Promise<ClientRateLimitInfo> {
     const resetAt = new Date(Date.now() + this.windowMs);
-    const [row] = await this.db.insert(rateLimits).values({ key: this.prefix + key, hits: 1, resetAt })
+    const [row] = await this.db
+      .insert(rateLimits)
+      .values({ key: this.prefix + key, hits: 1, resetAt })
       .onConflictDoUpdate({
         target: rateLimits.key,
         set: {
@@ -42,7 +50,9 @@ export class DrizzleRateLimitStore implements Store {
   }
 
   async decrement(key: string): Promise<void> {
-    await this.db.update(rateLimits).set({ hits: sql`greatest(${rateLimits.hits} - 1, 0)` })
+    await this.db
+      .update(rateLimits)
+      .set({ hits: sql`greatest(${rateLimits.hits} - 1, 0)` })
       .where(eq(rateLimits.key, this.prefix + key));
   }
 

@@ -22,7 +22,10 @@ export class DrizzleSessionStore extends session.Store {
   /** sid → expiry as stored, read by get(); touch() of the same request compares against it. */
   private readonly storedExpiry = new Map<string, number>();
 
-  constructor(private readonly db: Db, pruneEveryMs = 60 * 60 * 1000) {
+  constructor(
+    private readonly db: Db,
+    pruneEveryMs = 60 * 60 * 1000,
+  ) {
     super();
     const prune = () => void this.prune().catch(() => undefined);
     this.pruneTimer = setInterval(prune, pruneEveryMs);
@@ -33,24 +36,39 @@ export class DrizzleSessionStore extends session.Store {
   }
 
   override get(sid: string, callback: (err: unknown, session?: session.SessionData | null) => void): void {
-    this.db.select().from(sessions).where(eq(sessions.sid, sid)).then(([row]) => {
-      if (!row || row.expires.getTime() <= Date.now()) return callback(null, null);
-      this.remember(sid, row.expires.getTime());
-      callback(null, row.data as session.SessionData);
-    }, callback);
+    this.db
+      .select()
+      .from(sessions)
+      .where(eq(sessions.sid, sid))
+      .then(([row]) => {
+        if (!row || row.expires.getTime() <= Date.now()) return callback(null, null);
+        this.remember(sid, row.expires.getTime());
+        callback(null, row.data as session.SessionData);
+      }, callback);
   }
 
   override set(sid: string, data: session.SessionData, callback?: Callback): void {
     this.storedExpiry.delete(sid);
     const expires = expiryOf(data);
-    this.db.insert(sessions).values({ sid, data, expires })
+    this.db
+      .insert(sessions)
+      .values({ sid, data, expires })
       .onConflictDoUpdate({ target: sessions.sid, set: { data, expires } })
-      .then(() => callback?.(), (err) => callback?.(err));
+      .then(
+        () => callback?.(),
+        (err) => callback?.(err),
+      );
   }
 
   override destroy(sid: string, callback?: Callback): void {
     this.storedExpiry.delete(sid);
-    this.db.delete(sessions).where(eq(sessions.sid, sid)).then(() => callback?.(), (err) => callback?.(err));
+    this.db
+      .delete(sessions)
+      .where(eq(sessions.sid, sid))
+      .then(
+        () => callback?.(),
+        (err) => callback?.(err),
+      );
   }
 
   /**
@@ -67,8 +85,14 @@ export class DrizzleSessionStore extends session.Store {
       return;
     }
     const staleBefore = new Date(expires.getTime() - TOUCH_EVERY_MS);
-    this.db.update(sessions).set({ expires }).where(and(eq(sessions.sid, sid), lt(sessions.expires, staleBefore)))
-      .then(() => callback?.(), (err) => callback?.(err));
+    this.db
+      .update(sessions)
+      .set({ expires })
+      .where(and(eq(sessions.sid, sid), lt(sessions.expires, staleBefore)))
+      .then(
+        () => callback?.(),
+        (err) => callback?.(err),
+      );
   }
 
   private remember(sid: string, expiresMs: number): void {

@@ -35,7 +35,10 @@ export const saveBudgetBody = z.object({
   version: z.number({ error: 'must be a number' }).int('must be an integer').min(0, 'must be 0 or more'),
   document: z.unknown(),
   /** Outlets whose Layout-edited flow the designer chose to replace with the budget's (engine/budget/layout-differences). */
-  apply_outlets: z.array(z.string({ error: 'must be an outlet id' }).max(100), { error: 'must be a list of outlet ids' }).max(500).optional(),
+  apply_outlets: z
+    .array(z.string({ error: 'must be an outlet id' }).max(100), { error: 'must be a list of outlet ids' })
+    .max(500)
+    .optional(),
 });
 
 /** Field errors for a budget ([] when it can be planned): zod shape first, then the engine's rules. */

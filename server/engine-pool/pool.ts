@@ -16,7 +16,10 @@ export const DEFAULT_ENGINE_TIMEOUT_MS = 20_000;
 
 /** The task ran past its time limit; its worker was stopped. */
 export class EngineTimeout extends Error {
-  constructor(readonly task: string, readonly timeout_ms: number) {
+  constructor(
+    readonly task: string,
+    readonly timeout_ms: number,
+  ) {
     super(`engine task "${task}" stopped after ${timeout_ms} ms`);
   }
 }

@@ -24,8 +24,14 @@ export type CheckedSolve =
 function checkAndSolve(raw: unknown, options?: SteadyOptions, previousJson?: string | null): CheckedSolve {
   const parsed = parseDocument(raw);
   if (!parsed.ok) return { ok: false, problems: parsed.problems };
-  const change = previousJson === undefined ? undefined : versionChange(previousJson === null ? null : (JSON.parse(previousJson) as NetworkDocument), parsed.doc);
-  return { ok: true, ...(parsed.from !== SCHEMA_VERSION ? { migrated: parsed.doc } : {}), results: solve(parsed.doc, options), ...(change === undefined ? {} : { change }) };
+  const change =
+    previousJson === undefined ? undefined : versionChange(previousJson === null ? null : (JSON.parse(previousJson) as NetworkDocument), parsed.doc);
+  return {
+    ok: true,
+    ...(parsed.from !== SCHEMA_VERSION ? { migrated: parsed.doc } : {}),
+    results: solve(parsed.doc, options),
+    ...(change === undefined ? {} : { change }),
+  };
 }
 
 export const ENGINE_TASKS = { checkAndSolve, solve, simulate, equalisationTime, reviewChecklist, whatIfs, sizeNetwork, takeoff };

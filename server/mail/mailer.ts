@@ -4,8 +4,16 @@
 import nodemailer from 'nodemailer';
 import type { SmtpConfig } from '../config';
 
-export interface OutgoingMail { to: string; subject: string; text: string; teamId?: string }
-export interface Mailer { send(mail: OutgoingMail): Promise<void>; close(): void }
+export interface OutgoingMail {
+  to: string;
+  subject: string;
+  text: string;
+  teamId?: string;
+}
+export interface Mailer {
+  send(mail: OutgoingMail): Promise<void>;
+  close(): void;
+}
 
 export function createMailer(smtp: SmtpConfig, from: string, { secure = false } = {}): Mailer {
   const transport = nodemailer.createTransport({
@@ -18,7 +26,10 @@ export function createMailer(smtp: SmtpConfig, from: string, { secure = false } 
   return {
     async send(mail) {
       await transport.sendMail({
-        from, to: mail.to, subject: mail.subject, text: mail.text,
+        from,
+        to: mail.to,
+        subject: mail.subject,
+        text: mail.text,
         headers: mail.teamId ? { 'X-Runnel-Team': mail.teamId } : undefined,
       });
     },

@@ -3,7 +3,14 @@
  * decoding quoted-printable, base64 and RFC 2047 encoded words.
  */
 
-export interface CapturedMessage { from: string; to: string; subject: string; text: string; teamId: string | null; headers: Map<string, string> }
+export interface CapturedMessage {
+  from: string;
+  to: string;
+  subject: string;
+  text: string;
+  teamId: string | null;
+  headers: Map<string, string>;
+}
 
 export function readMessage(raw: string): CapturedMessage {
   const split = raw.search(/\r?\n\r?\n/);
@@ -51,7 +58,6 @@ function decodeWords(value: string): string {
   return value
     .replace(/\?=\s+=\?/g, '?==?')
     .replace(/=\?([^?]+)\?([QqBb])\?([^?]*)\?=/g, (_m, _charset: string, mode: string, data: string) =>
-      mode.toUpperCase() === 'B'
-        ? Buffer.from(data, 'base64').toString('utf8')
-        : decodeQuotedPrintable(data.replace(/_/g, ' ')));
+      mode.toUpperCase() === 'B' ? Buffer.from(data, 'base64').toString('utf8') : decodeQuotedPrintable(data.replace(/_/g, ' ')),
+    );
 }

@@ -10,7 +10,10 @@ import { readMessage } from './message';
 
 const MAX_MESSAGE_BYTES = 1024 * 1024;
 
-export interface MailSink { port: number; close(): Promise<void> }
+export interface MailSink {
+  port: number;
+  close(): Promise<void>;
+}
 
 export async function startMailSink(db: Db): Promise<MailSink> {
   const server = new SMTPServer({
@@ -25,8 +28,12 @@ export async function startMailSink(db: Db): Promise<MailSink> {
         const raw = Buffer.concat(chunks).toString('utf8');
         const m = readMessage(raw);
         // The message is accepted only once it is stored, so a sender that awaits delivery sees it in the outbox.
-        db.insert(outbox).values({ teamId: m.teamId, from: m.from, to: m.to, subject: m.subject, text: m.text, raw })
-          .then(() => callback(), (err: Error) => callback(err));
+        db.insert(outbox)
+          .values({ teamId: m.teamId, from: m.from, to: m.to, subject: m.subject, text: m.text, raw })
+          .then(
+            () => callback(),
+            (err: Error) => callback(err),
+          );
       });
     },
   });

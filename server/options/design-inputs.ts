@@ -3,7 +3,15 @@
  * takeoff and estimate settings, and its water budget (for storage days).
  */
 import { eq } from 'drizzle-orm';
-import { DEFAULT_ESTIMATE_SETTINGS, DEFAULT_OTHER, catalogueCandidate, type EstimateSettings, type SizingCandidate, type SummaryInputs, type TakeoffSettings } from '../../engine';
+import {
+  DEFAULT_ESTIMATE_SETTINGS,
+  DEFAULT_OTHER,
+  catalogueCandidate,
+  type EstimateSettings,
+  type SizingCandidate,
+  type SummaryInputs,
+  type TakeoffSettings,
+} from '../../engine';
 import { budgets, takeoffSettings } from '../../drizzle/schema';
 import type { DbOrTx } from '../db';
 import { priceMap } from '../prices/price-store';
@@ -11,7 +19,10 @@ import { priceMap } from '../prices/price-store';
 export interface ProjectTakeoffSettings extends Required<Pick<TakeoffSettings, 'waste_fraction' | 'bendAngle_deg' | 'other'>>, Required<EstimateSettings> {}
 
 export const DEFAULT_PROJECT_SETTINGS: ProjectTakeoffSettings = {
-  waste_fraction: 0.05, bendAngle_deg: 30, other: DEFAULT_OTHER, ...DEFAULT_ESTIMATE_SETTINGS,
+  waste_fraction: 0.05,
+  bendAngle_deg: 30,
+  other: DEFAULT_OTHER,
+  ...DEFAULT_ESTIMATE_SETTINGS,
 };
 
 export async function loadTakeoffSettings(db: DbOrTx, projectId: string): Promise<ProjectTakeoffSettings> {
@@ -21,12 +32,15 @@ export async function loadTakeoffSettings(db: DbOrTx, projectId: string): Promis
 
 export async function designInputs(db: DbOrTx, teamId: string, projectId: string): Promise<SummaryInputs & { settings: ProjectTakeoffSettings }> {
   const [prices, settings, budgetRows] = await Promise.all([
-    priceMap(db, teamId), loadTakeoffSettings(db, projectId),
+    priceMap(db, teamId),
+    loadTakeoffSettings(db, projectId),
     db.select({ document: budgets.document }).from(budgets).where(eq(budgets.projectId, projectId)),
   ]);
   const budget = budgetRows[0]?.document as { uses?: unknown[] } | undefined;
   return {
-    prices, settings, budget: budget && Array.isArray(budget.uses) && budget.uses.length > 0 ? budget : undefined,
+    prices,
+    settings,
+    budget: budget && Array.isArray(budget.uses) && budget.uses.length > 0 ? budget : undefined,
     takeoffSettings: { waste_fraction: settings.waste_fraction, bendAngle_deg: settings.bendAngle_deg, other: settings.other },
     estimateSettings: settings,
   };

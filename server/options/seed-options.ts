@@ -21,10 +21,30 @@ export async function seedPricesAndOptions(db: Db, ids: { teamId: string; projec
   const network = await loadNetwork(db, ids.projectId);
   const doc = network.document as NetworkDocument;
   await db.transaction(async (tx) => {
-    await tx.insert(priceItems).values(demoPriceList().map((r) => ({ teamId: ids.teamId, code: r.code, description: r.description, unit: r.unit, price: r.price, updatedBy: ids.userId })));
+    await tx
+      .insert(priceItems)
+      .values(
+        demoPriceList().map((r) => ({ teamId: ids.teamId, code: r.code, description: r.description, unit: r.unit, price: r.price, updatedBy: ids.userId })),
+      );
     await tx.insert(designOptions).values([
-      { projectId: ids.projectId, name: 'Mainline 2 in', notes: 'Larger main for more pressure at the far troughs.', baseVersion: network.version, document: withMainline(doc, '2"'), createdBy: ids.userId, updatedBy: ids.userId },
-      { projectId: ids.projectId, name: 'Mainline 1 in', notes: 'Cheaper main; check the east trough.', baseVersion: network.version, document: withMainline(doc, '1"'), createdBy: ids.userId, updatedBy: ids.userId },
+      {
+        projectId: ids.projectId,
+        name: 'Mainline 2 in',
+        notes: 'Larger main for more pressure at the far troughs.',
+        baseVersion: network.version,
+        document: withMainline(doc, '2"'),
+        createdBy: ids.userId,
+        updatedBy: ids.userId,
+      },
+      {
+        projectId: ids.projectId,
+        name: 'Mainline 1 in',
+        notes: 'Cheaper main; check the east trough.',
+        baseVersion: network.version,
+        document: withMainline(doc, '1"'),
+        createdBy: ids.userId,
+        updatedBy: ids.userId,
+      },
     ]);
   });
 }

@@ -8,11 +8,21 @@ import ExcelJS from 'exceljs';
 import Papa from 'papaparse';
 import { ApiError } from '../errors';
 
-export interface ImportedRow { code: string; description: string; unit: string; price: number | null }
+export interface ImportedRow {
+  code: string;
+  description: string;
+  unit: string;
+  price: number | null;
+}
 
 export class PriceImportError extends ApiError {
   constructor(row: number, column: string, message: string) {
-    super('validation', `Row ${row}, column "${column}": ${message}. Nothing was imported.`, { line: row, fields: [{ path: column, message: `row ${row}: ${message}` }] }, { row, column });
+    super(
+      'validation',
+      `Row ${row}, column "${column}": ${message}. Nothing was imported.`,
+      { line: row, fields: [{ path: column, message: `row ${row}: ${message}` }] },
+      { row, column },
+    );
   }
 }
 
@@ -24,7 +34,10 @@ export function rowsFromTable(table: string[][]): ImportedRow[] {
   for (const required of ['code', 'price']) {
     if (!header.includes(required)) throw new PriceImportError(1, required, `the header row has no "${required}" column (expected ${COLUMNS.join(', ')})`);
   }
-  const at = (row: string[], name: string): string => { const i = header.indexOf(name); return i < 0 ? '' : (row[i] ?? '').trim(); };
+  const at = (row: string[], name: string): string => {
+    const i = header.indexOf(name);
+    return i < 0 ? '' : (row[i] ?? '').trim();
+  };
   const out: ImportedRow[] = [];
   const seen = new Map<string, number>();
   table.slice(1).forEach((cells, i) => {
@@ -67,7 +80,11 @@ function cellText(value: ExcelJS.CellValue): string {
 
 export async function parsePriceXlsx(bytes: Buffer): Promise<ImportedRow[]> {
   const book = new ExcelJS.Workbook();
-  try { await book.xlsx.load(bytes as unknown as ArrayBuffer); } catch { throw new PriceImportError(1, 'code', 'the file is not a readable XLSX workbook'); }
+  try {
+    await book.xlsx.load(bytes as unknown as ArrayBuffer);
+  } catch {
+    throw new PriceImportError(1, 'code', 'the file is not a readable XLSX workbook');
+  }
   const sheet = book.worksheets[0];
   if (!sheet) throw new PriceImportError(1, 'code', 'the workbook has no sheet');
   const table: string[][] = [];

@@ -5,12 +5,32 @@ import { audit } from '../audit';
 import type { Db, DbOrTx } from '../db';
 import type { ImportedRow } from './price-import';
 
-export interface PriceItemJson { id: string; code: string; description: string; unit: string; price: number | null; updatedAt: string; updatedBy: string | null }
+export interface PriceItemJson {
+  id: string;
+  code: string;
+  description: string;
+  unit: string;
+  price: number | null;
+  updatedAt: string;
+  updatedBy: string | null;
+}
 
 export async function listPrices(db: DbOrTx, teamId: string): Promise<PriceItemJson[]> {
-  const rows = await db.select({ row: priceItems, name: users.name }).from(priceItems).leftJoin(users, eq(users.id, priceItems.updatedBy))
-    .where(eq(priceItems.teamId, teamId)).orderBy(asc(priceItems.code));
-  return rows.map(({ row, name }) => ({ id: row.id, code: row.code, description: row.description, unit: row.unit, price: row.price, updatedAt: row.updatedAt.toISOString(), updatedBy: name ?? null }));
+  const rows = await db
+    .select({ row: priceItems, name: users.name })
+    .from(priceItems)
+    .leftJoin(users, eq(users.id, priceItems.updatedBy))
+    .where(eq(priceItems.teamId, teamId))
+    .orderBy(asc(priceItems.code));
+  return rows.map(({ row, name }) => ({
+    id: row.id,
+    code: row.code,
+    description: row.description,
+    unit: row.unit,
+    price: row.price,
+    updatedAt: row.updatedAt.toISOString(),
+    updatedBy: name ?? null,
+  }));
 }
 
 /** code → unit price (null when the row has no price yet). */
@@ -20,16 +40,27 @@ export async function priceMap(db: DbOrTx, teamId: string): Promise<Map<string, 
 }
 
 /** Upsert every row in one transaction with one audit entry; returns how many were new and how many changed. */
-export async function importPrices(db: Db, teamId: string, user: { id: string; email: string }, rows: ImportedRow[], file: string): Promise<{ imported: number; created: number; updated: number }> {
+export async function importPrices(
+  db: Db,
+  teamId: string,
+  user: { id: string; email: string },
+  rows: ImportedRow[],
+  file: string,
+): Promise<{ imported: number; created: number; updated: number }> {
   return db.transaction(async (tx) => {
     const existing = new Set((await tx.select({ code: priceItems.code }).from(priceItems).where(eq(priceItems.teamId, teamId))).map((r) => r.code));
     const now = new Date();
     for (let i = 0; i < rows.length; i += 200) {
-      const chunk = rows.slice(i, i + 200).map((r) => ({ teamId, code: r.code, description: r.description, unit: r.unit, price: r.price, updatedAt: now, updatedBy: user.id }));
-      await tx.insert(priceItems).values(chunk).onConflictDoUpdate({
-        target: [priceItems.teamId, priceItems.code],
-        set: { description: sql`excluded.description`, unit: sql`excluded.unit`, price: sql`excluded.price`, updatedAt: now, updatedBy: user.id },
-      });
+      const chunk = rows
+        .slice(i, i + 200)
+        .map((r) => ({ teamId, code: r.code, description: r.description, unit: r.unit, price: r.price, updatedAt: now, updatedBy: user.id }));
+      await tx
+        .insert(priceItems)
+        .values(chunk)
+        .onConflictDoUpdate({
+          target: [priceItems.teamId, priceItems.code],
+          set: { description: sql`excluded.description`, unit: sql`excluded.unit`, price: sql`excluded.price`, updatedAt: now, updatedBy: user.id },
+        });
     }
     const created = rows.filter((r) => !existing.has(r.code)).length;
     await audit(tx, { teamId, user, action: 'prices.import', target: file, detail: { rows: rows.length, created, updated: rows.length - created } });

@@ -43,26 +43,38 @@ export async function transitionVersion(ctx: AppContext, req: TransitionRequest)
   const { db } = ctx;
   const rule = RULES[req.transition];
   const current = await loadVersion(db, req.project.id, req.version);
-  const [latestRow] = await db.select({ version: networkVersions.version }).from(networkVersions)
-    .where(eq(networkVersions.projectId, req.project.id)).orderBy(desc(networkVersions.version)).limit(1);
+  const [latestRow] = await db
+    .select({ version: networkVersions.version })
+    .from(networkVersions)
+    .where(eq(networkVersions.projectId, req.project.id))
+    .orderBy(desc(networkVersions.version))
+    .limit(1);
   const latest = latestRow?.version ?? req.version;
   if (!rule.from.includes(current.status) || (req.transition === 'submit' && req.version !== latest)) {
-    throw new ApiError('conflict', refusal(req.transition, req.version, current.status, latest), { fields: [{ path: 'version', message: `status is ${current.status}` }] });
+    throw new ApiError('conflict', refusal(req.transition, req.version, current.status, latest), {
+      fields: [{ path: 'version', message: `status is ${current.status}` }],
+    });
   }
   if (req.transition === 'approve') {
-    const [submitter] = await db.select({ id: networkVersions.statusBy }).from(networkVersions)
+    const [submitter] = await db
+      .select({ id: networkVersions.statusBy })
+      .from(networkVersions)
       .where(and(eq(networkVersions.projectId, req.project.id), eq(networkVersions.version, req.version)));
     if (submitter?.id === req.user.id) throw new ApiError('forbidden', `You submitted version ${req.version}; a second person must approve it`);
   }
   const now = new Date();
   const done = await db.transaction(async (tx) => {
-    const updated = await tx.update(networkVersions)
+    const updated = await tx
+      .update(networkVersions)
       .set({ status: rule.to, statusAt: now, statusBy: req.user.id, statusNote: req.note })
       .where(and(eq(networkVersions.projectId, req.project.id), eq(networkVersions.version, req.version), inArray(networkVersions.status, rule.from)))
       .returning({ version: networkVersions.version });
     if (updated.length === 0) return false;
     await audit(tx, {
-      teamId: req.project.teamId, user: req.user, action: `review.${req.transition}`, target: req.project.id,
+      teamId: req.project.teamId,
+      user: req.user,
+      action: `review.${req.transition}`,
+      target: req.project.id,
       detail: { version: req.version, from: current.status, to: rule.to, ...(req.note ? { note: req.note } : {}) },
     });
     return true;
@@ -86,14 +98,18 @@ export function versionLink(ctx: AppContext, projectId: string, version: number)
  */
 async function recipients(ctx: AppContext, req: TransitionRequest): Promise<string[]> {
   const roles: Role[] = req.transition === 'submit' ? ['reviewer', 'owner'] : ['designer', 'owner'];
-  const rows = await ctx.db.select({ email: users.email, id: users.id }).from(memberships)
+  const rows = await ctx.db
+    .select({ email: users.email, id: users.id })
+    .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(and(eq(memberships.teamId, req.project.teamId), arrayOverlaps(memberships.roles, roles)));
   return [...new Set(rows.filter((r) => r.id !== req.user.id).map((r) => r.email))].sort();
 }
 
 async function mailTransition(ctx: AppContext, req: TransitionRequest, verb: string): Promise<void> {
-  const open = await ctx.db.select({ n: sql<number>`count(*)::int` }).from(reviewComments)
+  const open = await ctx.db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(reviewComments)
     .where(and(eq(reviewComments.projectId, req.project.id), eq(reviewComments.resolved, false), sql`${reviewComments.parentId} is null`));
   const link = versionLink(ctx, req.project.id, req.version);
   const subject = `${req.project.name}: version ${req.version} ${verb}`;
@@ -116,10 +132,21 @@ async function mailTransition(ctx: AppContext, req: TransitionRequest, verb: str
 }
 
 /** The seed's submitted demo version: the same state change and audit entry, without mail (no mailer at seed time). */
-export async function markSubmitted(db: Db, v: { projectId: string; teamId: string; version: number; user: { id: string; email: string }; note: string }): Promise<void> {
+export async function markSubmitted(
+  db: Db,
+  v: { projectId: string; teamId: string; version: number; user: { id: string; email: string }; note: string },
+): Promise<void> {
   await db.transaction(async (tx) => {
-    await tx.update(networkVersions).set({ status: 'submitted', statusAt: new Date(), statusBy: v.user.id, statusNote: v.note })
+    await tx
+      .update(networkVersions)
+      .set({ status: 'submitted', statusAt: new Date(), statusBy: v.user.id, statusNote: v.note })
       .where(and(eq(networkVersions.projectId, v.projectId), eq(networkVersions.version, v.version)));
-    await audit(tx, { teamId: v.teamId, user: v.user, action: 'review.submit', target: v.projectId, detail: { version: v.version, from: 'draft', to: 'submitted', note: v.note } });
+    await audit(tx, {
+      teamId: v.teamId,
+      user: v.user,
+      action: 'review.submit',
+      target: v.projectId,
+      detail: { version: v.version, from: 'draft', to: 'submitted', note: v.note },
+    });
   });
 }

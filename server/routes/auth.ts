@@ -30,7 +30,10 @@ const currentTeamBody = z.object({ teamId: z.uuid('must be a team id') });
 
 export const SESSION_COOKIE = 'runnel.sid';
 
-export interface SigninLimit { max: number; windowMs: number }
+export interface SigninLimit {
+  max: number;
+  windowMs: number;
+}
 
 /** Signs `user` in (passport regenerates the session) and makes `teamId` current. */
 export async function signIn(req: Request, user: SessionUser, teamId?: string): Promise<void> {
@@ -61,10 +64,11 @@ export function authRoutes(api: ApiRoutes, ctx: AppContext, auth: passport.Authe
     const passwordHash = await hashPassword(body.password, ctx.bcryptCost, ctx.passwords);
     const created = await db.transaction(async (tx) => {
       const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, email));
-      if (existing) throw new ApiError('conflict', 'An account with this e-mail already exists; sign in instead',
-        { fields: [{ path: 'email', message: 'is already registered' }] });
-      const [user] = await tx.insert(users).values({ email, name: body.name, passwordHash })
-        .returning({ id: users.id, email: users.email, name: users.name });
+      if (existing)
+        throw new ApiError('conflict', 'An account with this e-mail already exists; sign in instead', {
+          fields: [{ path: 'email', message: 'is already registered' }],
+        });
+      const [user] = await tx.insert(users).values({ email, name: body.name, passwordHash }).returning({ id: users.id, email: users.email, name: users.name });
       const [team] = await tx.insert(teams).values({ name: body.teamName }).returning({ id: teams.id });
       await tx.insert(memberships).values({ teamId: team.id, userId: user.id, roles: ['admin'] });
       await audit(tx, { teamId: team.id, user, action: 'team.create', target: body.teamName });

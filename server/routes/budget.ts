@@ -16,8 +16,16 @@ export function budgetRoutes(api: ApiRoutes, ctx: AppContext): void {
   api.put('/projects/:id/budget', 'budget.write', async (req, res) => {
     const body = parseBody(saveBudgetBody, req.body);
     const project = projectOf(req);
-    res.json(await saveBudget(db, {
-      projectId: project.id, teamId: project.teamId, user: req.user!, expectedVersion: body.version, document: body.document, applyOutlets: body.apply_outlets, log: ctx.log,
-    }));
+    res.json(
+      await saveBudget(db, {
+        projectId: project.id,
+        teamId: project.teamId,
+        user: req.user!,
+        expectedVersion: body.version,
+        document: body.document,
+        applyOutlets: body.apply_outlets,
+        log: ctx.log,
+      }),
+    );
   });
 }

@@ -17,9 +17,11 @@ export const BACKDROP_MAX_BYTES = 8 * MB;
 export const SURVEY_MAX_BYTES = 2 * MB;
 
 const uploadBody = z.object({ kind: z.enum(['backdrop', 'survey'], { error: 'must be backdrop or survey' }) });
-const renameBody = z.object({
-  filename: z.string({ error: 'must be text' }).trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters'),
-}).strict();
+const renameBody = z
+  .object({
+    filename: z.string({ error: 'must be text' }).trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters'),
+  })
+  .strict();
 
 /**
  * The stored name for a rename: cleaned like an upload's, and keeping the old extension when the
@@ -42,7 +44,9 @@ export function imageType(bytes: Buffer): 'image/png' | 'image/jpeg' | null {
 export function singleFile(maxBytes: number): RequestHandler {
   // Browsers send the filename as raw UTF-8 (WHATWG multipart form-data encoding); multer's default reads it as latin1.
   const upload = multer({
-    storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: maxBytes, files: 1, fields: 10 },
+    storage: multer.memoryStorage(),
+    defParamCharset: 'utf8',
+    limits: { fileSize: maxBytes, files: 1, fields: 10 },
   }).single('file');
   return (req, res, next) => {
     if (!req.is('multipart/form-data')) {
@@ -56,7 +60,11 @@ export function singleFile(maxBytes: number): RequestHandler {
       }
       // busboy's own errors: no boundary, a truncated body, a malformed part header.
       if (err instanceof Error && /^(Multipart|Unexpected end of form|Malformed)/.test(err.message)) {
-        return next(new ApiError('validation', `The multipart body is malformed: ${err.message}`, { fields: [{ path: 'file', message: 'send one file as multipart/form-data' }] }));
+        return next(
+          new ApiError('validation', `The multipart body is malformed: ${err.message}`, {
+            fields: [{ path: 'file', message: 'send one file as multipart/form-data' }],
+          }),
+        );
       }
       next(err);
     });
@@ -89,8 +97,7 @@ export const DOWNLOAD_CSP = "default-src 'none'; sandbox";
 export function safeFilename(name: string): string {
   // Control characters are exactly what is being removed.
   // eslint-disable-next-line no-control-regex
-  const cleaned = name.replace(/[\\/"\u0000-\u001f\u007f]/g, '_')
-    .replace(/[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/g, '_');
+  const cleaned = name.replace(/[\\/"\u0000-\u001f\u007f]/g, '_').replace(/[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/g, '_');
   return Array.from(cleaned).slice(0, 200).join('') || 'upload';
 }
 
@@ -119,14 +126,24 @@ function parsedSurvey(file: Express.Multer.File): SurveyParse {
 
 function fileJson(row: { id: string; kind: string; filename: string; mime: string; size: number; createdAt: Date; createdByName: string | null }) {
   return {
-    id: row.id, kind: row.kind, filename: row.filename, mime: row.mime, size: row.size, createdAt: row.createdAt.toISOString(),
+    id: row.id,
+    kind: row.kind,
+    filename: row.filename,
+    mime: row.mime,
+    size: row.size,
+    createdAt: row.createdAt.toISOString(),
     createdBy: row.createdByName ?? null,
   };
 }
 
 const listColumns = {
-  id: files.id, kind: files.kind, filename: files.filename, mime: files.mime, size: files.size,
-  createdAt: files.createdAt, createdByName: users.name,
+  id: files.id,
+  kind: files.kind,
+  filename: files.filename,
+  mime: files.mime,
+  size: files.size,
+  createdAt: files.createdAt,
+  createdByName: users.name,
 };
 
 export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
@@ -134,8 +151,12 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
 
   api.get('/projects/:id/files', 'files.read', async (req, res) => {
     const project = projectOf(req);
-    const rows = await db.select(listColumns).from(files).leftJoin(users, eq(users.id, files.createdBy))
-      .where(eq(files.projectId, project.id)).orderBy(desc(files.createdAt));
+    const rows = await db
+      .select(listColumns)
+      .from(files)
+      .leftJoin(users, eq(users.id, files.createdBy))
+      .where(eq(files.projectId, project.id))
+      .orderBy(desc(files.createdAt));
     res.json(rows.map(fileJson));
   });
 
@@ -154,10 +175,25 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
     }
     const filename = safeFilename(file.originalname);
     const row = await db.transaction(async (tx) => {
-      const [created] = await tx.insert(files).values({
-        projectId: project.id, kind, filename, mime, size: file.size, bytes: file.buffer, createdBy: req.user!.id,
-      }).returning({ id: files.id, kind: files.kind, filename: files.filename, mime: files.mime, size: files.size, createdAt: files.createdAt });
-      await audit(tx, { teamId: project.teamId, user: req.user!, action: 'file.upload', target: filename, detail: { projectId: project.id, kind, size: file.size } });
+      const [created] = await tx
+        .insert(files)
+        .values({
+          projectId: project.id,
+          kind,
+          filename,
+          mime,
+          size: file.size,
+          bytes: file.buffer,
+          createdBy: req.user!.id,
+        })
+        .returning({ id: files.id, kind: files.kind, filename: files.filename, mime: files.mime, size: files.size, createdAt: files.createdAt });
+      await audit(tx, {
+        teamId: project.teamId,
+        user: req.user!,
+        action: 'file.upload',
+        target: filename,
+        detail: { projectId: project.id, kind, size: file.size },
+      });
       return created;
     });
     res.status(201).json(fileJson({ ...row, createdByName: req.user!.name }));
@@ -166,11 +202,17 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
   api.get('/projects/:id/files/:fileId', 'files.read', async (req, res) => {
     const project = projectOf(req);
     const fileId = uuidParam(req.params.fileId, 'No such file');
-    const [row] = await db.select().from(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
+    const [row] = await db
+      .select()
+      .from(files)
+      .where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
     if (!row) throw new ApiError('not-found', 'No such file');
     // Shown in the page only when the bytes are an image we checked; everything else downloads.
     const image = (row.kind === 'backdrop' || row.kind === 'photo') && imageType(row.bytes) === row.mime;
-    res.setHeader('Content-Type', image ? row.mime : `${row.mime === 'text/csv' || row.mime === 'application/gpx+xml' ? row.mime : 'application/octet-stream'}`);
+    res.setHeader(
+      'Content-Type',
+      image ? row.mime : `${row.mime === 'text/csv' || row.mime === 'application/gpx+xml' ? row.mime : 'application/octet-stream'}`,
+    );
     res.setHeader('Content-Disposition', contentDisposition(image ? 'inline' : 'attachment', row.filename));
     res.setHeader('Content-Security-Policy', image ? IMAGE_CSP : DOWNLOAD_CSP);
     res.setHeader('X-Content-Type-Options', 'nosniff');
@@ -183,12 +225,28 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
     const fileId = uuidParam(req.params.fileId, 'No such file');
     const { filename: typed } = parseBody(renameBody, req.body);
     const row = await db.transaction(async (tx) => {
-      const [old] = await tx.select({ filename: files.filename }).from(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
+      const [old] = await tx
+        .select({ filename: files.filename })
+        .from(files)
+        .where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
       if (!old) throw new ApiError('not-found', 'No such file');
       const filename = renamedFilename(typed, old.filename);
-      const [updated] = await tx.update(files).set({ filename }).where(eq(files.id, fileId))
-        .returning({ id: files.id, kind: files.kind, filename: files.filename, mime: files.mime, size: files.size, createdAt: files.createdAt, createdBy: files.createdBy });
-      await audit(tx, { teamId: project.teamId, user: req.user!, action: 'file.rename', target: filename, detail: { projectId: project.id, from: old.filename } });
+      const [updated] = await tx.update(files).set({ filename }).where(eq(files.id, fileId)).returning({
+        id: files.id,
+        kind: files.kind,
+        filename: files.filename,
+        mime: files.mime,
+        size: files.size,
+        createdAt: files.createdAt,
+        createdBy: files.createdBy,
+      });
+      await audit(tx, {
+        teamId: project.teamId,
+        user: req.user!,
+        action: 'file.rename',
+        target: filename,
+        detail: { projectId: project.id, from: old.filename },
+      });
       return updated;
     });
     const [who] = row.createdBy ? await db.select({ name: users.name }).from(users).where(eq(users.id, row.createdBy)) : [];
@@ -199,7 +257,10 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
   api.get('/projects/:id/files/:fileId/points', 'files.read', async (req, res) => {
     const project = projectOf(req);
     const fileId = uuidParam(req.params.fileId, 'No such file');
-    const [row] = await db.select({ kind: files.kind, bytes: files.bytes }).from(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
+    const [row] = await db
+      .select({ kind: files.kind, bytes: files.bytes })
+      .from(files)
+      .where(and(eq(files.id, fileId), eq(files.projectId, project.id)));
     if (!row) throw new ApiError('not-found', 'No such file');
     if (row.kind !== 'survey') throw new ApiError('unsupported-type', 'Only a survey file has points');
     const format = detectSurveyFormat(row.bytes);
@@ -216,7 +277,10 @@ export function fileRoutes(api: ApiRoutes, ctx: AppContext): void {
     const project = projectOf(req);
     const fileId = uuidParam(req.params.fileId, 'No such file');
     await db.transaction(async (tx) => {
-      const [row] = await tx.delete(files).where(and(eq(files.id, fileId), eq(files.projectId, project.id))).returning({ filename: files.filename });
+      const [row] = await tx
+        .delete(files)
+        .where(and(eq(files.id, fileId), eq(files.projectId, project.id)))
+        .returning({ filename: files.filename });
       if (!row) throw new ApiError('not-found', 'No such file');
       await audit(tx, { teamId: project.teamId, user: req.user!, action: 'file.delete', target: row.filename, detail: { projectId: project.id } });
     });

@@ -26,8 +26,10 @@ type InvitationRow = typeof invitations.$inferSelect;
 
 /** The refusal shown when the signed-in account is not the invited one. */
 export function wrongAccountMessage(invited: string, signedInAs: string): string {
-  return `This invitation is for ${invited}, but you are signed in as ${signedInAs}. `
-    + `Sign out and open the link again to join as ${invited}, or ask the team's admin to invite ${signedInAs}.`;
+  return (
+    `This invitation is for ${invited}, but you are signed in as ${signedInAs}. ` +
+    `Sign out and open the link again to join as ${invited}, or ask the team's admin to invite ${signedInAs}.`
+  );
 }
 
 function mayAccept(invitation: InvitationRow, user: { email: string }): boolean {
@@ -41,8 +43,13 @@ export function invitationLinkRoutes(api: ApiRoutes, ctx: AppContext): void {
     const found = await findInvitation(db, req.params.token);
     const inv = found.invitation;
     res.json({
-      teamName: found.teamName, email: inv.email, roles: inv.roles, anyAccount: inv.anyAccount,
-      expired: inv.expiresAt.getTime() < Date.now(), accepted: inv.acceptedAt !== null, revoked: inv.revokedAt !== null,
+      teamName: found.teamName,
+      email: inv.email,
+      roles: inv.roles,
+      anyAccount: inv.anyAccount,
+      expired: inv.expiresAt.getTime() < Date.now(),
+      accepted: inv.acceptedAt !== null,
+      revoked: inv.revokedAt !== null,
       // Whether the caller's account may accept, so the page can refuse before anyone clicks.
       ...(req.user ? { signedInAs: req.user.email, mayAccept: mayAccept(inv, req.user) } : {}),
     });
@@ -66,12 +73,15 @@ export function invitationLinkRoutes(api: ApiRoutes, ctx: AppContext): void {
     const passwordHash = signedIn ? '' : await hashPassword(body.password!, ctx.bcryptCost, ctx.passwords);
     const teamId = await db.transaction(async (tx) => {
       // Only an open invitation is taken; a concurrent accept finds nothing here.
-      const [invitation] = await tx.update(invitations).set({ acceptedAt: new Date() })
-        .where(and(eq(invitations.tokenHash, tokenHash), isNull(invitations.acceptedAt), isNull(invitations.revokedAt))).returning();
+      const [invitation] = await tx
+        .update(invitations)
+        .set({ acceptedAt: new Date() })
+        .where(and(eq(invitations.tokenHash, tokenHash), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+        .returning();
       if (!invitation) {
         const [used] = await tx.select({ revokedAt: invitations.revokedAt }).from(invitations).where(eq(invitations.tokenHash, tokenHash));
         if (!used) throw new ApiError('not-found', 'No such invitation');
-        throw new ApiError('conflict', used.revokedAt ? 'This invitation was withdrawn by the team\'s admin' : 'This invitation has already been accepted');
+        throw new ApiError('conflict', used.revokedAt ? "This invitation was withdrawn by the team's admin" : 'This invitation has already been accepted');
       }
       if (invitation.expiresAt.getTime() < Date.now()) throw new ApiError('conflict', 'This invitation has expired; ask your team admin for a new one');
       // Throwing here rolls the claim back: the invited person can still use the link.
@@ -80,23 +90,34 @@ export function invitationLinkRoutes(api: ApiRoutes, ctx: AppContext): void {
       if (!user) {
         const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, invitation.email));
         if (existing) throw new ApiError('conflict', `An account for ${invitation.email} exists; sign in first, then accept`);
-        [user] = await tx.insert(users).values({ email: invitation.email, name: body.name!, passwordHash })
+        [user] = await tx
+          .insert(users)
+          .values({ email: invitation.email, name: body.name!, passwordHash })
           .returning({ id: users.id, email: users.email, name: users.name });
         newUser = user;
       }
-      const [member] = await tx.select({ roles: memberships.roles }).from(memberships)
+      const [member] = await tx
+        .select({ roles: memberships.roles })
+        .from(memberships)
         .where(and(eq(memberships.teamId, invitation.teamId), eq(memberships.userId, user.id)));
       if (member) {
         const roles: Role[] = [...new Set([...member.roles.filter(isRole), ...invitation.roles.filter(isRole)])];
-        await tx.update(memberships).set({ roles })
+        await tx
+          .update(memberships)
+          .set({ roles })
           .where(and(eq(memberships.teamId, invitation.teamId), eq(memberships.userId, user.id)));
       } else {
         await tx.insert(memberships).values({ teamId: invitation.teamId, userId: user.id, roles: invitation.roles });
       }
       await tx.update(invitations).set({ acceptedBy: user.id }).where(eq(invitations.id, invitation.id));
       const other = normaliseEmail(user.email) !== invitation.email;
-      await audit(tx, { teamId: invitation.teamId, user, action: 'invitation.accept', target: invitation.email,
-        detail: { roles: invitation.roles, ...(other ? { acceptedAs: user.email, override: 'any signed-in account (set by admin)' } : {}) } });
+      await audit(tx, {
+        teamId: invitation.teamId,
+        user,
+        action: 'invitation.accept',
+        target: invitation.email,
+        detail: { roles: invitation.roles, ...(other ? { acceptedAs: user.email, override: 'any signed-in account (set by admin)' } : {}) },
+      });
       return invitation.teamId;
     });
     if (newUser) await signIn(req, newUser, teamId);
@@ -106,8 +127,10 @@ export function invitationLinkRoutes(api: ApiRoutes, ctx: AppContext): void {
 }
 
 async function findInvitation(db: DbOrTx, token: unknown) {
-  const [row] = await db.select({ invitation: invitations, teamName: teams.name })
-    .from(invitations).innerJoin(teams, eq(teams.id, invitations.teamId))
+  const [row] = await db
+    .select({ invitation: invitations, teamName: teams.name })
+    .from(invitations)
+    .innerJoin(teams, eq(teams.id, invitations.teamId))
     .where(eq(invitations.tokenHash, hashToken(String(token))));
   if (!row) throw new ApiError('not-found', 'No such invitation');
   return row;

@@ -25,9 +25,17 @@ export function networkRoutes(api: ApiRoutes, ctx: AppContext): void {
   api.put('/projects/:id/network', 'network.write', async (req, res) => {
     const body = parseBody(saveNetworkBody, req.body);
     const project = projectOf(req);
-    res.json(saveSummary(await saveNetwork(db, {
-      projectId: project.id, teamId: project.teamId, user: req.user!, expectedVersion: body.version,
-      document: body.document, log: ctx.log,
-    })));
+    res.json(
+      saveSummary(
+        await saveNetwork(db, {
+          projectId: project.id,
+          teamId: project.teamId,
+          user: req.user!,
+          expectedVersion: body.version,
+          document: body.document,
+          log: ctx.log,
+        }),
+      ),
+    );
   });
 }

@@ -17,10 +17,16 @@ import { projectOf } from '../project-scope';
 /** Deepest default cover accepted, m: beyond any frost depth a farm line is laid at (about 10 ft). */
 export const MAX_COVER_M = 3;
 
-const settingsBody = z.object({
-  cover_m: z.number({ error: 'must be a depth in metres, or null for the default' }).finite('must be a finite number')
-    .min(0, 'must be 0 m or more').max(MAX_COVER_M, `must be at most ${MAX_COVER_M} m (about 10 ft)`).nullable(),
-}).strict();
+const settingsBody = z
+  .object({
+    cover_m: z
+      .number({ error: 'must be a depth in metres, or null for the default' })
+      .finite('must be a finite number')
+      .min(0, 'must be 0 m or more')
+      .max(MAX_COVER_M, `must be at most ${MAX_COVER_M} m (about 10 ft)`)
+      .nullable(),
+  })
+  .strict();
 
 export interface ProfileSettings {
   /** Default cover for pipes without their own, m; null: the engine's default. */
@@ -32,8 +38,11 @@ export interface ProfileSettings {
 }
 
 export async function loadProfileSettings(db: DbOrTx, projectId: string): Promise<ProfileSettings> {
-  const [row] = await db.select({ settings: profileSettings.settings, updatedAt: profileSettings.updatedAt, userName: users.name })
-    .from(profileSettings).leftJoin(users, eq(users.id, profileSettings.updatedBy)).where(eq(profileSettings.projectId, projectId));
+  const [row] = await db
+    .select({ settings: profileSettings.settings, updatedAt: profileSettings.updatedAt, userName: users.name })
+    .from(profileSettings)
+    .leftJoin(users, eq(users.id, profileSettings.updatedBy))
+    .where(eq(profileSettings.projectId, projectId));
   const cover = (row?.settings as { cover_m?: number | null } | undefined)?.cover_m ?? null;
   return { cover_m: cover, default_cover_m: DEFAULT_COVER_M, updatedAt: row?.updatedAt.toISOString() ?? null, updatedBy: row?.userName ?? null };
 }
@@ -50,10 +59,17 @@ export function profileRoutes(api: ApiRoutes, ctx: AppContext): void {
     const project = projectOf(req);
     const before = await loadProfileSettings(db, project.id);
     await db.transaction(async (tx) => {
-      await tx.insert(profileSettings).values({ projectId: project.id, settings: body, updatedBy: req.user!.id })
+      await tx
+        .insert(profileSettings)
+        .values({ projectId: project.id, settings: body, updatedBy: req.user!.id })
         .onConflictDoUpdate({ target: profileSettings.projectId, set: { settings: body, updatedAt: new Date(), updatedBy: req.user!.id } });
-      await audit(tx, { teamId: project.teamId, user: req.user!, action: 'profile.settings', target: project.name,
-        detail: { cover_m: body.cover_m ?? 'default', was: before.cover_m ?? 'default' } });
+      await audit(tx, {
+        teamId: project.teamId,
+        user: req.user!,
+        action: 'profile.settings',
+        target: project.name,
+        detail: { cover_m: body.cover_m ?? 'default', was: before.cover_m ?? 'default' },
+      });
     });
     res.json(await loadProfileSettings(db, project.id));
   });

@@ -22,8 +22,15 @@ const listQuery = z.object({ archived: z.enum(['true', 'false']).optional() });
 
 export function projectJson(row: ProjectRow) {
   return {
-    id: row.id, teamId: row.teamId, name: row.name, siteName: row.siteName, notes: row.notes,
-    units: row.units, archived: row.archived, createdAt: row.createdAt.toISOString(), updatedAt: row.updatedAt.toISOString(),
+    id: row.id,
+    teamId: row.teamId,
+    name: row.name,
+    siteName: row.siteName,
+    notes: row.notes,
+    units: row.units,
+    archived: row.archived,
+    createdAt: row.createdAt.toISOString(),
+    updatedAt: row.updatedAt.toISOString(),
   };
 }
 
@@ -42,7 +49,10 @@ export function projectRoutes(api: ApiRoutes, ctx: AppContext): void {
     const body = parseBody(createBody, req.body);
     const teamId = req.membership!.teamId;
     const row = await db.transaction(async (tx) => {
-      const [created] = await tx.insert(projects).values({ teamId, ...body }).returning();
+      const [created] = await tx
+        .insert(projects)
+        .values({ teamId, ...body })
+        .returning();
       await audit(tx, { teamId, user: req.user!, action: 'project.create', target: created.name, detail: { projectId: created.id } });
       return created;
     });
@@ -57,9 +67,19 @@ export function projectRoutes(api: ApiRoutes, ctx: AppContext): void {
     const body = parseBody(updateBody, req.body);
     const row = await db.transaction(async (tx) => {
       const before = projectOf(req);
-      const [updated] = await tx.update(projects).set({ ...body, updatedAt: new Date() }).where(eq(projects.id, before.id)).returning();
+      const [updated] = await tx
+        .update(projects)
+        .set({ ...body, updatedAt: new Date() })
+        .where(eq(projects.id, before.id))
+        .returning();
       if (!updated) throw new ApiError('not-found', 'No such project');
-      await audit(tx, { teamId: before.teamId, user: req.user!, action: 'project.update', target: updated.name, detail: { projectId: before.id, changed: Object.keys(body) } });
+      await audit(tx, {
+        teamId: before.teamId,
+        user: req.user!,
+        action: 'project.update',
+        target: updated.name,
+        detail: { projectId: before.id, changed: Object.keys(body) },
+      });
       return updated;
     });
     res.json(projectJson(row));

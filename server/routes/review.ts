@@ -13,14 +13,16 @@ const optionalNote = z.object({ note: note.optional() });
 const requiredNote = z.object({ note: note.min(1, 'say what needs changing (a returned design needs a note)') });
 
 const finite = z.number({ error: 'must be a number' }).finite('must be a finite number');
-const commentBody = z.object({
-  version: versionNumber(1),
-  body: z.string({ error: 'must be a string' }).trim().min(1, 'must not be empty').max(4000, 'must be at most 4000 characters'),
-  element: z.string({ error: 'must be a string' }).min(1, 'must not be empty').max(100).optional(),
-  x_m: finite.optional(),
-  y_m: finite.optional(),
-  parentId: z.string({ error: 'must be a string' }).optional(),
-}).refine((b) => (b.x_m === undefined) === (b.y_m === undefined), { message: 'x_m and y_m go together', path: ['y_m'] });
+const commentBody = z
+  .object({
+    version: versionNumber(1),
+    body: z.string({ error: 'must be a string' }).trim().min(1, 'must not be empty').max(4000, 'must be at most 4000 characters'),
+    element: z.string({ error: 'must be a string' }).min(1, 'must not be empty').max(100).optional(),
+    x_m: finite.optional(),
+    y_m: finite.optional(),
+    parentId: z.string({ error: 'must be a string' }).optional(),
+  })
+  .refine((b) => (b.x_m === undefined) === (b.y_m === undefined), { message: 'x_m and y_m go together', path: ['y_m'] });
 
 const resolveBody = z.object({ resolved: z.boolean({ error: 'must be true or false' }) });
 
@@ -30,9 +32,15 @@ export function reviewRoutes(api: ApiRoutes, ctx: AppContext): void {
   const transition = (name: Transition, body: z.ZodType<{ note?: string }>) => async (req: import('express').Request, res: import('express').Response) => {
     const parsed = parseBody(body, req.body);
     const project = projectOf(req);
-    res.json(await transitionVersion(ctx, {
-      project, version: versionParam(req.params.version), transition: name, note: parsed.note ?? '', user: req.user!,
-    }));
+    res.json(
+      await transitionVersion(ctx, {
+        project,
+        version: versionParam(req.params.version),
+        transition: name,
+        note: parsed.note ?? '',
+        user: req.user!,
+      }),
+    );
   };
   api.post('/projects/:id/versions/:version/submit', 'review.submit', transition('submit', optionalNote));
   api.post('/projects/:id/versions/:version/approve', 'review.decide', transition('approve', optionalNote));

@@ -27,8 +27,13 @@ type InvitationRow = typeof invitations.$inferSelect;
 
 export function invitationJson(row: InvitationRow) {
   return {
-    id: row.id, email: row.email, roles: row.roles, anyAccount: row.anyAccount, createdAt: row.createdAt,
-    acceptedAt: row.acceptedAt, expiresAt: row.expiresAt,
+    id: row.id,
+    email: row.email,
+    roles: row.roles,
+    anyAccount: row.anyAccount,
+    createdAt: row.createdAt,
+    acceptedAt: row.acceptedAt,
+    expiresAt: row.expiresAt,
   };
 }
 
@@ -60,7 +65,9 @@ export function invitationRoutes(api: ApiRoutes, ctx: AppContext): void {
   }
 
   api.get('/team/invitations', 'team.manage', async (req, res) => {
-    const rows = await db.select().from(invitations)
+    const rows = await db
+      .select()
+      .from(invitations)
       .where(and(eq(invitations.teamId, req.membership!.teamId), isNull(invitations.revokedAt)))
       .orderBy(desc(invitations.createdAt));
     res.json(rows.map(invitationJson));
@@ -73,25 +80,52 @@ export function invitationRoutes(api: ApiRoutes, ctx: AppContext): void {
     const anyAccount = body.anyAccount ?? false;
     const { token, tokenHash } = newInvitationToken();
     const invitation = await db.transaction(async (tx) => {
-      const [member] = await tx.select({ roles: memberships.roles }).from(memberships)
+      const [member] = await tx
+        .select({ roles: memberships.roles })
+        .from(memberships)
         .innerJoin(users, eq(users.id, memberships.userId))
         .where(and(eq(memberships.teamId, teamId), eq(users.email, email)));
       if (member) {
-        throw new ApiError('conflict', `${email} is already a member of this team (${member.roles.join(', ')}); change their roles under Members`,
-          { fields: [{ path: 'email', message: 'is already a member of this team' }] });
+        throw new ApiError('conflict', `${email} is already a member of this team (${member.roles.join(', ')}); change their roles under Members`, {
+          fields: [{ path: 'email', message: 'is already a member of this team' }],
+        });
       }
-      const [open] = await tx.select({ createdAt: invitations.createdAt }).from(invitations)
-        .where(and(eq(invitations.teamId, teamId), eq(invitations.email, email), isNull(invitations.acceptedAt),
-          isNull(invitations.revokedAt), gt(invitations.expiresAt, new Date())));
+      const [open] = await tx
+        .select({ createdAt: invitations.createdAt })
+        .from(invitations)
+        .where(
+          and(
+            eq(invitations.teamId, teamId),
+            eq(invitations.email, email),
+            isNull(invitations.acceptedAt),
+            isNull(invitations.revokedAt),
+            gt(invitations.expiresAt, new Date()),
+          ),
+        );
       if (open) {
-        throw new ApiError('conflict', `${email} already has an open invitation; resend or revoke it under Pending invitations`,
-          { fields: [{ path: 'email', message: 'already has an open invitation' }] });
+        throw new ApiError('conflict', `${email} already has an open invitation; resend or revoke it under Pending invitations`, {
+          fields: [{ path: 'email', message: 'already has an open invitation' }],
+        });
       }
-      const [row] = await tx.insert(invitations).values({
-        teamId, email, roles: body.roles, tokenHash, invitedBy: req.user!.id, anyAccount, expiresAt: expiry(),
-      }).returning();
-      await audit(tx, { teamId, user: req.user!, action: 'invitation.create', target: email,
-        detail: { roles: body.roles, ...(anyAccount ? { anyAccount: 'any signed-in account may accept' } : {}) } });
+      const [row] = await tx
+        .insert(invitations)
+        .values({
+          teamId,
+          email,
+          roles: body.roles,
+          tokenHash,
+          invitedBy: req.user!.id,
+          anyAccount,
+          expiresAt: expiry(),
+        })
+        .returning();
+      await audit(tx, {
+        teamId,
+        user: req.user!,
+        action: 'invitation.create',
+        target: email,
+        detail: { roles: body.roles, ...(anyAccount ? { anyAccount: 'any signed-in account may accept' } : {}) },
+      });
       return row;
     });
     await mailInvitation(invitation, token, teamName, req.user!.name);
@@ -101,7 +135,9 @@ export function invitationRoutes(api: ApiRoutes, ctx: AppContext): void {
   /** The team's open invitation `:invitationId` (not accepted, not revoked), or 404 / 409. */
   async function openInvitation(teamId: string, raw: unknown): Promise<InvitationRow> {
     const id = uuidParam(raw, 'No such invitation');
-    const [row] = await db.select().from(invitations)
+    const [row] = await db
+      .select()
+      .from(invitations)
       .where(and(eq(invitations.id, id), eq(invitations.teamId, teamId), isNull(invitations.revokedAt)));
     if (!row) throw new ApiError('not-found', 'No such invitation');
     if (row.acceptedAt) throw new ApiError('conflict', `${row.email} has already accepted this invitation`);
@@ -112,8 +148,11 @@ export function invitationRoutes(api: ApiRoutes, ctx: AppContext): void {
     const { teamId } = req.membership!;
     const row = await openInvitation(teamId, req.params.invitationId);
     await db.transaction(async (tx) => {
-      const [revoked] = await tx.update(invitations).set({ revokedAt: new Date() })
-        .where(and(eq(invitations.id, row.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt))).returning();
+      const [revoked] = await tx
+        .update(invitations)
+        .set({ revokedAt: new Date() })
+        .where(and(eq(invitations.id, row.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+        .returning();
       if (!revoked) throw new ApiError('conflict', 'This invitation has just been accepted or revoked');
       await audit(tx, { teamId, user: req.user!, action: 'invitation.revoke', target: row.email, detail: { roles: row.roles } });
     });
@@ -126,8 +165,11 @@ export function invitationRoutes(api: ApiRoutes, ctx: AppContext): void {
     const { token, tokenHash } = newInvitationToken();
     const updated = await db.transaction(async (tx) => {
       // A new token: the link in the earlier mail stops working, the new one runs a full term.
-      const [renewed] = await tx.update(invitations).set({ tokenHash, expiresAt: expiry() })
-        .where(and(eq(invitations.id, row.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt))).returning();
+      const [renewed] = await tx
+        .update(invitations)
+        .set({ tokenHash, expiresAt: expiry() })
+        .where(and(eq(invitations.id, row.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+        .returning();
       if (!renewed) throw new ApiError('conflict', 'This invitation has just been accepted or revoked');
       await audit(tx, { teamId, user: req.user!, action: 'invitation.resend', target: row.email, detail: { roles: row.roles } });
       return renewed;

@@ -11,17 +11,23 @@ import { projectOf } from '../project-scope';
 export const MAX_VERSION = 2 ** 31 - 1;
 
 /** A version number in a body: an integer from `min` (0: "nothing saved yet" for optimistic checks; 1: a saved version) to MAX_VERSION. */
-export const versionNumber = (min: 0 | 1) => z.number({ error: 'must be a number' }).int('must be an integer')
-  .min(min, `must be ${min} or more`).max(MAX_VERSION, 'must be below 2^31');
+export const versionNumber = (min: 0 | 1) =>
+  z.number({ error: 'must be a number' }).int('must be an integer').min(min, `must be ${min} or more`).max(MAX_VERSION, 'must be below 2^31');
 
-const pathVersion = z.string().regex(/^\d{1,10}$/, 'must be a positive integer').transform(Number).pipe(versionNumber(1));
+const pathVersion = z
+  .string()
+  .regex(/^\d{1,10}$/, 'must be a positive integer')
+  .transform(Number)
+  .pipe(versionNumber(1));
 
 /** A version number from the path or query: a positive integer below 2^31, or 400 naming the parameter. */
 export function versionParam(value: unknown, name = 'version'): number {
   const parsed = pathVersion.safeParse(value);
   if (!parsed.success) {
     const message = parsed.error.issues[0]?.message ?? 'must be a positive integer';
-    throw new ApiError('validation', `${name} must be a version number (1 to ${MAX_VERSION}), got "${String(value).slice(0, 40)}"`, { fields: [{ path: name, message }] });
+    throw new ApiError('validation', `${name} must be a version number (1 to ${MAX_VERSION}), got "${String(value).slice(0, 40)}"`, {
+      fields: [{ path: name, message }],
+    });
   }
   return parsed.data;
 }
@@ -53,9 +59,18 @@ export function versionRoutes(api: ApiRoutes, ctx: AppContext): void {
     const body = parseBody(restoreBody, req.body);
     const project = projectOf(req);
     const old = await loadVersion(db, project.id, versionParam(req.params.version));
-    res.status(201).json(saveSummary(await saveNetwork(db, {
-      projectId: project.id, teamId: project.teamId, user: req.user!, expectedVersion: body.version,
-      document: old.document, log: ctx.log, restoredFrom: old.version,
-    })));
+    res.status(201).json(
+      saveSummary(
+        await saveNetwork(db, {
+          projectId: project.id,
+          teamId: project.teamId,
+          user: req.user!,
+          expectedVersion: body.version,
+          document: old.document,
+          log: ctx.log,
+          restoredFrom: old.version,
+        }),
+      ),
+    );
   });
 }

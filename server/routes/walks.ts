@@ -60,10 +60,26 @@ export function walkRoutes(api: ApiRoutes, ctx: AppContext): void {
     }
     const filename = file.originalname.replace(/[\\/\r\n"]/g, '_').slice(0, 200) || 'photo.jpg';
     await db.transaction(async (tx) => {
-      await tx.insert(files).values({
-        id: photoId, projectId: project.id, kind: 'photo', filename, mime, size: file.size, bytes: file.buffer, createdBy: req.user!.id,
-      }).onConflictDoNothing();
-      await audit(tx, { teamId: project.teamId, user: req.user!, action: 'file.upload', target: filename, detail: { projectId: project.id, projectName: project.name, kind: 'photo', size: file.size } });
+      await tx
+        .insert(files)
+        .values({
+          id: photoId,
+          projectId: project.id,
+          kind: 'photo',
+          filename,
+          mime,
+          size: file.size,
+          bytes: file.buffer,
+          createdBy: req.user!.id,
+        })
+        .onConflictDoNothing();
+      await audit(tx, {
+        teamId: project.teamId,
+        user: req.user!,
+        action: 'file.upload',
+        target: filename,
+        detail: { projectId: project.id, projectName: project.name, kind: 'photo', size: file.size },
+      });
     });
     res.status(201).json({ id: photoId, created: true });
   });

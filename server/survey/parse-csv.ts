@@ -26,16 +26,32 @@ const ALIASES: Record<Field, string[]> = {
 };
 
 const UNIT_WORDS: Record<string, Unit> = {
-  ft: 'ft', feet: 'ft', foot: 'ft', "'": 'ft', us: 'ft',
-  m: 'm', metre: 'm', metres: 'm', meter: 'm', meters: 'm', si: 'm',
+  ft: 'ft',
+  feet: 'ft',
+  foot: 'ft',
+  "'": 'ft',
+  us: 'ft',
+  m: 'm',
+  metre: 'm',
+  metres: 'm',
+  meter: 'm',
+  meters: 'm',
+  si: 'm',
 };
 
-interface Column { index: number; unit?: Unit }
+interface Column {
+  index: number;
+  unit?: Unit;
+}
 
 function readHeader(cells: string[]): Partial<Record<Field, Column>> {
   const columns: Partial<Record<Field, Column>> = {};
   cells.forEach((cell, index) => {
-    let name = cell.trim().toLowerCase().replace(/[\s-]+/g, '_').replace(/[()]/g, '');
+    let name = cell
+      .trim()
+      .toLowerCase()
+      .replace(/[\s-]+/g, '_')
+      .replace(/[()]/g, '');
     let unit: Unit | undefined;
     const suffix = /_(ft|m)$/.exec(name);
     if (suffix && name.length > suffix[0].length) {
@@ -105,8 +121,14 @@ export function parseSurveyCsv(text: string): SurveyParse {
     const y = length('y');
     const lat = degrees('lat', 90);
     const lon = degrees('lon', 180);
-    if (x !== undefined && y !== undefined) { point.x_m = x; point.y_m = y; }
-    if (lat !== undefined && lon !== undefined) { point.lat = lat; point.lon = lon; }
+    if (x !== undefined && y !== undefined) {
+      point.x_m = x;
+      point.y_m = y;
+    }
+    if (lat !== undefined && lon !== undefined) {
+      point.lat = lat;
+      point.lon = lon;
+    }
     if (point.x_m === undefined && point.lat === undefined) {
       throw new SurveyError(`line ${line}: position is missing (need ${planar ? 'x and y' : 'lat and lon'})`, { line });
     }

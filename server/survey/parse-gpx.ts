@@ -33,10 +33,16 @@ function collectPoints(root: Node): Element[] {
   while (stack.length) {
     const top = stack[stack.length - 1];
     const c = top.node;
-    if (!c) { stack.pop(); continue; }
+    if (!c) {
+      stack.pop();
+      continue;
+    }
     top.node = c.nextSibling;
     if (c.nodeType !== ELEMENT_NODE) continue;
-    if (POINT_TAGS.has(localName(c))) { out.push(c as Element); continue; }
+    if (POINT_TAGS.has(localName(c))) {
+      out.push(c as Element);
+      continue;
+    }
     if (top.depth >= GPX_MAX_DEPTH) {
       throw new SurveyError(`point 0: the GPX file nests elements more than ${GPX_MAX_DEPTH} levels deep`, { point: 0 });
     }
@@ -50,7 +56,9 @@ export function parseSurveyGpx(text: string): SurveyParse {
   let root: Element | null = null;
   try {
     root = new DOMParser({
-      onError: (level, message) => { if (level !== 'warning' && !failure) failure = message; },
+      onError: (level, message) => {
+        if (level !== 'warning' && !failure) failure = message;
+      },
     }).parseFromString(text.replace(/^\uFEFF/, ''), 'text/xml').documentElement;
   } catch (err) {
     // xmldom throws on fatal errors (unclosed tags) after reporting them.

@@ -3,7 +3,10 @@ export type { ParsedSurveyPoint as SurveyPoint, SurveyFormat, SurveyParse } from
 
 /** A parse failure naming where: `line` (CSV, 1-based, header is line 1) or `point` (GPX, 1-based). */
 export class SurveyError extends Error {
-  constructor(message: string, readonly where: { line: number } | { point: number }) {
+  constructor(
+    message: string,
+    readonly where: { line: number } | { point: number },
+  ) {
     super(message);
   }
 }

@@ -15,14 +15,34 @@ export const DEMO_WALK_NAME = 'East paddock recce';
 export async function seedDemoWalk(tx: DbOrTx, project: { id: string; teamId: string; name: string }, user: { id: string; email: string }): Promise<void> {
   const ref = geoReferenceOf(hillSmallholding.layout);
   if (!ref) throw new Error('demo: the network has no geographic reference');
-  const at = (x: number, y: number) => { const [lon, lat] = toLonLat(ref, x, y); return { lat, lon }; };
+  const at = (x: number, y: number) => {
+    const [lon, lat] = toLonLat(ref, x, y);
+    return { lat, lon };
+  };
   const time = (minute: number) => new Date(Date.UTC(2026, 9, 14, 9, minute)).toISOString();
   const point = (minute: number, label: string, kind: WalkBody['points'][number]['kind'], x: number, y: number, z: number, note = '') => ({
-    id: randomUUID(), recordedAt: time(minute), ...at(x, y), accuracy_m: 4, label, kind, elevation_m: z, elevation_source: 'typed' as const,
-    note, photo_id: null, poor_fix: false,
+    id: randomUUID(),
+    recordedAt: time(minute),
+    ...at(x, y),
+    accuracy_m: 4,
+    label,
+    kind,
+    elevation_m: z,
+    elevation_source: 'typed' as const,
+    note,
+    photo_id: null,
+    poor_fix: false,
   });
   // Ground along the walk (x, y, elevation m): from the east trough (560, 372, 146 m) south to the new site.
-  const ground: [number, number, number][] = [[560, 370, 146], [566, 345, 148], [574, 320, 149.5], [570, 300, 145], [565, 280, 141], [562, 262, 139], [560, 250, 138]];
+  const ground: [number, number, number][] = [
+    [560, 370, 146],
+    [566, 345, 148],
+    [574, 320, 149.5],
+    [570, 300, 145],
+    [565, 280, 141],
+    [562, 262, 139],
+    [560, 250, 138],
+  ];
   const body: WalkBody = {
     name: DEMO_WALK_NAME,
     points: [

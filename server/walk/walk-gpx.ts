@@ -9,8 +9,14 @@
 import type { TrackPoint, WalkPoint } from './walk-types';
 
 const KIND_WORDS: Record<WalkPoint['kind'], string> = {
-  'spring-box': 'spring box', 'tank-pad': 'tank pad', tee: 'tee', trough: 'trough', bend: 'bend',
-  'high-point': 'high point', 'low-point': 'low point', crossing: 'crossing',
+  'spring-box': 'spring box',
+  'tank-pad': 'tank pad',
+  tee: 'tee',
+  trough: 'trough',
+  bend: 'bend',
+  'high-point': 'high point',
+  'low-point': 'low point',
+  crossing: 'crossing',
 };
 
 export function kindWords(kind: WalkPoint['kind']): string {

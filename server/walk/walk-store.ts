@@ -11,10 +11,19 @@ import { ApiError } from '../errors';
 import { walkGpx } from './walk-gpx';
 import type { TrackPoint, WalkBody, WalkPoint } from './walk-types';
 
-export interface SyncOutcome { walkId: string; fileId: string; filename: string; added: number; points: number; track: number }
+export interface SyncOutcome {
+  walkId: string;
+  fileId: string;
+  filename: string;
+  added: number;
+  points: number;
+  track: number;
+}
 
 export async function readWalk(db: DbOrTx, projectId: string, walkId: string): Promise<{ points: WalkPoint[]; track: TrackPoint[] }> {
-  const rows = await db.select().from(walkPoints)
+  const rows = await db
+    .select()
+    .from(walkPoints)
     .where(and(eq(walkPoints.projectId, projectId), eq(walkPoints.walkId, walkId)))
     .orderBy(asc(walkPoints.recordedAt), asc(walkPoints.id));
   const points: WalkPoint[] = [];
@@ -30,11 +39,18 @@ export async function readWalk(db: DbOrTx, projectId: string, walkId: string): P
 /** Call inside a transaction: rows, file and audit entry commit together. */
 export async function syncWalk(
   tx: DbOrTx,
-  { project, walkId, body, user }: { project: { id: string; teamId: string; name: string }; walkId: string; body: WalkBody; user: { id: string; email: string } },
+  {
+    project,
+    walkId,
+    body,
+    user,
+  }: { project: { id: string; teamId: string; name: string }; walkId: string; body: WalkBody; user: { id: string; email: string } },
 ): Promise<SyncOutcome> {
   const photoIds = [...new Set(body.points.flatMap((p) => (p.photo_id ? [p.photo_id] : [])))];
   if (photoIds.length > 0) {
-    const found = await tx.select({ id: files.id }).from(files)
+    const found = await tx
+      .select({ id: files.id })
+      .from(files)
       .where(and(eq(files.projectId, project.id), eq(files.kind, 'photo'), inArray(files.id, photoIds)));
     const missing = photoIds.filter((id) => !found.some((f) => f.id === id));
     if (missing.length > 0) {
@@ -53,22 +69,39 @@ export async function syncWalk(
   let added = 0;
   // Chunks keep each statement's parameter count well under PostgreSQL's 65 535.
   for (let i = 0; i < rows.length; i += 1000) {
-    const inserted = await tx.insert(walkPoints).values(rows.slice(i, i + 1000)).onConflictDoNothing().returning({ id: walkPoints.id });
+    const inserted = await tx
+      .insert(walkPoints)
+      .values(rows.slice(i, i + 1000))
+      .onConflictDoNothing()
+      .returning({ id: walkPoints.id });
     added += inserted.length;
   }
   const walk = await readWalk(tx, project.id, walkId);
   const filename = existing?.filename ?? `walk-${body.name.replace(/[\\/\r\n"]/g, '_').slice(0, 60)}.gpx`;
-  const gpx = Buffer.from(walkGpx(body.name, walk.points, walk.track, (photo) => `/api/projects/${project.id}/files/${photo}`), 'utf8');
+  const gpx = Buffer.from(
+    walkGpx(body.name, walk.points, walk.track, (photo) => `/api/projects/${project.id}/files/${photo}`),
+    'utf8',
+  );
   if (existing) {
     if (added > 0) await tx.update(files).set({ bytes: gpx, size: gpx.length }).where(eq(files.id, walkId));
   } else {
     await tx.insert(files).values({
-      id: walkId, projectId: project.id, kind: 'survey', filename, mime: 'application/gpx+xml', size: gpx.length, bytes: gpx, createdBy: user.id,
+      id: walkId,
+      projectId: project.id,
+      kind: 'survey',
+      filename,
+      mime: 'application/gpx+xml',
+      size: gpx.length,
+      bytes: gpx,
+      createdBy: user.id,
     });
   }
   if (added > 0 || !existing) {
     await audit(tx, {
-      teamId: project.teamId, user, action: 'walk.sync', target: filename,
+      teamId: project.teamId,
+      user,
+      action: 'walk.sync',
+      target: filename,
       detail: { projectId: project.id, projectName: project.name, walkId, added, points: walk.points.length, track: walk.track.length },
     });
   }

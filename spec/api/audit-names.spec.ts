@@ -5,8 +5,12 @@ import { startTestApp, type TestApp } from './test-app';
 
 describe('API: the audit log speaks in names, not ids', () => {
   let t: TestApp;
-  before(async () => { t = await startTestApp(); });
-  after(async () => { await t.close(); });
+  before(async () => {
+    t = await startTestApp();
+  });
+  after(async () => {
+    await t.close();
+  });
 
   it('seeded rows say who (Runnel), a network save names its project, and no UUID is shown', async () => {
     const admin = await t.signInAs('admin');
@@ -24,6 +28,8 @@ describe('API: the audit log speaks in names, not ids', () => {
 
   it('a deleted project is said to be deleted', () => {
     expect(describeDetail({ projectId: '3f1e0c52-8d0b-4c59-9d1e-2a7b5c0e9f11', kind: 'backdrop' })).to.equal('project: (deleted); kind: backdrop');
-    expect(describeDetail({ projectId: 'x', projectName: 'North block', walkId: '3f1e0c52-8d0b-4c59-9d1e-2a7b5c0e9f11', added: 3 })).to.equal('project: North block; added: 3');
+    expect(describeDetail({ projectId: 'x', projectName: 'North block', walkId: '3f1e0c52-8d0b-4c59-9d1e-2a7b5c0e9f11', added: 3 })).to.equal(
+      'project: North block; added: 3',
+    );
   });
 });

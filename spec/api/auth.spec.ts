@@ -7,12 +7,21 @@ import { startTestApp, type TestApp } from './test-app';
 
 describe('API: auth, CSRF, errors', () => {
   let t: TestApp;
-  before(async () => { t = await startTestApp({ signinLimit: { max: 3, windowMs: 60_000 } }); });
-  after(async () => { await t.close(); });
+  before(async () => {
+    t = await startTestApp({ signinLimit: { max: 3, windowMs: 60_000 } });
+  });
+  after(async () => {
+    await t.close();
+  });
 
   it('signs up: creates the user and a team where they are admin, and signs them in', async () => {
     const a = await t.anonymous();
-    const res = await a.post('/api/auth/signup', { email: 'Newcomer@Example.test', name: 'New Comer', password: 'long-enough-pw', teamName: 'Fresh Spring Team' });
+    const res = await a.post('/api/auth/signup', {
+      email: 'Newcomer@Example.test',
+      name: 'New Comer',
+      password: 'long-enough-pw',
+      teamName: 'Fresh Spring Team',
+    });
     expect(res.status, JSON.stringify(res.body)).to.equal(201);
     expect(res.body.user.email).to.equal('newcomer@example.test');
     expect(res.body.teams).to.have.length(1);
@@ -49,14 +58,15 @@ describe('API: auth, CSRF, errors', () => {
     expect(String(first.headers['set-cookie'])).to.not.match(/runnel\.sid=/);
     const signIn = async (email: string) => {
       const token = (await agent.get('/api/csrf').expect(200)).body.token;
-      const res = await agent.post('/api/auth/signin').set('x-csrf-token', token)
-        .send({ email, password: DEMO_PASSWORD }).expect(200);
+      const res = await agent.post('/api/auth/signin').set('x-csrf-token', token).send({ email, password: DEMO_PASSWORD }).expect(200);
       return res;
     };
     const res = await signIn('owner@runnel.test');
     const sidBefore = String(res.headers['set-cookie']).match(/runnel\.sid=([^;]+)/)?.[1];
     expect(sidBefore).to.be.a('string');
-    expect(String(res.headers['set-cookie'])).to.match(/HttpOnly/i).and.match(/SameSite=Lax/i);
+    expect(String(res.headers['set-cookie']))
+      .to.match(/HttpOnly/i)
+      .and.match(/SameSite=Lax/i);
     // …and signing in over an existing session replaces its id.
     const again = await signIn('designer@runnel.test');
     const sidAfter = String(again.headers['set-cookie']).match(/runnel\.sid=([^;]+)/)?.[1];
@@ -143,8 +153,7 @@ describe('API: auth, CSRF, errors', () => {
     expect(res.status).to.equal(404);
     expect(res.body.error.message).to.equal('Not found: GET /no-such-asset.js');
     const a = await t.anonymous();
-    const charset = await a.agent.post('/api/auth/signin').set('x-csrf-token', a.token)
-      .set('content-type', 'application/json; charset=klingon').send('{}');
+    const charset = await a.agent.post('/api/auth/signin').set('x-csrf-token', a.token).set('content-type', 'application/json; charset=klingon').send('{}');
     expect(charset.status).to.equal(415);
     expect(charset.body.error.code).to.equal('unsupported-type');
   });
@@ -174,7 +183,7 @@ describe('API: auth, CSRF, errors', () => {
   it('sends security headers with a CSP that allows the app (self scripts, blob workers, data/blob images)', async () => {
     const res = await supertest(t.app).get('/api/csrf');
     const csp = String(res.headers['content-security-policy']);
-    expect(csp).to.include("script-src 'self'").and.include('worker-src \'self\' blob:').and.include("img-src 'self' data: blob:");
+    expect(csp).to.include("script-src 'self'").and.include("worker-src 'self' blob:").and.include("img-src 'self' data: blob:");
     expect(res.headers['x-powered-by']).to.equal(undefined);
   });
 });

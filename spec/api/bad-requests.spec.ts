@@ -11,7 +11,11 @@ function expectField(res: Response, status: number, path: string | RegExp): void
   expect(res.status, JSON.stringify(res.body)).to.equal(status);
   const paths = (res.body.error.fields ?? []).map((f: { path: string }) => f.path);
   if (typeof path === 'string') expect(paths, JSON.stringify(res.body)).to.include(path);
-  else expect(paths.some((p: string) => path.test(p)), JSON.stringify(res.body)).to.equal(true);
+  else
+    expect(
+      paths.some((p: string) => path.test(p)),
+      JSON.stringify(res.body),
+    ).to.equal(true);
 }
 
 describe('API: bad requests answer 4xx naming the field', () => {
@@ -24,7 +28,9 @@ describe('API: bad requests answer 4xx naming the field', () => {
     a = await t.signInAs('designer');
     project = `/api/projects/${t.seeded!.demoProjectId}`;
   });
-  after(async () => { await t.close(); });
+  after(async () => {
+    await t.close();
+  });
   afterEach(() => {
     // None of these may reach the 500 path (which logs "error …").
     expect(logged.filter((l) => /^error /.test(l) || /"level":50/.test(l))).to.deep.equal([]);
@@ -72,12 +78,15 @@ describe('API: bad requests answer 4xx naming the field', () => {
   });
 
   it('multipart without a boundary or with a truncated body → 400 naming file', async () => {
-    const noBoundary = await a.agent.post(`${project}/survey/parse`).set('x-csrf-token', a.token)
-      .set('content-type', 'multipart/form-data').send('abc');
+    const noBoundary = await a.agent.post(`${project}/survey/parse`).set('x-csrf-token', a.token).set('content-type', 'multipart/form-data').send('abc');
     expectField(noBoundary, 400, 'file');
-    const truncated = await a.agent.post(`${project}/files`).set('x-csrf-token', a.token)
+    const truncated = await a.agent
+      .post(`${project}/files`)
+      .set('x-csrf-token', a.token)
       .set('content-type', 'multipart/form-data; boundary=XX')
-      .send('--XX\r\nContent-Disposition: form-data; name="kind"\r\n\r\nsurvey\r\n--XX\r\nContent-Disposition: form-data; name="file"; filename="a.csv"\r\n\r\nlabel,x');
+      .send(
+        '--XX\r\nContent-Disposition: form-data; name="kind"\r\n\r\nsurvey\r\n--XX\r\nContent-Disposition: form-data; name="file"; filename="a.csv"\r\n\r\nlabel,x',
+      );
     expectField(truncated, 400, 'file');
   });
 
@@ -91,7 +100,10 @@ describe('API: bad requests answer 4xx naming the field', () => {
   it('a body that is not JSON → 415, and nothing changes (no updatedAt bump, no audit row)', async () => {
     const before = await a.get(project).expect(200);
     const auditBefore = (await (await t.signInAs('admin')).get('/api/team/audit').expect(200)).body.length;
-    for (const [type, body] of [['text/plain', '{"notes":"x"}'], ['application/x-www-form-urlencoded', 'notes=x']] as const) {
+    for (const [type, body] of [
+      ['text/plain', '{"notes":"x"}'],
+      ['application/x-www-form-urlencoded', 'notes=x'],
+    ] as const) {
       const res = await a.agent.patch(project).set('x-csrf-token', a.token).set('content-type', type).send(body);
       expect(res.status, type).to.equal(415);
       expect(res.body.error.code).to.equal('unsupported-type');

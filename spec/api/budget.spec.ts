@@ -8,8 +8,14 @@ import { startTestApp, type TestApp } from './test-app';
 describe('API: water budget (versioned, validated, outlet flows carried into the network)', () => {
   let t: TestApp;
   // a PGlite database with migrations and the seed: slow to start on a busy machine
-  before(async function () { this.timeout(90000); t = await startTestApp(); });
-  after(async function () { this.timeout(30000); await t?.close(); });
+  before(async function () {
+    this.timeout(90000);
+    t = await startTestApp();
+  });
+  after(async function () {
+    this.timeout(30000);
+    await t?.close();
+  });
 
   const url = (id: string) => `/api/projects/${id}/budget`;
   const outlet = (doc: NetworkDocument, id: string) => doc.nodes.find((n) => n.id === id) as OutletNode;
@@ -30,7 +36,7 @@ describe('API: water budget (versioned, validated, outlet flows carried into the
     expect(res.body.networkVersion).to.equal(1);
   });
 
-  it('a first save holds the flows typed on the Layout until the designer chooses; raising a head count then raises the linked trough\'s flow', async () => {
+  it("a first save holds the flows typed on the Layout until the designer chooses; raising a head count then raises the linked trough's flow", async () => {
     const id = await insertProject(t.db, t.seeded!.demoTeamId);
     const a = await t.signInAs('designer');
     const { hillSmallholding } = await import('../../engine/examples/hill-smallholding');
@@ -81,7 +87,10 @@ describe('API: water budget (versioned, validated, outlet flows carried into the
     // choosing the budget's flow for TR3 replaces it, and the audit log says which
     const fifth = await a.put(url(id), { version: 5, document: fewer, apply_outlets: ['TR3'] }).expect(200);
     expect(fifth.body.held).to.deep.equal([]);
-    expect(outlet((await a.get(`/api/projects/${id}/network`).expect(200)).body.document, 'TR3').demand_m3s).to.be.closeTo(outlet(net3.document, 'TR4').demand_m3s, 1e-15);
+    expect(outlet((await a.get(`/api/projects/${id}/network`).expect(200)).body.document, 'TR3').demand_m3s).to.be.closeTo(
+      outlet(net3.document, 'TR4').demand_m3s,
+      1e-15,
+    );
     const log = (await (await t.signInAs('admin')).get('/api/team/audit').expect(200)).body as { action: string; detail: string }[];
     expect(log.some((r) => r.action === 'budget.save' && /TR3/.test(r.detail))).to.equal(true);
   });
@@ -124,8 +133,12 @@ describe('API: water budget (versioned, validated, outlet flows carried into the
     expect((await owner.get(settings).expect(200)).body).to.include({ cover_m: null, default_cover_m: 0.45 });
     await owner.put(settings, { cover_m: 0.9 }).expect(403);
     const a = await t.signInAs('designer');
-    for (const [body, message] of [[{ cover_m: -0.1 }, 'cover_m: must be 0 m or more'], [{ cover_m: 5 }, 'cover_m: must be at most 3 m (about 10 ft)'],
-      [{ cover_m: '1' }, 'cover_m: must be a depth in metres, or null for the default'], [{}, 'cover_m: must be a depth in metres, or null for the default']] as const) {
+    for (const [body, message] of [
+      [{ cover_m: -0.1 }, 'cover_m: must be 0 m or more'],
+      [{ cover_m: 5 }, 'cover_m: must be at most 3 m (about 10 ft)'],
+      [{ cover_m: '1' }, 'cover_m: must be a depth in metres, or null for the default'],
+      [{}, 'cover_m: must be a depth in metres, or null for the default'],
+    ] as const) {
       const res = await a.put(settings, body).expect(400);
       expect(res.body.error.fields.map((f: { path: string; message: string }) => `${f.path}: ${f.message}`)).to.include(message);
     }
@@ -138,7 +151,7 @@ describe('API: water budget (versioned, validated, outlet flows carried into the
     expect(log.some((r) => r.action === 'profile.settings' && /cover_m: 0\.9/.test(r.detail))).to.equal(true);
   });
 
-  it('another team\'s project is 404; owners may read but not save', async () => {
+  it("another team's project is 404; owners may read but not save", async () => {
     const other = await (await t.signInAs('owner')).get(url(t.seeded!.otherProjectId));
     expect(other.status).to.equal(404);
     await (await t.signInAs('owner')).put(url(t.seeded!.demoProjectId), { version: 1, document: emptyBudget() }).expect(403);

@@ -6,8 +6,12 @@ import { makeTempDir, removeTempDir } from './test-app';
 
 describe('server config (environment, validated once)', () => {
   let dir: string;
-  beforeEach(() => { dir = makeTempDir('runnel-config-'); });
-  afterEach(() => { removeTempDir(dir); });
+  beforeEach(() => {
+    dir = makeTempDir('runnel-config-');
+  });
+  afterEach(() => {
+    removeTempDir(dir);
+  });
 
   it('defaults: port 3000, local mail sink, public URL from the port, insecure cookies outside production', () => {
     const c = loadConfig({ RUNNEL_DATA_DIR: dir });
@@ -31,8 +35,14 @@ describe('server config (environment, validated once)', () => {
 
   it('reads SMTP, PUBLIC_URL (no trailing slash), DATABASE_URL and TRUST_PROXY', () => {
     const c = loadConfig({
-      RUNNEL_DATA_DIR: dir, SMTP_HOST: 'mail.example.test', SMTP_PORT: '2525', SMTP_USER: 'u', SMTP_PASS: 'p',
-      PUBLIC_URL: 'https://runnel.example.test/', DATABASE_URL: 'postgres://a@b/c', TRUST_PROXY: '1',
+      RUNNEL_DATA_DIR: dir,
+      SMTP_HOST: 'mail.example.test',
+      SMTP_PORT: '2525',
+      SMTP_USER: 'u',
+      SMTP_PASS: 'p',
+      PUBLIC_URL: 'https://runnel.example.test/',
+      DATABASE_URL: 'postgres://a@b/c',
+      TRUST_PROXY: '1',
     });
     expect(c.smtp).to.deep.equal({ host: 'mail.example.test', port: 2525, user: 'u', pass: 'p' });
     expect(c.publicUrl).to.equal('https://runnel.example.test');
@@ -41,14 +51,19 @@ describe('server config (environment, validated once)', () => {
   });
 
   it('refuses bad values with one message listing each variable', () => {
-    expect(() => loadConfig({ RUNNEL_DATA_DIR: dir, PORT: 'eighty', DATABASE_URL: 'mysql://x', SESSION_SECRET: 'short' }))
-      .to.throw(/Invalid environment:[\s\S]*PORT[\s\S]*DATABASE_URL: must start with postgres:\/\/[\s\S]*SESSION_SECRET: must be at least 16/);
+    expect(() => loadConfig({ RUNNEL_DATA_DIR: dir, PORT: 'eighty', DATABASE_URL: 'mysql://x', SESSION_SECRET: 'short' })).to.throw(
+      /Invalid environment:[\s\S]*PORT[\s\S]*DATABASE_URL: must start with postgres:\/\/[\s\S]*SESSION_SECRET: must be at least 16/,
+    );
   });
 
   it('TRUST_PROXY takes a hop count or a list of proxy addresses, and refuses true (a client would choose its IP)', () => {
     expect(loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: '2' }).trustProxy).to.equal(2);
-    expect(loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: '10.0.0.5, 10.0.1.0/24,loopback,::1' }).trustProxy)
-      .to.deep.equal(['10.0.0.5', '10.0.1.0/24', 'loopback', '::1']);
+    expect(loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: '10.0.0.5, 10.0.1.0/24,loopback,::1' }).trustProxy).to.deep.equal([
+      '10.0.0.5',
+      '10.0.1.0/24',
+      'loopback',
+      '::1',
+    ]);
     expect(() => loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: 'true' })).to.throw(/TRUST_PROXY: must be a hop count[\s\S]*choose its own IP/);
     expect(() => loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: 'TRUE' })).to.throw(/TRUST_PROXY/);
     expect(() => loadConfig({ RUNNEL_DATA_DIR: dir, TRUST_PROXY: 'false' })).to.throw(/TRUST_PROXY/);

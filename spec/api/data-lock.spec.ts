@@ -20,12 +20,18 @@ function withoutDatabaseUrl(): NodeJS.ProcessEnv {
   return rest;
 }
 
-interface Child { proc: ChildProcess; output: () => string; exited: Promise<number | null> }
+interface Child {
+  proc: ChildProcess;
+  output: () => string;
+  exited: Promise<number | null>;
+}
 
 function run(args: string[], env: Record<string, string>): Child {
   let output = '';
   const proc = spawn(process.execPath, ['--import', 'tsx', ...args], {
-    cwd: repoRoot, env: { ...withoutDatabaseUrl(), NODE_ENV: 'test', HOST: '127.0.0.1', ...env }, stdio: ['ignore', 'pipe', 'pipe'],
+    cwd: repoRoot,
+    env: { ...withoutDatabaseUrl(), NODE_ENV: 'test', HOST: '127.0.0.1', ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
   });
   proc.stdout!.on('data', (d) => (output += d));
   proc.stderr!.on('data', (d) => (output += d));
@@ -52,8 +58,12 @@ function busyPort(): Promise<{ server: Server; port: number }> {
 describe('PGlite data folder lock', function () {
   this.timeout(120_000);
   let dir: string;
-  beforeEach(() => { dir = makeTempDir('runnel-lock-'); });
-  afterEach(() => { removeTempDir(dir); });
+  beforeEach(() => {
+    dir = makeTempDir('runnel-lock-');
+  });
+  afterEach(() => {
+    removeTempDir(dir);
+  });
 
   it('refuses a second server on the same data folder, naming the owner pid, before it binds or reads anything', async () => {
     const first = run(['server/main.ts'], { PORT: '0', RUNNEL_DATA_DIR: dir });
@@ -79,7 +89,13 @@ describe('PGlite data folder lock', function () {
 
   it('recovers a lock left by a process killed with SIGKILL', async () => {
     const pg = join(dir, 'pg');
-    const holder = run(['-e', `const m = await import(${JSON.stringify(join(repoRoot, 'server/data-lock.ts'))}); m.acquireDataLock(${JSON.stringify(pg)}); console.log('locked'); setInterval(() => {}, 1000);`], {});
+    const holder = run(
+      [
+        '-e',
+        `const m = await import(${JSON.stringify(join(repoRoot, 'server/data-lock.ts'))}); m.acquireDataLock(${JSON.stringify(pg)}); console.log('locked'); setInterval(() => {}, 1000);`,
+      ],
+      {},
+    );
     await until('child holds the lock', () => holder.output().includes('locked'), holder);
     expect(() => acquireDataLock(pg)).to.throw(DataLockError, `Runnel process ${holder.proc.pid}`);
     holder.proc.kill('SIGKILL');
@@ -108,7 +124,9 @@ describe('PGlite data folder lock', function () {
     const database = await openDatabase({ kind: 'pglite', dir: pg });
     try {
       let refused: unknown;
-      await openDatabase({ kind: 'pglite', dir: pg }).catch((err) => { refused = err; });
+      await openDatabase({ kind: 'pglite', dir: pg }).catch((err) => {
+        refused = err;
+      });
       expect(refused).to.be.instanceOf(DataLockError);
     } finally {
       await database.close();

@@ -9,7 +9,9 @@ describe('API: files and survey parsing', () => {
   let designer: ApiAgent;
   let files: string;
   before(async () => ({ t, designer, files } = await startOnDemoProject()));
-  after(async () => { await t.close(); });
+  after(async () => {
+    await t.close();
+  });
 
   it('uploads a PNG backdrop, lists it and serves its bytes with its type', async () => {
     const res = await designer.upload(files, { bytes: PNG_BYTES, filename: 'site plan.png', contentType: 'image/png' }, { kind: 'backdrop' }).expect(201);
@@ -97,7 +99,7 @@ describe('API: files and survey parsing', () => {
     await designer.patch(`${files}/${up.body.id}`, { filename: 'gone' }).expect(404);
   });
 
-  it('answers a stored survey\'s points for the preview; an image has none (415)', async () => {
+  it("answers a stored survey's points for the preview; an image has none (415)", async () => {
     const up = await designer.upload(files, { bytes: Buffer.from(SURVEY_CSV), filename: 'pegs.csv' }, { kind: 'survey' }).expect(201);
     const pts = await (await t.signInAs('owner')).get(`${files}/${up.body.id}/points`).expect(200);
     expect(pts.body.format).to.equal('csv');
@@ -124,8 +126,9 @@ describe('API: files and survey parsing', () => {
     });
 
     it('a GPX point without elevation → 400 naming the point', async () => {
-      const gpx = '<?xml version="1.0"?><gpx version="1.1" xmlns="http://www.topografix.com/GPX/1/1"><trk><trkseg>'
-        + '<trkpt lat="45.1" lon="-120.2"><ele>300</ele></trkpt><trkpt lat="45.2" lon="-120.3"></trkpt></trkseg></trk></gpx>';
+      const gpx =
+        '<?xml version="1.0"?><gpx version="1.1" xmlns="http://www.topografix.com/GPX/1/1"><trk><trkseg>' +
+        '<trkpt lat="45.1" lon="-120.2"><ele>300</ele></trkpt><trkpt lat="45.2" lon="-120.3"></trkpt></trkseg></trk></gpx>';
       const res = await parse(designer, gpx, 'walk.gpx').expect(400);
       expect(res.body.error).to.deep.equal({ code: 'validation', message: 'point 2: elevation (<ele>) is missing', point: 2 });
     });

@@ -10,7 +10,11 @@ import { markSubmitted } from '../../server/review/signoff';
 import type { NetworkDocument } from '../../engine';
 
 /** The smallest PNG signature plus an IHDR start: enough for the magic-byte check. */
-export const PNG_BYTES = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.from('0000000dIHDR', 'latin1'), Buffer.alloc(32)]);
+export const PNG_BYTES = Buffer.concat([
+  Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
+  Buffer.from('0000000dIHDR', 'latin1'),
+  Buffer.alloc(32),
+]);
 export const JPEG_BYTES = Buffer.concat([Buffer.from([0xff, 0xd8, 0xff, 0xe0]), Buffer.alloc(64)]);
 export const SURVEY_CSV = 'label,easting,northing,elevation\nSpring,0,0,12.5\nTank site,40,310,41\n';
 
@@ -31,7 +35,9 @@ export async function insertProject(db: Db, teamId: string, name = `Fixture ${ra
 }
 
 export async function insertMember(db: Db, teamId: string, roles: Role[]): Promise<string> {
-  const [user] = await db.insert(users).values({ email: `m-${randomUUID()}@example.test`, name: 'Fixture Member', passwordHash: 'x' })
+  const [user] = await db
+    .insert(users)
+    .values({ email: `m-${randomUUID()}@example.test`, name: 'Fixture Member', passwordHash: 'x' })
     .returning({ id: users.id });
   await db.insert(memberships).values({ teamId, userId: user.id, roles });
   return user.id;
@@ -50,28 +56,43 @@ export async function insertInvitation(db: Db, teamId: string, roles: Role[], em
 /** An open invitation; returns its id and token. */
 export async function insertInvitationRow(db: Db, teamId: string, roles: Role[], email = `i-${randomUUID()}@example.test`) {
   const token = randomBytes(24).toString('base64url');
-  const [row] = await db.insert(invitations).values({ teamId, email, roles, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + 86400_000) })
+  const [row] = await db
+    .insert(invitations)
+    .values({ teamId, email, roles, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + 86400_000) })
     .returning({ id: invitations.id });
   return { id: row.id, token };
 }
 
 export async function insertFile(db: Db, projectId: string): Promise<string> {
-  const [row] = await db.insert(files).values({
-    projectId, kind: 'backdrop', filename: 'site.png', mime: 'image/png', size: PNG_BYTES.length, bytes: PNG_BYTES,
-  }).returning({ id: files.id });
+  const [row] = await db
+    .insert(files)
+    .values({
+      projectId,
+      kind: 'backdrop',
+      filename: 'site.png',
+      mime: 'image/png',
+      size: PNG_BYTES.length,
+      bytes: PNG_BYTES,
+    })
+    .returning({ id: files.id });
   return row.id;
 }
 
 export async function insertSurveyFile(db: Db, projectId: string): Promise<string> {
   const bytes = Buffer.from(SURVEY_CSV);
-  const [row] = await db.insert(files).values({ projectId, kind: 'survey', filename: 'pegs.csv', mime: 'text/csv', size: bytes.length, bytes })
+  const [row] = await db
+    .insert(files)
+    .values({ projectId, kind: 'survey', filename: 'pegs.csv', mime: 'text/csv', size: bytes.length, bytes })
     .returning({ id: files.id });
   return row.id;
 }
 
 /** The demo user holding `role` (id and e-mail), for saving through the store as that user. */
 export async function demoUserRow(db: Db, role: Role): Promise<{ id: string; email: string }> {
-  const [row] = await db.select({ id: users.id, email: users.email }).from(users).where(eq(users.email, `${role}@runnel.test`));
+  const [row] = await db
+    .select({ id: users.id, email: users.email })
+    .from(users)
+    .where(eq(users.email, `${role}@runnel.test`));
   return row;
 }
 
@@ -91,7 +112,9 @@ export async function insertSubmittedProject(db: Db, teamId: string): Promise<st
 
 /** An open review thread on version 1 of a project, pinned to its first node. */
 export async function insertComment(db: Db, projectId: string): Promise<string> {
-  const [row] = await db.insert(reviewComments).values({ projectId, version: 1, element: null, xM: 0, yM: 0, body: 'fixture comment' })
+  const [row] = await db
+    .insert(reviewComments)
+    .values({ projectId, version: 1, element: null, xM: 0, yM: 0, body: 'fixture comment' })
     .returning({ id: reviewComments.id });
   return row.id;
 }

@@ -14,7 +14,9 @@ describe('API: invitations are for the invited address', () => {
     t = await startTestApp();
     admin = await t.signInAs('admin');
   });
-  after(async () => { await t.close(); });
+  after(async () => {
+    await t.close();
+  });
 
   /** The token of the newest mail to `email` in the outbox. */
   async function tokenMailedTo(email: string): Promise<string> {
@@ -48,7 +50,7 @@ describe('API: invitations are for the invited address', () => {
     await other.post(`/api/invitations/${token}/accept`, {}).expect(200);
   });
 
-  it('an admin\'s any-account override lets another account accept, and both steps are audited', async () => {
+  it("an admin's any-account override lets another account accept, and both steps are audited", async () => {
     await admin.post('/api/team/invitations', { email: 'home-address@example.test', roles: ['owner'], anyAccount: true }).expect(201);
     const token = await tokenMailedTo('home-address@example.test');
     const stranger = await t.signIn('estimator@runnel.test', DEMO_PASSWORD);
@@ -103,7 +105,7 @@ describe('API: invitations are for the invited address', () => {
     expect(log.body.some((e: { action: string; target: string }) => e.action === 'invitation.resend' && e.target === 'resend-me@example.test')).to.equal(true);
   });
 
-  it('another team\'s invitation id is 404 for revoke and resend', async () => {
+  it("another team's invitation id is 404 for revoke and resend", async () => {
     const created = await admin.post('/api/team/invitations', { email: 'ours@example.test', roles: ['owner'] }).expect(201);
     const other = await t.signInAs('other');
     await other.post('/api/auth/current-team', { teamId: t.seeded!.otherTeamId }).expect(200);

@@ -17,8 +17,12 @@ describe('API: structured logs without secrets', () => {
   before(async () => {
     t = await startTestApp({ log: (line) => lines.push(line) });
   });
-  after(async () => { await t.close(); });
-  beforeEach(() => { lines.length = 0; });
+  after(async () => {
+    await t.close();
+  });
+  beforeEach(() => {
+    lines.length = 0;
+  });
 
   it('every line is one JSON object with a level, a time and a message', async () => {
     await (await t.anonymous()).get('/api/projects');
@@ -77,8 +81,16 @@ describe('API: structured logs without secrets', () => {
   it('safePath keeps team invitation ids (UUIDs); safeError drops params, detail and quoted values', () => {
     const id = '0b7a4c1e-2f3d-4a5b-8c9d-0e1f2a3b4c5d';
     expect(safePath(`/api/team/invitations/${id}/resend`)).to.equal(`/api/team/invitations/${id}/resend`);
-    const cause = Object.assign(new Error('invalid input syntax for type uuid: "hunter2-secret"'), { code: '22P02', detail: 'Failing row contains (hunter2)', where: 'x' });
-    const err = Object.assign(new Error('Failed query: select 1 where id = $1\nparams: hunter2-secret'), { query: 'select 1 where id = $1', params: ['hunter2-secret'], cause });
+    const cause = Object.assign(new Error('invalid input syntax for type uuid: "hunter2-secret"'), {
+      code: '22P02',
+      detail: 'Failing row contains (hunter2)',
+      where: 'x',
+    });
+    const err = Object.assign(new Error('Failed query: select 1 where id = $1\nparams: hunter2-secret'), {
+      query: 'select 1 where id = $1',
+      params: ['hunter2-secret'],
+      cause,
+    });
     const out = JSON.stringify(safeError(err));
     expect(out).to.not.include('hunter2');
     expect(out).to.include('select 1 where id = $1');

@@ -17,7 +17,9 @@ describe('captured mail reader', () => {
   });
 
   it('decodes non-ASCII subjects and quoted-printable bodies', async () => {
-    const text = 'Tank bank “North” – 2 × 1.5 m³.\n' + 'A long line that nodemailer will fold with soft line breaks because it is longer than seventy-six characters in all.';
+    const text =
+      'Tank bank “North” – 2 × 1.5 m³.\n' +
+      'A long line that nodemailer will fold with soft line breaks because it is longer than seventy-six characters in all.';
     const m = readMessage(await raw({ to: 'b@example.test', subject: 'Einladung für Café – Runnel', text }));
     expect(m.subject).to.equal('Einladung für Café – Runnel');
     expect(m.text).to.equal(text);

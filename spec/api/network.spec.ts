@@ -10,8 +10,12 @@ import { startTestApp, type TestApp } from './test-app';
 
 describe('API: network document (optimistic version, validation, server solve)', () => {
   let t: TestApp;
-  before(async () => { t = await startTestApp(); });
-  after(async () => { await t.close(); });
+  before(async () => {
+    t = await startTestApp();
+  });
+  after(async () => {
+    await t.close();
+  });
 
   const url = (id: string) => `/api/projects/${id}/network`;
 
@@ -20,12 +24,15 @@ describe('API: network document (optimistic version, validation, server solve)',
     const a = await t.signInAs('reviewer');
     const res = await a.get(url(id)).expect(200);
     expect(res.body).to.deep.equal({
-      version: 0, document: { schema: 'runnel.network/1', headloss: 'hazen-williams', nodes: [], links: [] },
-      results: null, updatedAt: null, updatedBy: null,
+      version: 0,
+      document: { schema: 'runnel.network/1', headloss: 'hazen-williams', nodes: [], links: [] },
+      results: null,
+      updatedAt: null,
+      updatedBy: null,
     });
   });
 
-  it('the seeded demo project holds the example network with the demo budget\'s outlet flows, saved through the same path (version 1, results stored)', async () => {
+  it("the seeded demo project holds the example network with the demo budget's outlet flows, saved through the same path (version 1, results stored)", async () => {
     const a = await t.signInAs('owner');
     const res = await a.get(url(t.seeded!.demoProjectId)).expect(200);
     expect(res.body.version).to.equal(1);
@@ -42,7 +49,11 @@ describe('API: network document (optimistic version, validation, server solve)',
     const first = await a.put(url(id), { version: 0, document: SMALL_NETWORK }).expect(200);
     // The answer is a summary, not the results (those can be megabytes; GET has them).
     const expected = solve(SMALL_NETWORK);
-    expect(first.body).to.deep.equal({ version: 1, updatedAt: first.body.updatedAt, solved: { converged: true, iterations: expected.iterations, warnings: expected.warnings.length } });
+    expect(first.body).to.deep.equal({
+      version: 1,
+      updatedAt: first.body.updatedAt,
+      solved: { converged: true, iterations: expected.iterations, warnings: expected.warnings.length },
+    });
     const edited = { ...SMALL_NETWORK, title: 'Second cut' };
     const second = await a.put(url(id), { version: 1, document: edited }).expect(200);
     expect(second.body.version).to.equal(2);
@@ -109,7 +120,11 @@ describe('API: network document (optimistic version, validation, server solve)',
     };
     const res = await a.put(url(id), { version: 0, document: broken }).expect(400);
     expect(res.body.error.code).to.equal('validation');
-    expect(res.body.error.fields).to.deep.include({ path: 'document.nodes.1.elevation_m', element: 'O1', message: 'O1.elevation_m: must be a number (got "high")' });
+    expect(res.body.error.fields).to.deep.include({
+      path: 'document.nodes.1.elevation_m',
+      element: 'O1',
+      message: 'O1.elevation_m: must be a number (got "high")',
+    });
     expect(res.body.error.message).to.include('O1.elevation_m');
     const kinds = await a.put(url(id), { version: 0, document: { ...SMALL_NETWORK, links: [{ id: 'X9', kind: 'hose', from: 'T1', to: 'O1' }] } }).expect(400);
     expect(kinds.body.error.fields[0]).to.include({ element: 'X9', path: 'document.links.0.kind' });
@@ -126,7 +141,9 @@ describe('API: network document (optimistic version, validation, server solve)',
     const id = await insertProject(t.db, t.seeded!.demoTeamId);
     const a = await t.signInAs('designer');
     const zero = await a.put(url(id), { version: 0, document: { ...SMALL_NETWORK, links: [{ ...SMALL_NETWORK.links[0], diameter_m: 0 }] } }).expect(400);
-    expect(zero.body.error.fields).to.deep.equal([{ path: 'document.links.0.diameter_m', element: 'P1', message: 'P1.diameter_m: must be a positive number (got 0)' }]);
+    expect(zero.body.error.fields).to.deep.equal([
+      { path: 'document.links.0.diameter_m', element: 'P1', message: 'P1.diameter_m: must be a positive number (got 0)' },
+    ]);
     const dangling = await a.put(url(id), { version: 0, document: { ...SMALL_NETWORK, links: [{ ...SMALL_NETWORK.links[0], to: 'O9' }] } }).expect(400);
     expect(dangling.body.error.fields).to.deep.equal([{ path: 'document.links.0.to', element: 'P1', message: 'P1.to: must name an existing node (got "O9")' }]);
   });
@@ -137,7 +154,10 @@ describe('API: network document (optimistic version, validation, server solve)',
     const [tank, outlet] = SMALL_NETWORK.nodes;
     const document = {
       ...SMALL_NETWORK,
-      nodes: [{ ...tank, elevation_m: -1e308 }, { ...outlet, demand_m3s: 1e308 }],
+      nodes: [
+        { ...tank, elevation_m: -1e308 },
+        { ...outlet, demand_m3s: 1e308 },
+      ],
       links: [{ ...SMALL_NETWORK.links[0], vertices: [[0, 0], 'junk', [1, null]] }],
     };
     const res = await a.put(url(id), { version: 0, document }).expect(400);

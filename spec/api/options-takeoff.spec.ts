@@ -11,12 +11,17 @@ import { priceItems } from '../../drizzle/schema';
 import { countFittings, minorLossAllowance, type NetworkDocument, type PipeLink } from '../../engine';
 import { binaryBody, startTestApp, type TestApp } from './test-app';
 
-
 describe('API: options, prices, takeoff and export', () => {
   let t: TestApp;
   let base: string;
-  before(async function () { this.timeout(90000); t = await startTestApp(); base = `/api/projects/${t.seeded!.demoProjectId}`; });
-  after(async () => { await t.close(); });
+  before(async function () {
+    this.timeout(90000);
+    t = await startTestApp();
+    base = `/api/projects/${t.seeded!.demoProjectId}`;
+  });
+  after(async () => {
+    await t.close();
+  });
 
   it('the two demo options with different mainline sizes show different pressures and costs', async () => {
     const owner = await t.signInAs('owner');
@@ -38,7 +43,11 @@ describe('API: options, prices, takeoff and export', () => {
     expect(sized.body.check.outlets.every((o: { passes: boolean }) => o.passes)).to.equal(true);
     expect(sized.body.regions.map((r: { method: string }) => r.method)).to.include('exact dynamic programming');
     const option = await designer.get(`${base}/options/${made.body.id}`).expect(200);
-    const changed = (option.body.document as NetworkDocument).links.filter((l) => l.kind === 'pipe' && sized.body.choices.some((c: { pipe: string; key: string }) => c.pipe === l.id && c.key === `${(l as PipeLink).series}/${(l as PipeLink).nominal}`));
+    const changed = (option.body.document as NetworkDocument).links.filter(
+      (l) =>
+        l.kind === 'pipe' &&
+        sized.body.choices.some((c: { pipe: string; key: string }) => c.pipe === l.id && c.key === `${(l as PipeLink).series}/${(l as PipeLink).nominal}`),
+    );
     expect(changed).to.have.length(sized.body.choices.length);
   });
 
@@ -88,23 +97,42 @@ describe('API: options, prices, takeoff and export', () => {
     const est = await t.signInAs('estimator');
     const count = async () => (await t.db.select().from(priceItems).where(eq(priceItems.teamId, t.seeded!.demoTeamId))).length;
     const before = await count();
-    const bad = await est.upload('/api/prices/import', { bytes: Buffer.from('code,description,unit,price\nother/a,A,each,2\nother/b,B,each,two\n'), filename: 'p.csv' }).expect(400);
+    const bad = await est
+      .upload('/api/prices/import', { bytes: Buffer.from('code,description,unit,price\nother/a,A,each,2\nother/b,B,each,two\n'), filename: 'p.csv' })
+      .expect(400);
     expect(bad.body.error.message).to.equal('Row 3, column "price": must be a number ≥ 0 or empty (got "two"). Nothing was imported.');
     expect(bad.body.error.line).to.equal(3);
     const book = new ExcelJS.Workbook();
     const ws = book.addWorksheet('Prices');
-    ws.addRows([['code', 'description', 'unit', 'price'], ['other/c', 'C', 'each', 1], ['', 'no code', 'each', 4]]);
+    ws.addRows([
+      ['code', 'description', 'unit', 'price'],
+      ['other/c', 'C', 'each', 1],
+      ['', 'no code', 'each', 4],
+    ]);
     const badX = await est.upload('/api/prices/import', { bytes: Buffer.from(await book.xlsx.writeBuffer()), filename: 'p.xlsx' }).expect(400);
     expect(badX.body.error.message).to.match(/^Row 3, column "code": is empty/);
     expect(await count()).to.equal(before);
-    const good = await est.upload('/api/prices/import', { bytes: Buffer.from('code,description,unit,price\nother/a,A,each,2\nother/b,B,each,\n'), filename: 'p.csv' }).expect(200);
+    const good = await est
+      .upload('/api/prices/import', { bytes: Buffer.from('code,description,unit,price\nother/a,A,each,2\nother/b,B,each,\n'), filename: 'p.csv' })
+      .expect(200);
     expect(good.body).to.deep.equal({ imported: 2, created: 2, updated: 0 });
     expect((await est.get('/api/prices').expect(200)).body.find((r: { code: string }) => r.code === 'other/b').price).to.equal(null);
   });
 
   it('the workbook read back has its sheets; lengths, fitting counts and totals match the document and price list exactly', async () => {
     const est = await t.signInAs('estimator');
-    await est.put(`${base}/takeoff/settings`, { waste_fraction: 0.08, bendAngle_deg: 30, other: [{ code: 'other/trenching', description: 'Trenching', unit: 'm', per_pipe_m: 1 }], labour_hours: 24, labour_rate: 42.5, markup_fraction: 0.12, tax_fraction: 0.0625, currency: 'USD' }).expect(200);
+    await est
+      .put(`${base}/takeoff/settings`, {
+        waste_fraction: 0.08,
+        bendAngle_deg: 30,
+        other: [{ code: 'other/trenching', description: 'Trenching', unit: 'm', per_pipe_m: 1 }],
+        labour_hours: 24,
+        labour_rate: 42.5,
+        markup_fraction: 0.12,
+        tax_fraction: 0.0625,
+        currency: 'USD',
+      })
+      .expect(200);
     const takeoff = (await est.get(`${base}/takeoff`).expect(200)).body;
     const xlsx = await est.get(`${base}/export.xlsx`).buffer(true).parse(binaryBody).expect(200);
     expect(xlsx.headers['content-type']).to.match(/spreadsheetml/);
@@ -116,7 +144,9 @@ describe('API: options, prices, takeoff and export', () => {
     const network = (await est.get(`${base}/network`).expect(200)).body.document as NetworkDocument;
     const sheet = book.getWorksheet('Takeoff')!;
     const rows = new Map<string, ExcelJS.Row>();
-    sheet.eachRow((row, n) => { if (n > 1) rows.set(String(row.getCell(1).value), row); });
+    sheet.eachRow((row, n) => {
+      if (n > 1) rows.set(String(row.getCell(1).value), row);
+    });
     const byItem = new Map<string, number>();
     for (const l of network.links) if (l.kind === 'pipe') byItem.set(`${l.series}/${l.nominal}`, (byItem.get(`${l.series}/${l.nominal}`) ?? 0) + l.length_m);
     for (const [code, length] of byItem) {
@@ -137,7 +167,13 @@ describe('API: options, prices, takeoff and export', () => {
       expect(amount, code).to.equal(price === null || price === undefined ? 0 : Math.round(Number(row.getCell(3).value) * price * 100 + 1e-9) / 100);
       materials += amount;
     });
-    const cell = (label: string) => { let v = NaN; estimate.eachRow((row) => { if (row.getCell(2).value === label) v = (row.getCell(6).value as ExcelJS.CellFormulaValue).result as number; }); return v; };
+    const cell = (label: string) => {
+      let v = NaN;
+      estimate.eachRow((row) => {
+        if (row.getCell(2).value === label) v = (row.getCell(6).value as ExcelJS.CellFormulaValue).result as number;
+      });
+      return v;
+    };
     expect(cell('Materials')).to.equal(Math.round(materials * 100) / 100);
     expect(cell('Labour')).to.equal(1020);
     expect(cell('Total')).to.equal(takeoff.estimate.total);
@@ -148,10 +184,18 @@ describe('API: options, prices, takeoff and export', () => {
     expect(csv.text.trim().split('\n')).to.have.length(takeoff.takeoff.rows.length + 1);
   });
 
-  it('the workbook follows the project\'s units (US: ft, psi, gpm in the headers) and every money figure the price list\'s currency', async () => {
+  it("the workbook follows the project's units (US: ft, psi, gpm in the headers) and every money figure the price list's currency", async () => {
     const est = await t.signInAs('estimator');
     const admin = await t.signInAs('admin');
-    const settings = { waste_fraction: 0.05, bendAngle_deg: 30, other: [{ code: 'other/trenching', description: 'Trenching', unit: 'm', per_pipe_m: 1 }], labour_hours: 10, labour_rate: 40, markup_fraction: 0.1, tax_fraction: 0.05 };
+    const settings = {
+      waste_fraction: 0.05,
+      bendAngle_deg: 30,
+      other: [{ code: 'other/trenching', description: 'Trenching', unit: 'm', per_pipe_m: 1 }],
+      labour_hours: 10,
+      labour_rate: 40,
+      markup_fraction: 0.1,
+      tax_fraction: 0.05,
+    };
     const read = async () => {
       const book = new ExcelJS.Workbook();
       await book.xlsx.load((await est.get(`${base}/export.xlsx`).buffer(true).parse(binaryBody).expect(200)).body);
@@ -163,7 +207,9 @@ describe('API: options, prices, takeoff and export', () => {
       const i = header(book, sheet).findIndex((h) => title.test(h)) + 1;
       expect(i, `${sheet} ${title}`).to.be.above(0);
       const out = new Map<string, unknown>();
-      ws.eachRow((row, n) => { if (n > 1 && row.getCell(1).value) out.set(String(row.getCell(1).value), row.getCell(i).value); });
+      ws.eachRow((row, n) => {
+        if (n > 1 && row.getCell(1).value) out.set(String(row.getCell(1).value), row.getCell(i).value);
+      });
       return out;
     };
     try {
@@ -173,7 +219,14 @@ describe('API: options, prices, takeoff and export', () => {
       await admin.patch(base, { units: 'us' }).expect(200);
       const us = await read();
       expect(header(si, 'Pipes')).to.include.members(['Length (m)', 'Inside diameter (mm)', 'Flow (L/s)', 'Velocity (m/s)', 'Static pressure (kPa)']);
-      expect(header(us, 'Pipes')).to.include.members(['Length (ft)', 'Inside diameter (in)', 'Flow (gpm)', 'Velocity (ft/s)', 'Static pressure (psi)', 'Rating (psi)']);
+      expect(header(us, 'Pipes')).to.include.members([
+        'Length (ft)',
+        'Inside diameter (in)',
+        'Flow (gpm)',
+        'Velocity (ft/s)',
+        'Static pressure (psi)',
+        'Rating (psi)',
+      ]);
       expect(header(us, 'Outlets')).to.include.members(['Elevation (ft)', 'Design flow (gpm)', 'Needs (psi)', 'Pressure (psi)']);
       expect(header(us, 'Takeoff')).to.include.members(['Network length (ft)', 'With waste (ft)']);
       expect(header(us, 'Estimate')).to.include.members(['Unit price (NZD)', 'Amount (NZD)']);
@@ -188,7 +241,8 @@ describe('API: options, prices, takeoff and export', () => {
       // Pipe sold by the foot: quantity × 0.3048 is the metre figure, unit price ÷ 0.3048, amounts and total unchanged.
       const qty = (book: ExcelJS.Workbook) => column(book, 'Estimate', /^Quantity/);
       const price = (book: ExcelJS.Workbook) => column(book, 'Estimate', /^Unit price/);
-      const amount = (book: ExcelJS.Workbook) => new Map([...column(book, 'Estimate', /^Amount/)].map(([k, v]) => [k, (v as ExcelJS.CellFormulaValue).result as number]));
+      const amount = (book: ExcelJS.Workbook) =>
+        new Map([...column(book, 'Estimate', /^Amount/)].map(([k, v]) => [k, (v as ExcelJS.CellFormulaValue).result as number]));
       const unit = column(us, 'Estimate', /^Unit$/);
       const siUnit = column(si, 'Estimate', /^Unit$/);
       let pipes = 0;
@@ -199,7 +253,9 @@ describe('API: options, prices, takeoff and export', () => {
         expect((qty(us).get(code) as number) * 0.3048, code).to.be.closeTo(q as number, 1e-9);
         if (price(si).get(code) !== null) {
           expect((price(us).get(code) as number) / 0.3048, code).to.be.closeTo(price(si).get(code) as number, 1e-9);
-          expect(Math.abs((qty(us).get(code) as number) * (price(us).get(code) as number) - (amount(us).get(code) as number)), code).to.be.at.most(0.005 + 1e-9);
+          expect(Math.abs((qty(us).get(code) as number) * (price(us).get(code) as number) - (amount(us).get(code) as number)), code).to.be.at.most(
+            0.005 + 1e-9,
+          );
         }
         expect(amount(us).get(code), code).to.equal(amount(si).get(code));
       }

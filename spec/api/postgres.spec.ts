@@ -47,8 +47,9 @@ describe('API on PostgreSQL (DATABASE_URL)', function () {
     await a.put(`/api/projects/${project.body.id}/network`, { version: 0, document: SMALL_NETWORK }).expect(200);
     await a.put(`/api/projects/${project.body.id}/network`, { version: 0, document: SMALL_NETWORK }).expect(409);
     // Real concurrency on a connection pool: of five saves from version 1, exactly one wins.
-    const racers = await Promise.all([1, 2, 3, 4, 5].map((n) =>
-      a.put(`/api/projects/${project.body.id}/network`, { version: 1, document: { ...SMALL_NETWORK, title: `racer ${n}` } })));
+    const racers = await Promise.all(
+      [1, 2, 3, 4, 5].map((n) => a.put(`/api/projects/${project.body.id}/network`, { version: 1, document: { ...SMALL_NETWORK, title: `racer ${n}` } })),
+    );
     expect(racers.map((r) => r.status).sort()).to.deep.equal([200, 409, 409, 409, 409]);
     const saved = await a.get(`/api/projects/${project.body.id}/network`).expect(200);
     expect(saved.body.version).to.equal(2);

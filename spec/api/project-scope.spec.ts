@@ -8,12 +8,16 @@ import { expect } from 'chai';
 import { PROJECT_PATH } from '../../server/project-scope';
 import { startTestApp, type TestApp } from './test-app';
 
-describe('API: the project of /projects/:id routes is loaded for the caller\'s team', () => {
+describe("API: the project of /projects/:id routes is loaded for the caller's team", () => {
   let t: TestApp;
-  before(async () => { t = await startTestApp(); });
-  after(async () => { await t.close(); });
+  before(async () => {
+    t = await startTestApp();
+  });
+  after(async () => {
+    await t.close();
+  });
 
-  it('every /projects/:id route answers 404 for another team\'s, an unknown and a malformed project id', async () => {
+  it("every /projects/:id route answers 404 for another team's, an unknown and a malformed project id", async () => {
     // The admin of the second team, on every route their roles reach (a missing permission is 403 first).
     const a = await t.signInAs('other');
     const held: string[] = (await a.get('/api/auth/me').expect(200)).body.permissions;

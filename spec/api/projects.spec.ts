@@ -3,8 +3,12 @@ import { startTestApp, type TestApp } from './test-app';
 
 describe('API: projects', () => {
   let t: TestApp;
-  before(async () => { t = await startTestApp(); });
-  after(async () => { await t.close(); });
+  before(async () => {
+    t = await startTestApp();
+  });
+  after(async () => {
+    await t.close();
+  });
 
   it('lists the seeded demo project for every member of the demo team', async () => {
     const a = await t.signInAs('owner');
@@ -33,17 +37,25 @@ describe('API: projects', () => {
     const admin = await t.signInAs('admin');
     const audit = await admin.get('/api/team/audit').expect(200);
     // The log names projects rather than ids (audit-names.spec): this project's rows carry its name.
-    const actions = audit.body.filter((e: { target: string }) => e.target === 'North orchard line')
+    const actions = audit.body
+      .filter((e: { target: string }) => e.target === 'North orchard line')
       .map((e: { action: string; userEmail: string }) => `${e.action} by ${e.userEmail}`);
-    expect(actions).to.deep.equal(['project.delete by designer@runnel.test', 'project.update by designer@runnel.test', 'project.create by designer@runnel.test']);
+    expect(actions).to.deep.equal([
+      'project.delete by designer@runnel.test',
+      'project.update by designer@runnel.test',
+      'project.create by designer@runnel.test',
+    ]);
   });
 
-  it('another team\'s project is 404 for read, update, delete, network and files', async () => {
+  it("another team's project is 404 for read, update, delete, network and files", async () => {
     const a = await t.signInAs('admin');
     const other = `/api/projects/${t.seeded!.otherProjectId}`;
     for (const res of [
-      await a.get(other), await a.patch(other, { name: 'Mine now' }), await a.delete(other),
-      await a.get(`${other}/network`), await a.get(`${other}/files`),
+      await a.get(other),
+      await a.patch(other, { name: 'Mine now' }),
+      await a.delete(other),
+      await a.get(`${other}/network`),
+      await a.get(`${other}/files`),
     ]) {
       expect(res.status).to.equal(404);
       expect(res.body.error.code).to.equal('not-found');

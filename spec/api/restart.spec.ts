@@ -5,8 +5,12 @@ import { makeTempDir, removeTempDir, startTestApp } from './test-app';
 
 describe('API: data survives a restart on the same PGlite data dir', () => {
   let dir: string;
-  before(() => { dir = makeTempDir(); });
-  after(() => { removeTempDir(dir); });
+  before(() => {
+    dir = makeTempDir();
+  });
+  after(() => {
+    removeTempDir(dir);
+  });
 
   it('keeps projects, networks, sessions and users; seeding again changes nothing', async function () {
     this.timeout(120_000); // two PGlite databases created and opened on disk: slow on a busy machine

@@ -5,18 +5,26 @@ import { auditLog, memberships, networkVersions, reviewComments } from '../../dr
 import { SMALL_NETWORK, demoUserRow, insertSavedProject } from './fixtures';
 import { startTestApp, type TestApp } from './test-app';
 
-interface Mail { to: string; subject: string; text: string }
+interface Mail {
+  to: string;
+  subject: string;
+  text: string;
+}
 
 describe('API: review sign-off and comments', () => {
   let t: TestApp;
-  before(async () => { t = await startTestApp(); });
-  after(async () => { await t.close(); });
+  before(async () => {
+    t = await startTestApp();
+  });
+  after(async () => {
+    await t.close();
+  });
 
   const v = (id: string, rest: string) => `/api/projects/${id}${rest}`;
   const mails = async (): Promise<Mail[]> => (await (await t.signInAs('admin')).get('/api/team/outbox').expect(200)).body;
   const status = async (id: string, n: number) => (await (await t.signInAs('owner')).get(v(id, `/versions/${n}`)).expect(200)).body.status;
 
-  it('the demo seed has a submitted version 1 with the designer\'s note', async () => {
+  it("the demo seed has a submitted version 1 with the designer's note", async () => {
     const res = await (await t.signInAs('reviewer')).get(v(t.seeded!.demoProjectId, '/versions')).expect(200);
     const v1 = res.body.versions.find((x: { version: number }) => x.version === 1);
     expect(v1).to.include({ status: 'submitted', statusBy: 'Dana Designer' });
@@ -73,7 +81,11 @@ describe('API: review sign-off and comments', () => {
     const reviewer = await t.signInAs('reviewer');
     await designer.post(v(id, '/versions/1/submit'), {}).expect(200);
     await reviewer.post(v(id, '/versions/1/approve'), {}).expect(200);
-    for (const [who, path, body] of [[reviewer, '/versions/1/return', { note: 'no' }], [reviewer, '/versions/1/approve', {}], [designer, '/versions/1/submit', {}]] as const) {
+    for (const [who, path, body] of [
+      [reviewer, '/versions/1/return', { note: 'no' }],
+      [reviewer, '/versions/1/approve', {}],
+      [designer, '/versions/1/submit', {}],
+    ] as const) {
       const res = await who.post(v(id, path), body).expect(409);
       expect(res.body.error.message).to.equal('Version 1 is approved and frozen: it cannot change. Edit the network to make a new version and submit that.');
     }
@@ -106,14 +118,20 @@ describe('API: review sign-off and comments', () => {
     await reviewer.post(v(id, '/versions/x/approve'), {}).expect(400);
     // A member holding both roles cannot approve what they submitted: a second person must.
     const reviewerRow = await demoUserRow(t.db, 'reviewer');
-    await t.db.update(memberships).set({ roles: ['reviewer', 'designer'] }).where(eq(memberships.userId, reviewerRow.id));
+    await t.db
+      .update(memberships)
+      .set({ roles: ['reviewer', 'designer'] })
+      .where(eq(memberships.userId, reviewerRow.id));
     try {
       await reviewer.post(v(id, '/versions/3/submit'), {}).expect(200);
       const own = await reviewer.post(v(id, '/versions/3/approve'), {}).expect(403);
       expect(own.body.error.message).to.equal('You submitted version 3; a second person must approve it');
       expect(await status(id, 3)).to.equal('submitted');
     } finally {
-      await t.db.update(memberships).set({ roles: ['reviewer'] }).where(eq(memberships.userId, reviewerRow.id));
+      await t.db
+        .update(memberships)
+        .set({ roles: ['reviewer'] })
+        .where(eq(memberships.userId, reviewerRow.id));
     }
   });
 

@@ -13,8 +13,12 @@ import { demoEmail, startTestApp, type TestApp } from './test-app';
 describe('API: sessions stored only when they carry something', () => {
   let t: TestApp;
   const rows = async () => (await t.db.select({ n: count() }).from(sessions))[0].n;
-  before(async () => { t = await startTestApp(); });
-  after(async () => { await t.close(); });
+  before(async () => {
+    t = await startTestApp();
+  });
+  after(async () => {
+    await t.close();
+  });
 
   it('200 signed-out requests for a CSRF token store no session row, and a token still signs in', async () => {
     const before = await rows();
@@ -33,7 +37,9 @@ describe('API: sessions stored only when they carry something', () => {
   it('a signed-out token is refused without its cookie, and once signed in (bound to the session then)', async () => {
     const a = await t.anonymous();
     // The header alone (no cookie: another browser) is not enough.
-    const bare = await supertest(t.app).post('/api/auth/signin').set('x-csrf-token', a.token)
+    const bare = await supertest(t.app)
+      .post('/api/auth/signin')
+      .set('x-csrf-token', a.token)
       .send({ email: demoEmail('designer'), password: DEMO_PASSWORD });
     expect(bare.status).to.equal(403);
     const signedOutToken = a.token;

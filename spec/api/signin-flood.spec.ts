@@ -19,23 +19,34 @@ describe('API: the sign-in CPU budget', function () {
       // One proxy hop in front (X-Forwarded-For names the client), five checks per IP.
       t = await startTestApp({ config: { ...testConfig('/nonexistent'), trustProxy: 1 }, passwordBudget: { max: 5, windowMs: 60_000 } });
     });
-    after(async () => { await t.close(); });
+    after(async () => {
+      await t.close();
+    });
 
     it('random e-mails from one IP: five checks, then 429 for every further attempt; other IPs unaffected', async () => {
       const a = await t.anonymous();
       const statuses: number[] = [];
       for (let i = 0; i < 9; i++) {
-        const res = await a.agent.post('/api/auth/signin').set('x-csrf-token', a.token).set('x-forwarded-for', '203.0.113.7')
+        const res = await a.agent
+          .post('/api/auth/signin')
+          .set('x-csrf-token', a.token)
+          .set('x-forwarded-for', '203.0.113.7')
           .send({ email: `nobody-${randomUUID()}@example.test`, password: 'wrong-password' });
         statuses.push(res.status);
         if (res.status === 429) expect(res.body.error).to.include({ code: 'rate-limited' });
       }
       expect(statuses).to.deep.equal([401, 401, 401, 401, 401, 429, 429, 429, 429]);
       // The right password from the flooded IP is refused too (the budget is spent), but not from another IP.
-      const blocked = await a.agent.post('/api/auth/signin').set('x-csrf-token', a.token).set('x-forwarded-for', '203.0.113.7')
+      const blocked = await a.agent
+        .post('/api/auth/signin')
+        .set('x-csrf-token', a.token)
+        .set('x-forwarded-for', '203.0.113.7')
         .send({ email: 'designer@runnel.test', password: DEMO_PASSWORD });
       expect(blocked.status).to.equal(429);
-      const other = await a.agent.post('/api/auth/signin').set('x-csrf-token', a.token).set('x-forwarded-for', '198.51.100.4')
+      const other = await a.agent
+        .post('/api/auth/signin')
+        .set('x-csrf-token', a.token)
+        .set('x-forwarded-for', '198.51.100.4')
         .send({ email: 'designer@runnel.test', password: DEMO_PASSWORD });
       expect(other.status).to.equal(200);
     });
@@ -44,7 +55,10 @@ describe('API: the sign-in CPU budget', function () {
       const a = await t.anonymous();
       const statuses: number[] = [];
       for (let i = 0; i < 7; i++) {
-        const res = await a.agent.post('/api/auth/signup').set('x-csrf-token', a.token).set('x-forwarded-for', '192.0.2.55')
+        const res = await a.agent
+          .post('/api/auth/signup')
+          .set('x-csrf-token', a.token)
+          .set('x-forwarded-for', '192.0.2.55')
           .send({ email: `s-${randomUUID()}@example.test`, name: 'S', password: 'long-enough-pw', teamName: 'T' });
         statuses.push(res.status);
         await a.refreshCsrf();
@@ -67,11 +81,19 @@ describe('API: the sign-in CPU budget', function () {
 
     it('checks run on the worker pool; beyond its queue a check is refused at once with 429, never 500', async () => {
       const a = await t.anonymous();
-      const flood = Array.from({ length: 12 }, (_, i) => a.agent.post('/api/auth/signin').set('x-csrf-token', a.token)
-        .set('x-forwarded-for', `198.18.0.${i + 1}`).send({ email: `flood-${i}@example.test`, password: 'wrong-password' }));
+      const flood = Array.from({ length: 12 }, (_, i) =>
+        a.agent
+          .post('/api/auth/signin')
+          .set('x-csrf-token', a.token)
+          .set('x-forwarded-for', `198.18.0.${i + 1}`)
+          .send({ email: `flood-${i}@example.test`, password: 'wrong-password' }),
+      );
       const results = await Promise.all(flood);
       const statuses = results.map((r) => r.status);
-      expect(statuses.every((s) => s === 401 || s === 429), statuses.join()).to.equal(true);
+      expect(
+        statuses.every((s) => s === 401 || s === 429),
+        statuses.join(),
+      ).to.equal(true);
       expect(statuses.filter((s) => s === 429).length).to.be.at.least(1);
       const busy = results.find((r) => r.status === 429)!;
       expect(busy.body.error.message).to.match(/busy checking other sign-ins/);

@@ -3,8 +3,12 @@ import { startTestApp, type TestApp } from './test-app';
 
 describe('API: team, invitations through the mail sink', () => {
   let t: TestApp;
-  before(async () => { t = await startTestApp(); });
-  after(async () => { await t.close(); });
+  before(async () => {
+    t = await startTestApp();
+  });
+  after(async () => {
+    await t.close();
+  });
 
   it('invites by e-mail; the mail lands in the outbox; a new user accepts and holds the role', async () => {
     const admin = await t.signInAs('admin');
@@ -21,7 +25,15 @@ describe('API: team, invitations through the mail sink', () => {
 
     const visitor = await t.anonymous();
     const info = await visitor.get(`/api/invitations/${token}`).expect(200);
-    expect(info.body).to.deep.equal({ teamName: 'Ridgeback Water Co-op', email: 'newhand@example.test', roles: ['estimator', 'owner'], anyAccount: false, expired: false, accepted: false, revoked: false });
+    expect(info.body).to.deep.equal({
+      teamName: 'Ridgeback Water Co-op',
+      email: 'newhand@example.test',
+      roles: ['estimator', 'owner'],
+      anyAccount: false,
+      expired: false,
+      accepted: false,
+      revoked: false,
+    });
 
     const missing = await visitor.post(`/api/invitations/${token}/accept`, {}).expect(400);
     expect(missing.body.error.fields.map((f: { path: string }) => f.path)).to.have.members(['name', 'password']);
@@ -74,7 +86,7 @@ describe('API: team, invitations through the mail sink', () => {
     await a.post('/api/invitations/nope/accept', { name: 'N', password: 'long-enough-pw' }).expect(404);
   });
 
-  it('the outbox of one team does not show another team\'s mail', async () => {
+  it("the outbox of one team does not show another team's mail", async () => {
     const other = await t.signInAs('other');
     await other.post('/api/auth/current-team', { teamId: t.seeded!.otherTeamId }).expect(200);
     const res = await other.get('/api/team/outbox').expect(200);
@@ -91,7 +103,7 @@ describe('API: team, invitations through the mail sink', () => {
     expect(members.body.find((m: { userId: string }) => m.userId === me.body.user.id).roles).to.deep.equal(['admin']);
   });
 
-  it('changes a member\'s roles (admin may add designer) and validates role names', async () => {
+  it("changes a member's roles (admin may add designer) and validates role names", async () => {
     const admin = await t.signInAs('admin');
     const members = await admin.get('/api/team/members').expect(200);
     const reviewer = members.body.find((m: { email: string }) => m.email === 'reviewer@runnel.test');

@@ -20,8 +20,14 @@ export const TEST_BCRYPT_COST = 4;
 
 export function testConfig(dataDir: string): Config {
   return {
-    production: false, port: 0, host: '127.0.0.1', dataDir, sessionSecret: 'test-secret-0123456789abcdef',
-    mailFrom: 'Runnel test <no-reply@runnel.test>', publicUrl: 'http://runnel.test', cookieSecure: false,
+    production: false,
+    port: 0,
+    host: '127.0.0.1',
+    dataDir,
+    sessionSecret: 'test-secret-0123456789abcdef',
+    mailFrom: 'Runnel test <no-reply@runnel.test>',
+    publicUrl: 'http://runnel.test',
+    cookieSecure: false,
   };
 }
 
@@ -82,9 +88,13 @@ export async function startTestApp(options: Partial<AppOptions> & { dataDir?: st
   if (!database && dataDir) database = await openDatabase({ kind: 'pglite', dir: join(dataDir, 'pg') });
   if (!database) ({ database, drop } = await testDatabase());
   const runnel = await createApp({
-    config: testConfig(dataDir ?? '/nonexistent-test-data'), bcryptCost: TEST_BCRYPT_COST, log: false,
+    config: testConfig(dataDir ?? '/nonexistent-test-data'),
+    bcryptCost: TEST_BCRYPT_COST,
+    log: false,
     // Every test signs in from 127.0.0.1, hundreds of times: the per-IP budget has its own spec.
-    passwordBudget: { max: 1_000_000, windowMs: 60_000 }, ...rest, database,
+    passwordBudget: { max: 1_000_000, windowMs: 60_000 },
+    ...rest,
+    database,
   });
   const close = async () => {
     await runnel.close();
@@ -166,11 +176,30 @@ export class ApiAgent {
     await this.refreshCsrf();
   }
 
-  get(path: string) { return this.agent.get(path); }
-  post(path: string, body?: object) { return this.agent.post(path).set('x-csrf-token', this.token).send(body ?? {}); }
-  put(path: string, body?: object) { return this.agent.put(path).set('x-csrf-token', this.token).send(body ?? {}); }
-  patch(path: string, body?: object) { return this.agent.patch(path).set('x-csrf-token', this.token).send(body ?? {}); }
-  delete(path: string) { return this.agent.delete(path).set('x-csrf-token', this.token); }
+  get(path: string) {
+    return this.agent.get(path);
+  }
+  post(path: string, body?: object) {
+    return this.agent
+      .post(path)
+      .set('x-csrf-token', this.token)
+      .send(body ?? {});
+  }
+  put(path: string, body?: object) {
+    return this.agent
+      .put(path)
+      .set('x-csrf-token', this.token)
+      .send(body ?? {});
+  }
+  patch(path: string, body?: object) {
+    return this.agent
+      .patch(path)
+      .set('x-csrf-token', this.token)
+      .send(body ?? {});
+  }
+  delete(path: string) {
+    return this.agent.delete(path).set('x-csrf-token', this.token);
+  }
   /** A multipart POST with one file in field `file` and text fields. */
   upload(path: string, file: { bytes: Buffer; filename: string; contentType?: string }, fields: Record<string, string> = {}) {
     let req = this.agent.post(path).set('x-csrf-token', this.token);

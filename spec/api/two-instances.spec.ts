@@ -72,10 +72,18 @@ describe('Two instances on one PostgreSQL', function () {
     fresh = await freshPostgresDatabase(server);
     // Started together: the advisory lock serialises migrations and the demo seed.
     databases = await Promise.all([openDatabase({ kind: 'postgres', url: fresh.url }), openDatabase({ kind: 'postgres', url: fresh.url })]);
-    [a, b] = await Promise.all(databases.map((database) => createApp({
-      config: testConfig('/nonexistent'), database, bcryptCost: TEST_BCRYPT_COST, log: false,
-      signinLimit: { max: 3, windowMs: 60_000 }, passwordBudget: { max: 1_000_000, windowMs: 60_000 },
-    })));
+    [a, b] = await Promise.all(
+      databases.map((database) =>
+        createApp({
+          config: testConfig('/nonexistent'),
+          database,
+          bcryptCost: TEST_BCRYPT_COST,
+          log: false,
+          signinLimit: { max: 3, windowMs: 60_000 },
+          passwordBudget: { max: 1_000_000, windowMs: 60_000 },
+        }),
+      ),
+    );
   });
   after(async () => {
     await a?.close();
@@ -112,8 +120,9 @@ describe('Two instances on one PostgreSQL', function () {
     const project = await c.send(a, 'post', '/api/projects', { name: 'Raced across instances' });
     const path = `/api/projects/${project.body.id}/network`;
     expect((await c.send(a, 'put', path, { version: 0, document: SMALL_NETWORK })).status).to.equal(200);
-    const racers = await Promise.all([1, 2, 3, 4, 5, 6].map((n) =>
-      c.send(n % 2 ? a : b, 'put', path, { version: 1, document: { ...SMALL_NETWORK, title: `racer ${n}` } })));
+    const racers = await Promise.all(
+      [1, 2, 3, 4, 5, 6].map((n) => c.send(n % 2 ? a : b, 'put', path, { version: 1, document: { ...SMALL_NETWORK, title: `racer ${n}` } })),
+    );
     const statuses = racers.map((r) => r.status);
     expect([...statuses].sort()).to.deep.equal([200, 409, 409, 409, 409, 409]);
     const winner = racers[statuses.indexOf(200)];
@@ -135,7 +144,9 @@ describe('Two instances on one PostgreSQL', function () {
     const outbox = await admin.get(b, '/api/team/outbox');
     expect(outbox.body.map((m: { to: string }) => m.to).join(' ')).to.contain('shared-outbox@example.test');
     const audit = await admin.get(b, '/api/team/audit');
-    expect(audit.body.some((e: { action: string; target: string }) => e.action === 'invitation.create' && e.target === 'shared-outbox@example.test')).to.equal(true);
+    expect(audit.body.some((e: { action: string; target: string }) => e.action === 'invitation.create' && e.target === 'shared-outbox@example.test')).to.equal(
+      true,
+    );
   });
 
   it('failed sign-ins count together across the instances (one shared limit)', async () => {

@@ -8,14 +8,21 @@ import { startTestApp, type TestApp } from './test-app';
 
 describe('API: network versions', () => {
   let t: TestApp;
-  before(async () => { t = await startTestApp(); });
-  after(async () => { await t.close(); });
+  before(async () => {
+    t = await startTestApp();
+  });
+  after(async () => {
+    await t.close();
+  });
 
   const url = (id: string, rest = '') => `/api/projects/${id}${rest}`;
   const narrower = (): NetworkDocument => ({
     ...SMALL_NETWORK,
     nodes: [...SMALL_NETWORK.nodes, { id: 'O2', kind: 'outlet', elevation_m: 20, demand_m3s: 0.0001, min_pressure_m: 5 } as OutletNode],
-    links: [{ ...(SMALL_NETWORK.links[0] as PipeLink), diameter_m: 0.02 }, { id: 'P2', kind: 'pipe', from: 'T1', to: 'O2', length_m: 50, diameter_m: 0.02, roughness: 150 }],
+    links: [
+      { ...(SMALL_NETWORK.links[0] as PipeLink), diameter_m: 0.02 },
+      { id: 'P2', kind: 'pipe', from: 'T1', to: 'O2', length_m: 50, diameter_m: 0.02, roughness: 150 },
+    ],
   });
 
   it('every save keeps an immutable version with who, when and a one-line summary of what changed', async () => {
@@ -96,7 +103,7 @@ describe('API: network versions', () => {
     expect(rows).to.have.length(2);
   });
 
-  it('bad version numbers → 400 naming the field; unknown versions → 404; another team\'s project → 404', async () => {
+  it("bad version numbers → 400 naming the field; unknown versions → 404; another team's project → 404", async () => {
     const a = await t.signInAs('designer');
     const p = t.seeded!.demoProjectId;
     const bad = await a.get(url(p, '/versions/abc')).expect(400);

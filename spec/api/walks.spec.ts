@@ -6,12 +6,28 @@ import { startOnDemoProject, type ApiAgent, type TestApp } from './test-app';
 
 function point(label: string, i: number, extra: Record<string, unknown> = {}) {
   return {
-    id: randomUUID(), recordedAt: new Date(Date.UTC(2026, 11, 3, 10, i)).toISOString(),
-    lat: 44.5 + i * 1e-4, lon: -122.1, accuracy_m: 4, label, kind: 'tee', elevation_m: 300 - i, elevation_source: 'fix', note: '', ...extra,
+    id: randomUUID(),
+    recordedAt: new Date(Date.UTC(2026, 11, 3, 10, i)).toISOString(),
+    lat: 44.5 + i * 1e-4,
+    lon: -122.1,
+    accuracy_m: 4,
+    label,
+    kind: 'tee',
+    elevation_m: 300 - i,
+    elevation_source: 'fix',
+    note: '',
+    ...extra,
   };
 }
 function fix(i: number, elevation: number | null = 300 - i / 2) {
-  return { id: randomUUID(), recordedAt: new Date(Date.UTC(2026, 11, 3, 10, i, 30)).toISOString(), lat: 44.5 + i * 1e-4, lon: -122.1, accuracy_m: 5, elevation_m: elevation };
+  return {
+    id: randomUUID(),
+    recordedAt: new Date(Date.UTC(2026, 11, 3, 10, i, 30)).toISOString(),
+    lat: 44.5 + i * 1e-4,
+    lon: -122.1,
+    accuracy_m: 5,
+    elevation_m: elevation,
+  };
 }
 
 describe('API: walks recorded on a phone', () => {
@@ -19,14 +35,20 @@ describe('API: walks recorded on a phone', () => {
   let designer: ApiAgent;
   let base: string;
   before(async () => ({ t, designer, base } = await startOnDemoProject()));
-  after(async () => { await t.close(); });
+  after(async () => {
+    await t.close();
+  });
 
   const surveyOf = async (fileId: string) => {
-    const res = await designer.get(`${base}/files/${fileId}`).buffer(true).parse((r, cb) => {
-      let text = '';
-      r.on('data', (c: Buffer) => (text += c.toString('utf8')));
-      r.on('end', () => cb(null, text));
-    }).expect(200);
+    const res = await designer
+      .get(`${base}/files/${fileId}`)
+      .buffer(true)
+      .parse((r, cb) => {
+        let text = '';
+        r.on('data', (c: Buffer) => (text += c.toString('utf8')));
+        r.on('end', () => cb(null, text));
+      })
+      .expect(200);
     expect(res.headers['content-type']).to.match(/gpx/);
     return parseSurveyGpx(res.body as string);
   };
@@ -62,14 +84,17 @@ describe('API: walks recorded on a phone', () => {
     expect((await surveyOf(phoneB)).points.map((p) => p.label)).to.deep.equal(['B1', 'B2']);
   });
 
-  it('a photo is stored once under the phone\'s id, and a point may only name an uploaded photo', async () => {
+  it("a photo is stored once under the phone's id, and a point may only name an uploaded photo", async () => {
     const walkId = randomUUID();
     const photoId = randomUUID();
     const withPhoto = point('Trough 3', 0, { kind: 'trough', photo_id: photoId });
     const early = await designer.put(`${base}/walks/${walkId}`, { name: 'Photos', points: [withPhoto], track: [] }).expect(400);
     expect(early.body.error.message).to.equal('The photo of Trough 3 has not been uploaded yet');
-    const upload = () => designer.agent.put(`${base}/walks/${walkId}/photos/${photoId}`).set('x-csrf-token', designer.token)
-      .attach('file', JPEG_BYTES, { filename: 'trough.jpg', contentType: 'image/jpeg' });
+    const upload = () =>
+      designer.agent
+        .put(`${base}/walks/${walkId}/photos/${photoId}`)
+        .set('x-csrf-token', designer.token)
+        .attach('file', JPEG_BYTES, { filename: 'trough.jpg', contentType: 'image/jpeg' });
     expect((await upload().expect(201)).body).to.deep.equal({ id: photoId, created: true });
     expect((await upload().expect(200)).body).to.deep.equal({ id: photoId, created: false });
     await designer.put(`${base}/walks/${walkId}`, { name: 'Photos', points: [withPhoto], track: [] }).expect(200);
@@ -78,17 +103,24 @@ describe('API: walks recorded on a phone', () => {
   });
 
   it('refuses a photo that is not an image (415) or larger than 2 MB (413)', async () => {
-    const put = (bytes: Buffer) => designer.agent.put(`${base}/walks/${randomUUID()}/photos/${randomUUID()}`).set('x-csrf-token', designer.token)
-      .attach('file', bytes, { filename: 'x.jpg', contentType: 'image/jpeg' });
+    const put = (bytes: Buffer) =>
+      designer.agent
+        .put(`${base}/walks/${randomUUID()}/photos/${randomUUID()}`)
+        .set('x-csrf-token', designer.token)
+        .attach('file', bytes, { filename: 'x.jpg', contentType: 'image/jpeg' });
     expect((await put(Buffer.from('not an image')).expect(415)).body.error.message).to.match(/JPEG or PNG/);
     expect((await put(Buffer.concat([PNG_BYTES, Buffer.alloc(2 * 1024 * 1024)])).expect(413)).body.error.message).to.match(/larger than 2 MB/);
   });
 
   it('names the bad field of a bad point and writes nothing', async () => {
     const walkId = randomUUID();
-    const res = await designer.put(`${base}/walks/${walkId}`, {
-      name: 'Bad', points: [point('ok', 0), { ...point('far', 1), lat: 123 }, { ...point('', 2) }], track: [],
-    }).expect(400);
+    const res = await designer
+      .put(`${base}/walks/${walkId}`, {
+        name: 'Bad',
+        points: [point('ok', 0), { ...point('far', 1), lat: 123 }, { ...point('', 2) }],
+        track: [],
+      })
+      .expect(400);
     expect(res.body.error.fields).to.deep.include({ path: 'points.1.lat', message: 'must be within ±90°' });
     expect(res.body.error.fields).to.deep.include({ path: 'points.2.label', message: 'is required' });
     await designer.get(`${base}/walks/${walkId}`).expect(404);

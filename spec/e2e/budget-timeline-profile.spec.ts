@@ -55,7 +55,10 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     const flowCell = page.getByTestId('budget-outlets').locator('tr', { hasText: 'South trough' }).getByTestId('outlet-flow');
     // the table re-renders its rows: read through the locator until the new flow shows (bounded)
     let after = before;
-    for (let i = 0; i < 50 && after === before; i++) { await page.waitForTimeout(100); after = await flowCell.textContent(); }
+    for (let i = 0; i < 50 && after === before; i++) {
+      await page.waitForTimeout(100);
+      after = await flowCell.textContent();
+    }
     expect(parseFloat(after ?? '')).to.be.closeTo(parseFloat(before ?? '') * 3, 0.01);
     await page.getByTestId('budget-save').click();
     await page.getByText(/Budget saved \(version 2\); outlet flows carried into the network \(version 2\)/).waitFor();
@@ -94,10 +97,16 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     await page.getByTestId('fixture-lavatory').fill('1');
     await shot(page, 'budget-fixtures-dialog-desktop');
     await page.getByTestId('use-save').click();
-    await page.getByTestId('budget-outlets').getByText(/probable peak from 4\.3 fixture units/).waitFor();
+    await page
+      .getByTestId('budget-outlets')
+      .getByText(/probable peak from 4\.3 fixture units/)
+      .waitFor();
     expect(await page.getByTestId('use-row').filter({ hasText: 'Farmhouse' }).textContent()).to.match(/3 people, 3 fixtures/);
     await page.getByTestId('budget-discard').click();
-    await page.getByTestId('budget-outlets').getByText(/probable peak/).waitFor({ state: 'detached' });
+    await page
+      .getByTestId('budget-outlets')
+      .getByText(/probable peak/)
+      .waitFor({ state: 'detached' });
 
     await page.getByTestId('tab-timeline').click();
     await page.getByTestId('timeline-step').fill('0');
@@ -126,7 +135,9 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     expect(await page.getByTestId('profile-route').textContent()).to.match(/→ South trough/);
     expect(await page.getByTestId('profile-findings').locator('li[data-kind="high-point"]').count()).to.be.at.least(1);
     // the demo's south line dips far below the tanks: its static pressure passes 72 % of the rating there
-    expect(await page.getByTestId('profile-margin').textContent()).to.match(/Static-pressure margin, tightest at [\d.]+ m on L-TR4:\s+\d+ kPa over the working limit \(72 % of the rating, ASAE S376\.1\),\s+\d+ kPa below the rating/);
+    expect(await page.getByTestId('profile-margin').textContent()).to.match(
+      /Static-pressure margin, tightest at [\d.]+ m on L-TR4:\s+\d+ kPa over the working limit \(72 % of the rating, ASAE S376\.1\),\s+\d+ kPa below the rating/,
+    );
     expect(await page.getByTestId('profile-findings').locator('li[data-kind="over-working"]').count()).to.equal(1);
     await shot(page, 'profile-designer-desktop');
     // the default cover is saved for the project: a reload (and the owner, below) sees it
@@ -142,7 +153,10 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     expect(await page.getByTestId('profile-cover').inputValue()).to.equal('1.2');
     await page.getByTestId('unit-switch-us').click();
     // the margin is worked out again in the new units: wait for it rather than read the interim text
-    await page.getByTestId('profile-margin').filter({ hasText: /[\d.]+ psi over the working limit/ }).waitFor();
+    await page
+      .getByTestId('profile-margin')
+      .filter({ hasText: /[\d.]+ psi over the working limit/ })
+      .waitFor();
     await page.getByTestId('tab-budget').click();
     expect(await page.getByTestId('budget-peak-daily').textContent()).to.match(/gal\/day/);
   });

@@ -14,30 +14,33 @@ const SHOTS = '/tmp/shots-layout';
 /** Draws a small aerial-looking picture in the page and uploads it as a PNG backdrop. */
 async function uploadPicture(page: Page, baseUrl: string, projectId: string, filename: string): Promise<void> {
   const token = ((await (await page.request.get(`${baseUrl}/api/csrf`)).json()) as { token: string }).token;
-  const status = await page.evaluate(async ({ projectId, filename, token }) => {
-    const c = document.createElement('canvas');
-    c.width = 480;
-    c.height = 320;
-    const g = c.getContext('2d')!;
-    g.fillStyle = '#9bb07a';
-    g.fillRect(0, 0, 480, 320);
-    g.fillStyle = '#7b9360';
-    g.beginPath();
-    g.ellipse(300, 140, 150, 90, 0.4, 0, Math.PI * 2);
-    g.fill();
-    g.strokeStyle = '#c9b68a';
-    g.lineWidth = 6;
-    g.beginPath();
-    g.moveTo(0, 260);
-    g.bezierCurveTo(160, 220, 260, 300, 480, 210);
-    g.stroke();
-    const blob = await new Promise<Blob>((r) => c.toBlob((b) => r(b!), 'image/png'));
-    const form = new FormData();
-    form.append('kind', 'backdrop');
-    form.append('file', blob, filename);
-    const res = await fetch(`/api/projects/${projectId}/files`, { method: 'POST', body: form, headers: { 'x-csrf-token': token } });
-    return res.status;
-  }, { projectId, filename, token });
+  const status = await page.evaluate(
+    async ({ projectId, filename, token }) => {
+      const c = document.createElement('canvas');
+      c.width = 480;
+      c.height = 320;
+      const g = c.getContext('2d')!;
+      g.fillStyle = '#9bb07a';
+      g.fillRect(0, 0, 480, 320);
+      g.fillStyle = '#7b9360';
+      g.beginPath();
+      g.ellipse(300, 140, 150, 90, 0.4, 0, Math.PI * 2);
+      g.fill();
+      g.strokeStyle = '#c9b68a';
+      g.lineWidth = 6;
+      g.beginPath();
+      g.moveTo(0, 260);
+      g.bezierCurveTo(160, 220, 260, 300, 480, 210);
+      g.stroke();
+      const blob = await new Promise<Blob>((r) => c.toBlob((b) => r(b!), 'image/png'));
+      const form = new FormData();
+      form.append('kind', 'backdrop');
+      form.append('file', blob, filename);
+      const res = await fetch(`/api/projects/${projectId}/files`, { method: 'POST', body: form, headers: { 'x-csrf-token': token } });
+      return res.status;
+    },
+    { projectId, filename, token },
+  );
   expect(status).to.equal(201);
 }
 

@@ -60,9 +60,16 @@ export async function startApp(dataDir?: string): Promise<RunningApp> {
   let output = '';
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
     cwd: repoRoot,
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', RUNNEL_DATA_DIR: dir, NODE_ENV: 'test', PUBLIC_URL: baseUrl,
+    env: {
+      ...process.env,
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      RUNNEL_DATA_DIR: dir,
+      NODE_ENV: 'test',
+      PUBLIC_URL: baseUrl,
       // Every browser test signs in from 127.0.0.1; the per-IP budget has its own API spec.
-      PASSWORD_CHECKS_PER_IP: '100000' },
+      PASSWORD_CHECKS_PER_IP: '100000',
+    },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   child.stdout?.on('data', (d) => (output += d));
@@ -74,7 +81,10 @@ export async function startApp(dataDir?: string): Promise<RunningApp> {
     async stop() {
       if (child.exitCode === null) {
         child.kill('SIGTERM');
-        await new Promise((r) => { child.once('exit', r); setTimeout(r, 5000).unref(); });
+        await new Promise((r) => {
+          child.once('exit', r);
+          setTimeout(r, 5000).unref();
+        });
       }
       if (!dataDir) rmSync(dir, { recursive: true, force: true });
     },
@@ -87,8 +97,13 @@ export async function launchBrowser(): Promise<Browser> {
     executablePath: CHROMIUM_PATH,
     headless: true,
     args: [
-      '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update',
-      '--disable-sync', '--no-first-run', '--disable-quic',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+      '--disable-quic',
     ],
   });
 }
@@ -104,7 +119,10 @@ export async function signIn(page: Page, baseUrl: string, role: string): Promise
   await page.waitForURL(/\/projects/);
 }
 
-export interface Viewport { width: number; height: number }
+export interface Viewport {
+  width: number;
+  height: number;
+}
 
 /** What `useBrowserApp` hands a spec file: getters, valid inside its tests and hooks. */
 export interface BrowserApp {
@@ -166,10 +184,18 @@ export function useBrowserApp(options: { viewport?: Viewport } = {}): BrowserApp
   });
 
   return {
-    get app() { return need(app, 'app'); },
-    get browser() { return need(browser, 'browser'); },
-    get context() { return need(context, 'context'); },
-    get page() { return need(page, 'page'); },
+    get app() {
+      return need(app, 'app');
+    },
+    get browser() {
+      return need(browser, 'browser');
+    },
+    get context() {
+      return need(context, 'context');
+    },
+    get page() {
+      return need(page, 'page');
+    },
     async newContext(size?: Viewport) {
       const c = await withTestHooks(await need(browser, 'browser').newContext({ viewport: size ?? viewport }));
       extra.push(c);

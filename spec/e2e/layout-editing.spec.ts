@@ -9,8 +9,28 @@
 import { expect } from 'chai';
 import { signIn, useBrowserApp } from './harness';
 import {
-  apiCall, asStored, canvasPoint, clickNode, clickWorld, createProject, dragFromPalette, editorHook, getNetwork, openInTwoWindows, openLayout,
-  saveStatus, setProperty, shot, smallNetwork, snackText, waitForLayout, waitForNodeCount, waitSaved, waitSavedAfterEdit, waitSolved, type E2eDoc,
+  apiCall,
+  asStored,
+  canvasPoint,
+  clickNode,
+  clickWorld,
+  createProject,
+  dragFromPalette,
+  editorHook,
+  getNetwork,
+  openInTwoWindows,
+  openLayout,
+  saveStatus,
+  setProperty,
+  shot,
+  smallNetwork,
+  snackText,
+  waitForLayout,
+  waitForNodeCount,
+  waitSaved,
+  waitSavedAfterEdit,
+  waitSolved,
+  type E2eDoc,
 } from './layout-helpers';
 
 describe('Layout screen: editing end to end (Chromium, real server)', function () {
@@ -81,7 +101,8 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
           const v = m ? Number(m[1].replace(/,/g, '')) : NaN;
           return v > max / 2 && v <= max; // neither an earlier solve (tank at 0 m: ~10 kPa; outlet at 0 m: ~440 kPa) nor nonsense
         },
-        [outlet.id, staticKPa + 1] as const, { timeout: 15000 },
+        [outlet.id, staticKPa + 1] as const,
+        { timeout: 15000 },
       );
     } finally {
       await shot(page, '1-three-elements');
@@ -207,8 +228,9 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
       expect(dialog).to.contain(`Version ${v1 + 1} was saved by Dana Designer`);
       expect(dialog).to.contain('Your changes are still here, unsaved');
       // What differs, element by element, against the version both windows opened.
-      expect(((await pageB.getByTestId('conflict-summary').textContent()) ?? '').trim())
-        .to.equal('Theirs: 1 element changed (Ridge tank); yours: 1 element changed (Garden tap).');
+      expect(((await pageB.getByTestId('conflict-summary').textContent()) ?? '').trim()).to.equal(
+        'Theirs: 1 element changed (Ridge tank); yours: 1 element changed (Garden tap).',
+      );
       expect(await pageB.getByTestId('conflict-load-theirs').isVisible()).to.equal(true);
       await shot(pageB, '4-conflict-dialog');
       // The local edit is kept while the dialog is open.
@@ -266,7 +288,9 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
     const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
     const projectId = await createProject(page, app.baseUrl, 'Offline in feet', 'us');
-    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('offline') })).status()).to.equal(200);
+    expect(
+      (await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('offline') })).status(),
+    ).to.equal(200);
     await openLayout(page, app.baseUrl, projectId);
     await waitSolved(page);
     await page.getByTestId('result-O1').waitFor();
@@ -274,7 +298,8 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
 
     let blocked = true;
     await page.route('**/api/projects/*/network', (route) =>
-      blocked && route.request().method() === 'PUT' ? route.abort('internetdisconnected') : route.continue());
+      blocked && route.request().method() === 'PUT' ? route.abort('internetdisconnected') : route.continue(),
+    );
     await clickNode(page, 'T1');
     expect(await editorHook.selection(page)).to.deep.equal(['T1']);
     await setProperty(page, 'prop-elevation', '135');
@@ -298,7 +323,9 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
     const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
     const projectId = await createProject(page, app.baseUrl, 'Mixed units', 'si');
-    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('mixed') })).status()).to.equal(200);
+    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('mixed') })).status()).to.equal(
+      200,
+    );
     await openLayout(page, app.baseUrl, projectId);
     await clickNode(page, 'T1');
     await setProperty(page, 'prop-elevation', '135 ft');

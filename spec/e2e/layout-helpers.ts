@@ -10,10 +10,39 @@ import { signIn } from './harness';
 import type { NetworkDocument } from '../../engine/network-document';
 
 /** The parts of the network document these tests read (engine/network-document.ts). */
-export interface E2eNode { id: string; kind: string; name?: string; x_m: number; y_m: number; elevation_m: number; [k: string]: unknown }
-export interface E2eLink { id: string; kind: string; from: string; to: string; length_m?: number; vertices?: [number, number][]; [k: string]: unknown }
-export interface E2eDoc { schema: string; headloss: string; nodes: E2eNode[]; links: E2eLink[]; layout?: Record<string, unknown>; [k: string]: unknown }
-export interface NetworkRecord { version: number; document: E2eDoc; results: unknown; updatedAt: string | null; updatedBy: string | null }
+export interface E2eNode {
+  id: string;
+  kind: string;
+  name?: string;
+  x_m: number;
+  y_m: number;
+  elevation_m: number;
+  [k: string]: unknown;
+}
+export interface E2eLink {
+  id: string;
+  kind: string;
+  from: string;
+  to: string;
+  length_m?: number;
+  vertices?: [number, number][];
+  [k: string]: unknown;
+}
+export interface E2eDoc {
+  schema: string;
+  headloss: string;
+  nodes: E2eNode[];
+  links: E2eLink[];
+  layout?: Record<string, unknown>;
+  [k: string]: unknown;
+}
+export interface NetworkRecord {
+  version: number;
+  document: E2eDoc;
+  results: unknown;
+  updatedAt: string | null;
+  updatedBy: string | null;
+}
 
 /**
  * The editor's test hook, as client/src/app/screens/layout/screen/test-hook.ts declares it (RunnelEditorHook).
@@ -29,19 +58,41 @@ export interface RunnelEditorHook {
   /** Labels shown on the canvas now (element id, or bank:<id>), as page (client) boxes. */
   labelBoxes(): LabelBox[];
 }
-export interface LabelBox { id: string; x: number; y: number; w: number; h: number; /** Content variant placed: for a node with a badge 0 badge over name, 1 badge and name on a line, 2 badge alone. */ variant?: number }
+export interface LabelBox {
+  id: string;
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+  /** Content variant placed: for a node with a badge 0 badge over name, 1 badge and name on a line, 2 badge alone. */ variant?: number;
+}
 
 declare global {
-  interface Window { __runnelEditor?: RunnelEditorHook }
+  interface Window {
+    __runnelEditor?: RunnelEditorHook;
+  }
 }
 
 /** A small gravity line, stored through the API: tank on the hill, pipe down to an outlet. */
 export function smallNetwork(title: string): E2eDoc {
   return {
-    schema: 'runnel.network/1', headloss: 'hazen-williams', title,
+    schema: 'runnel.network/1',
+    headloss: 'hazen-williams',
+    title,
     nodes: [
       { id: 'T1', kind: 'tank', name: 'T1', elevation_m: 40, diameter_m: 1.6, level_m: 1.2, min_level_m: 0.1, max_level_m: 1.5, x_m: 0, y_m: 0 },
-      { id: 'O1', kind: 'outlet', name: 'O1', elevation_m: 10, demand_m3s: 0.0003, min_pressure_m: 7, outlet_type: 'hose-bib', demand_model: { type: 'fixed' }, x_m: 40, y_m: -30 },
+      {
+        id: 'O1',
+        kind: 'outlet',
+        name: 'O1',
+        elevation_m: 10,
+        demand_m3s: 0.0003,
+        min_pressure_m: 7,
+        outlet_type: 'hose-bib',
+        demand_model: { type: 'fixed' },
+        x_m: 40,
+        y_m: -30,
+      },
     ],
     links: [{ id: 'P1', kind: 'pipe', from: 'T1', to: 'O1', length_m: 50, diameter_m: 0.025, roughness: 140 }],
   };
@@ -62,8 +113,7 @@ export const editorHook = {
   solveMs: (page: Page) => page.evaluate(() => window.__runnelEditor!.lastSolveMs()),
   frameTimes: (page: Page) => page.evaluate(() => window.__runnelEditor!.frameTimes()),
   labels: (page: Page) => page.evaluate(() => window.__runnelEditor!.labelBoxes()),
-  toClient: (page: Page, x_m: number, y_m: number) =>
-    page.evaluate(([x, y]) => window.__runnelEditor!.worldToClient(x, y), [x_m, y_m] as const),
+  toClient: (page: Page, x_m: number, y_m: number) => page.evaluate(([x, y]) => window.__runnelEditor!.worldToClient(x, y), [x_m, y_m] as const),
 };
 
 /** What a document looks like once stored as JSON (drops `undefined` members; key order is irrelevant to deep-equal). */
@@ -123,10 +173,7 @@ export async function saveStatus(page: Page): Promise<string> {
 }
 
 export async function waitSaved(page: Page, timeout = 15000): Promise<void> {
-  await page.waitForFunction(
-    () => document.querySelector('[data-testid=save-status]')?.textContent?.trim() === 'Saved',
-    null, { timeout },
-  );
+  await page.waitForFunction(() => document.querySelector('[data-testid=save-status]')?.textContent?.trim() === 'Saved', null, { timeout });
 }
 
 /**
@@ -142,10 +189,7 @@ export async function waitSavedAfterEdit(page: Page, timeout = 15000): Promise<v
 
 /** Waits until the editor's document has `n` nodes. */
 export async function waitForNodeCount(page: Page, n: number, timeout = 15000): Promise<void> {
-  await page.waitForFunction(
-    (count) => window.__runnelEditor?.getDocument().nodes.length === count,
-    n, { timeout },
-  );
+  await page.waitForFunction((count) => window.__runnelEditor?.getDocument().nodes.length === count, n, { timeout });
 }
 
 /**

@@ -25,7 +25,10 @@ async function openDemo(page: Page, base: string): Promise<void> {
 describe('Layout screen: the demo plan at first sight', function () {
   const ui = useBrowserApp();
 
-  for (const [width, height] of [[1440, 900], [1366, 768]]) {
+  for (const [width, height] of [
+    [1440, 900],
+    [1366, 768],
+  ]) {
     it(`${width}×${height}: fitted inside the canvas clear of the scale bar; labels never overlap; every outlet's state shown; near neighbours each clickable`, async () => {
       const page = await (await ui.newContext({ width, height })).newPage();
       await openDemo(page, ui.app.baseUrl);

@@ -13,7 +13,9 @@ import { canvasPoint, clickNode, createProject, dragFromPalette, editorHook, fin
 /** Every pressure the screen shows now, in kPa: results rows, the properties' own results and the plan's badges. */
 async function shownPressures(page: Page): Promise<number[]> {
   const texts = await page.evaluate(() => [
-    ...Array.from(document.querySelectorAll('[data-testid=results-list] .value, [data-testid=results-list] .state, [data-testid=prop-results] dd')).map((e) => e.textContent ?? ''),
+    ...Array.from(document.querySelectorAll('[data-testid=results-list] .value, [data-testid=results-list] .state, [data-testid=prop-results] dd')).map(
+      (e) => e.textContent ?? '',
+    ),
   ]);
   const out: number[] = [];
   for (const t of texts) {
@@ -26,12 +28,18 @@ async function shownPressures(page: Page): Promise<number[]> {
 
 async function expectNoNegative(page: Page, step: string): Promise<void> {
   const ps = await shownPressures(page);
-  expect(ps.filter((p) => p < 0), `negative pressure shown after: ${step}`).to.deep.equal([]);
+  expect(
+    ps.filter((p) => p < 0),
+    `negative pressure shown after: ${step}`,
+  ).to.deep.equal([]);
   const badges = await page.evaluate(() => Array.from(document.querySelectorAll('[data-testid=results-list] .state')).map((e) => e.textContent ?? ''));
-  expect(badges.filter((b) => /below zero|short/.test(b)), `trouble shown after: ${step}`).to.deep.equal([]);
+  expect(
+    badges.filter((b) => /below zero|short/.test(b)),
+    `trouble shown after: ${step}`,
+  ).to.deep.equal([]);
 }
 
-describe('Layout screen: a newcomer\'s first network (Chromium, real server)', function () {
+describe("Layout screen: a newcomer's first network (Chromium, real server)", function () {
   const ui = useBrowserApp({ viewport: { width: 1366, height: 800 } });
 
   it('place, get asked for each elevation, connect: sensible pressures and never a negative one on the way', async () => {
@@ -85,7 +93,9 @@ describe('Layout screen: a newcomer\'s first network (Chromium, real server)', f
     // Sensible: the outlet sits 40 + 1.2 − 20 = 21.2 m below the water surface (≈ 208 kPa at
     // 9.80665 kPa per metre of water, NIST SP 811, from memory); friction takes a little of it.
     const state = page.getByTestId(`result-${outlet.id}`).locator('.state');
-    await page.waitForFunction((id) => /^OK \+/.test(document.querySelector(`[data-testid=result-${id}] .state`)?.textContent ?? ''), outlet.id, { timeout: 15000 });
+    await page.waitForFunction((id) => /^OK \+/.test(document.querySelector(`[data-testid=result-${id}] .state`)?.textContent ?? ''), outlet.id, {
+      timeout: 15000,
+    });
     expect(await state.textContent()).to.match(/^OK \+\d+ kPa$/);
     const kPa = Number(/(\d+) kPa/.exec((await page.getByTestId(`result-${outlet.id}`).locator('.value').textContent()) ?? '')?.[1]);
     expect(kPa).to.be.within(150, 208);
@@ -93,7 +103,7 @@ describe('Layout screen: a newcomer\'s first network (Chromium, real server)', f
     await shot(page, 'newcomer-first-network');
   });
 
-  it('newcomer items 7 and 9: an element\'s own pressure, need and margin sit in its properties, a tank\'s water too, and the list still shows many rows', async () => {
+  it("newcomer items 7 and 9: an element's own pressure, need and margin sit in its properties, a tank's water too, and the list still shows many rows", async () => {
     const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
     await openLayout(page, app.baseUrl, await findProject(page, app.baseUrl, 'Hillside smallholding'));
@@ -122,7 +132,9 @@ describe('Layout screen: a newcomer\'s first network (Chromium, real server)', f
     const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
     let posts = 0;
-    page.on('request', (r) => { if (r.method() === 'POST' && r.url().endsWith('/api/projects')) posts++; });
+    page.on('request', (r) => {
+      if (r.method() === 'POST' && r.url().endsWith('/api/projects')) posts++;
+    });
     await page.getByTestId('new-project').click();
     await page.getByTestId('project-form-name').fill('   ');
     await page.getByTestId('project-form-save').click();
@@ -132,9 +144,15 @@ describe('Layout screen: a newcomer\'s first network (Chromium, real server)', f
 
     // A server's refusal shows in the snack bar, and is cleared on leaving the page (here the
     // server is made to refuse the next new project, the way it refused a name of spaces before).
-    await page.route('**/api/projects', (route) => (route.request().method() === 'POST'
-      ? route.fulfill({ status: 400, contentType: 'application/json', body: JSON.stringify({ error: { code: 'invalid', message: 'name: refused by the server' } }) })
-      : route.continue()));
+    await page.route('**/api/projects', (route) =>
+      route.request().method() === 'POST'
+        ? route.fulfill({
+            status: 400,
+            contentType: 'application/json',
+            body: JSON.stringify({ error: { code: 'invalid', message: 'name: refused by the server' } }),
+          })
+        : route.continue(),
+    );
     await page.getByTestId('new-project').click();
     await page.getByTestId('project-form-name').fill('North paddocks');
     await page.getByTestId('project-form-save').click();

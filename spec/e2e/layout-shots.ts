@@ -13,7 +13,10 @@ mkdirSync(dir, { recursive: true });
 const app = await startApp();
 const browser = await launchBrowser();
 try {
-  for (const [w, h] of [[1280, 800], [390, 844]] as const) {
+  for (const [w, h] of [
+    [1280, 800],
+    [390, 844],
+  ] as const) {
     const page = await (await withTestHooks(await browser.newContext({ viewport: { width: w, height: h } }))).newPage();
     await signIn(page, app.baseUrl, 'designer');
     const id = await findProject(page, app.baseUrl, 'Hillside smallholding');

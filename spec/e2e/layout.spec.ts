@@ -10,14 +10,29 @@
 import { expect } from 'chai';
 import { signIn, useBrowserApp } from './harness';
 import {
-  apiCall, asStored, clickNode, createProject, editorHook, findProject, getNetwork, openLayout, percentile,
-  setProperty, shot, smallNetwork, snackText, waitForNodeCount, waitSavedAfterEdit, waitSolved, type E2eDoc,
+  apiCall,
+  asStored,
+  clickNode,
+  createProject,
+  editorHook,
+  findProject,
+  getNetwork,
+  openLayout,
+  percentile,
+  setProperty,
+  shot,
+  smallNetwork,
+  snackText,
+  waitForNodeCount,
+  waitSavedAfterEdit,
+  waitSolved,
+  type E2eDoc,
 } from './layout-helpers';
 
 describe('Layout screen end to end (Chromium, real server)', function () {
   const ui = useBrowserApp({ viewport: { width: 1366, height: 800 } });
 
-  it('a reviewer sees the demo network read-only, and the server refuses the reviewer\'s save with 403', async () => {
+  it("a reviewer sees the demo network read-only, and the server refuses the reviewer's save with 403", async () => {
     const { app, page } = ui;
     await signIn(page, app.baseUrl, 'reviewer');
     const demo = { id: await findProject(page, app.baseUrl, 'Hillside smallholding') }; // listed for the reviewer
@@ -48,7 +63,8 @@ describe('Layout screen end to end (Chromium, real server)', function () {
 
     const before = await getNetwork(page, app.baseUrl, demo.id);
     const res = await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${demo.id}/network`, {
-      version: before.version, document: { ...before.document, title: 'reviewer was here' },
+      version: before.version,
+      document: { ...before.document, title: 'reviewer was here' },
     });
     expect(res.status()).to.equal(403);
     expect(((await res.json()) as { error: { code: string } }).error.code).to.equal('forbidden'); // not a CSRF refusal
@@ -70,7 +86,9 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     };
 
     // A text file named .png.
-    await page.getByTestId('backdrop-file').setInputFiles({ name: 'site-plan.png', mimeType: 'image/png', buffer: Buffer.from('This is a note, not a picture.\n') });
+    await page
+      .getByTestId('backdrop-file')
+      .setInputFiles({ name: 'site-plan.png', mimeType: 'image/png', buffer: Buffer.from('This is a note, not a picture.\n') });
     let msg = await snackText(page);
     expect(msg).to.match(/PNG or JPEG/);
     expect(msg).to.contain('site-plan.png');
@@ -128,7 +146,9 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
     const projectId = await createProject(page, app.baseUrl, 'Fit on open');
-    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('fit') })).status()).to.equal(200);
+    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('fit') })).status()).to.equal(
+      200,
+    );
     // Three openings: the first fit races the canvas reaching its final width.
     for (let attempt = 1; attempt <= 3; attempt++) {
       await openLayout(page, app.baseUrl, projectId);
@@ -150,7 +170,9 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     const { app, page } = ui;
     await signIn(page, app.baseUrl, 'designer');
     const projectId = await createProject(page, app.baseUrl, 'Fit clear of the scale bar');
-    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('scale') })).status()).to.equal(200);
+    expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${projectId}/network`, { version: 0, document: smallNetwork('scale') })).status()).to.equal(
+      200,
+    );
     await openLayout(page, app.baseUrl, projectId);
     await page.getByTestId('results-key').waitFor();
     expect(await page.getByTestId('pressure-legend').count()).to.equal(0);
@@ -160,7 +182,8 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     for (const n of (await editorHook.doc(page)).nodes) {
       const p = await editorHook.toClient(page, n.x_m, n.y_m);
       for (const [what, b] of Object.entries(boxes)) {
-        const overlaps = p.x + symbolRadiusPx > b.x && p.x - symbolRadiusPx < b.x + b.width && p.y + symbolRadiusPx > b.y && p.y - symbolRadiusPx < b.y + b.height;
+        const overlaps =
+          p.x + symbolRadiusPx > b.x && p.x - symbolRadiusPx < b.x + b.width && p.y + symbolRadiusPx > b.y && p.y - symbolRadiusPx < b.y + b.height;
         expect(overlaps, `${n.id} at (${p.x.toFixed(0)}, ${p.y.toFixed(0)}) is under the ${what} (${JSON.stringify(b)})`).to.equal(false);
       }
     }
@@ -192,7 +215,9 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     const target = doc.nodes[120];
     const framesBefore = (await editorHook.frameTimes(page)).length;
     let puts = 0;
-    page.on('request', (r) => { if (r.method() === 'PUT' && r.url().endsWith('/network')) puts++; });
+    page.on('request', (r) => {
+      if (r.method() === 'PUT' && r.url().endsWith('/network')) puts++;
+    });
     const p = await editorHook.toClient(page, target.x_m, target.y_m);
     await page.mouse.move(p.x, p.y);
     await page.mouse.down();
@@ -204,7 +229,9 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     expect([moved.x_m, moved.y_m]).to.not.deep.equal([target.x_m, target.y_m]);
     const median = percentile(frames, 50);
     const p95 = percentile(frames, 95);
-    console.log(`      500-element drag: ${frames.length} frames, median ${median.toFixed(1)} ms, 95th percentile ${p95.toFixed(1)} ms, worst ${Math.max(...frames).toFixed(1)} ms`);
+    console.log(
+      `      500-element drag: ${frames.length} frames, median ${median.toFixed(1)} ms, 95th percentile ${p95.toFixed(1)} ms, worst ${Math.max(...frames).toFixed(1)} ms`,
+    );
     await shot(page, '6-grid-after-drag');
     // The whole drag is one undo step and one save.
     await page.keyboard.press('Control+z');
@@ -271,7 +298,9 @@ describe('Layout screen end to end (Chromium, real server)', function () {
       await page.evaluate('window.__e2eArm()');
       await setProperty(page, 'prop-elevation', elevation);
       await page.waitForFunction(() => ((window as unknown as { __e2eLatency?: { list: number } }).__e2eLatency?.list ?? 0) > 0, null, { timeout: 30000 });
-      await page.waitForFunction(() => ((window as unknown as { __e2eLatency?: { canvas: number } }).__e2eLatency?.canvas ?? 0) > 0, null, { timeout: 5000 }).catch(() => undefined);
+      await page
+        .waitForFunction(() => ((window as unknown as { __e2eLatency?: { canvas: number } }).__e2eLatency?.canvas ?? 0) > 0, null, { timeout: 5000 })
+        .catch(() => undefined);
       const lat = await page.evaluate(() => (window as unknown as { __e2eLatency: { t0: number; list: number; canvas: number } }).__e2eLatency);
       listMs.push(lat.list - lat.t0);
       if (lat.canvas) canvasMs.push(lat.canvas - lat.t0);
@@ -282,12 +311,13 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     expect((await editorHook.doc(page)).nodes[0].elevation_m).to.equal(50);
     const fmt = (v: number[]) => v.map((x) => x.toFixed(0)).join(', ');
     const canvasText = canvasMs.length ? `median ${percentile(canvasMs, 50).toFixed(0)} ms (${fmt(canvasMs)})` : 'no change seen within 5 s';
-    console.log(`      500-element property edit ×5: results list median ${percentile(listMs, 50).toFixed(0)} ms (${fmt(listMs)}), canvas badge ${canvasText} after the field was left; worker solve ${solveMs.toFixed(1)} ms (previous solve ${solveBefore.toFixed(1)} ms)`);
+    console.log(
+      `      500-element property edit ×5: results list median ${percentile(listMs, 50).toFixed(0)} ms (${fmt(listMs)}), canvas badge ${canvasText} after the field was left; worker solve ${solveMs.toFixed(1)} ms (previous solve ${solveBefore.toFixed(1)} ms)`,
+    );
     expect(canvasMs.length, 'the canvas badge changed after every edit').to.equal(5);
     await shot(page, '6-grid-after-edit');
   });
 });
-
 
 /**
  * 250 nodes and 250 pipes: a tank above a 16-wide grid of tees (every fifth an outlet), joined
@@ -307,9 +337,21 @@ function gridNetwork(): E2eDoc {
     const id = outlet ? `O${i + 1}` : `J${i + 1}`;
     ids.push(id);
     const elevation_m = 40 - Math.floor(i / cols) * 0.5;
-    nodes.push(outlet
-      ? { id, kind: 'outlet', name: id, elevation_m, demand_m3s: 0.00001, min_pressure_m: 7, outlet_type: 'trough', demand_model: { type: 'fixed' }, ...at(i) }
-      : { id, kind: 'tee', name: id, elevation_m, demand_m3s: 0.00001, ...at(i) });
+    nodes.push(
+      outlet
+        ? {
+            id,
+            kind: 'outlet',
+            name: id,
+            elevation_m,
+            demand_m3s: 0.00001,
+            min_pressure_m: 7,
+            outlet_type: 'trough',
+            demand_model: { type: 'fixed' },
+            ...at(i),
+          }
+        : { id, kind: 'tee', name: id, elevation_m, demand_m3s: 0.00001, ...at(i) },
+    );
   }
   const links: E2eDoc['links'] = [];
   const pipe = (from: string, to: string) =>
@@ -318,4 +360,3 @@ function gridNetwork(): E2eDoc {
   pipe(ids[1], ids[1 + cols]); // closes one loop
   return { schema: 'runnel.network/1', headloss: 'hazen-williams', title: 'Grid of 500 elements', nodes, links };
 }
-

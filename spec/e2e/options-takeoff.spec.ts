@@ -20,7 +20,7 @@ async function shot(page: Page, name: string): Promise<void> {
 }
 
 async function demoProject(page: Page): Promise<string> {
-  const projects = await page.evaluate(async () => (await fetch('/api/projects')).json()) as { id: string; name: string }[];
+  const projects = (await page.evaluate(async () => (await fetch('/api/projects')).json())) as { id: string; name: string }[];
   return projects.find((p) => p.name === 'Hillside smallholding')!.id;
 }
 
@@ -104,7 +104,8 @@ describe('Options and Takeoff (Chromium, real server)', function () {
     expect((book.getWorksheet('Pipes')!.getRow(1).values as unknown[]).map(String)).to.include.members(['Length (m)', 'Static pressure (kPa)']);
     await shot(page, 'takeoff-estimator-desktop');
     // Prices kept in New Zealand dollars: every money figure on Options follows.
-    const settings = ((await (await apiCall(page, app.baseUrl, 'GET', `/api/projects/${id}/takeoff`)).json()) as { settings: Record<string, unknown> }).settings;
+    const settings = ((await (await apiCall(page, app.baseUrl, 'GET', `/api/projects/${id}/takeoff`)).json()) as { settings: Record<string, unknown> })
+      .settings;
     expect((await apiCall(page, app.baseUrl, 'PUT', `/api/projects/${id}/takeoff/settings`, { ...settings, currency: 'NZD' })).status()).to.equal(200);
     const phone = await (await ui.newContext({ width: 390, height: 844 })).newPage();
     await signIn(phone, app.baseUrl, 'estimator');
@@ -121,8 +122,10 @@ describe('Options and Takeoff (Chromium, real server)', function () {
     await reviewer.goto(`${app.baseUrl}/projects/${id}/options`);
     await reviewer.getByTestId('options-compare').waitFor();
     await reviewer.getByTestId('total-estimate').first().waitFor();
-    for (const text of [...await reviewer.getByTestId('total-estimate').allTextContents(), ...await reviewer.getByTestId('pipe-cost').allTextContents()]) {
-      expect(text).to.match(/NZ\$/).and.not.match(/(^|[^Z])\$|USD/);
+    for (const text of [...(await reviewer.getByTestId('total-estimate').allTextContents()), ...(await reviewer.getByTestId('pipe-cost').allTextContents())]) {
+      expect(text)
+        .to.match(/NZ\$/)
+        .and.not.match(/(^|[^Z])\$|USD/);
     }
     await shot(reviewer, 'options-reviewer-nzd-desktop');
     expect(await reviewer.getByTestId('option-new').count()).to.equal(0);

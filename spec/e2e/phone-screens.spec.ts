@@ -35,13 +35,23 @@ const withUnit = (units: string) => new RegExp(`${NUMBER}\\s?(${units})\\b`);
 
 const SCREENS: ScreenCheck[] = [
   { name: 'projects', role: 'designer', path: '/projects', ready: 'projects-table', actions: ['new-project', 'project-filter', 'project-actions'] },
-  { name: 'team', role: 'admin', path: '/team', ready: 'members-table', actions: ['member-roles', 'member-remove', 'invite-email', 'invite-roles', 'invite-submit'] },
+  {
+    name: 'team',
+    role: 'admin',
+    path: '/team',
+    ready: 'members-table',
+    actions: ['member-roles', 'member-remove', 'invite-email', 'invite-roles', 'invite-submit'],
+  },
   { name: 'outbox', role: 'admin', path: '/outbox', ready: 'outbox-refresh', actions: ['outbox-refresh'] },
   { name: 'audit', role: 'admin', path: '/audit', ready: 'audit-who', actions: [], shown: ['audit-who'] },
   {
     // On a phone the toolbar is a sideways strip (its later buttons scroll in) and the side panel a bottom sheet.
-    name: 'layout', role: 'designer', path: 'layout', ready: 'layout-canvas',
-    actions: (w) => (w < 700 ? ['tool-select', 'tool-pipe', 'palette-open', 'sheet-toggle'] : ['tool-select', 'tool-pipe', 'fit-button', 'file-menu', 'palette-tank']),
+    name: 'layout',
+    role: 'designer',
+    path: 'layout',
+    ready: 'layout-canvas',
+    actions: (w) =>
+      w < 700 ? ['tool-select', 'tool-pipe', 'palette-open', 'sheet-toggle'] : ['tool-select', 'tool-pipe', 'fit-button', 'file-menu', 'palette-tank'],
     numbers: [['results-list', withUnit('kPa')]],
     prepare: async (page) => {
       if (await page.getByTestId('sheet-toggle').isVisible()) await page.getByTestId('sheet-toggle').tap();
@@ -49,27 +59,71 @@ const SCREENS: ScreenCheck[] = [
     },
   },
   {
-    name: 'budget', role: 'designer', path: 'budget', ready: 'budget-uses', actions: ['budget-add-use', 'use-edit', 'use-remove'],
-    shown: ['budget-save', 'budget-discard'], numbers: [['budget-peak-daily', withUnit('L/day')], ['budget-outlets', withUnit('L/s')]],
+    name: 'budget',
+    role: 'designer',
+    path: 'budget',
+    ready: 'budget-uses',
+    actions: ['budget-add-use', 'use-edit', 'use-remove'],
+    shown: ['budget-save', 'budget-discard'],
+    numbers: [
+      ['budget-peak-daily', withUnit('L/day')],
+      ['budget-outlets', withUnit('L/s')],
+    ],
   },
-  { name: 'profile', role: 'designer', path: 'profile', ready: 'profile-chart', actions: ['profile-from', 'profile-to', 'profile-csv', 'profile-png'], numbers: [['profile-margin', withUnit('kPa')]] },
+  {
+    name: 'profile',
+    role: 'designer',
+    path: 'profile',
+    ready: 'profile-chart',
+    actions: ['profile-from', 'profile-to', 'profile-csv', 'profile-png'],
+    numbers: [['profile-margin', withUnit('kPa')]],
+  },
   { name: 'timeline', role: 'designer', path: 'timeline', ready: 'timeline-run', actions: ['timeline-days', 'timeline-step', 'timeline-run'] },
   {
-    name: 'review', role: 'reviewer', path: 'review', ready: 'version-status', actions: ['version-select', 'signoff-note', 'signoff-approve'],
-    shown: ['signoff-return'], numbers: [['review-screen', withUnit('kPa')], ['review-screen', withUnit('L/s')]],
+    name: 'review',
+    role: 'reviewer',
+    path: 'review',
+    ready: 'version-status',
+    actions: ['version-select', 'signoff-note', 'signoff-approve'],
+    shown: ['signoff-return'],
+    numbers: [
+      ['review-screen', withUnit('kPa')],
+      ['review-screen', withUnit('L/s')],
+    ],
   },
   {
-    name: 'options', role: 'designer', path: 'options', ready: 'options-compare', actions: ['option-name', 'option-create', '[data-testid^=size-]', '[data-testid^=promote-]'],
-    numbers: [['lowest-outlet', withUnit('kPa')], ['total-estimate', /\$\d[\d,]*\.\d\d/]],
+    name: 'options',
+    role: 'designer',
+    path: 'options',
+    ready: 'options-compare',
+    actions: ['option-name', 'option-create', '[data-testid^=size-]', '[data-testid^=promote-]'],
+    numbers: [
+      ['lowest-outlet', withUnit('kPa')],
+      ['total-estimate', /\$\d[\d,]*\.\d\d/],
+    ],
   },
   { name: 'options-owner', role: 'owner', path: 'options', ready: 'options-compare', actions: ['[data-testid^=prefer-]'] },
   {
-    name: 'takeoff', role: 'estimator', path: 'takeoff', ready: 'takeoff-table', actions: ['export-xlsx', 'export-csv', 'print-summary', 'labour-rate', 'save-settings', '[data-testid^="price-"][type=number]'],
-    numbers: [['estimate-total', /\$\d[\d,]*\.\d\d/], ['takeoff-table', withUnit('m')]],
+    name: 'takeoff',
+    role: 'estimator',
+    path: 'takeoff',
+    ready: 'takeoff-table',
+    actions: ['export-xlsx', 'export-csv', 'print-summary', 'labour-rate', 'save-settings', '[data-testid^="price-"][type=number]'],
+    numbers: [
+      ['estimate-total', /\$\d[\d,]*\.\d\d/],
+      ['takeoff-table', withUnit('m')],
+    ],
   },
   { name: 'takeoff-owner', role: 'owner', path: 'takeoff', ready: 'takeoff-table', actions: ['accept-estimate'] },
   { name: 'walk', role: 'designer', path: 'walk', ready: 'walk-screen', actions: ['walk-name', 'walk-start'] },
-  { name: 'files', role: 'designer', path: 'files', ready: 'file-row', actions: ['file-download', 'file-preview-toggle', 'file-rename', 'file-delete'], numbers: [['file-row', withUnit('KB')]] },
+  {
+    name: 'files',
+    role: 'designer',
+    path: 'files',
+    ready: 'file-row',
+    actions: ['file-download', 'file-preview-toggle', 'file-rename', 'file-delete'],
+    numbers: [['file-row', withUnit('KB')]],
+  },
 ];
 
 /** Neither the document nor the app's scrolling content area scrolls sideways. */
@@ -86,7 +140,10 @@ async function expectTappable(page: Page, loc: Locator, what: string): Promise<v
   const width = page.viewportSize()!.width;
   // A text field is tapped anywhere in its outline (the floating label lies over the input).
   if (await loc.evaluate((el) => !!el.closest('mat-form-field'))) loc = loc.locator('xpath=ancestor::mat-form-field[1]');
-  const box = await loc.evaluate((el) => { const r = el.getBoundingClientRect(); return { l: r.left, r: r.right, w: r.width }; });
+  const box = await loc.evaluate((el) => {
+    const r = el.getBoundingClientRect();
+    return { l: r.left, r: r.right, w: r.width };
+  });
   expect(box.w, `${what} has width`).to.be.greaterThan(0);
   expect(box.l, `${what} left edge`).to.be.at.least(-0.5);
   expect(box.r, `${what} right edge`).to.be.at.most(width + 0.5);
@@ -143,7 +200,12 @@ describe('Every screen on a phone and a tablet', function () {
 
   // The smallest phone and the landscape tablet keep to the screens with wide tables; the rest are covered at 390 and upright.
   const WIDE_TABLES = ['team', 'audit', 'options', 'takeoff', 'review', 'budget', 'layout', 'files'];
-  for (const size of [{ width: 390, height: 844 }, { width: 360, height: 740 }, { width: 768, height: 1024 }, { width: 1024, height: 768 }]) {
+  for (const size of [
+    { width: 390, height: 844 },
+    { width: 360, height: 740 },
+    { width: 768, height: 1024 },
+    { width: 1024, height: 768 },
+  ]) {
     for (const s of SCREENS) {
       if ((size.width === 1024 || size.width === 360) && !WIDE_TABLES.includes(s.name)) continue;
       it(`${s.name} as ${s.role} at ${size.width} × ${size.height}`, () => check(s, size));
@@ -164,10 +226,14 @@ describe('Every screen on a phone and a tablet', function () {
     // Opened directly at a tab far along, that tab is in sight.
     await page.goto(`${b.app.baseUrl}/projects/${projectId}/walk`);
     await page.getByTestId('tab-walk').waitFor();
-    await page.waitForFunction(() => {
-      const t = document.querySelector('[data-testid=tab-walk]')!.getBoundingClientRect();
-      return t.left >= 0 && t.right <= window.innerWidth + 1;
-    }, undefined, { timeout: 5000 });
+    await page.waitForFunction(
+      () => {
+        const t = document.querySelector('[data-testid=tab-walk]')!.getBoundingClientRect();
+        return t.left >= 0 && t.right <= window.innerWidth + 1;
+      },
+      undefined,
+      { timeout: 5000 },
+    );
     // And back to the first tab, now scrolled out of sight to the left.
     await page.getByTestId('tab-layout').tap();
     await page.waitForURL(/\/layout$/);

@@ -69,7 +69,9 @@ describe('review sign-off in a real browser', function () {
     const doc1 = (await getNetwork(reviewer, app.baseUrl, projectId)).document;
     const xs = doc1.nodes.map((n) => n.x_m as number);
     const ys = doc1.nodes.map((n) => n.y_m as number);
-    const threads = (await (await apiCall(reviewer, app.baseUrl, 'GET', `/api/projects/${projectId}/comments`)).json()) as { threads: { body: string; element: string | null; x_m: number | null; y_m: number | null }[] };
+    const threads = (await (await apiCall(reviewer, app.baseUrl, 'GET', `/api/projects/${projectId}/comments`)).json()) as {
+      threads: { body: string; element: string | null; x_m: number | null; y_m: number | null }[];
+    };
     const pinned = threads.threads.find((t) => t.body.startsWith('The fence line'))!;
     const span = Math.max(Math.max(...xs) - Math.min(...xs), Math.max(...ys) - Math.min(...ys));
     expect(pinned.x_m).to.be.closeTo((Math.max(...xs) + Math.min(...xs)) / 2, span / 100);
@@ -90,16 +92,22 @@ describe('review sign-off in a real browser', function () {
     await designer.getByTestId('thread-L-TR4').getByTestId('thread-element').click();
     await designer.waitForURL(/\/layout\?select=L-TR4/);
     await waitForLayout(designer);
-    await designer.waitForFunction(() => (window as unknown as { __runnelEditor?: { getSelection(): string[] } }).__runnelEditor?.getSelection().includes('L-TR4'));
+    await designer.waitForFunction(() =>
+      (window as unknown as { __runnelEditor?: { getSelection(): string[] } }).__runnelEditor?.getSelection().includes('L-TR4'),
+    );
     // Both open comments stand as pins on the plan: one on the line, one at the clicked point.
     const pins = await designer.waitForFunction(() => {
-      const hook = (window as unknown as { __runnelEditor?: { planMarkers(): { kind: string; at: { element?: string; point?: { x: number; y: number } } }[] } }).__runnelEditor;
+      const hook = (window as unknown as { __runnelEditor?: { planMarkers(): { kind: string; at: { element?: string; point?: { x: number; y: number } } }[] } })
+        .__runnelEditor;
       const list = hook?.planMarkers().filter((m) => m.kind === 'pin') ?? [];
       return list.some((m) => m.at.point) && list.some((m) => m.at.element) ? list : null;
     });
     const onPlan = (await pins.jsonValue()) as { at: { element?: string; point?: { x: number; y: number } } }[];
     expect(onPlan.some((m) => m.at.element === 'L-TR4')).to.equal(true);
-    expect(onPlan.some((m) => m.at.point?.x === pinned.x_m && m.at.point?.y === pinned.y_m), JSON.stringify(onPlan)).to.equal(true);
+    expect(
+      onPlan.some((m) => m.at.point?.x === pinned.x_m && m.at.point?.y === pinned.y_m),
+      JSON.stringify(onPlan),
+    ).to.equal(true);
     await shot(designer, 'layout-pin-selected');
 
     // Fix: the line becomes SIDR 9 (same bore, higher rating) — a new version through the same save path.

@@ -19,7 +19,7 @@ async function shot(page: Page, name: string): Promise<void> {
 
 /** Latest invitation link mailed to `email`, read from the admin's outbox API. */
 async function linkFor(page: Page, baseUrl: string, email: string): Promise<string> {
-  const mails = await page.evaluate(async () => (await fetch('/api/team/outbox')).json()) as { to: string; text: string }[];
+  const mails = (await page.evaluate(async () => (await fetch('/api/team/outbox')).json())) as { to: string; text: string }[];
   const mail = mails.find((m) => m.to.includes(email));
   const link = /\/join\/[A-Za-z0-9_-]+/.exec(mail?.text ?? '');
   if (!link) throw new Error(`no invitation mail to ${email}`);
@@ -94,7 +94,10 @@ describe('Team invitations and the join page (Chromium, real server)', function 
     await signIn(otherPage, app.baseUrl, 'other');
     await otherPage.goto(link);
     const refusal = otherPage.getByTestId('join-wrong-account');
-    await refusal.waitFor({ timeout: 10000 }).catch(async (err) => { await otherPage.screenshot({ path: '/tmp/shots-security/debug-join.png' }); throw err; });
+    await refusal.waitFor({ timeout: 10000 }).catch(async (err) => {
+      await otherPage.screenshot({ path: '/tmp/shots-security/debug-join.png' });
+      throw err;
+    });
     expect(await refusal.textContent()).to.contain('This invitation is for field-hand@example.test, but you are signed in as other@runnel.test');
     expect(await otherPage.getByTestId('join-submit').count()).to.equal(0);
     await shot(otherPage, 'join-wrong-account-phone');

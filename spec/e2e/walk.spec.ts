@@ -15,7 +15,8 @@ const SHOTS = '/tmp/shots-field';
 /** Metres north/east of a made-up place to degrees (small offsets; 1° latitude ≈ 111.1 km). */
 const ORIGIN = { lat: 44.5, lon: -122.1 };
 const at = (east_m: number, north_m: number) => ({
-  latitude: ORIGIN.lat + north_m / 111132, longitude: ORIGIN.lon + east_m / (111320 * Math.cos((ORIGIN.lat * Math.PI) / 180)),
+  latitude: ORIGIN.lat + north_m / 111132,
+  longitude: ORIGIN.lon + east_m / (111320 * Math.cos((ORIGIN.lat * Math.PI) / 180)),
 });
 
 async function placePhone(cdp: CDPSession, east_m: number, north_m: number, accuracy = 4, altitude?: number): Promise<void> {
@@ -82,27 +83,39 @@ describe('Walk mode: recording on a phone without signal', function () {
       // An oversized photo: a clear message, the point's fields stay.
       await page.getByTestId('walk-photo').setInputFiles({ name: 'huge.jpg', mimeType: 'image/jpeg', buffer: Buffer.alloc(26 * 1024 * 1024) });
       await placePhone(cdp, 0, 0, 4);
-      await page.getByTestId('walk-fix').filter({ hasText: /^.?Fix/ }).waitFor();
+      await page
+        .getByTestId('walk-fix')
+        .filter({ hasText: /^.?Fix/ })
+        .waitFor();
       await page.getByTestId('walk-record').click();
       // the photo is checked asynchronously: wait for its message to replace the poor-fix one
-      await page.getByTestId('walk-message').filter({ hasText: /huge\.jpg" is 26\.0 MB; photos up to 25\.0 MB/ }).waitFor();
+      await page
+        .getByTestId('walk-message')
+        .filter({ hasText: /huge\.jpg" is 26\.0 MB; photos up to 25\.0 MB/ })
+        .waitFor();
       expect(await page.getByTestId('walk-elevation').inputValue()).to.equal('320');
       // A real photo, made in the page as a camera would (4000 × 3000 JPEG).
-      const jpeg = Buffer.from(await page.evaluate(async () => {
-        const c = new OffscreenCanvas(4000, 3000);
-        const g = c.getContext('2d')!;
-        g.fillStyle = '#6b8f3a'; g.fillRect(0, 0, 4000, 3000);
-        g.fillStyle = '#2f6f8f'; g.fillRect(800, 900, 2400, 1200);
-        return [...new Uint8Array(await (await c.convertToBlob({ type: 'image/jpeg', quality: 0.95 })).arrayBuffer())];
-      }));
+      const jpeg = Buffer.from(
+        await page.evaluate(async () => {
+          const c = new OffscreenCanvas(4000, 3000);
+          const g = c.getContext('2d')!;
+          g.fillStyle = '#6b8f3a';
+          g.fillRect(0, 0, 4000, 3000);
+          g.fillStyle = '#2f6f8f';
+          g.fillRect(800, 900, 2400, 1200);
+          return [...new Uint8Array(await (await c.convertToBlob({ type: 'image/jpeg', quality: 0.95 })).arrayBuffer())];
+        }),
+      );
       await page.getByTestId('walk-photo').setInputFiles({ name: 'spring-box.jpg', mimeType: 'image/jpeg', buffer: jpeg });
       await page.getByTestId('walk-record').click();
       await page.getByTestId('walk-saved').filter({ hasText: 'Recorded Spring with its photo' }).waitFor();
 
       // Four more points down the line, the track following between them.
       const stops: [string, string, number, number, number][] = [
-        ['Bend by the oak', 'bend', 60, 5, 314], ['Creek crossing', 'crossing', 120, 40, 305],
-        ['Paddock tee', 'tee', 180, 60, 303], ['Trough 4', 'trough', 240, 120, 298],
+        ['Bend by the oak', 'bend', 60, 5, 314],
+        ['Creek crossing', 'crossing', 120, 40, 305],
+        ['Paddock tee', 'tee', 180, 60, 303],
+        ['Trough 4', 'trough', 240, 120, 298],
       ];
       let fixes = 0;
       let previous = [0, 0];
@@ -111,13 +124,19 @@ describe('Walk mode: recording on a phone without signal', function () {
         for (const f of [0.5, 1]) {
           await placePhone(cdp, previous[0] + (east - previous[0]) * f, previous[1] + (north - previous[1]) * f, 4, z + 30);
           fixes++;
-          await page.getByTestId('walk-track-count').filter({ hasText: new RegExp(`^(${fixes}|${fixes + 1}|${fixes + 2}) fix`) }).waitFor({ timeout: 15000 });
+          await page
+            .getByTestId('walk-track-count')
+            .filter({ hasText: new RegExp(`^(${fixes}|${fixes + 1}|${fixes + 2}) fix`) })
+            .waitFor({ timeout: 15000 });
         }
         await page.getByTestId('walk-label').fill(label);
         await page.getByTestId('walk-kind').selectOption(kind);
         await page.getByTestId('walk-elevation').fill(String(z));
         await page.getByTestId('walk-record').click();
-        await page.getByTestId('walk-saved').filter({ hasText: `Recorded ${label}` }).waitFor();
+        await page
+          .getByTestId('walk-saved')
+          .filter({ hasText: `Recorded ${label}` })
+          .waitFor();
         previous = [east, north];
       }
       expect(await page.getByTestId('walk-point').count()).to.equal(5);
@@ -136,30 +155,54 @@ describe('Walk mode: recording on a phone without signal', function () {
 
       // Signal again: it syncs by itself, once.
       await context.setOffline(false);
-      await page.getByTestId('walk-waiting').filter({ hasText: 'All synced' }).waitFor({ timeout: 20000 })
-        .catch(async (e) => { throw new Error(`${e}\nsync status: ${await page.getByTestId('walk-sync-status').textContent().catch(() => '(none)')}`); });
+      await page
+        .getByTestId('walk-waiting')
+        .filter({ hasText: 'All synced' })
+        .waitFor({ timeout: 20000 })
+        .catch(async (e) => {
+          throw new Error(
+            `${e}\nsync status: ${await page
+              .getByTestId('walk-sync-status')
+              .textContent()
+              .catch(() => '(none)')}`,
+          );
+        });
       expect(await page.locator('[data-testid=walk-point][data-synced="1"]').count()).to.equal(5);
-      const files = (await (await apiCall(page, app.baseUrl, 'GET', `/api/projects/${projectId}/files`)).json()) as { id: string; kind: string; filename: string }[];
+      const files = (await (await apiCall(page, app.baseUrl, 'GET', `/api/projects/${projectId}/files`)).json()) as {
+        id: string;
+        kind: string;
+        filename: string;
+      }[];
       expect(files.map((f) => f.kind).sort()).to.deep.equal(['photo', 'survey']);
       const survey = files.find((f) => f.kind === 'survey')!;
       expect(survey.filename).to.equal('walk-North line.gpx');
       const gpx = await (await apiCall(page, app.baseUrl, 'GET', `/api/projects/${projectId}/files/${survey.id}`)).text();
       expect(gpx.match(/<wpt /g)).to.have.length(5);
-      for (const label of ['Spring', 'Bend by the oak', 'Creek crossing', 'Paddock tee', 'Trough 4']) expect(gpx.split(`<name>${label}</name>`)).to.have.length(2);
+      for (const label of ['Spring', 'Bend by the oak', 'Creek crossing', 'Paddock tee', 'Trough 4'])
+        expect(gpx.split(`<name>${label}</name>`)).to.have.length(2);
       // A retried sync (as when an answer is lost on the way back) adds nothing twice.
-      await page.evaluate(() => new Promise<void>((resolve, reject) => {
-        const open = indexedDB.open('runnel-walk');
-        open.onerror = () => reject(open.error);
-        open.onsuccess = () => {
-          const tx = open.result.transaction('points', 'readwrite');
-          const store = tx.objectStore('points');
-          store.openCursor().onsuccess = (e) => {
-            const cursor = (e.target as IDBRequest<IDBCursorWithValue | null>).result;
-            if (cursor) { cursor.update({ ...cursor.value, synced: 0 }); cursor.continue(); }
-          };
-          tx.oncomplete = () => { open.result.close(); resolve(); };
-        };
-      }));
+      await page.evaluate(
+        () =>
+          new Promise<void>((resolve, reject) => {
+            const open = indexedDB.open('runnel-walk');
+            open.onerror = () => reject(open.error);
+            open.onsuccess = () => {
+              const tx = open.result.transaction('points', 'readwrite');
+              const store = tx.objectStore('points');
+              store.openCursor().onsuccess = (e) => {
+                const cursor = (e.target as IDBRequest<IDBCursorWithValue | null>).result;
+                if (cursor) {
+                  cursor.update({ ...cursor.value, synced: 0 });
+                  cursor.continue();
+                }
+              };
+              tx.oncomplete = () => {
+                open.result.close();
+                resolve();
+              };
+            };
+          }),
+      );
       await page.reload();
       await page.getByTestId('walk-waiting').filter({ hasText: 'All synced' }).waitFor({ timeout: 20000 });
       const again = await (await apiCall(page, app.baseUrl, 'GET', `/api/projects/${projectId}/files/${survey.id}`)).text();
@@ -205,16 +248,23 @@ describe('Walk mode: recording on a phone without signal', function () {
 
       await context.setOffline(true);
       await page.getByTestId('walk-network').filter({ hasText: 'Offline' }).waitFor();
-      for (const [label, z] of [['Gate', '210'], ['Far trough', '204']]) {
+      for (const [label, z] of [
+        ['Gate', '210'],
+        ['Far trough', '204'],
+      ]) {
         await page.getByTestId('walk-label').fill(label);
         await page.getByTestId('walk-elevation').fill(z);
         await page.getByTestId('walk-record').click();
-        await page.getByTestId('walk-saved').filter({ hasText: `Recorded ${label}` }).waitFor();
+        await page
+          .getByTestId('walk-saved')
+          .filter({ hasText: `Recorded ${label}` })
+          .waitFor();
       }
       // Still out of signal, the designer moves on to the project list (the app is kept on the phone).
       await page.getByTestId('back-to-projects').tap();
       await page.waitForURL(/\/projects$/);
-      const filesNow = async () => (await (await apiCall(page, app.baseUrl, 'GET', `/api/projects/${projectId}/files`)).json()) as { kind: string; filename: string }[];
+      const filesNow = async () =>
+        (await (await apiCall(page, app.baseUrl, 'GET', `/api/projects/${projectId}/files`)).json()) as { kind: string; filename: string }[];
       expect(await filesNow()).to.deep.equal([]);
 
       await context.setOffline(false);

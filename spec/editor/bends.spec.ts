@@ -53,10 +53,17 @@ describe('Layout editor: adding and removing bend points', () => {
   });
 
   it('a bend goes into the segment it was added on, keeping the order along the line', () => {
-    const ed = pipeEditor([[10, 20], [30, 20]]);
+    const ed = pipeEditor([
+      [10, 20],
+      [30, 20],
+    ]);
     ed.select(['P1']);
     ed.doubleClick(at(ed, 20, 20.3)); // middle segment
-    expect(pipe(ed).vertices).to.deep.equal([[10, 20], [20, 20], [30, 20]]);
+    expect(pipe(ed).vertices).to.deep.equal([
+      [10, 20],
+      [20, 20],
+      [30, 20],
+    ]);
     ed.doubleClick(at(ed, 35, 10)); // last segment, (30,20)→(40,0)
     expect(pipe(ed).vertices?.length).to.equal(4);
     expect(pipe(ed).vertices?.[3][0]).to.be.closeTo(35, 1e-9);
@@ -105,16 +112,25 @@ describe('Layout editor: adding and removing bend points', () => {
   });
 
   it('a click on a bend chooses it and Delete removes only that bend, not the pipe', () => {
-    const ed = pipeEditor([[10, 10], [30, 10]]);
+    const ed = pipeEditor([
+      [10, 10],
+      [30, 10],
+    ]);
     ed.select(['P1']);
     click(ed, 30, 10);
     expect(ed.selectedVertex).to.deep.equal({ link: 'P1', index: 1 });
-    expect(pipe(ed).vertices).to.deep.equal([[10, 10], [30, 10]]); // a click does not move it
+    expect(pipe(ed).vertices).to.deep.equal([
+      [10, 10],
+      [30, 10],
+    ]); // a click does not move it
     ed.handleKey('Delete', { mod: false, shift: false });
     expect(pipe(ed).vertices).to.deep.equal([[10, 10]]);
     expect([...ed.selection]).to.deep.equal(['P1']);
     ed.undo();
-    expect(pipe(ed).vertices).to.deep.equal([[10, 10], [30, 10]]);
+    expect(pipe(ed).vertices).to.deep.equal([
+      [10, 10],
+      [30, 10],
+    ]);
     // With no bend chosen, Delete removes the pipe as before.
     ed.select([]);
     ed.select(['P1']);

@@ -45,6 +45,10 @@ describe('Layout: crossing marks (newcomer item 8)', () => {
     expect(found.map((p) => p.node)).to.deep.equal(['ON']);
     expect(found[0].at).to.deep.equal({ x: 40, y: 0 });
     expect(found[0].distance_m).to.be.closeTo(0.5, 1e-12);
-    expect(nodesUnderLines(doc, 6).map((p) => p.node).sort()).to.deep.equal(['OFF', 'ON']);
+    expect(
+      nodesUnderLines(doc, 6)
+        .map((p) => p.node)
+        .sort(),
+    ).to.deep.equal(['OFF', 'ON']);
   });
 });

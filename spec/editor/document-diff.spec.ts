@@ -6,7 +6,8 @@ import { diffVersions } from '../../engine/review/version-diff';
 
 function base(): NetworkDocument {
   return {
-    schema: 'runnel.network/1', headloss: 'hazen-williams',
+    schema: 'runnel.network/1',
+    headloss: 'hazen-williams',
     nodes: [
       { id: 'T1', kind: 'tank', name: 'Ridge tank', elevation_m: 40, diameter_m: 1.6, level_m: 1.2, min_level_m: 0.1, max_level_m: 1.5, x_m: 0, y_m: 0 },
       { id: 'J1', kind: 'tee', name: 'Upper tee', elevation_m: 30, demand_m3s: 0, x_m: 10, y_m: 0 },

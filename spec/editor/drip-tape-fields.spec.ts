@@ -5,13 +5,19 @@ import { dripFields } from '../../client/src/app/screens/layout/kinds/farm-terms
 
 const field = (key: string) => dripFields.find((f) => f.key === key)!;
 const zone = (extra: Partial<OutletNode> = {}): OutletNode => ({
-  id: 'D', kind: 'outlet', elevation_m: 0, outlet_type: 'drip-zone', demand_m3s: 240 * (2e-3 / 3600), emitters: 240, ...extra,
+  id: 'D',
+  kind: 'outlet',
+  elevation_m: 0,
+  outlet_type: 'drip-zone',
+  demand_m3s: 240 * (2e-3 / 3600),
+  emitters: 240,
+  ...extra,
 });
 const apply = (o: OutletNode, patch: Record<string, unknown>): OutletNode => ({ ...o, ...patch }) as OutletNode;
 
 /** A drip zone entered as rows of tape in the properties panel (issue 12: "tape length × flow per 100 ft"). */
 describe('Layout: a drip zone as rows of tape', () => {
-  it('switching to tape keeps the zone\'s flow; rows, row length and spacing then set emitters and flow (engine/drip-tape)', () => {
+  it("switching to tape keeps the zone's flow; rows, row length and spacing then set emitters and flow (engine/drip-tape)", () => {
     let o = zone();
     const before = o.demand_m3s;
     o = apply(o, field('drip_entry').choose!(o, 'tape'));
@@ -42,8 +48,12 @@ describe('Layout: a drip zone as rows of tape', () => {
   });
 
   it('a tape the schema cannot take is refused with the field named', () => {
-    const r = parseDocument({ schema: 'runnel.network/1', headloss: 'hazen-williams', links: [],
-      nodes: [zone({ drip_tape: { rows: 0, row_length_m: 10, spacing_m: 0.3 } })] });
+    const r = parseDocument({
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
+      links: [],
+      nodes: [zone({ drip_tape: { rows: 0, row_length_m: 10, spacing_m: 0.3 } })],
+    });
     expect(r.ok).to.equal(false);
     expect(JSON.stringify(r)).to.match(/drip_tape\.rows/);
   });

@@ -79,7 +79,10 @@ describe('Layout editor: drawing a pipe', () => {
     click(ed, 30, 40);
     const p = ed.store.doc.links[0] as PipeLink;
     expect(p).to.include({ id: 'P1', from: 'T1', to: 'O1', kind: 'pipe' });
-    expect(p.vertices).to.deep.equal([[0, 40], [10, 40]]);
+    expect(p.vertices).to.deep.equal([
+      [0, 40],
+      [10, 40],
+    ]);
     expect(p.length_m).to.equal(70); // 40 + 10 + 20 along the drawn polyline
     expect(ed.activeTool.state).to.equal('idle');
     ed.undo();
@@ -190,7 +193,10 @@ describe('Layout editor: selecting and moving', () => {
     ed.handleKey('c', { mod: true, shift: false });
     ed.handleKey('v', { mod: true, shift: false });
     expect(ed.store.doc.nodes.map((n) => n.id)).to.deep.equal(['T1', 'J1', 'T2', 'J2']);
-    expect(ed.store.doc.links.map((l) => [l.id, l.from, l.to])).to.deep.equal([['P1', 'T1', 'J1'], ['P2', 'T2', 'J2']]);
+    expect(ed.store.doc.links.map((l) => [l.id, l.from, l.to])).to.deep.equal([
+      ['P1', 'T1', 'J1'],
+      ['P2', 'T2', 'J2'],
+    ]);
     expect([...ed.selection].sort()).to.deep.equal(['J2', 'P2', 'T2']);
     ed.handleKey('z', { mod: true, shift: false });
     expect(ed.store.doc.nodes).to.have.length(2);
@@ -281,7 +287,7 @@ describe('Layout editor: scaling the backdrop only', () => {
 });
 
 describe('Layout editor: elevation of new elements', () => {
-  const source = (ed: ReturnType<typeof editor>, id: string) => (ed.store.node(id) as { elevation_source?: string; elevation_from?: string } | undefined);
+  const source = (ed: ReturnType<typeof editor>, id: string) => ed.store.node(id) as { elevation_source?: string; elevation_from?: string } | undefined;
 
   it('newcomer item 1: the first element has an unset elevation (marked, asked for), and so does one placed beside an unset one', () => {
     const ed = editor();

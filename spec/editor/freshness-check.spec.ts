@@ -19,7 +19,10 @@ function setup(status: SaveStatus = 'saved', version = 4) {
       if (server.fail) throw new Error('offline');
       return server.copy;
     },
-    timers, () => state, (d, c) => acts.push([d, c.version]), () => timers.now,
+    timers,
+    () => state,
+    (d, c) => acts.push([d, c.version]),
+    () => timers.now,
   );
   return { timers, server, acts, state, f };
 }
@@ -86,7 +89,10 @@ describe('Layout editor: checking for a newer saved version', () => {
     s.server.fail = false;
     s.timers.advance(30000);
     await flush();
-    expect(s.acts).to.deep.equal([['reload', 6], ['conflict', 7]]);
+    expect(s.acts).to.deep.equal([
+      ['reload', 6],
+      ['conflict', 7],
+    ]);
   });
 
   it('SaveController.raiseConflict stops autosave and keeps the local document until the user chooses', async () => {

@@ -11,13 +11,21 @@ describe('Layout editor: geometry and survey', () => {
   });
 
   it('projects onto a polyline with its chainage', () => {
-    const r = projectOnPolyline({ x: 12, y: 3 }, [{ x: 0, y: 0 }, { x: 10, y: 0 }, { x: 10, y: 10 }]);
+    const r = projectOnPolyline({ x: 12, y: 3 }, [
+      { x: 0, y: 0 },
+      { x: 10, y: 0 },
+      { x: 10, y: 10 },
+    ]);
     expect(r.distance).to.be.closeTo(2, 1e-12);
     expect(r.chainage).to.be.closeTo(13, 1e-12);
   });
 
   it('local projection of lat/lon: 0.001° of latitude is about 111.2 m (mean Earth radius 6 371 008.8 m, IUGG)', () => {
-    const pts = toLocalPoints([{ lat: 45, lon: 10, elevation_m: 100 }, { lat: 45.001, lon: 10, elevation_m: 101 }, { lat: 45, lon: 10.001, elevation_m: 99 }]);
+    const pts = toLocalPoints([
+      { lat: 45, lon: 10, elevation_m: 100 },
+      { lat: 45.001, lon: 10, elevation_m: 101 },
+      { lat: 45, lon: 10.001, elevation_m: 99 },
+    ]);
     expect(pts[1].y_m).to.be.closeTo(111.195, 0.001);
     // East-west: the same angle shrinks by cos(45°).
     expect(pts[2].x_m).to.be.closeTo(111.195 * Math.SQRT1_2, 0.001);
@@ -30,10 +38,17 @@ describe('Layout editor: geometry and survey', () => {
     ed.store.patchElement('T1', { elevation_m: 30 });
     ed.store.patchElement('O1', { elevation_m: 0 });
     ed.addLink('pipe', 'T1', 'O1');
-    const survey = [{ x_m: 40, y_m: 3, elevation_m: 15 }, { x_m: 40, y_m: 50, elevation_m: 99 }];
+    const survey = [
+      { x_m: 40, y_m: 3, elevation_m: 15 },
+      { x_m: 40, y_m: 50, elevation_m: 99 },
+    ];
     expect(nearestSurveyPoint(survey, { x: 39, y: 0 })?.point.elevation_m).to.equal(15);
     const prof = profileAlong(ed.store.doc, 'P1', survey, 10);
-    expect(prof?.profile).to.deep.equal([[0, 30], [40, 15], [80, 0]]);
+    expect(prof?.profile).to.deep.equal([
+      [0, 30],
+      [40, 15],
+      [80, 0],
+    ]);
     expect(prof?.used).to.equal(1);
     // Each half: 40 m run, 15 m drop → √(40² + 15²) = 42.72 m.
     expect(prof?.groundLength_m).to.be.closeTo(2 * Math.hypot(40, 15), 0.01);

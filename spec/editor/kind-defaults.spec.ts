@@ -7,11 +7,35 @@ import { LINK_KINDS, NODE_KINDS } from '../../client/src/app/screens/layout/kind
 describe('Layout editor: defaults of new elements per unit system', () => {
   const cases: { units: UnitSystem; shown: Record<string, string> }[] = [
     // 1 psi = 6.894757 kPa (NIST SP 811, Appendix B); 1 US gal = 3.785411784 L; 1 ft = 0.3048 m.
-    { units: 'si', shown: { 'outlet.min_pressure_m': '70 kPa', 'outlet.demand_m3s': '0.300 L/s', 'tank.diameter_m': '1.6 m', 'tank.max_level_m': '1.50 m', 'pump.flow_m3s': '0.200 L/s', 'valve.diameter_m': '25.0 mm' } },
-    { units: 'us', shown: { 'outlet.min_pressure_m': '10.0 psi', 'outlet.demand_m3s': '5.00 gpm', 'tank.diameter_m': '5 ft', 'tank.max_level_m': '5.0 ft', 'pump.flow_m3s': '3.00 gpm', 'valve.diameter_m': '1.000 in' } },
+    {
+      units: 'si',
+      shown: {
+        'outlet.min_pressure_m': '70 kPa',
+        'outlet.demand_m3s': '0.300 L/s',
+        'tank.diameter_m': '1.6 m',
+        'tank.max_level_m': '1.50 m',
+        'pump.flow_m3s': '0.200 L/s',
+        'valve.diameter_m': '25.0 mm',
+      },
+    },
+    {
+      units: 'us',
+      shown: {
+        'outlet.min_pressure_m': '10.0 psi',
+        'outlet.demand_m3s': '5.00 gpm',
+        'tank.diameter_m': '5 ft',
+        'tank.max_level_m': '5.0 ft',
+        'pump.flow_m3s': '3.00 gpm',
+        'valve.diameter_m': '1.000 in',
+      },
+    },
   ];
   const quantity: Record<string, Parameters<typeof formatQuantity>[0]> = {
-    min_pressure_m: 'pressure', demand_m3s: 'flow', diameter_m: 'length', max_level_m: 'head', flow_m3s: 'flow',
+    min_pressure_m: 'pressure',
+    demand_m3s: 'flow',
+    diameter_m: 'length',
+    max_level_m: 'head',
+    flow_m3s: 'flow',
   };
   for (const c of cases) {
     it(`${c.units}: outlet, tank, pump and valve defaults read as round numbers`, () => {

@@ -8,7 +8,14 @@ import { expect } from 'chai';
 import fc from 'fast-check';
 import { createEditor } from '../../client/src/app/screens/layout/create-editor';
 import {
-  around, besideLine, Box, BoxGrid, boxesIntersect, LabelRequest, placeLabels, symbolBox,
+  around,
+  besideLine,
+  Box,
+  BoxGrid,
+  boxesIntersect,
+  LabelRequest,
+  placeLabels,
+  symbolBox,
 } from '../../client/src/app/screens/layout/editor/label-placement';
 import { MIN_SYMBOL_SCALE, nearestDistances, symbolScale } from '../../client/src/app/screens/layout/editor/symbol-size';
 import { hillSmallholding } from '../../engine/examples/hill-smallholding';
@@ -33,17 +40,29 @@ function pointLabels(points: { x: number; y: number }[], size = { w: 60, h: 13 }
 
 describe('Layout labels: greedy placement', () => {
   it('a lone label goes to the first side offered (right of the symbol)', () => {
-    const placed = placeLabels([{ id: 'A', priority: 0, candidates: around({ x: 100, y: 100 }, 12, [{ w: 40, h: 12 }]) }], [symbolBox({ x: 100, y: 100 }, 12)], CANVAS);
+    const placed = placeLabels(
+      [{ id: 'A', priority: 0, candidates: around({ x: 100, y: 100 }, 12, [{ w: 40, h: 12 }]) }],
+      [symbolBox({ x: 100, y: 100 }, 12)],
+      CANVAS,
+    );
     expect(placed.get('A')?.side).to.equal('right');
     expect(placed.get('A')?.box.x).to.be.greaterThan(112);
   });
 
   it('a tight cluster (three symbols 11 px apart, like a wellhead beside its well) never prints labels over each other or over symbols', () => {
-    const pts = [{ x: 300, y: 300 }, { x: 309, y: 294 }, { x: 318, y: 288 }, { x: 330, y: 300 }];
+    const pts = [
+      { x: 300, y: 300 },
+      { x: 309, y: 294 },
+      { x: 318, y: 288 },
+      { x: 330, y: 300 },
+    ];
     const { requests, obstacles } = pointLabels(pts);
     const placed = placeLabels(requests, obstacles, CANVAS);
     expect(placed.size).to.be.greaterThan(0);
-    expectNoOverlaps([...placed.values()].map((p) => p.box), obstacles);
+    expectNoOverlaps(
+      [...placed.values()].map((p) => p.box),
+      obstacles,
+    );
   });
 
   it('drops labels that fit nowhere instead of overlapping them', () => {
@@ -51,7 +70,10 @@ describe('Layout labels: greedy placement', () => {
     const { requests, obstacles } = pointLabels(pts);
     const placed = placeLabels(requests, obstacles, CANVAS);
     expect(placed.size).to.be.lessThan(30);
-    expectNoOverlaps([...placed.values()].map((p) => p.box), obstacles);
+    expectNoOverlaps(
+      [...placed.values()].map((p) => p.box),
+      obstacles,
+    );
   });
 
   it('places in priority order: the first-ranked label keeps its preferred side even when listed last', () => {
@@ -81,21 +103,29 @@ describe('Layout labels: greedy placement', () => {
     for (const { box } of c) expect(box.y + box.h <= 100 || box.y >= 100).to.equal(true);
     // A diagonal line: the box clears the line at its middle.
     const d = besideLine({ x: 0, y: 0 }, { x: 200, y: 200 }, { w: 40, h: 12 })[0].box;
-    const corners = [[d.x, d.y], [d.x + d.w, d.y], [d.x, d.y + d.h], [d.x + d.w, d.y + d.h]].map(([x, y]) => y - x);
+    const corners = [
+      [d.x, d.y],
+      [d.x + d.w, d.y],
+      [d.x, d.y + d.h],
+      [d.x + d.w, d.y + d.h],
+    ].map(([x, y]) => y - x);
     expect(corners.every((s) => s > 0) || corners.every((s) => s < 0)).to.equal(true);
   });
 
   it('property: for random plans of up to 500 symbols, placed labels never intersect each other, symbols or the canvas edge', () => {
     fc.assert(
-      fc.property(fc.array(fc.record({ x: fc.integer({ min: 0, max: 960 }), y: fc.integer({ min: 0, max: 640 }) }), { minLength: 1, maxLength: 500 }), (pts) => {
-        const { requests, obstacles } = pointLabels(pts);
-        const placed = [...placeLabels(requests, obstacles, CANVAS).values()].map((p) => p.box);
-        for (let i = 0; i < placed.length; i++) {
-          for (let j = i + 1; j < placed.length; j++) if (boxesIntersect(placed[i], placed[j])) return false;
-          if (obstacles.some((o) => boxesIntersect(o, placed[i]))) return false;
-        }
-        return true;
-      }),
+      fc.property(
+        fc.array(fc.record({ x: fc.integer({ min: 0, max: 960 }), y: fc.integer({ min: 0, max: 640 }) }), { minLength: 1, maxLength: 500 }),
+        (pts) => {
+          const { requests, obstacles } = pointLabels(pts);
+          const placed = [...placeLabels(requests, obstacles, CANVAS).values()].map((p) => p.box);
+          for (let i = 0; i < placed.length; i++) {
+            for (let j = i + 1; j < placed.length; j++) if (boxesIntersect(placed[i], placed[j])) return false;
+            if (obstacles.some((o) => boxesIntersect(o, placed[i]))) return false;
+          }
+          return true;
+        },
+      ),
       { numRuns: 25 },
     );
   });
@@ -117,13 +147,19 @@ describe('Layout symbols: size with zoom and crowding', () => {
 
   it('nearest distances match a brute-force search', () => {
     fc.assert(
-      fc.property(fc.array(fc.record({ x: fc.double({ min: -500, max: 500, noNaN: true }), y: fc.double({ min: -500, max: 500, noNaN: true }) }), { minLength: 2, maxLength: 60 }), (pts) => {
-        const fast = nearestDistances(pts);
-        return pts.every((p, i) => {
-          const brute = Math.min(...pts.filter((_, j) => j !== i).map((q) => Math.hypot(q.x - p.x, q.y - p.y)));
-          return Math.abs(brute - fast[i]) < 1e-9;
-        });
-      }),
+      fc.property(
+        fc.array(fc.record({ x: fc.double({ min: -500, max: 500, noNaN: true }), y: fc.double({ min: -500, max: 500, noNaN: true }) }), {
+          minLength: 2,
+          maxLength: 60,
+        }),
+        (pts) => {
+          const fast = nearestDistances(pts);
+          return pts.every((p, i) => {
+            const brute = Math.min(...pts.filter((_, j) => j !== i).map((q) => Math.hypot(q.x - p.x, q.y - p.y)));
+            return Math.abs(brute - fast[i]) < 1e-9;
+          });
+        },
+      ),
       { numRuns: 50 },
     );
   });
@@ -141,7 +177,10 @@ describe('Layout symbols: size with zoom and crowding', () => {
 
 describe('Layout view: fitting the network', () => {
   it('the first fit keeps every element inside the margins, clear of the legend (bottom right) and scale bar (bottom left)', () => {
-    for (const [w, h] of [[956, 645], [916, 536]]) {
+    for (const [w, h] of [
+      [956, 645],
+      [916, 536],
+    ]) {
       const ed = createEditor(structuredClone(hillSmallholding) as NetworkDocument, w, h);
       ed.fitToView();
       const m = ed.fitInsets;

@@ -18,7 +18,12 @@ function setup(answers: PutOutcome[]) {
       return answers.shift() ?? { kind: 'saved' as const, version: version + 1 };
     },
   };
-  const c = new SaveController(backend, timers, () => doc, (s) => statuses.push(s));
+  const c = new SaveController(
+    backend,
+    timers,
+    () => doc,
+    (s) => statuses.push(s),
+  );
   const edit = () => {
     doc = { ...doc, title: 'edit ' + puts.length + Math.random() };
     c.changed();
@@ -78,7 +83,10 @@ describe('Layout editor: autosave', () => {
 
   it('keeps the base both sides of a conflict started from: the loaded copy, then each saved copy, then theirs once resolved', async () => {
     const theirs = { version: 9, document: { ...emptyDocument(), title: 'theirs' } };
-    const s = setup([{ kind: 'saved', version: 5 }, { kind: 'conflict', current: theirs }]);
+    const s = setup([
+      { kind: 'saved', version: 5 },
+      { kind: 'conflict', current: theirs },
+    ]);
     s.c.loaded(4);
     const loadedDoc = s.getDoc();
     expect(s.c.base).to.equal(loadedDoc);

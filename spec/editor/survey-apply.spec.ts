@@ -4,14 +4,18 @@ import { fitRect } from '../../client/src/app/screens/layout/editor/fitting';
 import { surveyElevationChanges, withSurveyElevations } from '../../client/src/app/screens/layout/editor/survey';
 import type { NetworkDocument } from '../../engine/network-document';
 
-const survey = { points: [
-  { label: 'Gate post', x_m: 0, y_m: 0, elevation_m: 52.4 },
-  { label: 'Spring', x_m: 200, y_m: 80, elevation_m: 71.0 },
-] };
+const survey = {
+  points: [
+    { label: 'Gate post', x_m: 0, y_m: 0, elevation_m: 52.4 },
+    { label: 'Spring', x_m: 200, y_m: 80, elevation_m: 71.0 },
+  ],
+};
 
 function doc(): NetworkDocument {
   return {
-    schema: 'runnel.network/1', headloss: 'hazen-williams', layout: { survey },
+    schema: 'runnel.network/1',
+    headloss: 'hazen-williams',
+    layout: { survey },
     nodes: [
       { id: 'S1', name: 'Spring box', kind: 'source', elevation_m: 60, head_m: 60.3, x_m: 205, y_m: 80 },
       { id: 'O1', name: 'Trough', kind: 'outlet', elevation_m: 50, demand_m3s: 0.0001, x_m: 3, y_m: 4 },
@@ -24,11 +28,14 @@ function doc(): NetworkDocument {
 describe('Layout: survey points (newcomer item 6)', () => {
   it('previews the elevation each nearby element would take, names the point and its distance, and leaves far ones alone', () => {
     const changes = surveyElevationChanges(doc());
-    expect(changes.map((c) => [c.id, c.to_m, c.point])).to.deep.equal([['S1', 71.0, 'Spring'], ['O1', 52.4, 'Gate post']]);
+    expect(changes.map((c) => [c.id, c.to_m, c.point])).to.deep.equal([
+      ['S1', 71.0, 'Spring'],
+      ['O1', 52.4, 'Gate post'],
+    ]);
     expect(changes[1].distance_m).to.be.closeTo(5, 1e-9); // 3-4-5 triangle
   });
 
-  it('applying moves a source\'s water surface with its ground and marks each elevation as from the survey', () => {
+  it("applying moves a source's water surface with its ground and marks each elevation as from the survey", () => {
     const d = withSurveyElevations(doc(), surveyElevationChanges(doc()));
     const s = d.nodes.find((n) => n.id === 'S1')!;
     expect(s.elevation_m).to.equal(71);

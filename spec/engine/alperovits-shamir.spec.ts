@@ -9,7 +9,16 @@ import { solve } from '../../engine/steady';
  */
 const ELEVATION = [150, 160, 155, 150, 165, 160];
 const DEMAND_M3H = [100, 100, 120, 270, 330, 200];
-const PIPES: [number, number][] = [[1, 2], [2, 3], [2, 4], [4, 5], [4, 6], [6, 7], [3, 5], [7, 5]];
+const PIPES: [number, number][] = [
+  [1, 2],
+  [2, 3],
+  [2, 4],
+  [4, 5],
+  [4, 6],
+  [6, 7],
+  [3, 5],
+  [7, 5],
+];
 const LEAST_COST_IN = [18, 10, 16, 4, 16, 10, 10, 1];
 const COST_PER_M: Record<number, number> = { 1: 2, 2: 5, 3: 8, 4: 11, 6: 16, 8: 23, 10: 32, 12: 50, 14: 60, 16: 90, 18: 130, 20: 170, 22: 300, 24: 550 };
 
@@ -22,7 +31,13 @@ function twoLoopNetwork(diameters_in: number[] = LEAST_COST_IN): NetworkDocument
       ...ELEVATION.map((e, i) => ({ id: String(i + 2), kind: 'tee' as const, elevation_m: e, demand_m3s: DEMAND_M3H[i] / 3600 })),
     ],
     links: PIPES.map(([a, b], k) => ({
-      id: `P${k + 1}`, kind: 'pipe' as const, from: String(a), to: String(b), length_m: 1000, diameter_m: diameters_in[k] * 0.0254, roughness: 130,
+      id: `P${k + 1}`,
+      kind: 'pipe' as const,
+      from: String(a),
+      to: String(b),
+      length_m: 1000,
+      diameter_m: diameters_in[k] * 0.0254,
+      roughness: 130,
     })),
   };
 }

@@ -1,6 +1,15 @@
 import { expect } from 'chai';
 import {
-  applyBudget, demandFromFixtureUnits, fixturePeak, layoutDifferences, planBudget, BudgetInputError, DEFAULT_RATES, validateBudget, type BudgetDocument, type BudgetUse,
+  applyBudget,
+  demandFromFixtureUnits,
+  fixturePeak,
+  layoutDifferences,
+  planBudget,
+  BudgetInputError,
+  DEFAULT_RATES,
+  validateBudget,
+  type BudgetDocument,
+  type BudgetUse,
 } from '../../engine/budget';
 import { hillSmallholding } from '../../engine/examples/hill-smallholding';
 import { hillSmallholdingBudget } from '../../engine/examples/hill-smallholding-budget';
@@ -40,13 +49,16 @@ describe('water budget: per-unit needs against published figures', () => {
     const acre = planBudget(budget([{ id: 'a', name: 'Field', kind: 'garden', area_m2: 4046.8564224, depth_m_day: IN, months: ALL, outlets: [] }]));
     expect(acre.uses[0].monthly_m3_day[0] / GAL).to.be.closeTo(27154, 1);
   });
-  it("fruit tree worked example: 10 ft² canopy at 0.20 in/day = 1.25 gal/day (Vossen, UC Cooperative Extension, V2)", () => {
+  it('fruit tree worked example: 10 ft² canopy at 0.20 in/day = 1.25 gal/day (Vossen, UC Cooperative Extension, V2)', () => {
     const plan = planBudget(budget([{ id: 't', name: 'Canopy', kind: 'garden', area_m2: 10 * FT2, depth_m_day: 0.2 * IN, months: ALL, outlets: [] }]));
     expect(plan.uses[0].monthly_m3_day[0] / GAL).to.be.closeTo(1.25, 0.01);
   });
   it('a project override of a defaults row replaces the table figure and names its source', () => {
-    const plan = planBudget(budget([{ id: 's', name: 'Flock', kind: 'livestock', rate_key: 'sheep', count: 10, months: ALL, outlets: [] }],
-      { rates: { sheep: { rate: 0.005, hot_rate: 0.02, source: 'our own meter, 2025' } } }));
+    const plan = planBudget(
+      budget([{ id: 's', name: 'Flock', kind: 'livestock', rate_key: 'sheep', count: 10, months: ALL, outlets: [] }], {
+        rates: { sheep: { rate: 0.005, hot_rate: 0.02, source: 'our own meter, 2025' } },
+      }),
+    );
     expect(plan.uses[0].rate_from).to.equal('project');
     expect(plan.uses[0].source).to.equal('our own meter, 2025');
     expect(plan.uses[0].monthly_m3_day[6]).to.be.closeTo(0.2, 1e-12);
@@ -68,10 +80,12 @@ describe('water budget: totals and outlet flows (hand-worked, C)', () => {
     expect(plan.outlets[0].shares[0].source).to.match(/Nebraska/);
   });
   it('a use shared by two outlets splits equally; an outlet serving two uses sums them', () => {
-    const plan = planBudget(budget([
-      { ...cows, outlets: ['A', 'B'] },
-      { id: 'h', name: 'House', kind: 'other', daily_m3: 0.72, months: ALL, outlets: ['B'], window_h: 2 },
-    ]));
+    const plan = planBudget(
+      budget([
+        { ...cows, outlets: ['A', 'B'] },
+        { id: 'h', name: 'House', kind: 'other', daily_m3: 0.72, months: ALL, outlets: ['B'], window_h: 2 },
+      ]),
+    );
     const a = plan.outlets.find((o) => o.id === 'A');
     const b = plan.outlets.find((o) => o.id === 'B');
     expect(b!.design_flow_m3s - a!.design_flow_m3s).to.be.closeTo(0.72 / 7200, 1e-15);
@@ -123,14 +137,24 @@ describe('water budget: totals and outlet flows (hand-worked, C)', () => {
 describe('water budget: storage and fill (hand-worked, C)', () => {
   // one 2 m tank, 0.2–2.2 m: usable π·1²·2 = 6.2832 m³; a solar pump of 0.5 L/s at 5 peak-sun hours fills 9 m³/day
   const net: NetworkDocument = {
-    schema: 'runnel.network/1', headloss: 'hazen-williams',
+    schema: 'runnel.network/1',
+    headloss: 'hazen-williams',
     nodes: [
       { id: 'W', kind: 'source', elevation_m: 0, head_m: 0 },
       { id: 'T', kind: 'tank', elevation_m: 20, diameter_m: 2, level_m: 1, min_level_m: 0.2, max_level_m: 2.2 },
       { id: 'O', kind: 'outlet', elevation_m: 5, demand_m3s: 0 },
     ],
     links: [
-      { id: 'PU', kind: 'pump', from: 'W', to: 'T', flow_m3s: 0.0005, schedule: Array(24).fill(0).map((_, h) => (h >= 8 && h < 16 ? 1 : 0)) },
+      {
+        id: 'PU',
+        kind: 'pump',
+        from: 'W',
+        to: 'T',
+        flow_m3s: 0.0005,
+        schedule: Array(24)
+          .fill(0)
+          .map((_, h) => (h >= 8 && h < 16 ? 1 : 0)),
+      },
       { id: 'P', kind: 'pipe', from: 'T', to: 'O', length_m: 100, diameter_m: 0.05, roughness: 150 },
     ],
   };
@@ -154,10 +178,13 @@ describe('water budget: storage and fill (hand-worked, C)', () => {
     const plan = planBudget(budget(uses(10), { peak_sun_hours: [5, 5, 5, 5, 5, 5, 2, 5, 5, 5, 5, 5] }), net);
     expect(plan.verdicts![6].status).to.equal('short-and-storage-low');
     expect(plan.verdicts![6].balance_m3).to.be.closeTo(0.0005 * 2 * 3600 - 10, 1e-9);
-    expect(plan.warnings).to.include("PU: fill pump too small in Jul: fills 3,600 L/day for a need of 10,000 L/day (short by 6,400 L/day)");
+    expect(plan.warnings).to.include('PU: fill pump too small in Jul: fills 3,600 L/day for a need of 10,000 L/day (short by 6,400 L/day)');
   });
   it('a pump on a curve fills at its flow at the lift, as the steady solve gives it', () => {
-    const curved: NetworkDocument = { ...net, links: net.links.map((l) => (l.kind === 'pump' ? { id: 'PU', kind: 'pump', from: 'W', to: 'T', curve: [[0.001, 25]] } : l)) };
+    const curved: NetworkDocument = {
+      ...net,
+      links: net.links.map((l) => (l.kind === 'pump' ? { id: 'PU', kind: 'pump', from: 'W', to: 'T', curve: [[0.001, 25]] } : l)),
+    };
     const plan = planBudget(budget(uses(1)), curved);
     expect(plan.fill?.flow_from).to.equal('solve');
     expect(plan.fill?.flow_m3s).to.be.closeTo(solve(curved).links['PU'].flow_m3s, 1e-12);
@@ -167,7 +194,20 @@ describe('water budget: storage and fill (hand-worked, C)', () => {
   });
   it('the demo budget: plausible months, storage short of 3 days only in the hot months', () => {
     const plan = planBudget(hillSmallholdingBudget, hillSmallholding);
-    expect(plan.verdicts!.map((v) => v.status)).to.deep.equal(['enough', 'enough', 'enough', 'enough', 'enough', 'storage-low', 'storage-low', 'storage-low', 'enough', 'enough', 'enough', 'enough']);
+    expect(plan.verdicts!.map((v) => v.status)).to.deep.equal([
+      'enough',
+      'enough',
+      'enough',
+      'enough',
+      'enough',
+      'storage-low',
+      'storage-low',
+      'storage-low',
+      'enough',
+      'enough',
+      'enough',
+      'enough',
+    ]);
     expect(plan.warnings.filter((w) => /not an outlet/.test(w))).to.deep.equal([]);
   });
 });
@@ -176,13 +216,23 @@ describe('water budget: bad input names the row and field', () => {
   const base = budget([]);
   const problems = (uses: unknown[], extra: Record<string, unknown> = {}) => validateBudget({ ...base, uses, ...extra });
   it('negative head counts, zero-area zones, months out of range, bad windows', () => {
-    expect(problems([{ id: 'a', name: 'Cows', kind: 'livestock', count: -3, months: [1], outlets: [] }])).to.deep.equal(['uses[0] "Cows".count: must be a whole number ≥ 0 (got -3)']);
-    expect(problems([{ id: 'a', name: 'Beds', kind: 'garden', area_m2: 0, months: [1], outlets: [] }])).to.deep.equal(['uses[0] "Beds".area_m2: must be a number > 0 (got 0)']);
+    expect(problems([{ id: 'a', name: 'Cows', kind: 'livestock', count: -3, months: [1], outlets: [] }])).to.deep.equal([
+      'uses[0] "Cows".count: must be a whole number ≥ 0 (got -3)',
+    ]);
+    expect(problems([{ id: 'a', name: 'Beds', kind: 'garden', area_m2: 0, months: [1], outlets: [] }])).to.deep.equal([
+      'uses[0] "Beds".area_m2: must be a number > 0 (got 0)',
+    ]);
     expect(problems([{ id: 'a', name: 'X', kind: 'other', daily_m3: 1, months: [0, 13], outlets: [] }])).to.deep.equal([
-      'uses[0] "X".months[0]: must be a whole month 1–12 (got 0)', 'uses[0] "X".months[1]: must be a whole month 1–12 (got 13)']);
-    expect(problems([{ id: 'a', name: 'X', kind: 'other', daily_m3: 1, months: [1], outlets: [], window_h: 0 }])).to.deep.equal(['uses[0] "X".window_h: must be hours in (0, 24] (got 0)']);
+      'uses[0] "X".months[0]: must be a whole month 1–12 (got 0)',
+      'uses[0] "X".months[1]: must be a whole month 1–12 (got 13)',
+    ]);
+    expect(problems([{ id: 'a', name: 'X', kind: 'other', daily_m3: 1, months: [1], outlets: [], window_h: 0 }])).to.deep.equal([
+      'uses[0] "X".window_h: must be hours in (0, 24] (got 0)',
+    ]);
     expect(problems([], { peak_sun_hours: [1, 2] })).to.deep.equal(['peak_sun_hours: must be a list of 12 numbers (January first)']);
-    expect(problems([{ id: 'a', name: 'X', kind: 'livestock', rate_key: 'garden', count: 1, months: [1], outlets: [] }])[0]).to.match(/rate_key: row garden is for garden/);
+    expect(problems([{ id: 'a', name: 'X', kind: 'livestock', rate_key: 'garden', count: 1, months: [1], outlets: [] }])[0]).to.match(
+      /rate_key: row garden is for garden/,
+    );
   });
   it('planBudget throws BudgetInputError carrying every problem', () => {
     expect(() => planBudget({ ...base, peak_factor: 0.5 })).to.throw(BudgetInputError, 'peak_factor: must be a number ≥ 1 (got 0.5)');
@@ -207,9 +257,18 @@ describe('water budget: a house by its fixtures, a tunnel by its rows', () => {
     // a second hose bibb adds 1.0, not 2.5 (Table E103.3(2) note, M)
     expect(fixturePeak({ 'hose-bibb': 2 }).fixture_units).to.equal(3.5);
   });
-  it('a household by fixtures keeps its daily need per person and sets its outlet\'s flow to the peak', () => {
-    const use: BudgetUse = { id: 'h', name: 'House', kind: 'household', rate_key: 'household', count: 3, months: ALL, outlets: ['HOUSE'], window_h: 6,
-      fixtures: { 'toilet-tank': 1, lavatory: 1, shower: 1, 'kitchen-sink': 1, 'clothes-washer': 1, 'hose-bibb': 1 } };
+  it("a household by fixtures keeps its daily need per person and sets its outlet's flow to the peak", () => {
+    const use: BudgetUse = {
+      id: 'h',
+      name: 'House',
+      kind: 'household',
+      rate_key: 'household',
+      count: 3,
+      months: ALL,
+      outlets: ['HOUSE'],
+      window_h: 6,
+      fixtures: { 'toilet-tank': 1, lavatory: 1, shower: 1, 'kitchen-sink': 1, 'clothes-washer': 1, 'hose-bibb': 1 },
+    };
     const plan = planBudget(budget([use]));
     // 3 people × 75 gal in July (defaults row, M) = 225 gal/day
     expect(plan.uses[0].peak_m3_day / GAL).to.be.closeTo(225, 1e-9);
@@ -221,7 +280,7 @@ describe('water budget: a house by its fixtures, a tunnel by its rows', () => {
     const perPerson = planBudget(budget([{ ...use, fixtures: undefined }])).outlets[0];
     expect(perPerson.design_flow_m3s / GPM).to.be.closeTo(225 / 360, 1e-9);
   });
-  it('a tunnel by rows: rows × length × emitter flow ÷ spacing, run hours a day (hand-worked, C; within Delaware State\'s 5–50 gal/day per 100 ft of row, V2)', () => {
+  it("a tunnel by rows: rows × length × emitter flow ÷ spacing, run hours a day (hand-worked, C; within Delaware State's 5–50 gal/day per 100 ft of row, V2)", () => {
     const FT = 0.3048;
     // 4 rows × 100 ft, emitters 1 gph every 12 in: 400 emitters = 400 gph = 6.667 gpm; 1 h a day (1.5 h in July) (C)
     const drip = { rows: 4, row_length_m: 100 * FT, emitter_spacing_m: FT, emitter_flow_m3s: GAL / 3600, run_h: 1, hot_run_h: 1.5 };
@@ -242,8 +301,17 @@ describe('water budget: a house by its fixtures, a tunnel by its rows', () => {
     expect(validateBudget(budget([house]))).to.include('uses[0] "House".fixtures.shower: must be a whole number ≥ 0 (got -1)');
     expect(validateBudget(budget([{ ...house, fixtures: { sauna: 1 } as never }]))[0]).to.match(/fixtures\.sauna: no such fixture/);
     expect(validateBudget(budget([{ ...house, fixtures: { 'toilet-tank': 50 } }]))[0]).to.match(/110 fixture units is beyond this table \(100\)/);
-    const tunnel: BudgetUse = { id: 't', name: 'Tunnel', kind: 'tunnel', months: ALL, outlets: [], drip: { rows: 0, row_length_m: 30, run_h: 1, tape_flow_m3s_per_m: 1e-6 } };
+    const tunnel: BudgetUse = {
+      id: 't',
+      name: 'Tunnel',
+      kind: 'tunnel',
+      months: ALL,
+      outlets: [],
+      drip: { rows: 0, row_length_m: 30, run_h: 1, tape_flow_m3s_per_m: 1e-6 },
+    };
     expect(validateBudget(budget([tunnel]))).to.deep.equal(['uses[0] "Tunnel".drip.rows: must be a whole number ≥ 1 (got 0)']);
-    expect(validateBudget(budget([{ ...tunnel, drip: { rows: 2, row_length_m: 30, run_h: 1 } }]))).to.deep.equal(['uses[0] "Tunnel".drip: give the emitter spacing and flow, or the tape flow per length']);
+    expect(validateBudget(budget([{ ...tunnel, drip: { rows: 2, row_length_m: 30, run_h: 1 } }]))).to.deep.equal([
+      'uses[0] "Tunnel".drip: give the emitter spacing and flow, or the tape flow per length',
+    ]);
   });
 });

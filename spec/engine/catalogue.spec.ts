@@ -5,8 +5,12 @@ import { PSI_PER_METRE_OF_WATER } from '../../engine/units';
 describe('pipe catalogue (pipe-catalogue.ts)', () => {
   // ASTM D1785 Schedule 40 PVC (V2, REFERENCES.md)
   const d1785: [string, number, number, number, number][] = [
-    ['1/2"', 0.84, 0.109, 0.622, 600], ['3/4"', 1.05, 0.113, 0.824, 480], ['1"', 1.315, 0.133, 1.049, 450],
-    ['1-1/4"', 1.66, 0.14, 1.38, 370], ['1-1/2"', 1.9, 0.145, 1.61, 330], ['2"', 2.375, 0.154, 2.067, 280],
+    ['1/2"', 0.84, 0.109, 0.622, 600],
+    ['3/4"', 1.05, 0.113, 0.824, 480],
+    ['1"', 1.315, 0.133, 1.049, 450],
+    ['1-1/4"', 1.66, 0.14, 1.38, 370],
+    ['1-1/2"', 1.9, 0.145, 1.61, 330],
+    ['2"', 2.375, 0.154, 2.067, 280],
   ];
   for (const [nominal, od, wall, id, psi] of d1785) {
     it(`Sch 40 ${nominal}: OD ${od} in, wall ${wall} in, ID ${id} in, ${psi} psi (ASTM D1785, V2)`, () => {
@@ -23,12 +27,21 @@ describe('pipe catalogue (pipe-catalogue.ts)', () => {
     });
   }
   it('D2241 SDR 21 = 200 psi and SDR 26 = 160 psi, wall = OD/SDR (V2, C)', () => {
-    for (const s of pipeSizes('pvc-sdr21')) { expect(s.rating_psi).to.equal(200); expect(s.wall_in).to.be.closeTo(Math.max(s.od_in / 21, 0.06), 1e-12); }
-    for (const s of pipeSizes('pvc-sdr26')) { expect(s.rating_psi).to.equal(160); expect(s.id_in).to.be.closeTo(s.od_in - 2 * Math.max(s.od_in / 26, 0.06), 1e-12); }
+    for (const s of pipeSizes('pvc-sdr21')) {
+      expect(s.rating_psi).to.equal(200);
+      expect(s.wall_in).to.be.closeTo(Math.max(s.od_in / 21, 0.06), 1e-12);
+    }
+    for (const s of pipeSizes('pvc-sdr26')) {
+      expect(s.rating_psi).to.equal(160);
+      expect(s.id_in).to.be.closeTo(s.od_in - 2 * Math.max(s.od_in / 26, 0.06), 1e-12);
+    }
     expect(findPipeSize('pvc-sdr21', '2"')?.od_in).to.equal(findPipeSize('pvc-sch40', '2"')?.od_in);
   });
   it('D3035 PE DR 11: PE4710 200 psi, PE3608 160 psi, IPS OD (V, Plastics Pipe Institute)', () => {
-    for (const s of pipeSizes('pe-dr11-pe4710')) { expect(s.rating_psi).to.equal(200); expect(s.wall_in).to.be.closeTo(s.od_in / 11, 1e-12); }
+    for (const s of pipeSizes('pe-dr11-pe4710')) {
+      expect(s.rating_psi).to.equal(200);
+      expect(s.wall_in).to.be.closeTo(s.od_in / 11, 1e-12);
+    }
     for (const s of pipeSizes('pe-dr11-pe3608')) expect(s.rating_psi).to.equal(160);
     expect(findPipeSize('pe-dr11-pe4710', '1"')?.od_in).to.equal(1.315);
   });

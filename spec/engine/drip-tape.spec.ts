@@ -45,7 +45,13 @@ describe('Drip tape: a zone as rows × row length of tape (engine/drip-tape)', (
     expect(ok.status).to.equal(0);
     expect(JSON.parse(ok.stdout)[0].emitters).to.equal(500);
     const bad = join(dir, 'bad.json');
-    writeFileSync(bad, JSON.stringify([{ rows: 6, row_length_m: 25, flow_per_m_m3s: 1e-6 }, { rows: 0, row_length_m: 25, flow_per_m_m3s: 1e-6 }]));
+    writeFileSync(
+      bad,
+      JSON.stringify([
+        { rows: 6, row_length_m: 25, flow_per_m_m3s: 1e-6 },
+        { rows: 0, row_length_m: 25, flow_per_m_m3s: 1e-6 },
+      ]),
+    );
     const no = spawnSync(process.execPath, ['--import', 'tsx', 'engine/drip-tape/cli.ts', bad], { encoding: 'utf8' });
     expect(no.status).to.equal(2);
     expect(no.stderr.trim()).to.equal('row 2: rows: must be a whole number of rows, at least 1');

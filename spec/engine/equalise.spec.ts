@@ -42,7 +42,8 @@ describe('tank-bank equalisation (equalise.ts)', () => {
     // header: 6 m of 2" Sch 40 (ID 2.067 in), C = 150, no minor loss; tanks 2.44 m across
     const d = 2.067 * 0.0254;
     const doc: NetworkDocument = {
-      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
       nodes: [
         { id: 'T1', kind: 'tank', elevation_m: 100, diameter_m: 2.44, level_m: 1.8, min_level_m: 0, max_level_m: 2, bank: 'b' },
         { id: 'T2', kind: 'tank', elevation_m: 100, diameter_m: 2.44, level_m: 0.6, min_level_m: 0, max_level_m: 2, bank: 'b' },

@@ -22,29 +22,45 @@ import type { SteadyResult } from '../../engine/steady';
  */
 
 const G = 9.80665;
-const hw = (q: number, L: number, D: number, C: number): number => (10.67 * L * Math.sign(q) * Math.pow(Math.abs(q), 1.852)) / (Math.pow(C, 1.852) * Math.pow(D, 4.8704));
+const hw = (q: number, L: number, D: number, C: number): number =>
+  (10.67 * L * Math.sign(q) * Math.pow(Math.abs(q), 1.852)) / (Math.pow(C, 1.852) * Math.pow(D, 4.8704));
 const minorLoss = (K: number, D: number, q: number): number => (8 * K * q * Math.abs(q)) / (G * Math.PI * Math.PI * D ** 4);
 const DIAMETERS = [0.0209, 0.0266, 0.0351, 0.0525, 0.0779];
 
 export interface Gen {
-  n: number; parents: number[]; extra: [number, number][]; elev: number[]; demand: number[]; kind: number[]; diam: number[]; len: number[];
-  sources: number; tanks: number; valves: { at: number; type: number; reverse: boolean; setting: number }[]; pumps: { at: number; curve: boolean }[];
+  n: number;
+  parents: number[];
+  extra: [number, number][];
+  elev: number[];
+  demand: number[];
+  kind: number[];
+  diam: number[];
+  len: number[];
+  sources: number;
+  tanks: number;
+  valves: { at: number; type: number; reverse: boolean; setting: number }[];
+  pumps: { at: number; curve: boolean }[];
 }
 
-export const genArb = fc.integer({ min: 4, max: 22 }).chain((n) => fc.record({
-  n: fc.constant(n),
-  parents: fc.array(fc.nat(), { minLength: n - 1, maxLength: n - 1 }),
-  extra: fc.array(fc.tuple(fc.nat(n - 1), fc.nat(n - 1)), { maxLength: 5 }),
-  elev: fc.array(fc.double({ min: 0, max: 30, noNaN: true }), { minLength: n, maxLength: n }),
-  demand: fc.array(fc.double({ min: 0, max: 0.0015, noNaN: true }), { minLength: n, maxLength: n }),
-  kind: fc.array(fc.integer({ min: 0, max: 4 }), { minLength: n, maxLength: n }),
-  diam: fc.array(fc.constantFrom(...DIAMETERS), { minLength: n + 5, maxLength: n + 5 }),
-  len: fc.array(fc.double({ min: 5, max: 300, noNaN: true }), { minLength: n + 5, maxLength: n + 5 }),
-  sources: fc.integer({ min: 1, max: 2 }),
-  tanks: fc.integer({ min: 0, max: 1 }),
-  valves: fc.array(fc.record({ at: fc.nat(n + 4), type: fc.integer({ min: 0, max: 5 }), reverse: fc.boolean(), setting: fc.double({ min: 5, max: 40, noNaN: true }) }), { maxLength: 5 }),
-  pumps: fc.array(fc.record({ at: fc.nat(n + 4), curve: fc.boolean() }), { maxLength: 2 }),
-}));
+export const genArb = fc.integer({ min: 4, max: 22 }).chain((n) =>
+  fc.record({
+    n: fc.constant(n),
+    parents: fc.array(fc.nat(), { minLength: n - 1, maxLength: n - 1 }),
+    extra: fc.array(fc.tuple(fc.nat(n - 1), fc.nat(n - 1)), { maxLength: 5 }),
+    elev: fc.array(fc.double({ min: 0, max: 30, noNaN: true }), { minLength: n, maxLength: n }),
+    demand: fc.array(fc.double({ min: 0, max: 0.0015, noNaN: true }), { minLength: n, maxLength: n }),
+    kind: fc.array(fc.integer({ min: 0, max: 4 }), { minLength: n, maxLength: n }),
+    diam: fc.array(fc.constantFrom(...DIAMETERS), { minLength: n + 5, maxLength: n + 5 }),
+    len: fc.array(fc.double({ min: 5, max: 300, noNaN: true }), { minLength: n + 5, maxLength: n + 5 }),
+    sources: fc.integer({ min: 1, max: 2 }),
+    tanks: fc.integer({ min: 0, max: 1 }),
+    valves: fc.array(
+      fc.record({ at: fc.nat(n + 4), type: fc.integer({ min: 0, max: 5 }), reverse: fc.boolean(), setting: fc.double({ min: 5, max: 40, noNaN: true }) }),
+      { maxLength: 5 },
+    ),
+    pumps: fc.array(fc.record({ at: fc.nat(n + 4), curve: fc.boolean() }), { maxLength: 2 }),
+  }),
+);
 
 export function build(g: Gen): NetworkDocument {
   const nodes: NetworkNode[] = [];
@@ -53,8 +69,16 @@ export function build(g: Gen): NetworkDocument {
     if (i < g.sources) nodes.push({ id, kind: 'source', elevation_m: 60 + 3 * i, head_m: 60 + 3 * i });
     else if (i < g.sources + g.tanks) nodes.push({ id, kind: 'tank', elevation_m: 45, diameter_m: 2, level_m: 1.5, min_level_m: 0.2, max_level_m: 2 });
     else if (g.kind[i] === 0) nodes.push({ id, kind: 'tee', elevation_m: g.elev[i], demand_m3s: g.demand[i] });
-    else if (g.kind[i] === 1) nodes.push({ id, kind: 'outlet', elevation_m: g.elev[i], demand_m3s: g.demand[i], demand_model: { type: 'pressure-dependent', required_pressure_m: 15, zero_pressure_m: 2 } });
-    else if (g.kind[i] === 2) nodes.push({ id, kind: 'outlet', elevation_m: g.elev[i], demand_m3s: 0, demand_model: { type: 'emitter', k: 1e-5 + g.demand[i] / 20, exponent: 0.5 } });
+    else if (g.kind[i] === 1)
+      nodes.push({
+        id,
+        kind: 'outlet',
+        elevation_m: g.elev[i],
+        demand_m3s: g.demand[i],
+        demand_model: { type: 'pressure-dependent', required_pressure_m: 15, zero_pressure_m: 2 },
+      });
+    else if (g.kind[i] === 2)
+      nodes.push({ id, kind: 'outlet', elevation_m: g.elev[i], demand_m3s: 0, demand_model: { type: 'emitter', k: 1e-5 + g.demand[i] / 20, exponent: 0.5 } });
     else nodes.push({ id, kind: 'outlet', elevation_m: g.elev[i], demand_m3s: g.demand[i], min_pressure_m: 10 });
   }
   const links: NetworkLink[] = [];
@@ -67,11 +91,33 @@ export function build(g: Gen): NetworkDocument {
   ends.forEach(([a, b], k) => {
     const r = replaced.get(k);
     const id = `L${k}`;
-    const pipe: PipeLink = { id, kind: 'pipe', from: `N${a}`, to: `N${b}`, length_m: g.len[k % g.len.length], diameter_m: g.diam[k % g.diam.length], roughness: 140, minor_loss: k % 3 === 0 ? 1.5 : 0 };
-    if (!r) { links.push(pipe); return; }
+    const pipe: PipeLink = {
+      id,
+      kind: 'pipe',
+      from: `N${a}`,
+      to: `N${b}`,
+      length_m: g.len[k % g.len.length],
+      diameter_m: g.diam[k % g.diam.length],
+      roughness: 140,
+      minor_loss: k % 3 === 0 ? 1.5 : 0,
+    };
+    if (!r) {
+      links.push(pipe);
+      return;
+    }
     if ('pump' in r) {
       const pump: PumpLink = r.curve
-        ? { id, kind: 'pump', from: `N${a}`, to: `N${b}`, curve: [[0, 30], [0.002, 24], [0.004, 10]] }
+        ? {
+            id,
+            kind: 'pump',
+            from: `N${a}`,
+            to: `N${b}`,
+            curve: [
+              [0, 30],
+              [0.002, 24],
+              [0.004, 10],
+            ],
+          }
         : { id, kind: 'pump', from: `N${a}`, to: `N${b}`, flow_m3s: 0.0005 };
       links.push(pump);
       return;
@@ -130,7 +176,10 @@ export function violation(doc: NetworkDocument, r: SteadyResult): string | null 
     }
     if (link.kind === 'pump') {
       if (link.curve) {
-        if (res.status === 'check-closed') { if (q !== 0 || dh + 30 > lawTol) return `${link.id}: pump held shut but its 30 m shut-off head exceeds the lift ${-dh} m`; continue; }
+        if (res.status === 'check-closed') {
+          if (q !== 0 || dh + 30 > lawTol) return `${link.id}: pump held shut but its 30 m shut-off head exceeds the lift ${-dh} m`;
+          continue;
+        }
         const miss = Math.abs(pumpGain(link.curve, q) + dh);
         if (miss > lawTol || q < -flowTol) return `${link.id}: pump curve misses by ${miss} at ${q}`;
       } else if (Math.abs(q - (link.flow_m3s ?? 0)) > flowTol) return `${link.id}: pump flow ${q}`;
@@ -139,18 +188,26 @@ export function violation(doc: NetworkDocument, r: SteadyResult): string | null 
     const v = link as ValveLink;
     const open = (): number => Math.abs(minorLoss(v.minor_loss ?? 0, v.diameter_m, q) - dh);
     if (v.valve_type === 'shutoff') {
-      if (v.open === false) { if (q !== 0) return `${v.id}: shut but flows`; } else if (open() > lawTol) return `${v.id}: open-valve law misses by ${open()}`;
+      if (v.open === false) {
+        if (q !== 0) return `${v.id}: shut but flows`;
+      } else if (open() > lawTol) return `${v.id}: open-valve law misses by ${open()}`;
     } else if (v.valve_type === 'check') {
-      if (res.status === 'check-closed') { if (q !== 0 || dh > lawTol) return `${v.id}: held shut against a forward head ${dh}`; } else if (open() > lawTol || q < -flowTol) return `${v.id}: check valve law misses by ${open()} (q ${q})`;
+      if (res.status === 'check-closed') {
+        if (q !== 0 || dh > lawTol) return `${v.id}: held shut against a forward head ${dh}`;
+      } else if (open() > lawTol || q < -flowTol) return `${v.id}: check valve law misses by ${open()} (q ${q})`;
     } else if (v.valve_type === 'float') {
-      if (res.status === 'closed') { if (q !== 0) return `${v.id}: shut float valve flows`; } else if (open() > lawTol) return `${v.id}: float valve law misses by ${open()}`;
+      if (res.status === 'closed') {
+        if (q !== 0) return `${v.id}: shut float valve flows`;
+      } else if (open() > lawTol) return `${v.id}: float valve law misses by ${open()}`;
     } else {
       const to = node.get(v.to)!;
       const hset = to.elevation_m + (v.setting_m ?? 0);
       if (res.status === 'active') {
-        if (Math.abs(H(v.to) - hset) > lawTol || q < -flowTol || dh < minorLoss(v.minor_loss ?? 0, v.diameter_m, q) - lawTol) return `${v.id}: active PRV off its setting (${H(v.to)} vs ${hset}, q ${q})`;
+        if (Math.abs(H(v.to) - hset) > lawTol || q < -flowTol || dh < minorLoss(v.minor_loss ?? 0, v.diameter_m, q) - lawTol)
+          return `${v.id}: active PRV off its setting (${H(v.to)} vs ${hset}, q ${q})`;
       } else if (res.status === 'open') {
-        if (open() > lawTol || q < -flowTol || (to.kind !== 'source' && to.kind !== 'tank' && H(v.to) > hset + lawTol)) return `${v.id}: open PRV breaks its law (q ${q}, downstream ${H(v.to)} vs ${hset})`;
+        if (open() > lawTol || q < -flowTol || (to.kind !== 'source' && to.kind !== 'tank' && H(v.to) > hset + lawTol))
+          return `${v.id}: open PRV breaks its law (q ${q}, downstream ${H(v.to)} vs ${hset})`;
       } else {
         if (q !== 0) return `${v.id}: closed PRV flows`;
         const wouldOpen = H(v.to) < hset - lawTol && H(v.from) > H(v.to) + lawTol;
@@ -172,7 +229,11 @@ export function violation(doc: NetworkDocument, r: SteadyResult): string | null 
       // compared as pressures: the square-root law is infinitely steep at p0
       const pOf = (qq: number): number => p0 + (preq - p0) * (qq / full) ** 2;
       // a full demand below the balance tolerance is nothing to test the law on
-      const ok = (full <= flowTol && d >= -flowTol && d <= full + flowTol) || (d >= full - flowTol && p >= preq - lawTol) || (d <= flowTol && p <= p0 + lawTol) || Math.abs(pOf(d) - p) <= lawTol;
+      const ok =
+        (full <= flowTol && d >= -flowTol && d <= full + flowTol) ||
+        (d >= full - flowTol && p >= preq - lawTol) ||
+        (d <= flowTol && p <= p0 + lawTol) ||
+        Math.abs(pOf(d) - p) <= lawTol;
       if (!ok) return `${x.id}: outlet delivers ${d} at ${p} m, its law says ${expected}`;
     } else if (x.kind === 'outlet' && x.demand_model?.type === 'emitter') {
       const { k, exponent } = x.demand_model;
@@ -182,4 +243,3 @@ export function violation(doc: NetworkDocument, r: SteadyResult): string | null 
   }
   return null;
 }
-

@@ -23,7 +23,11 @@ describe('geo reference (plan metres ⇄ WGS 84)', () => {
 
   it('toLocal inverts toLonLat to the millimetre, also rotated and scaled', () => {
     const ref = { ...referenceAt(-33.9, 151.2), x0_m: 250, y0_m: -40, rotation_rad: 0.4, scale: 1.02 };
-    for (const [x, y] of [[0, 0], [1234.5, -877.25], [-3000, 2500]]) {
+    for (const [x, y] of [
+      [0, 0],
+      [1234.5, -877.25],
+      [-3000, 2500],
+    ]) {
       const [lon, lat] = toLonLat(ref, x, y);
       const back = toLocal(ref, lat, lon);
       expect(back.x_m).to.be.closeTo(x, 1e-3);
@@ -33,7 +37,10 @@ describe('geo reference (plan metres ⇄ WGS 84)', () => {
 
   it('two known points fix offset, rotation and scale', () => {
     const truth = { ...referenceAt(51.0, 7.0), x0_m: 10, y0_m: 20, rotation_rad: -0.3, scale: 0.5 };
-    const place = (x: number, y: number) => { const [lon, lat] = toLonLat(truth, x, y); return { x_m: x, y_m: y, lat, lon }; };
+    const place = (x: number, y: number) => {
+      const [lon, lat] = toLonLat(truth, x, y);
+      return { x_m: x, y_m: y, lat, lon };
+    };
     const ref = referenceFromTwoPoints(place(0, 0), place(400, 300));
     const [lon, lat] = toLonLat(ref, -200, 900);
     const [lon2, lat2] = toLonLat(truth, -200, 900);

@@ -40,11 +40,26 @@ describe('Hazen-Williams headloss (hazen-williams.ts)', () => {
 describe('Colebrook-White friction factor (colebrook.ts)', () => {
   // Colebrook-White (1939) solved exactly, table in REFERENCES.md (C), 6 significant figures.
   const table: [number, number, number][] = [
-    [4e3, 0, 0.039907], [4e3, 1e-4, 0.040008], [4e3, 1e-3, 0.04091], [4e3, 1e-2, 0.049082],
-    [1e4, 0, 0.030883], [1e4, 1e-4, 0.031037], [1e4, 1e-3, 0.032382], [1e4, 1e-2, 0.043127],
-    [1e5, 0, 0.01799], [1e5, 1e-4, 0.018514], [1e5, 1e-3, 0.022175], [1e5, 1e-2, 0.038504],
-    [1e6, 0, 0.011645], [1e6, 1e-4, 0.013441], [1e6, 1e-3, 0.019943], [1e6, 1e-2, 0.037965],
-    [1e7, 0, 0.008103], [1e7, 1e-4, 0.012166], [1e7, 1e-3, 0.019667], [1e7, 1e-2, 0.03791],
+    [4e3, 0, 0.039907],
+    [4e3, 1e-4, 0.040008],
+    [4e3, 1e-3, 0.04091],
+    [4e3, 1e-2, 0.049082],
+    [1e4, 0, 0.030883],
+    [1e4, 1e-4, 0.031037],
+    [1e4, 1e-3, 0.032382],
+    [1e4, 1e-2, 0.043127],
+    [1e5, 0, 0.01799],
+    [1e5, 1e-4, 0.018514],
+    [1e5, 1e-3, 0.022175],
+    [1e5, 1e-2, 0.038504],
+    [1e6, 0, 0.011645],
+    [1e6, 1e-4, 0.013441],
+    [1e6, 1e-3, 0.019943],
+    [1e6, 1e-2, 0.037965],
+    [1e7, 0, 0.008103],
+    [1e7, 1e-4, 0.012166],
+    [1e7, 1e-3, 0.019667],
+    [1e7, 1e-2, 0.03791],
   ];
   for (const [re, rr, f] of table) {
     it(`Re ${re.toExponential(0)}, ε/D ${rr}: f = ${f} (REFERENCES.md, C)`, () => {
@@ -52,11 +67,12 @@ describe('Colebrook-White friction factor (colebrook.ts)', () => {
     });
   }
   it('satisfies the Colebrook equation itself to 1e-12 (the defining identity)', () => {
-    for (const re of [2500, 3e4, 7e5, 5e7]) for (const rr of [0, 1e-5, 3e-3, 0.05]) {
-      const f = colebrookFactor(re, rr);
-      const residual = 1 / Math.sqrt(f) + 2 * Math.log10(rr / 3.7 + 2.51 / (re * Math.sqrt(f)));
-      expect(Math.abs(residual)).to.be.below(1e-12);
-    }
+    for (const re of [2500, 3e4, 7e5, 5e7])
+      for (const rr of [0, 1e-5, 3e-3, 0.05]) {
+        const f = colebrookFactor(re, rr);
+        const residual = 1 / Math.sqrt(f) + 2 * Math.log10(rr / 3.7 + 2.51 / (re * Math.sqrt(f)));
+        expect(Math.abs(residual)).to.be.below(1e-12);
+      }
   });
   it('reads about 0.0185 at Re 1e5, ε/D 1e-4 like the Moody (1944) chart (M)', () => {
     expect(colebrookFactor(1e5, 1e-4)).to.be.closeTo(0.0185, 0.0002);
@@ -66,11 +82,12 @@ describe('Colebrook-White friction factor (colebrook.ts)', () => {
 describe('Swamee-Jain explicit factor (swamee-jain.ts)', () => {
   const worst = (reLow: number): number => {
     let w = 0;
-    for (let le = Math.log10(reLow); le <= 8.0001; le += 0.05) for (let lr = -6; lr <= -1.9999; lr += 0.05) {
-      const re = 10 ** le;
-      const rr = 10 ** lr;
-      w = Math.max(w, Math.abs(swameeJainFactor(re, rr) / colebrookFactor(re, rr) - 1));
-    }
+    for (let le = Math.log10(reLow); le <= 8.0001; le += 0.05)
+      for (let lr = -6; lr <= -1.9999; lr += 0.05) {
+        const re = 10 ** le;
+        const rr = 10 ** lr;
+        w = Math.max(w, Math.abs(swameeJainFactor(re, rr) / colebrookFactor(re, rr) - 1));
+      }
     return w;
   };
   it('is within 2.1 % of Colebrook for Re 1e4–1e8, ε/D 1e-6–1e-2 (REFERENCES.md, C)', () => {

@@ -40,8 +40,11 @@ describe('document versions (engine/migrations.ts)', () => {
   });
 
   it('a version newer than this program, or a tag that is not ours, is refused naming the schema field', () => {
-    expect(parseDocument({ ...current, schema: `runnel.network/${SCHEMA_VERSION + 1}` }).warnings[0].message)
-      .to.equal(`document.schema: "runnel.network/${SCHEMA_VERSION + 1}" is newer than this program reads ("${NETWORK_SCHEMA}"); update Runnel to open it`);
-    expect(parseDocument({ ...current, schema: 'something/else' }).warnings[0].message).to.match(/^document\.schema: must be "runnel\.network\/1" or an earlier/);
+    expect(parseDocument({ ...current, schema: `runnel.network/${SCHEMA_VERSION + 1}` }).warnings[0].message).to.equal(
+      `document.schema: "runnel.network/${SCHEMA_VERSION + 1}" is newer than this program reads ("${NETWORK_SCHEMA}"); update Runnel to open it`,
+    );
+    expect(parseDocument({ ...current, schema: 'something/else' }).warnings[0].message).to.match(
+      /^document\.schema: must be "runnel\.network\/1" or an earlier/,
+    );
   });
 });

@@ -2,23 +2,29 @@ import { expect } from 'chai';
 import type { NetworkDocument, NetworkLink, NetworkNode } from '../../engine/network-document';
 import { solve } from '../../engine/steady';
 
-const doc = (nodes: NetworkNode[], links: NetworkLink[], extra: Partial<NetworkDocument> = {}): NetworkDocument =>
-  ({ schema: 'runnel.network/1', headloss: 'hazen-williams', nodes, links, ...extra });
+const doc = (nodes: NetworkNode[], links: NetworkLink[], extra: Partial<NetworkDocument> = {}): NetworkDocument => ({
+  schema: 'runnel.network/1',
+  headloss: 'hazen-williams',
+  nodes,
+  links,
+  ...extra,
+});
 const pipe = (id: string, from: string, to: string, length_m = 100, diameter_m = 0.05, extra: object = {}): NetworkLink =>
   ({ id, kind: 'pipe', from, to, length_m, diameter_m, roughness: 150, ...extra }) as NetworkLink;
-const codes = (r: ReturnType<typeof solve>, element?: string): string[] => r.warnings.filter((w) => element === undefined || w.element === element).map((w) => w.code);
+const codes = (r: ReturnType<typeof solve>, element?: string): string[] =>
+  r.warnings.filter((w) => element === undefined || w.element === element).map((w) => w.code);
 
 describe('valves (gradient-solver.ts status logic)', () => {
-  const prvNet = (head: number): NetworkDocument => doc([
-    { id: 'S', kind: 'source', elevation_m: head, head_m: head },
-    { id: 'A', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
-    { id: 'B', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
-    { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.001 },
-  ], [
-    pipe('P1', 'S', 'A'),
-    { id: 'PRV', kind: 'valve', valve_type: 'prv', from: 'A', to: 'B', diameter_m: 0.05, setting_m: 20 },
-    pipe('P2', 'B', 'O'),
-  ]);
+  const prvNet = (head: number): NetworkDocument =>
+    doc(
+      [
+        { id: 'S', kind: 'source', elevation_m: head, head_m: head },
+        { id: 'A', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
+        { id: 'B', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
+        { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.001 },
+      ],
+      [pipe('P1', 'S', 'A'), { id: 'PRV', kind: 'valve', valve_type: 'prv', from: 'A', to: 'B', diameter_m: 0.05, setting_m: 20 }, pipe('P2', 'B', 'O')],
+    );
   it('a pressure-reducing valve holds its setting downstream when the upstream head is higher', () => {
     const r = solve(prvNet(60));
     expect(r.converged).to.equal(true);
@@ -34,11 +40,15 @@ describe('valves (gradient-solver.ts status logic)', () => {
     expect(r.links['PRV'].flow_m3s).to.be.closeTo(0.001, 1e-12);
   });
   it('a check valve stops reverse flow (status check-closed), and passes forward flow', () => {
-    const net = (upHead: number) => doc([
-      { id: 'S1', kind: 'source', elevation_m: upHead, head_m: upHead },
-      { id: 'S2', kind: 'source', elevation_m: 50, head_m: 50 },
-      { id: 'A', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
-    ], [pipe('P1', 'S1', 'A'), { id: 'CV', kind: 'valve', valve_type: 'check', from: 'A', to: 'S2', diameter_m: 0.05 }]);
+    const net = (upHead: number) =>
+      doc(
+        [
+          { id: 'S1', kind: 'source', elevation_m: upHead, head_m: upHead },
+          { id: 'S2', kind: 'source', elevation_m: 50, head_m: 50 },
+          { id: 'A', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
+        ],
+        [pipe('P1', 'S1', 'A'), { id: 'CV', kind: 'valve', valve_type: 'check', from: 'A', to: 'S2', diameter_m: 0.05 }],
+      );
     const back = solve(net(40));
     expect(back.links['CV'].status).to.equal('check-closed');
     expect(back.links['CV'].flow_m3s).to.equal(0);
@@ -48,11 +58,16 @@ describe('valves (gradient-solver.ts status logic)', () => {
     expect(forward.links['CV'].flow_m3s).to.be.above(0);
   });
   it('a shut valve cuts off what lies behind it: disconnected, no flow, no NaN', () => {
-    const r = solve(doc([
-      { id: 'S', kind: 'source', elevation_m: 30, head_m: 30 },
-      { id: 'A', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
-      { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.001 },
-    ], [pipe('P1', 'S', 'A'), { id: 'V', kind: 'valve', valve_type: 'shutoff', from: 'A', to: 'O', diameter_m: 0.05, open: false }]));
+    const r = solve(
+      doc(
+        [
+          { id: 'S', kind: 'source', elevation_m: 30, head_m: 30 },
+          { id: 'A', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
+          { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.001 },
+        ],
+        [pipe('P1', 'S', 'A'), { id: 'V', kind: 'valve', valve_type: 'shutoff', from: 'A', to: 'O', diameter_m: 0.05, open: false }],
+      ),
+    );
     expect(r.converged).to.equal(true);
     expect(r.links['V'].status).to.equal('closed');
     expect(r.links['V'].flow_m3s).to.equal(0);
@@ -60,22 +75,34 @@ describe('valves (gradient-solver.ts status logic)', () => {
     expect(codes(r, 'O')).to.deep.equal(['disconnected', 'unmet-demand']); // cut off, so its demand goes unmet (issue 14 item 7)
   });
   it('a float valve is shut when the tank it feeds is full', () => {
-    const r = solve(doc([
-      { id: 'S', kind: 'source', elevation_m: 30, head_m: 30 },
-      { id: 'T', kind: 'tank', elevation_m: 10, diameter_m: 1, level_m: 1.5, min_level_m: 0.1, max_level_m: 1.5 },
-    ], [{ id: 'FV', kind: 'valve', valve_type: 'float', from: 'S', to: 'T', diameter_m: 0.02, tank: 'T' }]));
+    const r = solve(
+      doc(
+        [
+          { id: 'S', kind: 'source', elevation_m: 30, head_m: 30 },
+          { id: 'T', kind: 'tank', elevation_m: 10, diameter_m: 1, level_m: 1.5, min_level_m: 0.1, max_level_m: 1.5 },
+        ],
+        [{ id: 'FV', kind: 'valve', valve_type: 'float', from: 'S', to: 'T', diameter_m: 0.02, tank: 'T' }],
+      ),
+    );
     expect(r.links['FV'].status).to.equal('closed');
     expect(r.links['FV'].flow_m3s).to.equal(0);
   });
 });
 
 describe('outlets: pressure-dependent and emitter demand (Wagner et al. 1988; emitter law q = k·p^x)', () => {
-  const outletNet = (head: number, node: NetworkNode): NetworkDocument => doc([
-    { id: 'S', kind: 'source', elevation_m: head, head_m: head }, node,
-  ], [pipe('P', 'S', 'O', 50, 0.05)]);
+  const outletNet = (head: number, node: NetworkNode): NetworkDocument =>
+    doc([{ id: 'S', kind: 'source', elevation_m: head, head_m: head }, node], [pipe('P', 'S', 'O', 50, 0.05)]);
   it('pressure-dependent: q = Q·√((p − p0)/(preq − p0)) between the pressures, full above (identity at the solution)', () => {
     for (const head of [3, 8, 12, 16, 30]) {
-      const r = solve(outletNet(head, { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.002, demand_model: { type: 'pressure-dependent', required_pressure_m: 14, zero_pressure_m: 4 } }));
+      const r = solve(
+        outletNet(head, {
+          id: 'O',
+          kind: 'outlet',
+          elevation_m: 0,
+          demand_m3s: 0.002,
+          demand_model: { type: 'pressure-dependent', required_pressure_m: 14, zero_pressure_m: 4 },
+        }),
+      );
       expect(r.converged, `head ${head}`).to.equal(true);
       const p = r.nodes['O'].pressure_m;
       const s = Math.min(Math.max((p - 4) / 10, 0), 1);
@@ -101,14 +128,29 @@ describe('outlets: pressure-dependent and emitter demand (Wagner et al. 1988; em
 
 describe('pumps', () => {
   it('a head–flow curve pump runs where its curve meets the system curve', () => {
-    const r = solve(doc([
-      { id: 'S', kind: 'source', elevation_m: 0, head_m: 0 },
-      { id: 'A', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
-      { id: 'T', kind: 'tank', elevation_m: 30, diameter_m: 2, level_m: 1, min_level_m: 0, max_level_m: 2 },
-    ], [
-      { id: 'PU', kind: 'pump', from: 'S', to: 'A', curve: [[0, 50], [0.002, 40], [0.004, 20]] },
-      pipe('R', 'A', 'T', 200, 0.04),
-    ]));
+    const r = solve(
+      doc(
+        [
+          { id: 'S', kind: 'source', elevation_m: 0, head_m: 0 },
+          { id: 'A', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
+          { id: 'T', kind: 'tank', elevation_m: 30, diameter_m: 2, level_m: 1, min_level_m: 0, max_level_m: 2 },
+        ],
+        [
+          {
+            id: 'PU',
+            kind: 'pump',
+            from: 'S',
+            to: 'A',
+            curve: [
+              [0, 50],
+              [0.002, 40],
+              [0.004, 20],
+            ],
+          },
+          pipe('R', 'A', 'T', 200, 0.04),
+        ],
+      ),
+    );
     expect(r.converged).to.equal(true);
     const q = r.links['PU'].flow_m3s;
     const curveHead = q <= 0.002 ? 50 - 5000 * q : 40 - 10000 * (q - 0.002);
@@ -116,29 +158,43 @@ describe('pumps', () => {
     expect(r.links['R'].flow_m3s).to.be.closeTo(q, 1e-12);
   });
   it('a pump that cannot reach the tank stops rather than running backwards', () => {
-    const r = solve(doc([
-      { id: 'S', kind: 'source', elevation_m: 0, head_m: 0 },
-      { id: 'A', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
-      { id: 'T', kind: 'tank', elevation_m: 80, diameter_m: 2, level_m: 1, min_level_m: 0, max_level_m: 2 },
-    ], [{ id: 'PU', kind: 'pump', from: 'S', to: 'A', curve: [[0.002, 40]] }, pipe('R', 'A', 'T', 200, 0.04)]));
+    const r = solve(
+      doc(
+        [
+          { id: 'S', kind: 'source', elevation_m: 0, head_m: 0 },
+          { id: 'A', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
+          { id: 'T', kind: 'tank', elevation_m: 80, diameter_m: 2, level_m: 1, min_level_m: 0, max_level_m: 2 },
+        ],
+        [{ id: 'PU', kind: 'pump', from: 'S', to: 'A', curve: [[0.002, 40]] }, pipe('R', 'A', 'T', 200, 0.04)],
+      ),
+    );
     expect(r.links['PU'].status).to.equal('check-closed');
     expect(r.links['PU'].flow_m3s).to.equal(0);
   });
   it('a pump whose control tank is at its stop level is off', () => {
-    const r = solve(doc([
-      { id: 'S', kind: 'source', elevation_m: 0, head_m: 0 },
-      { id: 'T', kind: 'tank', elevation_m: 30, diameter_m: 2, level_m: 1.8, min_level_m: 0, max_level_m: 2 },
-    ], [{ id: 'PU', kind: 'pump', from: 'S', to: 'T', flow_m3s: 0.001, control: { tank: 'T', stop_level_m: 1.8, start_level_m: 1.2 } }]));
+    const r = solve(
+      doc(
+        [
+          { id: 'S', kind: 'source', elevation_m: 0, head_m: 0 },
+          { id: 'T', kind: 'tank', elevation_m: 30, diameter_m: 2, level_m: 1.8, min_level_m: 0, max_level_m: 2 },
+        ],
+        [{ id: 'PU', kind: 'pump', from: 'S', to: 'T', flow_m3s: 0.001, control: { tank: 'T', stop_level_m: 1.8, start_level_m: 1.2 } }],
+      ),
+    );
     expect(r.links['PU'].status).to.equal('closed');
   });
 });
 
 describe('design checks (checks.ts)', () => {
   it('velocity above 1.5 m/s (5 ft/s, Jarrett 2000, V2) and below-minimum at an outlet', () => {
-    const net = (minPressure?: number) => doc([
-      { id: 'S', kind: 'source', elevation_m: 30, head_m: 30 },
-      { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.00055, min_pressure_m: minPressure },
-    ], [pipe('P', 'S', 'O', 100, 0.02)]);
+    const net = (minPressure?: number) =>
+      doc(
+        [
+          { id: 'S', kind: 'source', elevation_m: 30, head_m: 30 },
+          { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.00055, min_pressure_m: minPressure },
+        ],
+        [pipe('P', 'S', 'O', 100, 0.02)],
+      );
     const r = solve(net(19));
     expect(r.links['P'].velocity_ms).to.be.above(1.5);
     expect(r.nodes['O'].pressure_m).to.be.within(0, 19);
@@ -147,37 +203,68 @@ describe('design checks (checks.ts)', () => {
     expect(solve(net(), { velocityLimit_ms: 3 }).warnings).to.deep.equal([]);
   });
   it('static pressure above the pipe rating at the bottom of a long drop (tank full)', () => {
-    const r = solve(doc([
-      { id: 'T', kind: 'tank', elevation_m: 120, diameter_m: 2, level_m: 1, min_level_m: 0.1, max_level_m: 2 },
-      { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.0001 },
-    ], [pipe('P', 'T', 'O', 500, 0.03, { rating_m: 112.5 })]));
+    const r = solve(
+      doc(
+        [
+          { id: 'T', kind: 'tank', elevation_m: 120, diameter_m: 2, level_m: 1, min_level_m: 0.1, max_level_m: 2 },
+          { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.0001 },
+        ],
+        [pipe('P', 'T', 'O', 500, 0.03, { rating_m: 112.5 })],
+      ),
+    );
     // static head 122 m (tank at max level) − 0 m = 122 m > 112.5 m (160 psi)
     const w = r.warnings.find((x) => x.code === 'over-rating');
     expect(w?.element).to.equal('P');
     expect(w?.message).to.equal('P: static pressure 122 m is above the pipe rating 112.5 m');
   });
   it('HGL below the pipe at a hump of the ground profile: air-lock / siphon risk', () => {
-    const r = solve(doc([
-      { id: 'S', kind: 'source', elevation_m: 20, head_m: 20 },
-      { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.0005 },
-    ], [pipe('P', 'S', 'O', 300, 0.03, { profile: [[0, 20], [100, 19], [150, 5], [300, 0]], cover_m: 0.5 })]));
+    const r = solve(
+      doc(
+        [
+          { id: 'S', kind: 'source', elevation_m: 20, head_m: 20 },
+          { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.0005 },
+        ],
+        [
+          pipe('P', 'S', 'O', 300, 0.03, {
+            profile: [
+              [0, 20],
+              [100, 19],
+              [150, 5],
+              [300, 0],
+            ],
+            cover_m: 0.5,
+          }),
+        ],
+      ),
+    );
     // HGL at 100 m is below 20 − (20·100/300 + loss share) < 18.5 m pipe crown
     const w = r.warnings.find((x) => x.code === 'negative-pressure');
     expect(w?.element).to.equal('P');
     expect(w?.message).to.match(/^P: HGL is [0-9.]+ m below the pipe at 100 m from S; air-lock \/ siphon risk/);
   });
   it('a tank at its minimum level is flagged tank-empty', () => {
-    const r = solve(doc([
-      { id: 'T', kind: 'tank', elevation_m: 20, diameter_m: 2, level_m: 0.1, min_level_m: 0.1, max_level_m: 2 },
-      { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.0001 },
-    ], [pipe('P', 'T', 'O')]));
+    const r = solve(
+      doc(
+        [
+          { id: 'T', kind: 'tank', elevation_m: 20, diameter_m: 2, level_m: 0.1, min_level_m: 0.1, max_level_m: 2 },
+          { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.0001 },
+        ],
+        [pipe('P', 'T', 'O')],
+      ),
+    );
     expect(codes(r, 'T')).to.deep.equal(['tank-empty']);
   });
   it('Darcy-Weisbach networks solve with the same checks', () => {
-    const r = solve(doc([
-      { id: 'S', kind: 'source', elevation_m: 20, head_m: 20 },
-      { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.0005 },
-    ], [{ id: 'P', kind: 'pipe', from: 'S', to: 'O', length_m: 100, diameter_m: 0.03, roughness: 0.0015 }], { headloss: 'darcy-weisbach' }));
+    const r = solve(
+      doc(
+        [
+          { id: 'S', kind: 'source', elevation_m: 20, head_m: 20 },
+          { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.0005 },
+        ],
+        [{ id: 'P', kind: 'pipe', from: 'S', to: 'O', length_m: 100, diameter_m: 0.03, roughness: 0.0015 }],
+        { headloss: 'darcy-weisbach' },
+      ),
+    );
     expect(r.converged).to.equal(true);
     expect(r.nodes['O'].pressure_m).to.be.within(0, 20);
   });

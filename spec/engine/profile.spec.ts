@@ -9,10 +9,29 @@ function grid(w: number, h: number): NetworkDocument {
   for (let y = 0; y < h; y++) for (let x = 0; x < w; x++) nodes.push({ id: `N${x}_${y}`, kind: 'tee', elevation_m: 0, demand_m3s: 0 });
   // lengths vary so the shortest routes are unique-ish
   let k = 0;
-  for (let y = 0; y < h; y++) for (let x = 0; x < w; x++) {
-    if (x + 1 < w) links.push({ id: `H${x}_${y}`, kind: 'pipe', from: `N${x}_${y}`, to: `N${x + 1}_${y}`, length_m: 10 + ((k++ * 7) % 13), diameter_m: 0.05, roughness: 150 });
-    if (y + 1 < h) links.push({ id: `V${x}_${y}`, kind: 'pipe', from: `N${x}_${y}`, to: `N${x}_${y + 1}`, length_m: 10 + ((k++ * 5) % 11), diameter_m: 0.05, roughness: 150 });
-  }
+  for (let y = 0; y < h; y++)
+    for (let x = 0; x < w; x++) {
+      if (x + 1 < w)
+        links.push({
+          id: `H${x}_${y}`,
+          kind: 'pipe',
+          from: `N${x}_${y}`,
+          to: `N${x + 1}_${y}`,
+          length_m: 10 + ((k++ * 7) % 13),
+          diameter_m: 0.05,
+          roughness: 150,
+        });
+      if (y + 1 < h)
+        links.push({
+          id: `V${x}_${y}`,
+          kind: 'pipe',
+          from: `N${x}_${y}`,
+          to: `N${x}_${y + 1}`,
+          length_m: 10 + ((k++ * 5) % 11),
+          diameter_m: 0.05,
+          roughness: 150,
+        });
+    }
   return { schema: 'runnel.network/1', headloss: 'hazen-williams', nodes, links };
 }
 
@@ -21,7 +40,10 @@ function allSimplePathLengths(doc: NetworkDocument, from: string, to: string): n
   const out: number[] = [];
   const seen = new Set<string>([from]);
   const walk = (at: string, length: number): void => {
-    if (at === to) { out.push(length); return; }
+    if (at === to) {
+      out.push(length);
+      return;
+    }
     for (const l of doc.links) {
       const next = l.from === at ? l.to : l.to === at ? l.from : null;
       if (next === null || seen.has(next)) continue;
@@ -56,7 +78,7 @@ describe('profile: route finding along the pipes', () => {
     expect(() => findRoutes(doc, 'N0_0', 'LONE')).to.throw(RouteError, 'to: LONE is not connected to N0_0 by any pipe, valve or pump');
     expect(() => findRoutes(doc, 'NOPE', 'LONE')).to.throw(RouteError, 'from: no element NOPE in the network');
   });
-  it('the demo farm\'s longest supply route runs from the ridge tanks to the south trough across the dip', () => {
+  it("the demo farm's longest supply route runs from the ridge tanks to the south trough across the dip", () => {
     const r = longestSupplyRoute(hillSmallholding)!;
     expect(r.nodes[0]).to.match(/^T[12]$/);
     expect(r.nodes[r.nodes.length - 1]).to.equal('TR4');
@@ -68,13 +90,32 @@ describe('profile: a hand-built line with a hump and a dip (hand-worked, C)', ()
   // tank floor at 100 m, level 1 m (head 101), full at 2 m (static 102); no flow, so the HGL is flat at 101.
   // Ground 100 → 96 → 103 → 55 → 60 over 1000 m, cover 0.5 m: pipe 95.5 at 250, 102.5 at 500, 54.5 at 750.
   const doc: NetworkDocument = {
-    schema: 'runnel.network/1', headloss: 'hazen-williams',
+    schema: 'runnel.network/1',
+    headloss: 'hazen-williams',
     nodes: [
       { id: 'T', kind: 'tank', elevation_m: 100, diameter_m: 2, level_m: 1, min_level_m: 0, max_level_m: 2 },
       { id: 'O', kind: 'outlet', elevation_m: 60, demand_m3s: 0 },
     ],
-    links: [{ id: 'P', kind: 'pipe', from: 'T', to: 'O', length_m: 1000, diameter_m: 0.05, roughness: 150, cover_m: 0.5, rating_m: 60,
-      profile: [[0, 100], [250, 96], [500, 103], [750, 55], [1000, 60]] }],
+    links: [
+      {
+        id: 'P',
+        kind: 'pipe',
+        from: 'T',
+        to: 'O',
+        length_m: 1000,
+        diameter_m: 0.05,
+        roughness: 150,
+        cover_m: 0.5,
+        rating_m: 60,
+        profile: [
+          [0, 100],
+          [250, 96],
+          [500, 103],
+          [750, 55],
+          [1000, 60],
+        ],
+      },
+    ],
   };
   const profile = profileRoute(doc, findRoutes(doc, 'T', 'O')[0]);
   const find = (kind: string) => profile.findings.filter((f) => f.kind === kind);
@@ -122,7 +163,8 @@ describe('profile: pressures that cannot be', () => {
   });
   it('elements cut off by a shut valve have no supply on the profile', () => {
     const doc: NetworkDocument = {
-      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
       nodes: [
         { id: 'T', kind: 'tank', elevation_m: 50, diameter_m: 2, level_m: 1, min_level_m: 0, max_level_m: 2 },
         { id: 'J', kind: 'tee', elevation_m: 40, demand_m3s: 0 },
@@ -142,13 +184,32 @@ describe('profile: pressures that cannot be', () => {
 describe('profile: fittings already in the document', () => {
   it('an air valve within reach of the high point (10 m, engine/review/rules) marks it fitted', () => {
     const doc: NetworkDocument = {
-      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
       nodes: [
         { id: 'T', kind: 'tank', elevation_m: 100, diameter_m: 2, level_m: 1, min_level_m: 0, max_level_m: 2 },
         { id: 'O', kind: 'outlet', elevation_m: 60, demand_m3s: 0 },
       ],
-      links: [{ id: 'P', kind: 'pipe', from: 'T', to: 'O', length_m: 1000, diameter_m: 0.05, roughness: 150,
-        profile: [[0, 100], [250, 96], [500, 103], [750, 55], [1000, 60]], air_valves_m: [505], drains_m: [100] } as NetworkLink],
+      links: [
+        {
+          id: 'P',
+          kind: 'pipe',
+          from: 'T',
+          to: 'O',
+          length_m: 1000,
+          diameter_m: 0.05,
+          roughness: 150,
+          profile: [
+            [0, 100],
+            [250, 96],
+            [500, 103],
+            [750, 55],
+            [1000, 60],
+          ],
+          air_valves_m: [505],
+          drains_m: [100],
+        } as NetworkLink,
+      ],
     };
     // walked from the outlet end, the hump is 500 m from O but the valve is measured from T: still the same point
     const p = profileRoute(doc, findRoutes(doc, 'O', 'T')[0]);

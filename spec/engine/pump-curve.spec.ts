@@ -12,7 +12,8 @@ function normalEquations(pts: [number, number][]): number[] {
   const rows = pts.map(([q]) => [1, q, q * q]);
   const ata = [0, 1, 2].map((i) => [0, 1, 2].map((j) => rows.reduce((s, r) => s + r[i] * r[j], 0)));
   const ath = [0, 1, 2].map((i) => rows.reduce((s, r, k) => s + r[i] * pts[k][1], 0));
-  const det = (m: number[][]) => m[0][0] * (m[1][1] * m[2][2] - m[1][2] * m[2][1]) - m[0][1] * (m[1][0] * m[2][2] - m[1][2] * m[2][0]) + m[0][2] * (m[1][0] * m[2][1] - m[1][1] * m[2][0]);
+  const det = (m: number[][]) =>
+    m[0][0] * (m[1][1] * m[2][2] - m[1][2] * m[2][1]) - m[0][1] * (m[1][0] * m[2][2] - m[1][2] * m[2][0]) + m[0][2] * (m[1][0] * m[2][1] - m[1][1] * m[2][0]);
   const d = det(ata);
   return [0, 1, 2].map((c) => det(ata.map((row, i) => row.map((v, j) => (j === c ? ath[i] : v)))) / d);
 }
@@ -29,7 +30,13 @@ describe('Pump curve: least-squares fit through typed points (newcomer item 3)',
   });
 
   it('matches the normal-equations solution for scattered chart readings (an independent method, C)', () => {
-    const pts: [number, number][] = [[0, 61.5], [0.0004, 57.2], [0.0008, 49.8], [0.0012, 35.1], [0.0016, 15.9]];
+    const pts: [number, number][] = [
+      [0, 61.5],
+      [0.0004, 57.2],
+      [0.0008, 49.8],
+      [0.0012, 35.1],
+      [0.0016, 15.9],
+    ];
     const fit = fitPumpCurve(pts);
     const ref = normalEquations(pts);
     fit.c.forEach((v, i) => expect(v).to.be.closeTo(ref[i], Math.abs(ref[i]) * 1e-6 + 1e-9));
@@ -38,19 +45,34 @@ describe('Pump curve: least-squares fit through typed points (newcomer item 3)',
   });
 
   it('two points fit the shut-off form H = c0 + c2·Q² through both', () => {
-    const fit = fitPumpCurve([[0, 40], [0.002, 30]]);
+    const fit = fitPumpCurve([
+      [0, 40],
+      [0.002, 30],
+    ]);
     expect(fit.c[0]).to.be.closeTo(40, 1e-9);
     expect(fit.c[2]).to.be.closeTo(-10 / 0.002 ** 2, 1e-3);
   });
 
   it('says so when the typed head rises with flow', () => {
-    expect(fitPumpCurve([[0, 20], [0.001, 30], [0.002, 35]]).problems.join(' ')).to.match(/head rises with flow/);
+    expect(
+      fitPumpCurve([
+        [0, 20],
+        [0.001, 30],
+        [0.002, 35],
+      ]).problems.join(' '),
+    ).to.match(/head rises with flow/);
   });
 
   it('the engine solves a pump on the fitted curve at its duty point: lift 20 m through negligible friction ⇒ H(Q) = 20 m', () => {
-    const fit = fitPumpCurve([[0, 60], [0.0005, 55], [0.001, 40], [0.0015, 15]]);
+    const fit = fitPumpCurve([
+      [0, 60],
+      [0.0005, 55],
+      [0.001, 40],
+      [0.0015, 15],
+    ]);
     const doc: NetworkDocument = {
-      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
       nodes: [
         { id: 'W', kind: 'source', elevation_m: 0, head_m: 0 },
         { id: 'P', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
@@ -71,8 +93,20 @@ describe('Pump curve: least-squares fit through typed points (newcomer item 3)',
     const dir = mkdtempSync(join(tmpdir(), 'curve-'));
     const good = join(dir, 'good.json');
     const bad = join(dir, 'bad.json');
-    writeFileSync(good, JSON.stringify([[0, 40], [0.002, 30]]));
-    writeFileSync(bad, JSON.stringify([[0, 40], [-1, 30]]));
+    writeFileSync(
+      good,
+      JSON.stringify([
+        [0, 40],
+        [0.002, 30],
+      ]),
+    );
+    writeFileSync(
+      bad,
+      JSON.stringify([
+        [0, 40],
+        [-1, 30],
+      ]),
+    );
     const run = (f: string) => spawnSync(process.execPath, ['--import', 'tsx', 'engine/pump-curve/cli.ts', f], { encoding: 'utf8' });
     const ok = run(good);
     expect(ok.status).to.equal(0);

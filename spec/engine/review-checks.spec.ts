@@ -17,7 +17,8 @@ const EPS = 1e-9;
 /** A ridge tank feeding one outlet through one pipe: static head = 100 + 2 = 102 m. */
 function line(pipe: Partial<PipeLink> = {}, outletElevation = 40, extra: Partial<NetworkDocument> = {}): NetworkDocument {
   return {
-    schema: 'runnel.network/1', headloss: 'hazen-williams',
+    schema: 'runnel.network/1',
+    headloss: 'hazen-williams',
     nodes: [
       { id: 'T', kind: 'tank', elevation_m: 100, diameter_m: 2, level_m: 2, min_level_m: 0.2, max_level_m: 2 },
       { id: 'O', kind: 'outlet', elevation_m: outletElevation, demand_m3s: 0.0002, min_pressure_m: 10, outlet_type: 'hose-bib' },
@@ -76,7 +77,7 @@ describe('review checks: pipes', () => {
     expect(velocityStatus(-1.6)).to.equal('caution');
     // 0.2 L/s in a 12 mm bore runs at 1.77 m/s (Q/A, C).
     expect(row(line({ diameter_m: 0.012 }), 'pipe-velocity').status).to.equal('caution');
-    expect(row(line({ diameter_m: 0.012 }), 'pipe-velocity').measured!.value).to.be.closeTo(0.0002 / (Math.PI / 4 * 0.012 ** 2), 1e-6);
+    expect(row(line({ diameter_m: 0.012 }), 'pipe-velocity').measured!.value).to.be.closeTo(0.0002 / ((Math.PI / 4) * 0.012 ** 2), 1e-6);
   });
 
   it('working pressure against the rating: at it passes, above fails (NRCS Standard 430, V2)', () => {
@@ -126,29 +127,105 @@ describe('review checks: pipes', () => {
   it('HGL against the pipe along its ground profile: clearance 0 passes, a hump above the HGL fails (NRCS Washington ETN 16, V2)', () => {
     const pipe = { id: 'P', kind: 'pipe', from: 'A', to: 'B', length_m: 100, diameter_m: 0.03, roughness: 150, cover_m: 0.5 } as PipeLink;
     // HGL from 50 to 40 m: at 50 m along it stands at 45 m; ground 45.5 less 0.5 cover touches it.
-    expect(hglClearance({ ...pipe, profile: [[0, 30], [50, 45.5], [100, 30]] }, 50, 40, 30, 30).clearance_m).to.be.closeTo(0, 1e-12);
-    expect(hglClearance({ ...pipe, profile: [[0, 30], [50, 45.6], [100, 30]] }, 50, 40, 30, 30).clearance_m).to.be.closeTo(-0.1, 1e-9);
-    expect(hglClearance({ ...pipe, profile: [[0, 30], [50, 45.4], [100, 30]] }, 50, 40, 30, 30).at_m).to.equal(50);
+    expect(
+      hglClearance(
+        {
+          ...pipe,
+          profile: [
+            [0, 30],
+            [50, 45.5],
+            [100, 30],
+          ],
+        },
+        50,
+        40,
+        30,
+        30,
+      ).clearance_m,
+    ).to.be.closeTo(0, 1e-12);
+    expect(
+      hglClearance(
+        {
+          ...pipe,
+          profile: [
+            [0, 30],
+            [50, 45.6],
+            [100, 30],
+          ],
+        },
+        50,
+        40,
+        30,
+        30,
+      ).clearance_m,
+    ).to.be.closeTo(-0.1, 1e-9);
+    expect(
+      hglClearance(
+        {
+          ...pipe,
+          profile: [
+            [0, 30],
+            [50, 45.4],
+            [100, 30],
+          ],
+        },
+        50,
+        40,
+        30,
+        30,
+      ).at_m,
+    ).to.equal(50);
     // On a network: a hump 5 m above the tank's water surface fails.
-    const hump = line({ profile: [[0, 100], [50, 107.5], [100, 40]] });
+    const hump = line({
+      profile: [
+        [0, 100],
+        [50, 107.5],
+        [100, 40],
+      ],
+    });
     expect(row(hump, 'pipe-hgl').status).to.equal('fail');
     expect(row(hump, 'pipe-hgl').at_m).to.equal(50);
-    expect(row(line({ profile: [[0, 100], [50, 80], [100, 40]] }), 'pipe-hgl').status).to.equal('pass');
+    expect(
+      row(
+        line({
+          profile: [
+            [0, 100],
+            [50, 80],
+            [100, 40],
+          ],
+        }),
+        'pipe-hgl',
+      ).status,
+    ).to.equal('pass');
   });
 });
 
 describe('review checks: profile (NRCS Washington ETN 16 and NRCS Missouri, V2)', () => {
   // The points come from engine/profile (the Profile screen's turning points); the 0.3 m relief filter is ours.
   it('finds high and low points with a rise of 0.3 m or more; a ripple just under it is survey noise', () => {
-    const pts = (mid: number) => networkTurningPoints(line({ cover_m: 0, profile: [[0, 100], [30, 90], [60, mid], [100, 40]] }))
-      .map((p) => [p.kind, p.link, p.along_m, p.elevation_m]);
-    expect(pts(90.31)).to.deep.equal([['low-point', 'P', 30, 90], ['high-point', 'P', 60, 90.31]]);
+    const pts = (mid: number) =>
+      networkTurningPoints(
+        line({
+          cover_m: 0,
+          profile: [
+            [0, 100],
+            [30, 90],
+            [60, mid],
+            [100, 40],
+          ],
+        }),
+      ).map((p) => [p.kind, p.link, p.along_m, p.elevation_m]);
+    expect(pts(90.31)).to.deep.equal([
+      ['low-point', 'P', 30, 90],
+      ['high-point', 'P', 60, 90.31],
+    ]);
     expect(pts(90.29)).to.deep.equal([]);
   });
 
   it('finds points at tees between pipes, on a pipe drawn against the flow (placed from its own from end) and on a rising main', () => {
     const doc: NetworkDocument = {
-      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
       nodes: [
         { id: 'S', kind: 'source', elevation_m: 10, head_m: 10 },
         { id: 'J0', kind: 'tee', elevation_m: 10, demand_m3s: 0 },
@@ -159,29 +236,84 @@ describe('review checks: profile (NRCS Washington ETN 16 and NRCS Missouri, V2)'
       ],
       links: [
         { id: 'PU', kind: 'pump', from: 'S', to: 'J0', flow_m3s: 0.0005 },
-        { id: 'R', kind: 'pipe', from: 'J0', to: 'T', length_m: 300, diameter_m: 0.03, roughness: 150, cover_m: 0, profile: [[0, 10], [100, 50], [200, 45], [300, 100]] },
+        {
+          id: 'R',
+          kind: 'pipe',
+          from: 'J0',
+          to: 'T',
+          length_m: 300,
+          diameter_m: 0.03,
+          roughness: 150,
+          cover_m: 0,
+          profile: [
+            [0, 10],
+            [100, 50],
+            [200, 45],
+            [300, 100],
+          ],
+        },
         { id: 'P1', kind: 'pipe', from: 'T', to: 'J1', length_m: 100, diameter_m: 0.03, roughness: 150 },
         { id: 'P2', kind: 'pipe', from: 'J1', to: 'J2', length_m: 100, diameter_m: 0.03, roughness: 150 },
         // Drawn from the outlet up to J2: its hump lies 20 m from O, 80 m along the route.
-        { id: 'P3', kind: 'pipe', from: 'O', to: 'J2', length_m: 100, diameter_m: 0.03, roughness: 150, cover_m: 0, profile: [[0, 40], [20, 66], [50, 50], [100, 70]] },
+        {
+          id: 'P3',
+          kind: 'pipe',
+          from: 'O',
+          to: 'J2',
+          length_m: 100,
+          diameter_m: 0.03,
+          roughness: 150,
+          cover_m: 0,
+          profile: [
+            [0, 40],
+            [20, 66],
+            [50, 50],
+            [100, 70],
+          ],
+        },
       ],
     } as NetworkDocument;
     const got = networkTurningPoints(doc).map((p) => [p.kind, p.node ?? p.link, p.node ? null : p.along_m, p.fitted]);
     expect(got).to.have.deep.members([
-      ['low-point', 'J1', null, true], ['high-point', 'J2', null, false],
-      ['low-point', 'P3', 50, false], ['high-point', 'P3', 20, false],
-      ['high-point', 'R', 100, false], ['low-point', 'R', 200, false],
+      ['low-point', 'J1', null, true],
+      ['high-point', 'J2', null, false],
+      ['low-point', 'P3', 50, false],
+      ['high-point', 'P3', 20, false],
+      ['high-point', 'R', 100, false],
+      ['low-point', 'R', 200, false],
     ]);
     expect(got).to.have.length(6);
   });
 
   it('a high point is a caution without an air valve and passes with one within 10 m; a drain serves a low point', () => {
-    const humpy = line({ profile: [[0, 100], [30, 90], [60, 95], [100, 40]] });
+    const humpy = line({
+      profile: [
+        [0, 100],
+        [30, 90],
+        [60, 95],
+        [100, 40],
+      ],
+    });
     const rows = reviewChecklist(humpy).rows.filter((r) => r.group === 'profile');
-    expect(rows.map((r) => [r.rule, r.at_m, r.status])).to.deep.equal([['profile-low-point', 30, 'caution'], ['profile-high-point', 60, 'caution']]);
-    const fitted = line({ profile: [[0, 100], [30, 90], [60, 95], [100, 40]], air_valves_m: [70], drains_m: [41] } as Partial<PipeLink>);
+    expect(rows.map((r) => [r.rule, r.at_m, r.status])).to.deep.equal([
+      ['profile-low-point', 30, 'caution'],
+      ['profile-high-point', 60, 'caution'],
+    ]);
+    const fitted = line({
+      profile: [
+        [0, 100],
+        [30, 90],
+        [60, 95],
+        [100, 40],
+      ],
+      air_valves_m: [70],
+      drains_m: [41],
+    } as Partial<PipeLink>);
     const after = reviewChecklist(fitted).rows.filter((r) => r.group === 'profile');
-    expect(after.map((r) => [r.rule, r.status])).to.deep.equal([['profile-low-point', 'caution'], ['profile-high-point', 'pass']]);
+    expect(after.map((r) => [r.rule, r.status])).to.deep.equal([
+      ['profile-low-point', 'caution'],
+      ['profile-high-point', 'pass'],
+    ]);
   });
 });
 
@@ -219,7 +351,7 @@ describe('review checks: storage and supply', () => {
     expect(storage.measured!.value).to.be.closeTo((Math.PI * 1.8) / 17.28, 1e-9);
     expect(storage.status).to.equal('fail');
     const withBudget = reviewChecklist(doc, { supply: { worstDailyNeed_m3: 1.885, fillDailyVolume_m3: 14.4 } });
-    expect(withBudget.rows.find((r) => r.rule === 'storage-days')!.measured!.value).to.be.closeTo(Math.PI * 1.8 / 1.885, 1e-9);
+    expect(withBudget.rows.find((r) => r.rule === 'storage-days')!.measured!.value).to.be.closeTo((Math.PI * 1.8) / 1.885, 1e-9);
     // Pump 0.5 L/s × 8 h = 14.4 m³ ≥ 17.28 × 1.1? No: fails on flows, passes against the budget's 1.885 m³.
     expect(reviewChecklist(doc).rows.find((r) => r.rule === 'fill-daily-volume')!.status).to.equal('fail');
     expect(withBudget.rows.find((r) => r.rule === 'fill-daily-volume')!.status).to.equal('pass');
@@ -233,7 +365,11 @@ describe('review checklist: the demo farm', () => {
     expect(list.solved).to.equal(true);
     const outlets = hillSmallholding.nodes.filter((n) => n.kind === 'outlet').map((n) => n.id);
     const pipes = hillSmallholding.links.filter((l) => l.kind === 'pipe').map((l) => l.id);
-    for (const id of outlets) expect(list.rows.some((r) => r.rule === 'outlet-pressure' && r.element === id), id).to.equal(true);
+    for (const id of outlets)
+      expect(
+        list.rows.some((r) => r.rule === 'outlet-pressure' && r.element === id),
+        id,
+      ).to.equal(true);
     for (const id of pipes) expect(list.rows.filter((r) => r.group === 'pipes' && r.element === id).length, id).to.be.at.least(4);
     for (const r of list.rows) expect(r.source.length, r.key).to.be.greaterThan(10);
     expect(new Set(list.rows.map((r) => r.key)).size).to.equal(list.rows.length);
@@ -257,7 +393,7 @@ describe('review checklist: the demo farm', () => {
 });
 
 describe('review checklist with the water budget (engine/budget)', () => {
-  it('takes the worst month for the fill, the peak month for storage, and each trough\'s herd need for refill', async () => {
+  it("takes the worst month for the fill, the peak month for storage, and each trough's herd need for refill", async () => {
     const { planBudget, applyBudget } = await import('../../engine/budget');
     const { hillSmallholdingBudget } = await import('../../engine/examples/hill-smallholding-budget');
     const { supplyFromBudget } = await import('../../engine/review');

@@ -3,7 +3,7 @@ import { hillSmallholding, solve } from '../../engine/index';
 import { outletState, pipeWork, ratingState, serviceStates, tankVolume } from '../../engine/service-state';
 
 describe('Service states: what the plan says about each element', () => {
-  it('an outlet is short below its requirement, close within 10 % above it, OK beyond (the review checklist\'s outlet rule)', () => {
+  it("an outlet is short below its requirement, close within 10 % above it, OK beyond (the review checklist's outlet rule)", () => {
     expect(outletState(9.9, 10)).to.equal('short');
     expect(outletState(10.5, 10)).to.equal('close');
     expect(outletState(11.5, 10)).to.equal('ok');

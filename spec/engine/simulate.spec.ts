@@ -14,11 +14,32 @@ function fillDraw(overrides: { pump?: boolean; level?: number; inflow?: number; 
     headloss: 'hazen-williams',
     nodes: [
       { id: 'S', kind: 'source', elevation_m: 0, head_m: 0 },
-      { id: 'T', kind: 'tank', elevation_m: 50, diameter_m: TANK_D, level_m: overrides.level ?? 1.2, min_level_m: 0.1, max_level_m: 2, inflow_m3s: overrides.inflow },
+      {
+        id: 'T',
+        kind: 'tank',
+        elevation_m: 50,
+        diameter_m: TANK_D,
+        level_m: overrides.level ?? 1.2,
+        min_level_m: 0.1,
+        max_level_m: 2,
+        inflow_m3s: overrides.inflow,
+      },
       { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: overrides.demand ?? 0.0001, min_pressure_m: 10 },
     ],
     links: [
-      ...(overrides.pump === false ? [] : [{ id: 'PU', kind: 'pump' as const, from: 'S', to: 'T', flow_m3s: 0.0005, schedule: DAYLIGHT, control: { tank: 'T', stop_level_m: 1.5, start_level_m: 1.3 } }]),
+      ...(overrides.pump === false
+        ? []
+        : [
+            {
+              id: 'PU',
+              kind: 'pump' as const,
+              from: 'S',
+              to: 'T',
+              flow_m3s: 0.0005,
+              schedule: DAYLIGHT,
+              control: { tank: 'T', stop_level_m: 1.5, start_level_m: 1.3 },
+            },
+          ]),
       { id: 'P', kind: 'pipe', from: 'T', to: 'O', length_m: 100, diameter_m: 0.05, roughness: 150 },
     ],
   };
@@ -44,7 +65,7 @@ describe('extended-period simulation (simulate.ts)', () => {
     expect(day.summary.tanks['T'].lowest_level_m).to.be.closeTo(0.48, 1e-6);
     expect(day.summary.tanks['T'].lowest_time_s).to.be.closeTo(8 * 3600, 1e-6);
     // volume balance: storage change = pumped − delivered
-    expect((day.tanks['T'].level_m.at(-1) as number - 1.2) * AREA).to.be.closeTo(6.4 - 8.64, 1e-6);
+    expect(((day.tanks['T'].level_m.at(-1) as number) - 1.2) * AREA).to.be.closeTo(6.4 - 8.64, 1e-6);
     const at = (hhmm: number): number => day.times_s.indexOf(hhmm);
     expect(day.pumps['PU'].on[at(9 * 3600)]).to.equal(true);
     expect(day.pumps['PU'].on[at(12 * 3600)]).to.equal(false); // stopped at 1.50 m, waiting for 1.30 m
@@ -67,7 +88,7 @@ describe('extended-period simulation (simulate.ts)', () => {
   it('a full tank overflows its surplus (steady inflow 0.2 L/s, no draw)', () => {
     // 1.9 → 2.0 m takes 0.4 m³ / 0.2 L/s = 2000 s; the remaining 1600 s of the hour spill 0.32 m³
     const hour = simulate(fillDraw({ pump: false, level: 1.9, inflow: 0.0002, demand: 0 }), { duration_s: 3600, step_s: 300 });
-    expect(hour.summary.tanks["T"].overflow_m3).to.be.closeTo(0.32, 1e-8);
+    expect(hour.summary.tanks['T'].overflow_m3).to.be.closeTo(0.32, 1e-8);
     expect(hour.tanks['T'].level_m.at(-1)).to.equal(2);
     expect(hour.warnings.map((w) => w.code)).to.deep.equal(['tank-overflow']);
   });
@@ -76,7 +97,8 @@ describe('extended-period simulation (simulate.ts)', () => {
     // 1 m² tank, 0.001 m² orifice with Cd = 1 (K = 1/Cd² = 1) discharging at the tank floor
     const a = 0.001;
     const doc: NetworkDocument = {
-      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
       nodes: [
         { id: 'T', kind: 'tank', elevation_m: 10, diameter_m: Math.sqrt(4 / Math.PI), level_m: 2, min_level_m: 0.05, max_level_m: 3 },
         { id: 'OUT', kind: 'source', elevation_m: 10, head_m: 10 },

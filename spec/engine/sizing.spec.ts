@@ -23,7 +23,13 @@ const twoLoopCandidates = parsePriceCatalogue(twoLoopPrices).candidates;
 describe('pipe sizing (engine/sizing)', () => {
   it('reads a priced catalogue and names the item and field that is wrong', () => {
     expect(twoLoopCandidates).to.have.length(14);
-    const bad = parsePriceCatalogue({ items: [{ series: 'pvc-sch40', nominal: '1"', price_per_m: 2 }, { series: 'pvc-sch40', nominal: '1"', price_per_m: -1 }, { id: 'X', price_per_m: 3 }] });
+    const bad = parsePriceCatalogue({
+      items: [
+        { series: 'pvc-sch40', nominal: '1"', price_per_m: 2 },
+        { series: 'pvc-sch40', nominal: '1"', price_per_m: -1 },
+        { id: 'X', price_per_m: 3 },
+      ],
+    });
     expect(bad.errors).to.deep.equal([
       'items[1].price_per_m: must be a non-negative number (got -1)',
       'items[2].diameter_m: must be a positive number (got undefined)',
@@ -69,18 +75,21 @@ describe('pipe sizing (engine/sizing)', () => {
     // the largest-size design: every sized pipe at the largest size of its own series, priced from the same list
     const prices = new Map(demoPriceCatalogue().items.map((i) => [`${i.series}/${i.nominal}`, i.price_per_m]));
     let largestCost = 0;
-    const largest = { ...hillSmallholding, links: hillSmallholding.links.map((l) => {
-      if (!r.choices.some((c) => c.pipe === l.id)) return l;
-      const p = l as PipeLink;
-      const top = pipeSizes(p.series as string).at(-1)!;
-      largestCost += (prices.get(`${p.series}/${top.nominal}`) as number) * p.length_m;
-      return { ...p, diameter_m: top.id_m, nominal: top.nominal, rating_m: top.rating_m };
-    }) };
+    const largest = {
+      ...hillSmallholding,
+      links: hillSmallholding.links.map((l) => {
+        if (!r.choices.some((c) => c.pipe === l.id)) return l;
+        const p = l as PipeLink;
+        const top = pipeSizes(p.series as string).at(-1)!;
+        largestCost += (prices.get(`${p.series}/${top.nominal}`) as number) * p.length_m;
+        return { ...p, diameter_m: top.id_m, nominal: top.nominal, rating_m: top.rating_m };
+      }),
+    };
     expect(solve(largest).warnings.filter((w) => w.code === 'below-minimum')).to.deep.equal([]);
     expect(r.cost).to.be.below(largestCost);
   });
 
-  it('with the review\'s working share, the sized demo passes the review\'s rating, share and surge checks on every sized pipe (engine/review)', () => {
+  it("with the review's working share, the sized demo passes the review's rating, share and surge checks on every sized pipe (engine/review)", () => {
     const r = sizeNetwork(hillSmallholding, demoCandidates, { ratingFraction: 0.72 });
     const sized = new Set(r.choices.map((c) => c.pipe));
     const failing = reviewChecklist(r.document).rows.filter((row) => row.status === 'fail' && row.element && sized.has(row.element));
@@ -92,11 +101,26 @@ describe('pipe sizing (engine/sizing)', () => {
 
   it('on a looped region the surge requirement holds too: static + a·v/g within the rating at the solved flows (Joukowsky, textbook; NRCS Standard 430, V2)', () => {
     const sizes = ['1"', '1-1/4"', '1-1/2"', '2"', '2-1/2"'];
-    const cands = [...sizes.map((n, i) => catalogueCandidate('pvc-sdr26', n, 2 + 1.5 * i)!), ...sizes.map((n, i) => catalogueCandidate('pvc-sdr21', n, 2.6 + 1.9 * i)!)];
-    const pipe = (id: string, from: string, to: string, length_m: number) => ({ id, kind: 'pipe', from, to, length_m, diameter_m: 0.05, roughness: 150, series: 'pvc-sdr21', nominal: '2"', material: 'pvc' });
+    const cands = [
+      ...sizes.map((n, i) => catalogueCandidate('pvc-sdr26', n, 2 + 1.5 * i)!),
+      ...sizes.map((n, i) => catalogueCandidate('pvc-sdr21', n, 2.6 + 1.9 * i)!),
+    ];
+    const pipe = (id: string, from: string, to: string, length_m: number) => ({
+      id,
+      kind: 'pipe',
+      from,
+      to,
+      length_m,
+      diameter_m: 0.05,
+      roughness: 150,
+      series: 'pvc-sdr21',
+      nominal: '2"',
+      material: 'pvc',
+    });
     // A ridge tank 70–80 m above a loop A–B–C: static pressure alone is within SDR 26's 160 psi, a sudden stop is not at every size.
     const doc = {
-      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
       nodes: [
         { id: 'T', kind: 'tank', elevation_m: 100, diameter_m: 3, level_m: 1, min_level_m: 0.1, max_level_m: 1 },
         { id: 'A', kind: 'tee', elevation_m: 30, demand_m3s: 0 },
@@ -110,8 +134,10 @@ describe('pipe sizing (engine/sizing)', () => {
     const over = (d: NetworkDocument) => {
       const statics = pipeStaticPressures(d);
       const result = solve(d);
-      return d.links.filter((l): l is PipeLink => l.kind === 'pipe')
-        .filter((l) => statics.get(l.id)! + (pipeWaveSpeed(l).waveSpeed_ms * Math.abs(result.links[l.id].velocity_ms)) / 9.80665 > l.rating_m! + 1e-9).map((l) => l.id);
+      return d.links
+        .filter((l): l is PipeLink => l.kind === 'pipe')
+        .filter((l) => statics.get(l.id)! + (pipeWaveSpeed(l).waveSpeed_ms * Math.abs(result.links[l.id].velocity_ms)) / 9.80665 > l.rating_m! + 1e-9)
+        .map((l) => l.id);
     };
     const withSurge = sizeNetwork(doc, cands, { seed: 1 });
     expect(withSurge.feasible).to.equal(true);
@@ -136,7 +162,9 @@ describe('pipe sizing (engine/sizing)', () => {
   it('only the chosen pipes change', () => {
     const r = sizeNetwork(hillSmallholding, demoCandidates, { pipes: ['L-TR4'] });
     expect(r.choices.map((c) => c.pipe)).to.deep.equal(['L-TR4']);
-    r.document.links.forEach((l, k) => { if (l.id !== 'L-TR4') expect(l).to.deep.equal(hillSmallholding.links[k]); });
+    r.document.links.forEach((l, k) => {
+      if (l.id !== 'L-TR4') expect(l).to.deep.equal(hillSmallholding.links[k]);
+    });
   });
 
   it('on random trees, dynamic programming equals brute force over every combination (the optimality identity)', () => {
@@ -145,37 +173,84 @@ describe('pipe sizing (engine/sizing)', () => {
       { key: 'b', label: 'b', diameter_m: 0.03, price_per_m: 2.2 },
       { key: 'c', label: 'c', diameter_m: 0.045, price_per_m: 4.1 },
     ];
-    fc.assert(fc.property(
-      fc.array(fc.record({ parent: fc.nat(), elev: fc.integer({ min: 0, max: 30 }), q: fc.integer({ min: 0, max: 8 }), len: fc.integer({ min: 20, max: 400 }), minP: fc.integer({ min: 0, max: 15 }) }), { minLength: 1, maxLength: 5 }),
-      fc.integer({ min: 25, max: 60 }),
-      (spec, head) => {
-        const doc: NetworkDocument = { schema: 'runnel.network/1', headloss: 'hazen-williams', nodes: [{ id: 'S', kind: 'source', elevation_m: head, head_m: head }], links: [] };
-        spec.forEach((s, i) => {
-          doc.nodes.push({ id: `N${i}`, kind: 'outlet', elevation_m: s.elev, demand_m3s: s.q / 10000, min_pressure_m: s.minP });
-          const parent = i === 0 ? 'S' : `N${s.parent % i}`;
-          doc.links.push({ id: `P${i}`, kind: 'pipe', from: parent, to: `N${i}`, length_m: s.len, diameter_m: 0.03, roughness: 150 });
-        });
-        const dp = sizeNetwork(doc, cands, { velocityLimit_ms: 1e9 });
-        let best = Infinity;
-        const n = spec.length;
-        for (let code = 0; code < 3 ** n; code++) {
-          let c = code;
-          const trial: NetworkDocument = { ...doc, links: doc.links.map((l) => { const k = c % 3; c = Math.floor(c / 3); return { ...(l as PipeLink), diameter_m: cands[k].diameter_m }; }) };
-          const r = solve(trial);
-          const ok = trial.nodes.every((nd) => nd.kind !== 'outlet' || r.nodes[nd.id].pressure_m >= (nd.min_pressure_m ?? 0) - 1e-3);
-          if (ok) best = Math.min(best, trial.links.reduce((s, l) => s + cands.find((x) => x.diameter_m === (l as PipeLink).diameter_m)!.price_per_m * (l as PipeLink).length_m, 0));
-        }
-        if (best === Infinity) return !dp.feasible;
-        return dp.feasible && Math.abs(dp.cost - best) < 1e-6;
-      }), { numRuns: 40, seed: 7 });
+    fc.assert(
+      fc.property(
+        fc.array(
+          fc.record({
+            parent: fc.nat(),
+            elev: fc.integer({ min: 0, max: 30 }),
+            q: fc.integer({ min: 0, max: 8 }),
+            len: fc.integer({ min: 20, max: 400 }),
+            minP: fc.integer({ min: 0, max: 15 }),
+          }),
+          { minLength: 1, maxLength: 5 },
+        ),
+        fc.integer({ min: 25, max: 60 }),
+        (spec, head) => {
+          const doc: NetworkDocument = {
+            schema: 'runnel.network/1',
+            headloss: 'hazen-williams',
+            nodes: [{ id: 'S', kind: 'source', elevation_m: head, head_m: head }],
+            links: [],
+          };
+          spec.forEach((s, i) => {
+            doc.nodes.push({ id: `N${i}`, kind: 'outlet', elevation_m: s.elev, demand_m3s: s.q / 10000, min_pressure_m: s.minP });
+            const parent = i === 0 ? 'S' : `N${s.parent % i}`;
+            doc.links.push({ id: `P${i}`, kind: 'pipe', from: parent, to: `N${i}`, length_m: s.len, diameter_m: 0.03, roughness: 150 });
+          });
+          const dp = sizeNetwork(doc, cands, { velocityLimit_ms: 1e9 });
+          let best = Infinity;
+          const n = spec.length;
+          for (let code = 0; code < 3 ** n; code++) {
+            let c = code;
+            const trial: NetworkDocument = {
+              ...doc,
+              links: doc.links.map((l) => {
+                const k = c % 3;
+                c = Math.floor(c / 3);
+                return { ...(l as PipeLink), diameter_m: cands[k].diameter_m };
+              }),
+            };
+            const r = solve(trial);
+            const ok = trial.nodes.every((nd) => nd.kind !== 'outlet' || r.nodes[nd.id].pressure_m >= (nd.min_pressure_m ?? 0) - 1e-3);
+            if (ok)
+              best = Math.min(
+                best,
+                trial.links.reduce((s, l) => s + cands.find((x) => x.diameter_m === (l as PipeLink).diameter_m)!.price_per_m * (l as PipeLink).length_m, 0),
+              );
+          }
+          if (best === Infinity) return !dp.feasible;
+          return dp.feasible && Math.abs(dp.cost - best) < 1e-6;
+        },
+      ),
+      { numRuns: 40, seed: 7 },
+    );
   });
 
   it('keeps the HGL above a profiled hump (the air-lock check) when it sizes', () => {
     const doc: NetworkDocument = {
-      schema: 'runnel.network/1', headloss: 'hazen-williams',
-      nodes: [{ id: 'T', kind: 'tank', elevation_m: 50, diameter_m: 2, level_m: 1, min_level_m: 0.1, max_level_m: 1.5 },
-        { id: 'O', kind: 'outlet', elevation_m: 20, demand_m3s: 0.0008, min_pressure_m: 3 }],
-      links: [{ id: 'P', kind: 'pipe', from: 'T', to: 'O', length_m: 600, diameter_m: 0.05, roughness: 150, profile: [[0, 50], [300, 47], [600, 20]] }],
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
+      nodes: [
+        { id: 'T', kind: 'tank', elevation_m: 50, diameter_m: 2, level_m: 1, min_level_m: 0.1, max_level_m: 1.5 },
+        { id: 'O', kind: 'outlet', elevation_m: 20, demand_m3s: 0.0008, min_pressure_m: 3 },
+      ],
+      links: [
+        {
+          id: 'P',
+          kind: 'pipe',
+          from: 'T',
+          to: 'O',
+          length_m: 600,
+          diameter_m: 0.05,
+          roughness: 150,
+          profile: [
+            [0, 50],
+            [300, 47],
+            [600, 20],
+          ],
+        },
+      ],
     };
     const r = sizeNetwork(doc, demoCandidates, {});
     expect(r.feasible).to.equal(true);

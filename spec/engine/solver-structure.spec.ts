@@ -20,10 +20,11 @@ function grid(nx: number, ny: number, sizes: (k: number) => number, sourceHead =
     links.push({ id, kind: 'pipe', from, to, length_m: 40, diameter_m: sizes(links.length), roughness: 140 });
   };
   pipe('M', 'S', 'J0_0');
-  for (let y = 0; y < ny; y++) for (let x = 0; x < nx; x++) {
-    if (x + 1 < nx) pipe(`H${x}_${y}`, `J${x}_${y}`, `J${x + 1}_${y}`);
-    if (y + 1 < ny) pipe(`V${x}_${y}`, `J${x}_${y}`, `J${x}_${y + 1}`);
-  }
+  for (let y = 0; y < ny; y++)
+    for (let x = 0; x < nx; x++) {
+      if (x + 1 < nx) pipe(`H${x}_${y}`, `J${x}_${y}`, `J${x + 1}_${y}`);
+      if (y + 1 < ny) pipe(`V${x}_${y}`, `J${x}_${y}`, `J${x}_${y + 1}`);
+    }
   return { schema: 'runnel.network/1', headloss: 'hazen-williams', nodes, links };
 }
 
@@ -33,7 +34,10 @@ describe('solver structure shared by layout (gradient-solver.ts)', () => {
   beforeEach(() => clearStructureCache());
 
   it('a second document with the same layout and other pipe sizes solves exactly as a first solve does (small and supernodal sizes)', () => {
-    for (const [nx, ny] of [[6, 5], [40, 30]]) {
+    for (const [nx, ny] of [
+      [6, 5],
+      [40, 30],
+    ]) {
       const a = grid(nx, ny, (k) => [0.1, 0.08, 0.065][k % 3]);
       const b = grid(nx, ny, (k) => [0.05, 0.1, 0.08][k % 3]);
       solve(a); // the layout is now cached

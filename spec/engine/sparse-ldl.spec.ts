@@ -14,14 +14,18 @@ function randomSpd(n: number, edges: [number, number, number][], shift: number[]
     const i = a % n;
     const j = b % n;
     if (i === j) return;
-    dense[i][j] -= w; dense[j][i] -= w; dense[i][i] += w; dense[j][j] += w;
+    dense[i][j] -= w;
+    dense[j][i] -= w;
+    dense[i][i] += w;
+    dense[j][j] += w;
   });
   for (let i = 0; i < n; i++) dense[i][i] += shift[i];
-  for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) {
-    const pos = ldl.position(i, j);
-    if (pos >= 0) ldl.values[pos] = dense[i][j];
-    else expect(dense[i][j]).to.equal(0);
-  }
+  for (let j = 0; j < n; j++)
+    for (let i = 0; i < n; i++) {
+      const pos = ldl.position(i, j);
+      if (pos >= 0) ldl.values[pos] = dense[i][j];
+      else expect(dense[i][j]).to.equal(0);
+    }
   return { ldl, dense };
 }
 
@@ -30,47 +34,73 @@ const isPermutation = (perm: Int32Array, n: number): boolean => perm.length === 
 function grid(nx: number, ny: number): { ptr: Int32Array; idx: Int32Array; n: number } {
   const n = nx * ny;
   const adj: number[][] = Array.from({ length: n }, () => []);
-  for (let y = 0; y < ny; y++) for (let x = 0; x < nx; x++) {
-    const v = y * nx + x;
-    if (x + 1 < nx) { adj[v].push(v + 1); adj[v + 1].push(v); }
-    if (y + 1 < ny) { adj[v].push(v + nx); adj[v + nx].push(v); }
-  }
+  for (let y = 0; y < ny; y++)
+    for (let x = 0; x < nx; x++) {
+      const v = y * nx + x;
+      if (x + 1 < nx) {
+        adj[v].push(v + 1);
+        adj[v + 1].push(v);
+      }
+      if (y + 1 < ny) {
+        adj[v].push(v + nx);
+        adj[v + nx].push(v);
+      }
+    }
   const ptr = new Int32Array(n + 1);
-  adj.forEach((a, v) => { ptr[v + 1] = ptr[v] + a.length; });
+  adj.forEach((a, v) => {
+    ptr[v + 1] = ptr[v] + a.length;
+  });
   return { ptr, idx: Int32Array.from(adj.flat()), n };
 }
 
 describe('sparse LDLᵀ (sparse-ldl.ts, after Davis 2005, ACM TOMS Algorithm 849)', () => {
   it('solves A·x = b to a residual of 1e-10·|b| on random sparse SPD matrices (the defining identity)', () => {
-    fc.assert(fc.property(
-      fc.integer({ min: 1, max: 60 }).chain((n) => fc.tuple(
-        fc.constant(n),
-        fc.array(fc.tuple(fc.nat(), fc.nat(), fc.double({ min: 1e-3, max: 1e3, noNaN: true })), { maxLength: 4 * n }),
-        fc.array(fc.double({ min: 1e-6, max: 10, noNaN: true }), { minLength: n, maxLength: n }),
-        fc.array(fc.double({ min: -1, max: 1, noNaN: true }), { minLength: n, maxLength: n }),
-      )),
-      ([n, edges, shift, b]) => {
-        const { ldl, dense } = randomSpd(n, edges, shift);
-        expect(ldl.factor()).to.equal(n);
-        const x = new Float64Array(n);
-        ldl.solve(b, x);
-        const scale = Math.max(1, ...b.map(Math.abs)) * Math.max(1, ...dense.map((row) => row.reduce((s, v) => s + Math.abs(v), 0)));
-        for (let i = 0; i < n; i++) {
-          let s = 0;
-          for (let j = 0; j < n; j++) s += dense[i][j] * x[j];
-          expect(Math.abs(s - b[i])).to.be.below(1e-9 * scale * Math.max(1, ...Array.from(x, Math.abs)));
-        }
-        expect(isPermutation(ldl.perm, n)).to.equal(true);
-      },
-    ), { numRuns: 100 });
+    fc.assert(
+      fc.property(
+        fc
+          .integer({ min: 1, max: 60 })
+          .chain((n) =>
+            fc.tuple(
+              fc.constant(n),
+              fc.array(fc.tuple(fc.nat(), fc.nat(), fc.double({ min: 1e-3, max: 1e3, noNaN: true })), { maxLength: 4 * n }),
+              fc.array(fc.double({ min: 1e-6, max: 10, noNaN: true }), { minLength: n, maxLength: n }),
+              fc.array(fc.double({ min: -1, max: 1, noNaN: true }), { minLength: n, maxLength: n }),
+            ),
+          ),
+        ([n, edges, shift, b]) => {
+          const { ldl, dense } = randomSpd(n, edges, shift);
+          expect(ldl.factor()).to.equal(n);
+          const x = new Float64Array(n);
+          ldl.solve(b, x);
+          const scale = Math.max(1, ...b.map(Math.abs)) * Math.max(1, ...dense.map((row) => row.reduce((s, v) => s + Math.abs(v), 0)));
+          for (let i = 0; i < n; i++) {
+            let s = 0;
+            for (let j = 0; j < n; j++) s += dense[i][j] * x[j];
+            expect(Math.abs(s - b[i])).to.be.below(1e-9 * scale * Math.max(1, ...Array.from(x, Math.abs)));
+          }
+          expect(isPermutation(ldl.perm, n)).to.equal(true);
+        },
+      ),
+      { numRuns: 100 },
+    );
   });
 
   it('reports the pivot of a singular matrix instead of returning garbage', () => {
-    const ldl = new SparseLdl(3, [[0, 1], [1, 2]]);
+    const ldl = new SparseLdl(3, [
+      [0, 1],
+      [1, 2],
+    ]);
     // the graph Laplacian of a path is singular (constant null vector)
-    const set = (i: number, j: number, v: number): void => { ldl.values[ldl.position(i, j)] = v; };
-    set(0, 0, 1); set(1, 1, 2); set(2, 2, 1);
-    set(0, 1, -1); set(1, 0, -1); set(1, 2, -1); set(2, 1, -1);
+    const set = (i: number, j: number, v: number): void => {
+      ldl.values[ldl.position(i, j)] = v;
+    };
+    set(0, 0, 1);
+    set(1, 1, 2);
+    set(2, 2, 1);
+    set(0, 1, -1);
+    set(1, 0, -1);
+    set(1, 2, -1);
+    set(2, 1, -1);
     expect(ldl.factor()).to.be.below(3);
   });
 
@@ -82,7 +112,13 @@ describe('sparse LDLᵀ (sparse-ldl.ts, after Davis 2005, ACM TOMS Algorithm 849
 
   it('minimum degree eliminates a tree without fill (leaves first)', () => {
     // a star and a path: any leaf-first order gives L with exactly the tree's edges
-    const ldl = new SparseLdl(6, [[0, 1], [0, 2], [0, 3], [3, 4], [4, 5]]);
+    const ldl = new SparseLdl(6, [
+      [0, 1],
+      [0, 2],
+      [0, 3],
+      [3, 4],
+      [4, 5],
+    ]);
     expect(ldl.factorNonZeros).to.equal(5);
   });
 
@@ -101,32 +137,42 @@ describe('sparse LDLᵀ (sparse-ldl.ts, after Davis 2005, ACM TOMS Algorithm 849
   });
 
   it('the supernodal Cholesky gives the same solution on random SPD matrices and grids (Ng & Peyton 1993)', () => {
-    fc.assert(fc.property(
-      fc.integer({ min: 1, max: 80 }).chain((n) => fc.tuple(
-        fc.constant(n),
-        fc.array(fc.tuple(fc.nat(), fc.nat(), fc.double({ min: 1e-3, max: 1e3, noNaN: true })), { maxLength: 5 * n }),
-        fc.array(fc.double({ min: 1e-6, max: 10, noNaN: true }), { minLength: n, maxLength: n }),
-      )),
-      ([n, edges, shift]) => {
-        const { ldl, dense } = randomSpd(n, edges, shift);
-        const chol = new SupernodalCholesky(ldl);
-        expect(chol.factor()).to.equal(n);
-        const b = Float64Array.from({ length: n }, (_, i) => Math.sin(i + 1));
-        const x = new Float64Array(n);
-        chol.solve(b, x);
-        const scale = Math.max(1, ...dense.map((row) => row.reduce((s, v) => s + Math.abs(v), 0))) * Math.max(1, ...Array.from(x, Math.abs));
-        for (let i = 0; i < n; i++) {
-          let s = 0;
-          for (let j = 0; j < n; j++) s += dense[i][j] * x[j];
-          expect(Math.abs(s - b[i])).to.be.below(1e-9 * scale);
-        }
-      },
-    ), { numRuns: 80 });
+    fc.assert(
+      fc.property(
+        fc
+          .integer({ min: 1, max: 80 })
+          .chain((n) =>
+            fc.tuple(
+              fc.constant(n),
+              fc.array(fc.tuple(fc.nat(), fc.nat(), fc.double({ min: 1e-3, max: 1e3, noNaN: true })), { maxLength: 5 * n }),
+              fc.array(fc.double({ min: 1e-6, max: 10, noNaN: true }), { minLength: n, maxLength: n }),
+            ),
+          ),
+        ([n, edges, shift]) => {
+          const { ldl, dense } = randomSpd(n, edges, shift);
+          const chol = new SupernodalCholesky(ldl);
+          expect(chol.factor()).to.equal(n);
+          const b = Float64Array.from({ length: n }, (_, i) => Math.sin(i + 1));
+          const x = new Float64Array(n);
+          chol.solve(b, x);
+          const scale = Math.max(1, ...dense.map((row) => row.reduce((s, v) => s + Math.abs(v), 0))) * Math.max(1, ...Array.from(x, Math.abs));
+          for (let i = 0; i < n; i++) {
+            let s = 0;
+            for (let j = 0; j < n; j++) s += dense[i][j] * x[j];
+            expect(Math.abs(s - b[i])).to.be.below(1e-9 * scale);
+          }
+        },
+      ),
+      { numRuns: 80 },
+    );
     const g = grid(30, 40);
     const pairs: [number, number][] = [];
     for (let v = 0; v < g.n; v++) for (let a = g.ptr[v]; a < g.ptr[v + 1]; a++) if (g.idx[a] > v) pairs.push([v, g.idx[a]]);
     const ldl = new SparseLdl(g.n, pairs);
-    for (const [i, j] of pairs) { ldl.values[ldl.position(i, j)] = -1; ldl.values[ldl.position(j, i)] = -1; }
+    for (const [i, j] of pairs) {
+      ldl.values[ldl.position(i, j)] = -1;
+      ldl.values[ldl.position(j, i)] = -1;
+    }
     for (let v = 0; v < g.n; v++) ldl.values[ldl.position(v, v)] = 4.001;
     const chol = new SupernodalCholesky(ldl);
     expect(chol.supernodes).to.be.below(g.n);
@@ -145,7 +191,10 @@ describe('sparse LDLᵀ (sparse-ldl.ts, after Davis 2005, ACM TOMS Algorithm 849
     // has the 5–40-column supernodes of the benchmark grids (odd and even widths, contiguous and
     // mapped targets), the dense 70 × 70 matrix a 64-column supernode updating a 6-column one
     let seed = 7;
-    const random = (): number => { seed = (seed * 1103515245 + 12345) % 2147483648; return seed / 2147483648; };
+    const random = (): number => {
+      seed = (seed * 1103515245 + 12345) % 2147483648;
+      return seed / 2147483648;
+    };
     const cases: { n: number; pairs: [number, number][] }[] = [];
     const g = grid(17, 90);
     const gridPairs: [number, number][] = [];
@@ -159,8 +208,10 @@ describe('sparse LDLᵀ (sparse-ldl.ts, after Davis 2005, ACM TOMS Algorithm 849
       const diagonal = new Float64Array(n).map(() => 1e-3 * random());
       for (const [i, j] of pairs) {
         const w = Math.exp(8 * random() - 4); // weights over eight decades, as 1/g of pipes
-        ldl.values[ldl.position(i, j)] -= w; ldl.values[ldl.position(j, i)] -= w;
-        diagonal[i] += w; diagonal[j] += w;
+        ldl.values[ldl.position(i, j)] -= w;
+        ldl.values[ldl.position(j, i)] -= w;
+        diagonal[i] += w;
+        diagonal[j] += w;
       }
       for (let v = 0; v < n; v++) ldl.values[ldl.position(v, v)] = diagonal[v];
       const chol = new SupernodalCholesky(ldl);
@@ -184,10 +235,20 @@ describe('sparse LDLᵀ (sparse-ldl.ts, after Davis 2005, ACM TOMS Algorithm 849
   });
 
   it('the supernodal Cholesky reports a singular matrix', () => {
-    const ldl = new SparseLdl(3, [[0, 1], [1, 2]]);
-    const set = (i: number, j: number, v: number): void => { ldl.values[ldl.position(i, j)] = v; };
-    set(0, 0, 1); set(1, 1, 2); set(2, 2, 1);
-    set(0, 1, -1); set(1, 0, -1); set(1, 2, -1); set(2, 1, -1);
+    const ldl = new SparseLdl(3, [
+      [0, 1],
+      [1, 2],
+    ]);
+    const set = (i: number, j: number, v: number): void => {
+      ldl.values[ldl.position(i, j)] = v;
+    };
+    set(0, 0, 1);
+    set(1, 1, 2);
+    set(2, 2, 1);
+    set(0, 1, -1);
+    set(1, 0, -1);
+    set(1, 2, -1);
+    set(2, 1, -1);
     expect(new SupernodalCholesky(ldl).factor()).to.be.below(3);
   });
 });

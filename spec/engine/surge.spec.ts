@@ -34,7 +34,18 @@ describe('surge: Joukowsky and Korteweg', () => {
   });
 
   it('a catalogued pipe takes its wall and bore from the catalogue; an unknown pipe is taken as rigid (the safe side)', () => {
-    const pe = pipeWaveSpeed({ id: 'P', kind: 'pipe', from: 'A', to: 'B', length_m: 1, diameter_m: 0.0209, roughness: 140, material: 'pe', series: 'pe-sidr9', nominal: '3/4"' });
+    const pe = pipeWaveSpeed({
+      id: 'P',
+      kind: 'pipe',
+      from: 'A',
+      to: 'B',
+      length_m: 1,
+      diameter_m: 0.0209,
+      roughness: 140,
+      material: 'pe',
+      series: 'pe-sidr9',
+      nominal: '3/4"',
+    });
     expect(pe.basis).to.equal('catalogue');
     expect(pe.diameterToWall).to.be.closeTo(9, 1e-9); // SIDR = ID / wall (ASTM D2239, C)
     expect(pe.waveSpeed_ms).to.be.closeTo(kortewegWaveSpeed({ modulus_pa: 0.9e9, diameterToWall: 9 }), 1e-9);

@@ -14,7 +14,8 @@ function pipe(id: string, from: string, to: string, length_m: number, series: st
 
 /** Tank → 400 m of 1" PE with one right-angle bend → a tee → 3/4" to a trough and 3/4" to a bib. */
 const small: NetworkDocument = {
-  schema: 'runnel.network/1', headloss: 'hazen-williams',
+  schema: 'runnel.network/1',
+  headloss: 'hazen-williams',
   nodes: [
     { id: 'T', kind: 'tank', elevation_m: 60, diameter_m: 2, level_m: 1, min_level_m: 0.1, max_level_m: 1.5, x_m: 0, y_m: 0 },
     { id: 'J', kind: 'tee', elevation_m: 40, demand_m3s: 0, x_m: 200, y_m: 200 },
@@ -68,7 +69,10 @@ describe('takeoff and estimate (engine/takeoff)', () => {
     const pipes = hillSmallholding.links.filter((l) => l.kind === 'pipe') as PipeLink[];
     const pipeRows = d.rows.filter((r) => r.group === 'pipe');
     expect(pipeRows.flatMap((r) => r.elements).sort()).to.deep.equal(pipes.map((p) => p.id).sort());
-    expect(pipeRows.reduce((s, r) => s + (r.network_m ?? 0), 0)).to.be.closeTo(pipes.reduce((s, p) => s + p.length_m, 0), 1e-6);
+    expect(pipeRows.reduce((s, r) => s + (r.network_m ?? 0), 0)).to.be.closeTo(
+      pipes.reduce((s, p) => s + p.length_m, 0),
+      1e-6,
+    );
     expect(d.rows.filter((r) => r.code.startsWith('valve-float/')).reduce((s, r) => s + r.quantity, 0)).to.equal(4);
     const tr4 = d.rows.filter((r) => r.elements.includes('L-TR4')).map((r) => r.code);
     expect(tr4).to.include.members(['air-release-valve/3/4"', 'drain-valve/3/4"']);
@@ -76,7 +80,12 @@ describe('takeoff and estimate (engine/takeoff)', () => {
   });
 
   it('estimate: quantities × prices to the cent, labour, markup, tax; unpriced rows listed', () => {
-    const prices = new Map<string, number | null>([['pe-sidr9/1"', 1.9], ['pe-sidr9/3/4"', 1.35], ['tee/1"', 3.05], ['other/trenching', null]]);
+    const prices = new Map<string, number | null>([
+      ['pe-sidr9/1"', 1.9],
+      ['pe-sidr9/3/4"', 1.35],
+      ['tee/1"', 3.05],
+      ['other/trenching', null],
+    ]);
     const e = estimate(t, prices, { labour_hours: 10, labour_rate: 40, markup_fraction: 0.1, tax_fraction: 0.05 });
     // 457.2 × 1.9 = 868.68; 182.88 × 1.35 = 246.888 → 246.89; tee 3.05 (C)
     expect(e.materials).to.equal(868.68 + 246.89 + 3.05);
@@ -106,7 +115,13 @@ describe('npm run takeoff (engine/takeoff/cli.ts)', () => {
     const dir = mkdtempSync(join(tmpdir(), 'runnel-takeoff-'));
     writeFileSync(join(dir, 'farm.json'), JSON.stringify(hillSmallholding));
     writeFileSync(join(dir, 'list.json'), JSON.stringify(demoPriceList()));
-    writeFileSync(join(dir, 'bad.json'), JSON.stringify([{ code: 'x', price: 1 }, { code: 'y', price: 'ten' }]));
+    writeFileSync(
+      join(dir, 'bad.json'),
+      JSON.stringify([
+        { code: 'x', price: 1 },
+        { code: 'y', price: 'ten' },
+      ]),
+    );
     const run = (...a: string[]) => spawnSync(process.execPath, ['--import', 'tsx', 'engine/takeoff/cli.ts', ...a], { encoding: 'utf8' });
     const ok = run(join(dir, 'farm.json'), '--prices', join(dir, 'list.json'), '--labour-hours', '8', '--labour-rate', '50');
     expect(ok.status, ok.stderr).to.equal(0);

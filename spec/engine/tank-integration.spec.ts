@@ -16,8 +16,15 @@ import { simulate } from '../../engine/simulate';
  */
 
 type Rhs = (t: number, y: number[]) => number[];
-const A = [[], [1 / 5], [3 / 40, 9 / 40], [44 / 45, -56 / 15, 32 / 9], [19372 / 6561, -25360 / 2187, 64448 / 6561, -212 / 729],
-  [9017 / 3168, -355 / 33, 46732 / 5247, 49 / 176, -5103 / 18656], [35 / 384, 0, 500 / 1113, 125 / 192, -2187 / 6784, 11 / 84]];
+const A = [
+  [],
+  [1 / 5],
+  [3 / 40, 9 / 40],
+  [44 / 45, -56 / 15, 32 / 9],
+  [19372 / 6561, -25360 / 2187, 64448 / 6561, -212 / 729],
+  [9017 / 3168, -355 / 33, 46732 / 5247, 49 / 176, -5103 / 18656],
+  [35 / 384, 0, 500 / 1113, 125 / 192, -2187 / 6784, 11 / 84],
+];
 const C = [0, 1 / 5, 3 / 10, 4 / 5, 8 / 9, 1, 1];
 const B4 = [5179 / 57600, 0, 7571 / 16695, 393 / 640, -92097 / 339200, 187 / 2100, 1 / 40];
 
@@ -36,7 +43,10 @@ function dopri(f: Rhs, y0: number[], t0: number, t1: number, tol = 1e-11): numbe
     const y5 = y.map((v, i) => v + h * A[6].reduce((acc, a, j) => acc + a * k[j][i], 0));
     const y4 = y.map((v, i) => v + h * B4.reduce((acc, b, j) => acc + b * k[j][i], 0));
     const err = Math.max(...y5.map((v, i) => Math.abs(v - y4[i])));
-    if (err <= tol) { t += h; y = y5; }
+    if (err <= tol) {
+      t += h;
+      y = y5;
+    }
     h *= Math.min(4, Math.max(0.1, 0.9 * Math.pow(tol / Math.max(err, 1e-300), 0.2)));
   }
   return y;
@@ -49,7 +59,8 @@ describe('extended period: levels with error control, whatever the report step (
   const A1 = 2;
   const A2 = 6;
   const bank: NetworkDocument = {
-    schema: 'runnel.network/1', headloss: 'hazen-williams',
+    schema: 'runnel.network/1',
+    headloss: 'hazen-williams',
     nodes: [
       { id: 'T1', kind: 'tank', elevation_m: 20, diameter_m: tankDiameter(A1), level_m: 1.8, min_level_m: 0.05, max_level_m: 2 },
       { id: 'T2', kind: 'tank', elevation_m: 20, diameter_m: tankDiameter(A2), level_m: 0.3, min_level_m: 0.05, max_level_m: 2 },
@@ -84,7 +95,8 @@ describe('extended period: levels with error control, whatever the report step (
     it(`Torricelli draining: levels to 1 mm and the moment the tank runs empty to 0.1 s at ${step} s report steps`, () => {
       const a = 0.001;
       const doc: NetworkDocument = {
-        schema: 'runnel.network/1', headloss: 'hazen-williams',
+        schema: 'runnel.network/1',
+        headloss: 'hazen-williams',
         nodes: [
           { id: 'T', kind: 'tank', elevation_m: 10, diameter_m: tankDiameter(1), level_m: 2, min_level_m: 0.05, max_level_m: 3 },
           { id: 'OUT', kind: 'source', elevation_m: 10, head_m: 10 },
@@ -109,7 +121,8 @@ describe('extended period: levels with error control, whatever the report step (
     // 0.04 m³ / 0.1 L/s = 400 s; supplying: −1 cm takes 0.04 m³ / 0.2 L/s = 200 s. 432 such
     // 600 s cycles in 3 days: delivered 0.3 L/s × 200 s × 432 = 25.92 m³ of 77.76 m³ requested.
     const doc: NetworkDocument = {
-      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
       nodes: [
         { id: 'T', kind: 'tank', elevation_m: 50, diameter_m: tankDiameter(4), level_m: 0.1, min_level_m: 0.1, max_level_m: 2, inflow_m3s: 0.0001 },
         { id: 'O', kind: 'outlet', elevation_m: 0, demand_m3s: 0.0003 },

@@ -4,15 +4,16 @@ import { solve } from '../../engine/steady';
 import { simulate } from '../../engine/simulate';
 import { validateDocument } from '../../engine/validate';
 
-const base = () => ({
-  schema: 'runnel.network/1',
-  headloss: 'hazen-williams',
-  nodes: [
-    { id: 'S1', kind: 'source', elevation_m: 50, head_m: 50 },
-    { id: 'J1', kind: 'tee', elevation_m: 10, demand_m3s: 0.001 },
-  ],
-  links: [{ id: 'P3', kind: 'pipe', from: 'S1', to: 'J1', length_m: 100, diameter_m: 0.05, roughness: 150 }],
-}) as { nodes: Record<string, unknown>[]; links: Record<string, unknown>[]; [k: string]: unknown };
+const base = () =>
+  ({
+    schema: 'runnel.network/1',
+    headloss: 'hazen-williams',
+    nodes: [
+      { id: 'S1', kind: 'source', elevation_m: 50, head_m: 50 },
+      { id: 'J1', kind: 'tee', elevation_m: 10, demand_m3s: 0.001 },
+    ],
+    links: [{ id: 'P3', kind: 'pipe', from: 'S1', to: 'J1', length_m: 100, diameter_m: 0.05, roughness: 150 }],
+  }) as { nodes: Record<string, unknown>[]; links: Record<string, unknown>[]; [k: string]: unknown };
 
 describe('validateDocument (validate.ts): boundary checks name element and field', () => {
   it('accepts a good document and ignores unknown editor fields', () => {
@@ -64,7 +65,17 @@ describe('validateDocument (validate.ts): boundary checks name element and field
   });
   it('pump and valve fields: controls must name tanks, curves must fall', () => {
     const doc = base();
-    doc.links.push({ id: 'PU', kind: 'pump', from: 'S1', to: 'J1', curve: [[0, 10], [0.01, 20]], control: { tank: 'J1', stop_level_m: 1, start_level_m: 2 } });
+    doc.links.push({
+      id: 'PU',
+      kind: 'pump',
+      from: 'S1',
+      to: 'J1',
+      curve: [
+        [0, 10],
+        [0.01, 20],
+      ],
+      control: { tank: 'J1', stop_level_m: 1, start_level_m: 2 },
+    });
     doc.links.push({ id: 'V1', kind: 'valve', valve_type: 'gate', from: 'S1', to: 'J1', diameter_m: 0.05 });
     expect(validateDocument(doc).map((w) => w.message)).to.deep.equal(['V1.valve_type: must be shutoff, check, prv or float (got "gate")']);
     doc.links[2]['valve_type'] = 'float';

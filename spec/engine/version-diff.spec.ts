@@ -4,7 +4,8 @@ import type { NetworkDocument } from '../../engine';
 import { compareOutlets, diffVersions, isEmptyDiff, summariseDiff } from '../../engine/review/version-diff';
 
 const base = (): NetworkDocument => ({
-  schema: 'runnel.network/1', headloss: 'hazen-williams',
+  schema: 'runnel.network/1',
+  headloss: 'hazen-williams',
   nodes: [
     { id: 'T1', kind: 'tank', elevation_m: 40, diameter_m: 1.6, level_m: 1.2, min_level_m: 0.1, max_level_m: 1.5, x_m: 0, y_m: 0 },
     { id: 'O1', kind: 'outlet', name: 'Garden', elevation_m: 20, demand_m3s: 0.0003, min_pressure_m: 7, x_m: 20, y_m: 0 },

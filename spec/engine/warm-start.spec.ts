@@ -10,7 +10,8 @@ import { loopedGrid } from '../../bench/looped-grid';
  * Newton iterations. Behaviours of the solver, compared with its own cold solve.
  */
 
-const maxHeadGap = (a: SteadyResult, b: SteadyResult): number => Math.max(...Object.keys(a.nodes).map((id) => Math.abs(a.nodes[id].head_m - b.nodes[id].head_m)));
+const maxHeadGap = (a: SteadyResult, b: SteadyResult): number =>
+  Math.max(...Object.keys(a.nodes).map((id) => Math.abs(a.nodes[id].head_m - b.nodes[id].head_m)));
 
 describe('warm start from a previous answer (steady.ts, start option)', () => {
   it('a looped grid with every demand 10 % higher: same heads as a cold solve to 1e-8 m, in under half the iterations', () => {
@@ -36,7 +37,11 @@ describe('warm start from a previous answer (steady.ts, start option)', () => {
 
   it('a start from another layout (ids missing or extra) still reaches the cold answer, valves and all', () => {
     const r = solve(hillSmallholding);
-    const trimmed: SteadyResult = { ...r, nodes: Object.fromEntries(Object.entries(r.nodes).slice(0, 10)), links: { ...r.links, GHOST: { flow_m3s: 1, velocity_ms: 0, headloss_m: 0, status: 'open' } } };
+    const trimmed: SteadyResult = {
+      ...r,
+      nodes: Object.fromEntries(Object.entries(r.nodes).slice(0, 10)),
+      links: { ...r.links, GHOST: { flow_m3s: 1, velocity_ms: 0, headloss_m: 0, status: 'open' } },
+    };
     const edited = structuredClone(hillSmallholding) as NetworkDocument;
     for (const node of edited.nodes) if (node.kind === 'outlet') node.demand_m3s *= 0.8;
     const cold = solve(edited);

@@ -14,7 +14,8 @@ const MIN1 = 20;
 
 function looped(): NetworkDocument {
   return {
-    schema: 'runnel.network/1', headloss: 'hazen-williams',
+    schema: 'runnel.network/1',
+    headloss: 'hazen-williams',
     nodes: [
       { id: 'T', kind: 'tank', elevation_m: 50, diameter_m: 3, level_m: 1, min_level_m: 0, max_level_m: 2 },
       { id: 'J', kind: 'tee', elevation_m: 0, demand_m3s: 0 },
@@ -47,7 +48,8 @@ describe('what-ifs: every single failure on a small looped network', () => {
 
   it('lists every pipe broken, every valve stuck shut and every tank out, once each', () => {
     expect(table.results.map((x) => x.scenario.key).sort()).to.deep.equal(
-      ['pipe-broken:P1', 'pipe-broken:P2', 'pipe-broken:P3', 'pipe-broken:P4', 'tank-out:T', 'valve-stuck-shut:V4'].sort());
+      ['pipe-broken:P1', 'pipe-broken:P2', 'pipe-broken:P3', 'pipe-broken:P4', 'tank-out:T', 'valve-stuck-shut:V4'].sort(),
+    );
     expect(table.results.every((x) => x.solved)).to.equal(true);
   });
 
@@ -59,7 +61,8 @@ describe('what-ifs: every single failure on a small looped network', () => {
     for (let i = 0; i < 200; i++) {
       const q = (lo + hi) / 2;
       const p = 51 - R * q ** 1.852;
-      if (q > Q1 * Math.sqrt(Math.max(p, 0) / MIN1)) hi = q; else lo = q;
+      if (q > Q1 * Math.sqrt(Math.max(p, 0) / MIN1)) hi = q;
+      else lo = q;
     }
     const q = (lo + hi) / 2;
     const p = 51 - R * q ** 1.852;
@@ -93,10 +96,11 @@ describe('what-ifs: every single failure on a small looped network', () => {
     expect(ones).to.deep.equal([...ones].sort((a, b) => b - a));
   });
 
-  it('fill pump off for a day: the outlet misses the daily need less the tank\'s usable water (by hand, C)', () => {
+  it("fill pump off for a day: the outlet misses the daily need less the tank's usable water (by hand, C)", () => {
     // Tank 2 m across, 1.5 m of usable water (π·1.5 = 4.712 m³); an outlet drawing 0.1 L/s all day wants 8.64 m³.
     const doc: NetworkDocument = {
-      schema: 'runnel.network/1', headloss: 'hazen-williams',
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
       nodes: [
         { id: 'W', kind: 'source', elevation_m: 0, head_m: 0 },
         { id: 'T', kind: 'tank', elevation_m: 40, diameter_m: 2, level_m: 1.6, min_level_m: 0.1, max_level_m: 2 },
@@ -125,6 +129,11 @@ describe('what-ifs: every single failure on a small looped network', () => {
     expect(demo.results[0].hit).to.have.length(outlets);
     expect(demo.results.find((x) => x.scenario.key === 'pipe-broken:L-TR4')!.hit.map((h) => h.outlet)).to.deep.equal(['TR4']);
     expect(demo.results.find((x) => x.scenario.key === 'tank-out:T1')!.hit).to.deep.equal([]);
-    expect(demo.results.filter((x) => x.scenario.kind === 'fill-off').map((x) => x.scenario.days).sort()).to.deep.equal([1, 2, 3]);
+    expect(
+      demo.results
+        .filter((x) => x.scenario.kind === 'fill-off')
+        .map((x) => x.scenario.days)
+        .sort(),
+    ).to.deep.equal([1, 2, 3]);
   });
 });

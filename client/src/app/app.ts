@@ -15,7 +15,13 @@ import { AppUpdates } from './core/app-updates';
 import { SessionService } from './core/session.service';
 import { WalkAutoSync } from './core/walk-autosync';
 
-interface NavItem { path: string; label: string; icon: string; permission: string; testId: string }
+interface NavItem {
+  path: string;
+  label: string;
+  icon: string;
+  permission: string;
+  testId: string;
+}
 
 const NAV: NavItem[] = [
   { path: '/projects', label: 'Projects', icon: 'rn:projects', permission: 'project.read', testId: 'nav-projects' },
@@ -28,8 +34,17 @@ const NAV: NavItem[] = [
 @Component({
   selector: 'rn-root',
   imports: [
-    RouterOutlet, RouterLink, RouterLinkActive, MatToolbarModule, MatButtonModule, MatIconModule, MatMenuModule,
-    MatSidenavModule, MatListModule, MatDividerModule, MatTooltipModule,
+    RouterOutlet,
+    RouterLink,
+    RouterLinkActive,
+    MatToolbarModule,
+    MatButtonModule,
+    MatIconModule,
+    MatMenuModule,
+    MatSidenavModule,
+    MatListModule,
+    MatDividerModule,
+    MatTooltipModule,
   ],
   templateUrl: './app.html',
   styleUrl: './app.scss',
@@ -39,7 +54,9 @@ export class App {
   private readonly router = inject(Router);
 
   protected readonly handset = toSignal(
-    inject(BreakpointObserver).observe('(max-width: 899.98px)').pipe(map((state) => state.matches)),
+    inject(BreakpointObserver)
+      .observe('(max-width: 899.98px)')
+      .pipe(map((state) => state.matches)),
     { initialValue: false },
   );
   private readonly url = toSignal(

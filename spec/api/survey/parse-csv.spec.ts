@@ -14,10 +14,13 @@ function failure(text: string): SurveyError {
 describe('survey CSV parser (pure)', () => {
   it('reads label/x/y/elevation in metres by default', () => {
     const r = parseSurveyCsv('label,x,y,elevation\nSpring,0,0,12.5\nTank,40,310,41\n');
-    expect(r).to.deep.equal({ format: 'csv', points: [
-      { label: 'Spring', x_m: 0, y_m: 0, elevation_m: 12.5 },
-      { label: 'Tank', x_m: 40, y_m: 310, elevation_m: 41 },
-    ] });
+    expect(r).to.deep.equal({
+      format: 'csv',
+      points: [
+        { label: 'Spring', x_m: 0, y_m: 0, elevation_m: 12.5 },
+        { label: 'Tank', x_m: 40, y_m: 310, elevation_m: 41 },
+      ],
+    });
   });
 
   it('accepts the column aliases (name, easting, northing, elev, z, ele) in any case', () => {

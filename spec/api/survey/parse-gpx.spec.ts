@@ -16,15 +16,20 @@ function failure(text: string): SurveyError {
 
 describe('survey GPX parser (pure)', () => {
   it('reads waypoints, route points and track points in document order (GPX 1.1: ele in metres)', () => {
-    const r = parseSurveyGpx(gpx(`
+    const r = parseSurveyGpx(
+      gpx(`
       <wpt lat="45.10" lon="-120.20"><ele>312.5</ele><name>Spring box</name></wpt>
       <rte><rtept lat="45.11" lon="-120.21"><ele>305</ele></rtept></rte>
-      <trk><trkseg><trkpt lat="45.12" lon="-120.22"><ele>298.25</ele></trkpt></trkseg></trk>`));
-    expect(r).to.deep.equal({ format: 'gpx', points: [
-      { label: 'Spring box', lat: 45.1, lon: -120.2, elevation_m: 312.5 },
-      { lat: 45.11, lon: -120.21, elevation_m: 305 },
-      { lat: 45.12, lon: -120.22, elevation_m: 298.25 },
-    ] });
+      <trk><trkseg><trkpt lat="45.12" lon="-120.22"><ele>298.25</ele></trkpt></trkseg></trk>`),
+    );
+    expect(r).to.deep.equal({
+      format: 'gpx',
+      points: [
+        { label: 'Spring box', lat: 45.1, lon: -120.2, elevation_m: 312.5 },
+        { lat: 45.11, lon: -120.21, elevation_m: 305 },
+        { lat: 45.12, lon: -120.22, elevation_m: 298.25 },
+      ],
+    });
   });
 
   it('works without a namespace', () => {

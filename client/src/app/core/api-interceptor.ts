@@ -59,7 +59,13 @@ export const errorInterceptor: HttpInterceptorFn = (req, next) => {
       if (!skipped && !(err.status === 401 && req.context.get(SKIP_AUTH_REDIRECT))) {
         const ref = snackBar.open(apiErrorMessage(err), 'Close', { duration: 8000, panelClass: ['rn-snack-error', 'rn-snack-lines'] });
         // An error belongs to the page it happened on: leaving that page clears it.
-        router.events.pipe(filter((e) => e instanceof NavigationStart), take(1), takeUntil(ref.afterDismissed())).subscribe(() => ref.dismiss());
+        router.events
+          .pipe(
+            filter((e) => e instanceof NavigationStart),
+            take(1),
+            takeUntil(ref.afterDismissed()),
+          )
+          .subscribe(() => ref.dismiss());
       }
       return throwError(() => err);
     }),

@@ -6,7 +6,11 @@ import type { UnitSystem } from '../../../../engine/units';
 export { MIN_PASSWORD_LENGTH, ROLES, type Role } from '../../../../shared/accounts';
 export type { UnitSystem };
 
-export interface TeamRef { id: string; name: string; roles: Role[] }
+export interface TeamRef {
+  id: string;
+  name: string;
+  roles: Role[];
+}
 
 export interface Me {
   user: { id: string; email: string; name: string };
@@ -32,9 +36,17 @@ export interface ApiErrorBody {
   error: { code: string; message: string; fields?: { path: string; message: string }[]; line?: number };
 }
 
-export interface Team { id: string; name: string }
+export interface Team {
+  id: string;
+  name: string;
+}
 
-export interface Member { userId: string; email: string; name: string; roles: Role[] }
+export interface Member {
+  userId: string;
+  email: string;
+  name: string;
+  roles: Role[];
+}
 
 export interface Invitation {
   id: string;
@@ -61,7 +73,13 @@ export interface InvitationPreview {
   mayAccept?: boolean;
 }
 
-export interface OutboxMail { id: string; to: string; subject: string; text: string; sentAt: string }
+export interface OutboxMail {
+  id: string;
+  to: string;
+  subject: string;
+  text: string;
+  sentAt: string;
+}
 
 /** `detail` is free-form: the server records a small object (e.g. `{ roles: [...] }`) or a sentence. */
 export interface AuditEntry {
@@ -75,9 +93,19 @@ export interface AuditEntry {
   detail: string | Record<string, unknown> | null;
 }
 
-export interface SignUpRequest { email: string; name: string; password: string; teamName: string }
+export interface SignUpRequest {
+  email: string;
+  name: string;
+  password: string;
+  teamName: string;
+}
 
-export interface ProjectCreate { name: string; siteName?: string; notes?: string; units?: UnitSystem }
+export interface ProjectCreate {
+  name: string;
+  siteName?: string;
+  notes?: string;
+  units?: UnitSystem;
+}
 
 export type ProjectPatch = Partial<Pick<Project, 'name' | 'siteName' | 'notes' | 'units' | 'archived'>>;
 

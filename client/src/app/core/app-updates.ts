@@ -33,12 +33,16 @@ export class AppUpdates {
     if (!this.updates.isEnabled) return;
     this.updates.versionUpdates.subscribe((event) => {
       if (event.type !== 'VERSION_READY') return;
-      this.snack.open('A new version of Runnel is ready.', 'Reload', { duration: 0 })
-        .onAction().subscribe(() => document.location.reload());
+      this.snack
+        .open('A new version of Runnel is ready.', 'Reload', { duration: 0 })
+        .onAction()
+        .subscribe(() => document.location.reload());
     });
     this.updates.unrecoverable.subscribe(() => {
-      this.snack.open('Runnel was updated and this page is out of date.', 'Reload', { duration: 0 })
-        .onAction().subscribe(() => document.location.reload());
+      this.snack
+        .open('Runnel was updated and this page is out of date.', 'Reload', { duration: 0 })
+        .onAction()
+        .subscribe(() => document.location.reload());
     });
   }
 }

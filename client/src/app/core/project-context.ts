@@ -25,7 +25,11 @@ export class ProjectContext {
     const project = this.state();
     this.viewUnits.set(units);
     if (project) {
-      try { localStorage.setItem(storageKey(project.id), units); } catch { /* private mode: the switch still works for this visit */ }
+      try {
+        localStorage.setItem(storageKey(project.id), units);
+      } catch {
+        /* private mode: the switch still works for this visit */
+      }
     }
   }
 }

@@ -29,17 +29,17 @@ export class SessionService {
   /** Ask the server who we are (once; later calls reuse the answer). Emits null when signed out. */
   load(): Observable<Me | null> {
     if (this.loadedState()) return of(this.state());
-    this.probe ??= this.http
-      .get<Me>('/api/auth/me', { context: new HttpContext().set(SKIP_AUTH_REDIRECT, true).set(SKIP_ERROR_SNACKBAR, [401]) })
-      .pipe(
-        catchError((err: unknown) => (err instanceof HttpErrorResponse && err.status === 401 ? of(null) : throwError(() => err))),
-        tap((me) => this.set(me)),
-        shareReplay({ bufferSize: 1, refCount: false }),
-      );
-    return this.probe.pipe(catchError(() => {
-      this.probe = null;
-      return of(null);
-    }));
+    this.probe ??= this.http.get<Me>('/api/auth/me', { context: new HttpContext().set(SKIP_AUTH_REDIRECT, true).set(SKIP_ERROR_SNACKBAR, [401]) }).pipe(
+      catchError((err: unknown) => (err instanceof HttpErrorResponse && err.status === 401 ? of(null) : throwError(() => err))),
+      tap((me) => this.set(me)),
+      shareReplay({ bufferSize: 1, refCount: false }),
+    );
+    return this.probe.pipe(
+      catchError(() => {
+        this.probe = null;
+        return of(null);
+      }),
+    );
   }
 
   /** Ask the server again (e.g. after changing one's own roles). */
@@ -52,9 +52,7 @@ export class SessionService {
   /** Errors (401 bad credentials, 429 rate-limited) are left to the caller to show. */
   signIn(email: string, password: string): Observable<Me> {
     this.csrf.reset();
-    return this.http
-      .post<Me>('/api/auth/signin', { email, password }, { context: quiet() })
-      .pipe(tap((me) => this.adopt(me)));
+    return this.http.post<Me>('/api/auth/signin', { email, password }, { context: quiet() }).pipe(tap((me) => this.adopt(me)));
   }
 
   /** Creates the user and a team of which they are admin. Field errors are left to the caller. */

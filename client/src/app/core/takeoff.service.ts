@@ -14,7 +14,16 @@ export interface TakeoffSettingsBody {
   currency: string;
 }
 
-export interface Acceptance { id: string; networkVersion: number; optionId: string | null; design: string; total: number; currency: string; acceptedAt: string; acceptedBy: string | null }
+export interface Acceptance {
+  id: string;
+  networkVersion: number;
+  optionId: string | null;
+  design: string;
+  total: number;
+  currency: string;
+  acceptedAt: string;
+  acceptedBy: string | null;
+}
 
 export interface TakeoffView {
   design: { kind: 'current' | 'option'; optionId: string | null; name: string; version: number };
@@ -27,23 +36,49 @@ export interface TakeoffView {
   note: string;
 }
 
-export interface PriceItem { id: string; code: string; description: string; unit: string; price: number | null; updatedAt: string; updatedBy: string | null }
+export interface PriceItem {
+  id: string;
+  code: string;
+  description: string;
+  unit: string;
+  price: number | null;
+  updatedAt: string;
+  updatedBy: string | null;
+}
 
 /** Takeoff, estimate, settings, acceptance and exports of a project; the team's price list. */
 @Injectable({ providedIn: 'root' })
 export class TakeoffService {
   private readonly http = inject(HttpClient);
-  private query(option: string | null): string { return option ? `?option=${encodeURIComponent(option)}` : ''; }
+  private query(option: string | null): string {
+    return option ? `?option=${encodeURIComponent(option)}` : '';
+  }
 
-  takeoff(projectId: string, option: string | null): Observable<TakeoffView> { return this.http.get<TakeoffView>(`/api/projects/${projectId}/takeoff${this.query(option)}`); }
-  saveSettings(projectId: string, body: TakeoffSettingsBody): Observable<TakeoffSettingsBody> { return this.http.put<TakeoffSettingsBody>(`/api/projects/${projectId}/takeoff/settings`, body); }
-  accept(projectId: string, option: string | null, total: number): Observable<unknown> { return this.http.post(`/api/projects/${projectId}/estimate/accept`, { option, total }); }
-  workbookUrl(projectId: string, option: string | null): string { return `/api/projects/${projectId}/export.xlsx${this.query(option)}`; }
-  csvUrl(projectId: string, option: string | null): string { return `/api/projects/${projectId}/takeoff.csv${this.query(option)}`; }
+  takeoff(projectId: string, option: string | null): Observable<TakeoffView> {
+    return this.http.get<TakeoffView>(`/api/projects/${projectId}/takeoff${this.query(option)}`);
+  }
+  saveSettings(projectId: string, body: TakeoffSettingsBody): Observable<TakeoffSettingsBody> {
+    return this.http.put<TakeoffSettingsBody>(`/api/projects/${projectId}/takeoff/settings`, body);
+  }
+  accept(projectId: string, option: string | null, total: number): Observable<unknown> {
+    return this.http.post(`/api/projects/${projectId}/estimate/accept`, { option, total });
+  }
+  workbookUrl(projectId: string, option: string | null): string {
+    return `/api/projects/${projectId}/export.xlsx${this.query(option)}`;
+  }
+  csvUrl(projectId: string, option: string | null): string {
+    return `/api/projects/${projectId}/takeoff.csv${this.query(option)}`;
+  }
 
-  prices(): Observable<PriceItem[]> { return this.http.get<PriceItem[]>('/api/prices'); }
-  setPrice(id: string, price: number | null): Observable<PriceItem> { return this.http.patch<PriceItem>(`/api/prices/${id}`, { price }); }
-  addPrice(body: { code: string; description: string; unit: string; price: number | null }): Observable<PriceItem> { return this.http.post<PriceItem>('/api/prices', body); }
+  prices(): Observable<PriceItem[]> {
+    return this.http.get<PriceItem[]>('/api/prices');
+  }
+  setPrice(id: string, price: number | null): Observable<PriceItem> {
+    return this.http.patch<PriceItem>(`/api/prices/${id}`, { price });
+  }
+  addPrice(body: { code: string; description: string; unit: string; price: number | null }): Observable<PriceItem> {
+    return this.http.post<PriceItem>('/api/prices', body);
+  }
   importPrices(file: File): Observable<{ imported: number; created: number; updated: number }> {
     const form = new FormData();
     form.append('file', file, file.name);

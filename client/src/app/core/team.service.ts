@@ -32,9 +32,13 @@ export class TeamService {
 
   /** 409 (already a member, or an open invitation) is left to the caller, which shows it on the e-mail field. */
   invite(email: string, roles: Role[], anyAccount = false): Observable<Invitation> {
-    return this.http.post<Invitation>('/api/team/invitations', { email, roles, anyAccount }, {
-      context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [409]),
-    });
+    return this.http.post<Invitation>(
+      '/api/team/invitations',
+      { email, roles, anyAccount },
+      {
+        context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [409]),
+      },
+    );
   }
 
   /** The link stops working. */

@@ -27,9 +27,12 @@ export class WalkAutoSync {
   watch(): void {
     if (typeof window === 'undefined') return;
     window.addEventListener('online', () => void this.run());
-    effect(() => {
-      if (this.session.signedIn()) untracked(() => void this.run());
-    }, { injector: this.injector });
+    effect(
+      () => {
+        if (this.session.signedIn()) untracked(() => void this.run());
+      },
+      { injector: this.injector },
+    );
   }
 
   private async run(): Promise<void> {

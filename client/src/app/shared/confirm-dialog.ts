@@ -17,11 +17,14 @@ export interface ConfirmDialogData {
   imports: [MatDialogModule, MatButtonModule],
   template: `
     <h2 mat-dialog-title>{{ data.title }}</h2>
-    <mat-dialog-content><p>{{ data.message }}</p></mat-dialog-content>
+    <mat-dialog-content
+      ><p>{{ data.message }}</p></mat-dialog-content
+    >
     <mat-dialog-actions align="end">
       <button mat-button type="button" [mat-dialog-close]="false" cdkFocusInitial data-testid="confirm-cancel">Cancel</button>
-      <button mat-flat-button type="button" [class.rn-destructive]="data.destructive" [mat-dialog-close]="true"
-              data-testid="confirm-ok">{{ data.confirmLabel }}</button>
+      <button mat-flat-button type="button" [class.rn-destructive]="data.destructive" [mat-dialog-close]="true" data-testid="confirm-ok">
+        {{ data.confirmLabel }}
+      </button>
     </mat-dialog-actions>
   `,
   styles: `

@@ -15,12 +15,16 @@ import { valueOr } from '../../core/resource-state';
     <div class="rn-page">
       <header class="rn-page-header"><h1>Audit log</h1></header>
       <p class="rn-muted">The latest 200 actions in this team, newest first.</p>
-      @if (entries.isLoading()) { <mat-progress-bar mode="indeterminate" aria-label="Loading audit log" /> }
+      @if (entries.isLoading()) {
+        <mat-progress-bar mode="indeterminate" aria-label="Loading audit log" />
+      }
       <div class="rn-audit-card">
         <table mat-table [dataSource]="rows()" aria-label="Audit log" data-testid="audit-table">
           <ng-container matColumnDef="at">
             <th mat-header-cell *matHeaderCellDef>When</th>
-            <td mat-cell *matCellDef="let e"><time [attr.datetime]="e.at">{{ e.at | date: 'd MMM y, HH:mm:ss' }}</time></td>
+            <td mat-cell *matCellDef="let e">
+              <time [attr.datetime]="e.at">{{ e.at | date: 'd MMM y, HH:mm:ss' }}</time>
+            </td>
           </ng-container>
           <ng-container matColumnDef="userEmail">
             <th mat-header-cell *matHeaderCellDef>Who</th>
@@ -28,7 +32,9 @@ import { valueOr } from '../../core/resource-state';
           </ng-container>
           <ng-container matColumnDef="action">
             <th mat-header-cell *matHeaderCellDef>Action</th>
-            <td mat-cell *matCellDef="let e"><code>{{ e.action }}</code></td>
+            <td mat-cell *matCellDef="let e">
+              <code>{{ e.action }}</code>
+            </td>
           </ng-container>
           <ng-container matColumnDef="target">
             <th mat-header-cell *matHeaderCellDef>Target</th>
@@ -40,30 +46,80 @@ import { valueOr } from '../../core/resource-state';
           </ng-container>
           <tr mat-header-row *matHeaderRowDef="columns"></tr>
           <tr mat-row *matRowDef="let e; columns: columns"></tr>
-          <tr class="mat-row" *matNoDataRow><td class="mat-cell rn-empty" [attr.colspan]="columns.length">Nothing recorded yet.</td></tr>
+          <tr class="mat-row" *matNoDataRow>
+            <td class="mat-cell rn-empty" [attr.colspan]="columns.length">Nothing recorded yet.</td>
+          </tr>
         </table>
       </div>
     </div>
   `,
   styles: `
-    .rn-audit-card { border: 1px solid var(--mat-sys-outline-variant); border-radius: 12px; overflow-x: auto; }
-    table { width: 100%; }
-    code { font-size: 13px; }
-    .mat-column-at { white-space: nowrap; }
-    .rn-detail { color: var(--mat-sys-on-surface-variant); max-width: 360px; overflow-wrap: anywhere; }
-    .rn-empty { padding: 24px 16px; color: var(--mat-sys-on-surface-variant); }
+    .rn-audit-card {
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: 12px;
+      overflow-x: auto;
+    }
+    table {
+      width: 100%;
+    }
+    code {
+      font-size: 13px;
+    }
+    .mat-column-at {
+      white-space: nowrap;
+    }
+    .rn-detail {
+      color: var(--mat-sys-on-surface-variant);
+      max-width: 360px;
+      overflow-wrap: anywhere;
+    }
+    .rn-empty {
+      padding: 24px 16px;
+      color: var(--mat-sys-on-surface-variant);
+    }
     /* A phone: one card per entry (when and who, then action, target, detail) instead of five squeezed columns. */
     @media (max-width: 599.98px) {
-      .rn-audit-card { overflow: hidden; }
-      table, .rn-audit-card ::ng-deep tbody { display: block; }
-      tr.mat-mdc-header-row { display: none; }
-      tr.mat-mdc-row { display: grid; grid-template-columns: auto minmax(0, 1fr); gap: 2px 12px; height: auto; padding: 10px 16px;
-        border-bottom: 1px solid var(--mat-sys-outline-variant); }
-      tr.mat-mdc-row:last-child { border-bottom: 0; }
-      td.mat-mdc-cell { display: block; padding: 0; border: 0; min-width: 0; }
-      .mat-column-at { font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
-      .mat-column-userEmail { text-align: right; font-weight: 500; }
-      .mat-column-action, .mat-column-target, .rn-detail { grid-column: 1 / -1; max-width: none; }
+      .rn-audit-card {
+        overflow: hidden;
+      }
+      table,
+      .rn-audit-card ::ng-deep tbody {
+        display: block;
+      }
+      tr.mat-mdc-header-row {
+        display: none;
+      }
+      tr.mat-mdc-row {
+        display: grid;
+        grid-template-columns: auto minmax(0, 1fr);
+        gap: 2px 12px;
+        height: auto;
+        padding: 10px 16px;
+        border-bottom: 1px solid var(--mat-sys-outline-variant);
+      }
+      tr.mat-mdc-row:last-child {
+        border-bottom: 0;
+      }
+      td.mat-mdc-cell {
+        display: block;
+        padding: 0;
+        border: 0;
+        min-width: 0;
+      }
+      .mat-column-at {
+        font: var(--mat-sys-body-small);
+        color: var(--mat-sys-on-surface-variant);
+      }
+      .mat-column-userEmail {
+        text-align: right;
+        font-weight: 500;
+      }
+      .mat-column-action,
+      .mat-column-target,
+      .rn-detail {
+        grid-column: 1 / -1;
+        max-width: none;
+      }
     }
   `,
 })

@@ -26,7 +26,8 @@ export function seasonText(months: readonly number[]): string {
   const runs: [number, number][] = [];
   for (const m of set) {
     const last = runs[runs.length - 1];
-    if (last && m === last[1] + 1) last[1] = m; else runs.push([m, m]);
+    if (last && m === last[1] + 1) last[1] = m;
+    else runs.push([m, m]);
   }
   // a run through December joins one from January (winter seasons)
   if (runs.length > 1 && runs[0][0] === 1 && runs[runs.length - 1][1] === 12) {
@@ -39,16 +40,20 @@ export function seasonText(months: readonly number[]): string {
 /** How much of the use there is: "120 head", "90 m²", "60 trees", "3 people", "fixed". */
 export function amountText(use: BudgetUse, units: UnitSystem): string {
   switch (use.kind) {
-    case 'livestock': return `${use.count ?? 0} head`;
-    case 'orchard': return `${use.count ?? 0} trees`;
+    case 'livestock':
+      return `${use.count ?? 0} head`;
+    case 'orchard':
+      return `${use.count ?? 0} trees`;
     case 'household': {
       const n = Object.values(use.fixtures ?? {}).reduce((a, b) => a + (b ?? 0), 0);
       return `${use.count ?? 0} people${n ? `, ${n} fixtures` : ''}`;
     }
-    case 'garden': case 'tunnel':
+    case 'garden':
+    case 'tunnel':
       if (use.drip) return `${use.drip.rows} rows × ${formatQuantity('length', use.drip.row_length_m, units)}`;
       return formatQuantity('area', use.area_m2 ?? 0, units, 0);
-    default: return 'fixed';
+    default:
+      return 'fixed';
   }
 }
 
@@ -66,5 +71,10 @@ export function rateText(need: UseNeed, units: UnitSystem): string {
 }
 
 export const KIND_LABELS: Record<BudgetUse['kind'], string> = {
-  livestock: 'Livestock', garden: 'Garden', tunnel: 'Greenhouse / high tunnel', orchard: 'Orchard', household: 'Household', other: 'Other',
+  livestock: 'Livestock',
+  garden: 'Garden',
+  tunnel: 'Greenhouse / high tunnel',
+  orchard: 'Orchard',
+  household: 'Household',
+  other: 'Other',
 };

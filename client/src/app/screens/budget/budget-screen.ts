@@ -16,7 +16,15 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import {
-  BudgetInputError, DEFAULT_RATE_ROWS, layoutDifferences, MONTH_NAMES, planBudget, type BudgetDocument, type BudgetPlan, type BudgetUse, type DefaultRate,
+  BudgetInputError,
+  DEFAULT_RATE_ROWS,
+  layoutDifferences,
+  MONTH_NAMES,
+  planBudget,
+  type BudgetDocument,
+  type BudgetPlan,
+  type BudgetUse,
+  type DefaultRate,
 } from '../../../../../engine/budget';
 import type { NetworkDocument, OutletNode } from '../../../../../engine/network-document';
 import { fromDisplay, toDisplay, unitLabel } from '../../../../../engine/units';
@@ -38,8 +46,20 @@ import { UseDialog, type UseDialogData } from './use-dialog';
  */
 @Component({
   selector: 'rn-budget-screen',
-  imports: [FormsModule, MatTableModule, MatButtonModule, MatIconModule, MatTooltipModule, MatFormFieldModule, MatInputModule, MatSelectModule,
-    MatExpansionModule, MatProgressBarModule, QuantityPipe, LayoutDifferencesPanel],
+  imports: [
+    FormsModule,
+    MatTableModule,
+    MatButtonModule,
+    MatIconModule,
+    MatTooltipModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    MatExpansionModule,
+    MatProgressBarModule,
+    QuantityPipe,
+    LayoutDifferencesPanel,
+  ],
   templateUrl: './budget-screen.html',
   styleUrl: './budget-screen.scss',
 })
@@ -72,7 +92,9 @@ export class BudgetScreen {
 
   private readonly savedNetwork = valueOr(this.network, null);
   protected readonly doc = computed<NetworkDocument | null>(() => this.savedNetwork()?.document ?? null);
-  protected readonly outletOptions = computed(() => (this.doc()?.nodes ?? []).filter((n): n is OutletNode => n.kind === 'outlet').map((n) => ({ id: n.id, name: n.name || n.id })));
+  protected readonly outletOptions = computed(() =>
+    (this.doc()?.nodes ?? []).filter((n): n is OutletNode => n.kind === 'outlet').map((n) => ({ id: n.id, name: n.name || n.id })),
+  );
   protected readonly pumps = computed(() => (this.doc()?.links ?? []).filter((l) => l.kind === 'pump').map((l) => ({ id: l.id, name: l.name || l.id })));
   private readonly outletName = computed(() => new Map(this.outletOptions().map((o) => [o.id, o.name])));
 
@@ -109,12 +131,15 @@ export class BudgetScreen {
     if (!plan || !doc || !this.stored.hasValue()) return [];
     const s = this.stored.value();
     const chosen = this.applyChosen();
-    return layoutDifferences(doc, s.version > 0 ? s.document : null, plan)
-      .map((d) => ({ d, name: this.outletName().get(d.id) ?? d.id, choice: chosen.has(d.id) ? 'budget' as const : null }));
+    return layoutDifferences(doc, s.version > 0 ? s.document : null, plan).map((d) => ({
+      d,
+      name: this.outletName().get(d.id) ?? d.id,
+      choice: chosen.has(d.id) ? ('budget' as const) : null,
+    }));
   });
   /** Outlets kept at their Layout flow on this draft (marked "not from budget" here, not yet saved). */
   private readonly keptHere = computed(() => {
-    const saved = new Set(this.stored.hasValue() ? this.stored.value().document.manual_outlets ?? [] : []);
+    const saved = new Set(this.stored.hasValue() ? (this.stored.value().document.manual_outlets ?? []) : []);
     return new Set((this.draft()?.manual_outlets ?? []).filter((id) => !saved.has(id)));
   });
   /** The panel's rows: open differences, and outlets the designer has just chosen to keep. */
@@ -143,14 +168,25 @@ export class BudgetScreen {
   });
   protected readonly peak = computed(() => {
     const plan = this.plan();
-    return plan && plan.peak_month > 0 ? { month: plan.peak_month, total: plan.months[plan.peak_month - 1], verdict: plan.verdicts?.[plan.peak_month - 1] ?? null } : null;
+    return plan && plan.peak_month > 0
+      ? { month: plan.peak_month, total: plan.months[plan.peak_month - 1], verdict: plan.verdicts?.[plan.peak_month - 1] ?? null }
+      : null;
   });
   protected readonly pumpFlagged = computed(() => (this.plan()?.verdicts ?? []).filter((v) => v.status === 'short' || v.status === 'short-and-storage-low'));
 
   /** Phone widths keep the columns that answer "is there enough" and drop the detail. */
-  private readonly narrow = toSignal(inject(BreakpointObserver).observe('(max-width: 700px)').pipe(map((s) => s.matches)), { initialValue: false });
-  protected readonly useColumns = computed(() => (this.narrow() ? ['name', 'amount', 'peak', 'actions'] : ['name', 'amount', 'rate', 'season', 'outlets', 'window', 'peak', 'actions']));
-  protected readonly monthColumns = computed(() => (this.narrow() ? ['month', 'need', 'fill', 'verdict'] : ['month', 'need', 'peakFlow', 'psh', 'fill', 'reserve', 'verdict']));
+  private readonly narrow = toSignal(
+    inject(BreakpointObserver)
+      .observe('(max-width: 700px)')
+      .pipe(map((s) => s.matches)),
+    { initialValue: false },
+  );
+  protected readonly useColumns = computed(() =>
+    this.narrow() ? ['name', 'amount', 'peak', 'actions'] : ['name', 'amount', 'rate', 'season', 'outlets', 'window', 'peak', 'actions'],
+  );
+  protected readonly monthColumns = computed(() =>
+    this.narrow() ? ['month', 'need', 'fill', 'verdict'] : ['month', 'need', 'peakFlow', 'psh', 'fill', 'reserve', 'verdict'],
+  );
   protected readonly outletColumns = computed(() => (this.narrow() ? ['outlet', 'flow', 'mode'] : ['outlet', 'flow', 'daily', 'rule', 'now', 'mode']));
 
   constructor() {
@@ -204,10 +240,13 @@ export class BudgetScreen {
     const budget = this.draft();
     if (!budget || !this.canEdit()) return;
     const data: UseDialogData = { use, budget, outlets: this.outletOptions(), units: this.units() };
-    this.dialog.open(UseDialog, { data, maxWidth: '96vw' }).afterClosed().subscribe((result: BudgetUse | undefined) => {
-      if (!result) return;
-      this.change((b) => ({ ...b, uses: use ? b.uses.map((u) => (u.id === use.id ? result : u)) : [...b.uses, result] }));
-    });
+    this.dialog
+      .open(UseDialog, { data, maxWidth: '96vw' })
+      .afterClosed()
+      .subscribe((result: BudgetUse | undefined) => {
+        if (!result) return;
+        this.change((b) => ({ ...b, uses: use ? b.uses.map((u) => (u.id === use.id ? result : u)) : [...b.uses, result] }));
+      });
   }
 
   protected removeUse(use: BudgetUse): void {
@@ -242,7 +281,8 @@ export class BudgetScreen {
   protected setManual(outlet: string, manual: boolean): void {
     this.change((b) => {
       const list = new Set(b.manual_outlets ?? []);
-      if (manual) list.add(outlet); else list.delete(outlet);
+      if (manual) list.add(outlet);
+      else list.delete(outlet);
       return { ...b, manual_outlets: [...list] };
     });
   }

@@ -7,8 +7,18 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import {
-  ALL_MONTHS, DEFAULT_KEY_BY_KIND, DEFAULT_RATE_ROWS, DEFAULT_WINDOW_H, FIXTURES, MONTH_NAMES, validateBudget,
-  type BudgetDocument, type BudgetUse, type DripRows, type FixtureKey, type UseKind,
+  ALL_MONTHS,
+  DEFAULT_KEY_BY_KIND,
+  DEFAULT_RATE_ROWS,
+  DEFAULT_WINDOW_H,
+  FIXTURES,
+  MONTH_NAMES,
+  validateBudget,
+  type BudgetDocument,
+  type BudgetUse,
+  type DripRows,
+  type FixtureKey,
+  type UseKind,
 } from '../../../../../engine/budget';
 import { fromDisplay, toDisplay, unitLabel, type UnitSystem } from '../../../../../engine/units';
 import { KIND_LABELS } from './budget-format';
@@ -39,26 +49,47 @@ export interface UseDialogData {
         <mat-form-field>
           <mat-label>Kind</mat-label>
           <mat-select [ngModel]="kind()" (ngModelChange)="setKind($event)" data-testid="use-kind">
-            @for (k of kinds; track k) { <mat-option [value]="k">{{ kindLabels[k] }}</mat-option> }
+            @for (k of kinds; track k) {
+              <mat-option [value]="k">{{ kindLabels[k] }}</mat-option>
+            }
           </mat-select>
         </mat-form-field>
         <mat-form-field>
           <mat-label>Figure from</mat-label>
           <mat-select [(ngModel)]="rateKey" data-testid="use-rate-key">
-            @for (r of rows(); track r.key) { <mat-option [value]="r.key">{{ r.label }}</mat-option> }
+            @for (r of rows(); track r.key) {
+              <mat-option [value]="r.key">{{ r.label }}</mat-option>
+            }
           </mat-select>
         </mat-form-field>
       </div>
       @if (kind() === 'garden' || kind() === 'tunnel') {
-        <mat-checkbox [checked]="dripOn()" (change)="dripOn.set($event.checked)" data-testid="use-drip">Laid as drip rows: flow from the rows, not area × depth</mat-checkbox>
+        <mat-checkbox [checked]="dripOn()" (change)="dripOn.set($event.checked)" data-testid="use-drip"
+          >Laid as drip rows: flow from the rows, not area × depth</mat-checkbox
+        >
         @if (dripOn()) {
           <div class="rn-row" data-testid="use-drip-rows">
-            <mat-form-field><mat-label>Rows</mat-label><input matInput type="number" min="1" step="1" [(ngModel)]="drip.rows" data-testid="drip-rows" /></mat-form-field>
-            <mat-form-field><mat-label>Row length ({{ label('length') }})</mat-label><input matInput type="number" min="0" [(ngModel)]="drip.length" data-testid="drip-length" /></mat-form-field>
-            <mat-form-field><mat-label>Emitter spacing ({{ label('length') }})</mat-label><input matInput type="number" min="0" [(ngModel)]="drip.spacing" data-testid="drip-spacing" /></mat-form-field>
-            <mat-form-field><mat-label>Emitter flow ({{ label('emitter-flow') }})</mat-label><input matInput type="number" min="0" [(ngModel)]="drip.flow" data-testid="drip-flow" /></mat-form-field>
-            <mat-form-field><mat-label>Runs (h a day)</mat-label><input matInput type="number" min="0" max="24" [(ngModel)]="drip.run" data-testid="drip-run" /></mat-form-field>
-            <mat-form-field><mat-label>Hot months (h a day)</mat-label><input matInput type="number" min="0" max="24" [(ngModel)]="drip.hotRun" data-testid="drip-hot-run" /></mat-form-field>
+            <mat-form-field
+              ><mat-label>Rows</mat-label><input matInput type="number" min="1" step="1" [(ngModel)]="drip.rows" data-testid="drip-rows"
+            /></mat-form-field>
+            <mat-form-field
+              ><mat-label>Row length ({{ label('length') }})</mat-label
+              ><input matInput type="number" min="0" [(ngModel)]="drip.length" data-testid="drip-length"
+            /></mat-form-field>
+            <mat-form-field
+              ><mat-label>Emitter spacing ({{ label('length') }})</mat-label
+              ><input matInput type="number" min="0" [(ngModel)]="drip.spacing" data-testid="drip-spacing"
+            /></mat-form-field>
+            <mat-form-field
+              ><mat-label>Emitter flow ({{ label('emitter-flow') }})</mat-label
+              ><input matInput type="number" min="0" [(ngModel)]="drip.flow" data-testid="drip-flow"
+            /></mat-form-field>
+            <mat-form-field
+              ><mat-label>Runs (h a day)</mat-label><input matInput type="number" min="0" max="24" [(ngModel)]="drip.run" data-testid="drip-run"
+            /></mat-form-field>
+            <mat-form-field
+              ><mat-label>Hot months (h a day)</mat-label><input matInput type="number" min="0" max="24" [(ngModel)]="drip.hotRun" data-testid="drip-hot-run"
+            /></mat-form-field>
           </div>
         }
       }
@@ -66,8 +97,10 @@ export interface UseDialogData {
         <fieldset class="rn-fixtures" data-testid="use-fixtures">
           <legend>Fixtures, optional: the house's peak flow by fixture units (people still set the daily need)</legend>
           @for (f of fixtureList; track f.key) {
-            <mat-form-field subscriptSizing="dynamic"><mat-label>{{ f.label }}</mat-label>
-              <input matInput type="number" min="0" step="1" [(ngModel)]="fixtures[f.key]" [attr.data-testid]="'fixture-' + f.key" /></mat-form-field>
+            <mat-form-field subscriptSizing="dynamic"
+              ><mat-label>{{ f.label }}</mat-label>
+              <input matInput type="number" min="0" step="1" [(ngModel)]="fixtures[f.key]" [attr.data-testid]="'fixture-' + f.key"
+            /></mat-form-field>
           }
         </fieldset>
       }
@@ -116,13 +149,17 @@ export interface UseDialogData {
       <mat-form-field class="rn-wide">
         <mat-label>Served by outlets</mat-label>
         <mat-select multiple [(ngModel)]="outlets" data-testid="use-outlets">
-          @for (o of data.outlets; track o.id) { <mat-option [value]="o.id">{{ o.name }}</mat-option> }
+          @for (o of data.outlets; track o.id) {
+            <mat-option [value]="o.id">{{ o.name }}</mat-option>
+          }
         </mat-select>
         <mat-hint>their design flows follow this use</mat-hint>
       </mat-form-field>
       @if (problems().length) {
         <ul class="rn-problems" role="alert" data-testid="use-problems">
-          @for (p of problems(); track p) { <li>{{ p }}</li> }
+          @for (p of problems(); track p) {
+            <li>{{ p }}</li>
+          }
         </ul>
       }
     </mat-dialog-content>
@@ -132,15 +169,56 @@ export interface UseDialogData {
     </mat-dialog-actions>
   `,
   styles: `
-    .rn-use-form { display: flex; flex-direction: column; gap: 4px; min-width: min(520px, 80vw); }
-    .rn-row { display: flex; gap: 12px; flex-wrap: wrap; > * { flex: 1 1 200px; } }
-    .rn-months { border: 1px solid var(--mat-sys-outline-variant); border-radius: 8px; display: flex; flex-wrap: wrap; gap: 0 4px; margin: 4px 0 12px; }
-    .rn-months legend { font: var(--mat-sys-label-large); padding: 0 4px; }
-    .rn-months mat-checkbox { width: 86px; }
-    .rn-fixtures { border: 1px solid var(--mat-sys-outline-variant); border-radius: 8px; display: flex; flex-wrap: wrap; gap: 8px; margin: 4px 0 12px; }
-    .rn-fixtures legend { font: var(--mat-sys-label-large); padding: 0 4px; }
-    .rn-fixtures mat-form-field { flex: 1 1 150px; }
-    .rn-problems { color: var(--mat-sys-error); margin: 0; padding-left: 20px; font: var(--mat-sys-body-medium); }
+    .rn-use-form {
+      display: flex;
+      flex-direction: column;
+      gap: 4px;
+      min-width: min(520px, 80vw);
+    }
+    .rn-row {
+      display: flex;
+      gap: 12px;
+      flex-wrap: wrap;
+      > * {
+        flex: 1 1 200px;
+      }
+    }
+    .rn-months {
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: 8px;
+      display: flex;
+      flex-wrap: wrap;
+      gap: 0 4px;
+      margin: 4px 0 12px;
+    }
+    .rn-months legend {
+      font: var(--mat-sys-label-large);
+      padding: 0 4px;
+    }
+    .rn-months mat-checkbox {
+      width: 86px;
+    }
+    .rn-fixtures {
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: 8px;
+      display: flex;
+      flex-wrap: wrap;
+      gap: 8px;
+      margin: 4px 0 12px;
+    }
+    .rn-fixtures legend {
+      font: var(--mat-sys-label-large);
+      padding: 0 4px;
+    }
+    .rn-fixtures mat-form-field {
+      flex: 1 1 150px;
+    }
+    .rn-problems {
+      color: var(--mat-sys-error);
+      margin: 0;
+      padding-left: 20px;
+      font: var(--mat-sys-body-medium);
+    }
   `,
 })
 export class UseDialog {
@@ -196,7 +274,11 @@ export class UseDialog {
     const kind = this.kind();
     const u = this.data.units;
     const use: BudgetUse = {
-      id: this.start?.id ?? `use-${Date.now().toString(36)}`, name: this.name.trim(), kind, months: this.months(), outlets: this.outlets,
+      id: this.start?.id ?? `use-${Date.now().toString(36)}`,
+      name: this.name.trim(),
+      kind,
+      months: this.months(),
+      outlets: this.outlets,
       ...(this.window !== null ? { window_h: Number(this.window) } : {}),
       ...(kind !== 'other' ? { rate_key: this.rateKey } : {}),
       ...(this.start?.notes ? { notes: this.start.notes } : {}),
@@ -206,8 +288,11 @@ export class UseDialog {
       const d = this.drip;
       const num = (v: number | null): number => (v === null || (v as unknown) === '' ? Number.NaN : Number(v));
       const drip: DripRows = {
-        rows: num(d.rows), row_length_m: fromDisplay('length', num(d.length), u), emitter_spacing_m: fromDisplay('length', num(d.spacing), u),
-        emitter_flow_m3s: fromDisplay('emitter-flow', num(d.flow), u), run_h: num(d.run),
+        rows: num(d.rows),
+        row_length_m: fromDisplay('length', num(d.length), u),
+        emitter_spacing_m: fromDisplay('length', num(d.spacing), u),
+        emitter_flow_m3s: fromDisplay('emitter-flow', num(d.flow), u),
+        run_h: num(d.run),
         ...(d.hotRun !== null && (d.hotRun as unknown) !== '' ? { hot_run_h: Number(d.hotRun) } : {}),
       };
       use.drip = drip;
@@ -219,7 +304,11 @@ export class UseDialog {
       use.daily_m3 = fromDisplay('daily-volume', n, u);
     } else {
       use.count = n;
-      const fixtures = Object.fromEntries(Object.entries(this.fixtures).filter(([, v]) => v !== null && (v as unknown) !== '' && Number(v) !== 0).map(([k, v]) => [k, Number(v)]));
+      const fixtures = Object.fromEntries(
+        Object.entries(this.fixtures)
+          .filter(([, v]) => v !== null && (v as unknown) !== '' && Number(v) !== 0)
+          .map(([k, v]) => [k, Number(v)]),
+      );
       if (kind === 'household' && Object.keys(fixtures).length) use.fixtures = fixtures;
       if (this.rate !== null) use.rate_m3_day = fromDisplay('daily-volume', Number(this.rate), u);
       if (this.hotRate !== null) use.hot_rate_m3_day = fromDisplay('daily-volume', Number(this.hotRate), u);
@@ -227,14 +316,27 @@ export class UseDialog {
     return use;
   }
 
-  private initialDrip(d: DripRows | undefined): { rows: number | null; length: number | null; spacing: number | null; flow: number | null; run: number | null; hotRun: number | null } {
+  private initialDrip(d: DripRows | undefined): {
+    rows: number | null;
+    length: number | null;
+    spacing: number | null;
+    flow: number | null;
+    run: number | null;
+    hotRun: number | null;
+  } {
     const u = this.data.units;
     if (!d) return { rows: null, length: null, spacing: null, flow: null, run: 1, hotRun: null };
     // a tape figure per length shows as 1-unit spacing with the flow per unit of length
     const spacing = d.emitter_spacing_m ?? (u === 'us' ? 0.3048 : 1);
     const flow = d.emitter_flow_m3s ?? (d.tape_flow_m3s_per_m ?? 0) * spacing;
-    return { rows: d.rows, length: round(toDisplay('length', d.row_length_m, u)), spacing: round(toDisplay('length', spacing, u)),
-      flow: round(toDisplay('emitter-flow', flow, u)), run: d.run_h, hotRun: d.hot_run_h ?? null };
+    return {
+      rows: d.rows,
+      length: round(toDisplay('length', d.row_length_m, u)),
+      spacing: round(toDisplay('length', spacing, u)),
+      flow: round(toDisplay('emitter-flow', flow, u)),
+      run: d.run_h,
+      hotRun: d.hot_run_h ?? null,
+    };
   }
 
   private isDepth(): boolean {

@@ -33,7 +33,12 @@ export class FilesScreen {
   readonly projectId = input.required<string>();
 
   readonly units = computed(() => this.context?.units() ?? 'us');
-  readonly narrow = toSignal(inject(BreakpointObserver).observe('(max-width: 899.98px)').pipe(map((s) => s.matches)), { initialValue: false });
+  readonly narrow = toSignal(
+    inject(BreakpointObserver)
+      .observe('(max-width: 899.98px)')
+      .pipe(map((s) => s.matches)),
+    { initialValue: false },
+  );
   readonly files = rxResource({ params: () => this.projectId(), stream: ({ params }) => this.api.list(params) });
   readonly canWrite = computed(() => this.session.can('files.write'));
 
@@ -88,13 +93,17 @@ export class FilesScreen {
   }
 
   async remove(f: ProjectFile): Promise<void> {
-    const sure = await firstValueFrom(confirmAction(this.dialog, {
-      title: `Delete ${f.filename}?`,
-      message: f.kind === 'backdrop'
-        ? 'If the plan uses this image as its backdrop, the Layout will show no backdrop. This cannot be undone.'
-        : 'The file is removed from the project for everyone. This cannot be undone.',
-      confirmLabel: 'Delete', destructive: true,
-    }));
+    const sure = await firstValueFrom(
+      confirmAction(this.dialog, {
+        title: `Delete ${f.filename}?`,
+        message:
+          f.kind === 'backdrop'
+            ? 'If the plan uses this image as its backdrop, the Layout will show no backdrop. This cannot be undone.'
+            : 'The file is removed from the project for everyone. This cannot be undone.',
+        confirmLabel: 'Delete',
+        destructive: true,
+      }),
+    );
     if (!sure) return;
     try {
       await firstValueFrom(this.api.remove(this.projectId(), f.id));

@@ -18,10 +18,7 @@ import { TeamService } from '../../core/team.service';
 /** Accepting an invitation link (/join/:token): a new user picks a name and password; a signed-in user just joins. */
 @Component({
   selector: 'rn-join-screen',
-  imports: [
-    ReactiveFormsModule, RouterLink, MatCardModule, MatChipsModule, MatFormFieldModule, MatInputModule, MatButtonModule,
-    MatProgressBarModule,
-  ],
+  imports: [ReactiveFormsModule, RouterLink, MatCardModule, MatChipsModule, MatFormFieldModule, MatInputModule, MatButtonModule, MatProgressBarModule],
   templateUrl: './join-screen.html',
   styleUrl: './join-screen.scss',
 })
@@ -67,13 +64,16 @@ export class JoinScreen {
   /** Signed in with another address than the invited one: sign out and come back to this link. */
   protected switchAccount(): void {
     this.busy.set(true);
-    this.session.signOut().pipe(takeUntilDestroyed(this.destroyRef)).subscribe({
-      next: () => {
-        this.busy.set(false);
-        this.invitation.reload();
-      },
-      error: () => this.busy.set(false),
-    });
+    this.session
+      .signOut()
+      .pipe(takeUntilDestroyed(this.destroyRef))
+      .subscribe({
+        next: () => {
+          this.busy.set(false);
+          this.invitation.reload();
+        },
+        error: () => this.busy.set(false),
+      });
   }
 
   private accept(request: Observable<Me>): void {

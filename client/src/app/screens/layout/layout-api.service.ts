@@ -9,12 +9,29 @@ import { handleErrorsLocally } from '../../core/http-context';
 import type { PutOutcome, ServerCopy } from './editor/save-controller';
 import type { SurveyParse } from '../../../../../engine/survey-point';
 
-export interface NetworkRecord { version: number; document: NetworkDocument; results: SteadyResult | null; updatedAt: string | null; updatedBy: string | null }
-export interface FileRecord { id: string; kind: string; filename: string; mime: string; size: number; createdAt: string }
+export interface NetworkRecord {
+  version: number;
+  document: NetworkDocument;
+  results: SteadyResult | null;
+  updatedAt: string | null;
+  updatedBy: string | null;
+}
+export interface FileRecord {
+  id: string;
+  kind: string;
+  filename: string;
+  mime: string;
+  size: number;
+  createdAt: string;
+}
 
 /** A failed upload or parse, in words for the user (413/415 messages come from the server). */
 export class LayoutApiError extends Error {
-  constructor(message: string, readonly status: number, readonly line?: number) {
+  constructor(
+    message: string,
+    readonly status: number,
+    readonly line?: number,
+  ) {
     super(message);
   }
 }
@@ -40,9 +57,13 @@ export class LayoutApi {
   saveNetwork(id: string, version: number, document: NetworkDocument): Promise<PutOutcome> {
     return firstValueFrom(
       this.http
-        .put<{ version: number }>(`/api/projects/${encodeURIComponent(id)}/network`, { version, document }, {
-          context: handleErrorsLocally(0, 400, 409, 500, 502, 503, 504),
-        })
+        .put<{ version: number }>(
+          `/api/projects/${encodeURIComponent(id)}/network`,
+          { version, document },
+          {
+            context: handleErrorsLocally(0, 400, 409, 500, 502, 503, 504),
+          },
+        )
         .pipe(
           map((r): PutOutcome => ({ kind: 'saved', version: r.version })),
           catchError((err: unknown) => {

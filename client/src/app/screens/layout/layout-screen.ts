@@ -1,6 +1,17 @@
 import type { CdkDragEnd } from '@angular/cdk/drag-drop';
 import {
-  afterNextRender, ChangeDetectionStrategy, Component, computed, DestroyRef, effect, ElementRef, inject, input, signal, untracked, viewChild,
+  afterNextRender,
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  DestroyRef,
+  effect,
+  ElementRef,
+  inject,
+  input,
+  signal,
+  untracked,
+  viewChild,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -46,11 +57,23 @@ import { ElementPalette } from './palette/element-palette';
 import { paletteItems } from './palette/palette-symbol';
 
 const STATUS_TEXT: Record<SaveStatus, string> = {
-  loading: 'Loading…', saved: 'Saved', dirty: 'Unsaved changes', saving: 'Saving…', offline: 'Offline — retrying',
-  conflict: 'Conflict', rejected: 'Not saved', 'read-only': 'View only',
+  loading: 'Loading…',
+  saved: 'Saved',
+  dirty: 'Unsaved changes',
+  saving: 'Saving…',
+  offline: 'Offline — retrying',
+  conflict: 'Conflict',
+  rejected: 'Not saved',
+  'read-only': 'View only',
 };
 
-interface ToolButton { id: ToolId; option?: LinkKind; label: string; testid: string; key: string }
+interface ToolButton {
+  id: ToolId;
+  option?: LinkKind;
+  label: string;
+  testid: string;
+  key: string;
+}
 
 /**
  * Layout: the canvas editor where a designer draws the network over the site and sees the
@@ -60,7 +83,17 @@ interface ToolButton { id: ToolId; option?: LinkKind; label: string; testid: str
  */
 @Component({
   selector: 'rn-layout-screen',
-  imports: [ElementPalette, MatButtonModule, MatButtonToggleModule, MatMenuModule, MatSliderModule, MatTooltipModule, PropertiesPanel, ResultsList, VersionBanner],
+  imports: [
+    ElementPalette,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatMenuModule,
+    MatSliderModule,
+    MatTooltipModule,
+    PropertiesPanel,
+    ResultsList,
+    VersionBanner,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './layout-screen.html',
   styleUrls: ['./layout-screen.scss', './layout-phone.scss'],
@@ -100,11 +133,18 @@ export class LayoutScreen {
 
   /** The earlier version shown read-only (review link), or null for the current network. */
   readonly shownVersion = signal<number | null>(null);
-  private readonly wantedVersion = computed(() => { const n = Number(this.versionParam()); return Number.isInteger(n) && n > 0 ? n : null; });
+  private readonly wantedVersion = computed(() => {
+    const n = Number(this.versionParam());
+    return Number.isInteger(n) && n > 0 ? n : null;
+  });
   readonly canRestore = computed(() => this.session.can('network.write'));
   readonly canEdit = computed(() => this.session.can('network.write') && this.wantedVersion() === null);
   private readonly review = new LayoutReview({
-    editor: this.editor, markers: this.markers, router: inject(Router), api: inject(ReviewApi), shown: (v) => this.shownVersion.set(v),
+    editor: this.editor,
+    markers: this.markers,
+    router: inject(Router),
+    api: inject(ReviewApi),
+    shown: (v) => this.shownVersion.set(v),
   });
   readonly doc = signal<NetworkDocument>(this.editor.store.doc);
   readonly selection = signal<string[]>([]);
@@ -124,7 +164,10 @@ export class LayoutScreen {
   private readonly serverResults = signal<SteadyResult | null>(null);
 
   readonly sync = new NetworkSync({
-    api: this.api, dialog: this.dialog, snack: this.snack, editor: this.editor,
+    api: this.api,
+    dialog: this.dialog,
+    snack: this.snack,
+    editor: this.editor,
     canEdit: () => this.canEdit(),
     status: (s) => this.status.set(s),
     project: (p) => {
@@ -136,8 +179,13 @@ export class LayoutScreen {
     loaded: (id) => void this.review.afterLoad(id, this.wantedVersion(), this.selectParam() ?? null),
   });
   readonly site = new SiteFiles({
-    api: this.api, dialog: this.dialog, snack: this.snack, editor: this.editor,
-    projectId: () => this.projectId(), units: () => this.units(), say: (m) => this.message.set(m),
+    api: this.api,
+    dialog: this.dialog,
+    snack: this.snack,
+    editor: this.editor,
+    projectId: () => this.projectId(),
+    units: () => this.units(),
+    say: (m) => this.message.set(m),
   });
 
   readonly statusText = computed(() => (this.status() === 'rejected' ? `Not saved: ${this.sync.saver.message}` : STATUS_TEXT[this.status()]));
@@ -150,7 +198,9 @@ export class LayoutScreen {
   readonly unset = computed(() => unsetElevations(this.doc()));
   readonly unsetNames = computed(() => {
     const ids = new Set(this.unset());
-    return this.doc().nodes.filter((n) => ids.has(n.id)).map((n) => n.name || n.id);
+    return this.doc()
+      .nodes.filter((n) => ids.has(n.id))
+      .map((n) => n.name || n.id);
   });
   readonly service = computed(() => {
     const r = this.results();
@@ -197,7 +247,12 @@ export class LayoutScreen {
 
   constructor() {
     // the Profile tab's findings as marks on the plan (screens/profile/profile-markers.ts)
-    effect(() => this.markers.set('profile', profileMarkers(this.doc(), this.results(), this.profileSelection.get(this.projectId()), this.profileSettings.cover(this.projectId()))));
+    effect(() =>
+      this.markers.set(
+        'profile',
+        profileMarkers(this.doc(), this.results(), this.profileSelection.get(this.projectId()), this.profileSettings.cover(this.projectId())),
+      ),
+    );
     effect(() => {
       const ctx = this.projectContext;
       if (ctx?.project()) this.units.set(ctx.units());
@@ -255,7 +310,9 @@ export class LayoutScreen {
     });
     effect(() => {
       const select = this.selectParam();
-      untracked(() => { if (select && this.sync.project === this.projectId()) this.editor.reveal(select); });
+      untracked(() => {
+        if (select && this.sync.project === this.projectId()) this.editor.reveal(select);
+      });
     });
 
     afterNextRender(() => this.attachCanvas());
@@ -310,7 +367,13 @@ export class LayoutScreen {
     if (window.__runnelTestHooks) {
       void import('./screen/test-hook').then(({ installTestHook }) => {
         if (this.view !== view) return;
-        const remove = installTestHook({ editor: this.editor, canvas: el, lastSolveMs: () => this.solver.lastMs(), placedLabels: () => view.placedLabels(), markers: this.markers });
+        const remove = installTestHook({
+          editor: this.editor,
+          canvas: el,
+          lastSolveMs: () => this.solver.lastMs(),
+          placedLabels: () => view.placedLabels(),
+          markers: this.markers,
+        });
         this.destroyRef.onDestroy(remove);
       });
     }
@@ -413,5 +476,4 @@ export class LayoutScreen {
     this.editor.fitToView();
     this.snack.open(`Imported ${doc.nodes.length} nodes and ${doc.links.length} links. Undo restores the previous network.`, 'OK', { duration: 6000 });
   }
-
 }

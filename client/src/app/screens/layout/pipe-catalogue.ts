@@ -3,9 +3,19 @@ import type { HeadlossModel, PipeLink } from '../../../../../engine/network-docu
 import { formatQuantity, UnitSystem } from '../../../../../engine/units';
 
 /** A pipe series as the Properties panel lists it. */
-export interface SeriesOption { id: string; label: string; material: string }
+export interface SeriesOption {
+  id: string;
+  label: string;
+  material: string;
+}
 /** A nominal size in a series: what choosing it writes onto the pipe (SI). */
-export interface SizeOption { nominal: string; label: string; diameter_m: number; roughness: number; rating_m: number }
+export interface SizeOption {
+  nominal: string;
+  label: string;
+  diameter_m: number;
+  roughness: number;
+  rating_m: number;
+}
 
 /**
  * The engine's pipe catalogue (engine/pipe-catalogue.ts) shaped for the form. The data lives in
@@ -20,7 +30,11 @@ export function catalogueSizes(seriesId: string, headloss: HeadlossModel, units:
   if (!series) return [];
   const roughness = defaultRoughness(series.material, headloss);
   return pipeSizes(seriesId).map((s) => ({
-    nominal: s.nominal, label: `${s.nominal} · ID ${formatQuantity('diameter', s.id_m, units)} · ${formatQuantity('pressure', s.rating_m, units, 0)}`, diameter_m: s.id_m, roughness, rating_m: s.rating_m,
+    nominal: s.nominal,
+    label: `${s.nominal} · ID ${formatQuantity('diameter', s.id_m, units)} · ${formatQuantity('pressure', s.rating_m, units, 0)}`,
+    diameter_m: s.id_m,
+    roughness,
+    rating_m: s.rating_m,
   }));
 }
 
@@ -30,7 +44,11 @@ export function catalogueFields(seriesId: string, nominal: string, headloss: Hea
   const size = findPipeSize(seriesId, nominal);
   if (!series || !size) return {};
   return {
-    series: seriesId, nominal, material: series.material, diameter_m: size.id_m,
-    roughness: defaultRoughness(series.material, headloss), rating_m: size.rating_m,
+    series: seriesId,
+    nominal,
+    material: series.material,
+    diameter_m: size.id_m,
+    roughness: defaultRoughness(series.material, headloss),
+    rating_m: size.rating_m,
   };
 }

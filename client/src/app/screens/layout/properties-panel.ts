@@ -22,7 +22,10 @@ import { DAYLIGHT_SCHEDULE } from './kinds/pump-kind';
 import { catalogueSeries, catalogueSizes } from './pipe-catalogue';
 
 /** A change the panel asks the screen to apply (one undo step each). */
-export interface ElementPatch { id: string; patch: Record<string, unknown> }
+export interface ElementPatch {
+  id: string;
+  patch: Record<string, unknown>;
+}
 
 /**
  * Properties of the selected element, built from its kind's field list. Values are shown and
@@ -159,7 +162,16 @@ export class PropertiesPanel {
     const el = this.element();
     if (el?.kind !== 'pump' || this.readOnly()) return;
     const u = this.units();
-    const rows = text.split(';').map((r) => r.trim()).filter(Boolean).map((r) => r.split(/[,\s]+/).filter(Boolean).map(Number));
+    const rows = text
+      .split(';')
+      .map((r) => r.trim())
+      .filter(Boolean)
+      .map((r) =>
+        r
+          .split(/[,\s]+/)
+          .filter(Boolean)
+          .map(Number),
+      );
     const bad = rows.findIndex((r) => r.length !== 2 || !r.every(Number.isFinite) || r[0] < 0);
     if (bad >= 0) return this.curveError.set(`Point ${bad + 1}: type a flow and a head, e.g. "${this.curvePlaceholder().split(';')[1].trim()}"`);
     if (rows.length < 2) return this.curveError.set('Type at least two points: the head at no flow and at one flow, or more.');
@@ -259,7 +271,10 @@ export class PropertiesPanel {
     } else if (f.type === 'text') {
       value = String(v ?? '').trim() || undefined;
     } else if (f.type === 'schedule') {
-      value = String(v).split(/[,\s]+/).filter(Boolean).map(Number);
+      value = String(v)
+        .split(/[,\s]+/)
+        .filter(Boolean)
+        .map(Number);
     }
     if (f.key === 'demand_model.type') {
       this.patch.emit({ id: el.id, patch: { demand_model: defaultDemandModel(String(v), el as OutletNode) } });

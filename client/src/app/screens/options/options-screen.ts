@@ -18,7 +18,13 @@ import { SessionService } from '../../core/session.service';
 import { QuantityPipe } from '../../shared/quantity.pipe';
 import { MiniPlan } from './mini-plan';
 
-interface Column { key: string; name: string; summary: DesignSummary | null; option: OptionRow | null; document: NetworkDocument | null }
+interface Column {
+  key: string;
+  name: string;
+  summary: DesignSummary | null;
+  option: OptionRow | null;
+  document: NetworkDocument | null;
+}
 
 /**
  * Options: named variants of the design compared side by side (lowest outlet pressure and margin,
@@ -29,7 +35,21 @@ interface Column { key: string; name: string; summary: DesignSummary | null; opt
 @Component({
   selector: 'rn-options-screen',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [FormsModule, CurrencyPipe, DatePipe, DecimalPipe, PercentPipe, QuantityPipe, MiniPlan, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatInputModule, MatProgressBarModule, MatSelectModule],
+  imports: [
+    FormsModule,
+    CurrencyPipe,
+    DatePipe,
+    DecimalPipe,
+    PercentPipe,
+    QuantityPipe,
+    MiniPlan,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+  ],
   templateUrl: './options-screen.html',
   styleUrl: './options-screen.scss',
 })
@@ -46,10 +66,11 @@ export class OptionsScreen {
   protected readonly list = rxResource({ params: () => this.projectId(), stream: ({ params }) => this.service.list(params) });
   protected readonly documents = rxResource({
     params: () => (this.list.hasValue() ? { pid: this.projectId(), ids: this.list.value().options.map((o) => o.id) } : undefined),
-    stream: ({ params }) => forkJoin({
-      current: this.service.network(params.pid),
-      options: params.ids.length ? forkJoin(params.ids.map((id) => this.service.get(params.pid, id))) : of([] as OptionDetail[]),
-    }),
+    stream: ({ params }) =>
+      forkJoin({
+        current: this.service.network(params.pid),
+        options: params.ids.length ? forkJoin(params.ids.map((id) => this.service.get(params.pid, id))) : of([] as OptionDetail[]),
+      }),
   });
 
   protected readonly columns = computed<Column[]>(() => {
@@ -59,7 +80,13 @@ export class OptionsScreen {
     const currentDoc = docs?.current.document ?? null;
     return [
       { key: 'current', name: `Current design (v${l.current.version})`, summary: l.current.summary, option: null, document: currentDoc },
-      ...l.options.map((o) => ({ key: o.id, name: o.name, summary: o.summary, option: o, document: docs?.options.find((d) => d.id === o.id)?.document ?? null })),
+      ...l.options.map((o) => ({
+        key: o.id,
+        name: o.name,
+        summary: o.summary,
+        option: o,
+        document: docs?.options.find((d) => d.id === o.id)?.document ?? null,
+      })),
     ];
   });
 
@@ -68,7 +95,9 @@ export class OptionsScreen {
     return (c?.links.filter((l) => l.kind === 'pipe') ?? []) as PipeLink[];
   });
   protected readonly series = pipeSeries;
-  protected sizesOf(series: string): string[] { return pipeSizes(series).map((s) => s.nominal); }
+  protected sizesOf(series: string): string[] {
+    return pipeSizes(series).map((s) => s.nominal);
+  }
 
   protected readonly busy = signal(false);
   protected readonly message = signal('');
@@ -79,10 +108,14 @@ export class OptionsScreen {
   protected edit: { option: string; pipe: string; series: string; nominal: string } = { option: '', pipe: '', series: '', nominal: '' };
   protected tankEdit: { tank: string; elevation: number | null } = { tank: '', elevation: null };
   protected readonly tanks = computed(() => this.columns()[0]?.document?.nodes.filter((n) => n.kind === 'tank') ?? []);
-  protected elevationUnit(): string { return unitLabel('elevation', this.units()); }
+  protected elevationUnit(): string {
+    return unitLabel('elevation', this.units());
+  }
   protected readonly lastSizing = signal<{ option: string; report: SizingReport } | null>(null);
 
-  protected pressureUnit(): string { return unitLabel('pressure', this.units()); }
+  protected pressureUnit(): string {
+    return unitLabel('pressure', this.units());
+  }
   /** The price list's currency (the estimate's, set on the Takeoff tab); USD only until the list has loaded. */
   protected readonly currency = computed(() => (this.list.hasValue() ? this.list.value().currency : 'USD'));
 
@@ -91,19 +124,35 @@ export class OptionsScreen {
     this.error.set('');
     this.message.set('');
     work.subscribe({
-      next: (v) => { this.busy.set(false); this.message.set(done(v)); this.list.reload(); },
-      error: (e: unknown) => { this.busy.set(false); this.error.set(apiErrorMessage(e)); },
+      next: (v) => {
+        this.busy.set(false);
+        this.message.set(done(v));
+        this.list.reload();
+      },
+      error: (e: unknown) => {
+        this.busy.set(false);
+        this.error.set(apiErrorMessage(e));
+      },
     });
   }
 
   protected create(): void {
     const name = this.newName.trim();
-    if (!name) { this.error.set('Give the option a name.'); return; }
-    this.run(this.service.create(this.projectId(), name), () => { this.newName = ''; return `Option “${name}” made from the current design.`; });
+    if (!name) {
+      this.error.set('Give the option a name.');
+      return;
+    }
+    this.run(this.service.create(this.projectId(), name), () => {
+      this.newName = '';
+      return `Option “${name}” made from the current design.`;
+    });
   }
 
   protected size(option: OptionRow): void {
-    const min = this.minPressure === null || this.minPressure === undefined || `${this.minPressure}` === '' ? undefined : fromDisplay('pressure', Number(this.minPressure), this.units());
+    const min =
+      this.minPressure === null || this.minPressure === undefined || `${this.minPressure}` === ''
+        ? undefined
+        : fromDisplay('pressure', Number(this.minPressure), this.units());
     this.run(this.service.size(this.projectId(), option.id, { minPressure_m: min, sameSeries: this.sameSeries }), (r) => {
       this.lastSizing.set({ option: option.id, report: r });
       return r.feasible ? `Sized “${option.name}”: every outlet passes.` : `“${option.name}” cannot be sized from the price list: see why below.`;
@@ -112,20 +161,34 @@ export class OptionsScreen {
 
   protected applyEdit(option: OptionRow): void {
     const e = this.edit;
-    if (!e.pipe || !e.series || !e.nominal) { this.error.set('Choose a pipe, a series and a size.'); return; }
-    this.run(this.service.edit(this.projectId(), option.id, { pipes: [{ id: e.pipe, series: e.series, nominal: e.nominal }] }), () => `${e.pipe} in “${option.name}” is now ${e.series} ${e.nominal}.`);
+    if (!e.pipe || !e.series || !e.nominal) {
+      this.error.set('Choose a pipe, a series and a size.');
+      return;
+    }
+    this.run(
+      this.service.edit(this.projectId(), option.id, { pipes: [{ id: e.pipe, series: e.series, nominal: e.nominal }] }),
+      () => `${e.pipe} in “${option.name}” is now ${e.series} ${e.nominal}.`,
+    );
   }
 
   protected moveTank(option: OptionRow): void {
     const t = this.tankEdit;
-    if (!t.tank || t.elevation === null || `${t.elevation}` === '') { this.error.set('Choose a tank and its new floor elevation.'); return; }
+    if (!t.tank || t.elevation === null || `${t.elevation}` === '') {
+      this.error.set('Choose a tank and its new floor elevation.');
+      return;
+    }
     const elevation_m = fromDisplay('elevation', Number(t.elevation), this.units());
-    this.run(this.service.edit(this.projectId(), option.id, { tanks: [{ id: t.tank, elevation_m }] }), () => `${t.tank} in “${option.name}” moved to its new elevation.`);
+    this.run(
+      this.service.edit(this.projectId(), option.id, { tanks: [{ id: t.tank, elevation_m }] }),
+      () => `${t.tank} in “${option.name}” moved to its new elevation.`,
+    );
   }
 
   protected countedLosses(option: OptionRow): void {
-    this.run(this.service.edit(this.projectId(), option.id, { countedMinorLoss: true }),
-      () => `Every pipe in “${option.name}” now uses the minor-loss K of its counted fittings (tees, reducers, elbows, couplings, tank outlets).`);
+    this.run(
+      this.service.edit(this.projectId(), option.id, { countedMinorLoss: true }),
+      () => `Every pipe in “${option.name}” now uses the minor-loss K of its counted fittings (tees, reducers, elbows, couplings, tank outlets).`,
+    );
   }
 
   protected promote(option: OptionRow): void {
@@ -144,7 +207,9 @@ export class OptionsScreen {
 
   /** Best value in a row, to mark it. */
   protected best(pick: (s: DesignSummary) => number | null | undefined, lowIsBest: boolean): number | null {
-    const values = this.columns().map((c) => (c.summary ? pick(c.summary) : null)).filter((v): v is number => typeof v === 'number' && Number.isFinite(v));
+    const values = this.columns()
+      .map((c) => (c.summary ? pick(c.summary) : null))
+      .filter((v): v is number => typeof v === 'number' && Number.isFinite(v));
     if (values.length < 2) return null;
     return lowIsBest ? Math.min(...values) : Math.max(...values);
   }

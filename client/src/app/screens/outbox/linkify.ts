@@ -1,8 +1,5 @@
 /** A piece of mail text: plain, a link inside the app (routerLink), or an outside link. */
-export type TextPart =
-  | { kind: 'text'; text: string }
-  | { kind: 'app-link'; text: string; path: string }
-  | { kind: 'link'; text: string; href: string };
+export type TextPart = { kind: 'text'; text: string } | { kind: 'app-link'; text: string; path: string } | { kind: 'link'; text: string; href: string };
 
 const URL_PATTERN = /https?:\/\/[^\s<>"')\]]+/g;
 const APP_PATHS = /^\/(join|sign-in|sign-up|projects)(\/|$)/;

@@ -7,10 +7,18 @@ import type { Point } from '../layout/editor/geometry';
 import type { ProfileEnds } from './profile-selection';
 
 const LABEL: Record<ProfileFinding['kind'], string> = {
-  'hgl-below-pipe': 'HGL', 'over-rating': 'rating', 'over-working': '72 %', 'high-point': 'air', 'low-point': 'drain',
+  'hgl-below-pipe': 'HGL',
+  'over-rating': 'rating',
+  'over-working': '72 %',
+  'high-point': 'air',
+  'low-point': 'drain',
 };
 const KIND: Record<ProfileFinding['kind'], string> = {
-  'hgl-below-pipe': 'flag', 'over-rating': 'flag', 'over-working': 'flag', 'high-point': 'pin', 'low-point': 'dot',
+  'hgl-below-pipe': 'flag',
+  'over-rating': 'flag',
+  'over-working': 'flag',
+  'high-point': 'pin',
+  'low-point': 'dot',
 };
 
 /**

@@ -8,7 +8,15 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { solve } from '../../../../../engine/steady';
 import {
-  findRoutes, longestSupplyRoute, pressureText, profileRoute, RouteError, WORKING_SHARE, type ProfileFinding, type Route, type RouteProfile,
+  findRoutes,
+  longestSupplyRoute,
+  pressureText,
+  profileRoute,
+  RouteError,
+  WORKING_SHARE,
+  type ProfileFinding,
+  type Route,
+  type RouteProfile,
 } from '../../../../../engine/profile';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel, type Quantity } from '../../../../../engine/units';
 import { apiErrorMessage } from '../../core/api-errors';
@@ -26,12 +34,18 @@ import { ProfileSettings } from './profile-settings';
 const MAX_COVER_M = 3;
 
 const BAND: Record<ProfileFinding['kind'], string> = {
-  'hgl-below-pipe': 'rgba(179, 38, 30, 0.22)', 'over-rating': 'rgba(120, 20, 20, 0.28)', 'over-working': 'rgba(224, 160, 0, 0.22)',
-  'high-point': '#3d5a80', 'low-point': '#6b4f2a',
+  'hgl-below-pipe': 'rgba(179, 38, 30, 0.22)',
+  'over-rating': 'rgba(120, 20, 20, 0.28)',
+  'over-working': 'rgba(224, 160, 0, 0.22)',
+  'high-point': '#3d5a80',
+  'low-point': '#6b4f2a',
 };
 export const FINDING_LABELS: Record<ProfileFinding['kind'], string> = {
-  'hgl-below-pipe': 'HGL below the pipe', 'over-rating': 'Static over the rating', 'over-working': `Static over ${Math.round(WORKING_SHARE * 100)} % of the rating`,
-  'high-point': 'High point: air-release valve', 'low-point': 'Low point: drain',
+  'hgl-below-pipe': 'HGL below the pipe',
+  'over-rating': 'Static over the rating',
+  'over-working': `Static over ${Math.round(WORKING_SHARE * 100)} % of the rating`,
+  'high-point': 'High point: air-release valve',
+  'low-point': 'Low point: drain',
 };
 
 /**
@@ -82,7 +96,10 @@ export class ProfileScreen {
   protected readonly doc = computed(() => this.savedNetwork()?.document ?? null);
   protected readonly elements = computed(() => (this.doc()?.nodes ?? []).map((n) => ({ id: n.id, name: `${n.name || n.id} (${n.kind})` })));
   private readonly names = computed(() => new Map((this.doc()?.nodes ?? []).map((n) => [n.id, n.name || n.id])));
-  protected readonly steady = computed(() => { const d = this.doc(); return d ? solve(d) : null; });
+  protected readonly steady = computed(() => {
+    const d = this.doc();
+    return d ? solve(d) : null;
+  });
 
   /** The routes for the chosen ends (the remembered or longest supply route when none chosen). */
   protected readonly routes = computed<{ routes: Route[]; error: string | null }>(() => {
@@ -93,7 +110,9 @@ export class ProfileScreen {
     try {
       if (from && to) return { routes: findRoutes(doc, from, to, 4), error: null };
       const longest = longestSupplyRoute(doc);
-      return longest ? { routes: [longest], error: null } : { routes: [], error: 'No outlet is connected to a tank or source yet: draw the network on the Layout first.' };
+      return longest
+        ? { routes: [longest], error: null }
+        : { routes: [], error: 'No outlet is connected to a tank or source yet: draw the network on the Layout first.' };
     } catch (e) {
       return { routes: [], error: e instanceof RouteError ? e.message : String(e) };
     }
@@ -115,15 +134,27 @@ export class ProfileScreen {
     const fmt = (q: Quantity) => (v: number) => formatQuantity(q, fromDisplay(q, v, u), u);
     const x = p.points.map((pt) => toDisplay('length', pt.distance_m, u));
     return {
-      x, xLabel: `distance (${unitLabel('length', u)})`, xFormat: (v) => formatQuantity('length', fromDisplay('length', v, u), u), yLabel: `elevation (${unitLabel('elevation', u)})`,
+      x,
+      xLabel: `distance (${unitLabel('length', u)})`,
+      xFormat: (v) => formatQuantity('length', fromDisplay('length', v, u), u),
+      yLabel: `elevation (${unitLabel('elevation', u)})`,
       series: [
-        { label: 'ground', values: p.points.map((pt) => conv('elevation', pt.ground_m)), colour: '#8d6e4a', fill: 'rgba(141, 110, 74, 0.12)', format: fmt('elevation') },
+        {
+          label: 'ground',
+          values: p.points.map((pt) => conv('elevation', pt.ground_m)),
+          colour: '#8d6e4a',
+          fill: 'rgba(141, 110, 74, 0.12)',
+          format: fmt('elevation'),
+        },
         { label: 'pipe', values: p.points.map((pt) => conv('elevation', pt.pipe_m)), colour: '#37474f', width: 2.2, format: fmt('elevation') },
         { label: 'HGL', values: p.points.map((pt) => conv('head', pt.hgl_m)), colour: '#17677a', width: 2, format: fmt('head') },
         { label: 'static', values: p.points.map((pt) => conv('head', pt.static_m)), colour: '#b5485d', dash: [6, 4], format: fmt('head') },
       ],
-      bands: p.findings.filter((f) => f.to_m > f.from_m).map((f) => ({ from: toDisplay('length', f.from_m, u), to: toDisplay('length', f.to_m, u), colour: BAND[f.kind] })),
-      marks: p.findings.filter((f) => f.kind === 'high-point' || f.kind === 'low-point')
+      bands: p.findings
+        .filter((f) => f.to_m > f.from_m)
+        .map((f) => ({ from: toDisplay('length', f.from_m, u), to: toDisplay('length', f.to_m, u), colour: BAND[f.kind] })),
+      marks: p.findings
+        .filter((f) => f.kind === 'high-point' || f.kind === 'low-point')
         .map((f) => ({ x: toDisplay('length', f.at_m, u), colour: BAND[f.kind], label: f.kind === 'high-point' ? 'air valve' : 'drain' })),
     };
   });
@@ -133,7 +164,8 @@ export class ProfileScreen {
     if (!p) return [];
     const u = this.units();
     return p.elements.map((e) => ({
-      ...e, label: this.names().get(e.id) ?? e.id,
+      ...e,
+      label: this.names().get(e.id) ?? e.id,
       pressure: pressureText(e.pressure_m, e.supplied, (v) => formatQuantity('pressure', v, u)),
       staticText: Number.isFinite(e.static_pressure_m) ? formatQuantity('pressure', e.static_pressure_m, u) : 'no supply',
     }));
@@ -162,7 +194,10 @@ export class ProfileScreen {
   /** Save the project's default cover (typed in display units; empty: back to the default). */
   protected setCover(value: string): void {
     const typed = value.trim() === '' ? null : Number(value);
-    if (typed !== null && !Number.isFinite(typed)) { this.coverError.set('Cover: give a depth, or leave it empty for the default'); return; }
+    if (typed !== null && !Number.isFinite(typed)) {
+      this.coverError.set('Cover: give a depth, or leave it empty for the default');
+      return;
+    }
     const cover = typed === null ? null : fromDisplay('length', typed, this.units());
     // the server's limits (server/routes/profile.ts), said in the project's units
     if (cover !== null && (cover < 0 || cover > MAX_COVER_M)) {
@@ -173,12 +208,20 @@ export class ProfileScreen {
     this.coverSaving.set(true);
     this.settings.saveCover(this.projectId(), cover).subscribe({
       next: () => this.coverSaving.set(false),
-      error: (err: unknown) => { this.coverSaving.set(false); this.coverError.set(apiErrorMessage(err)); },
+      error: (err: unknown) => {
+        this.coverSaving.set(false);
+        this.coverError.set(apiErrorMessage(err));
+      },
     });
   }
 
   protected routeText(r: Route): string {
-    return `${this.names().get(r.nodes[0]) ?? r.nodes[0]} → ${this.names().get(r.nodes[r.nodes.length - 1]) ?? r.nodes.at(-1)}, ${formatQuantity('length', r.length_m, this.units())}, via ${r.nodes.slice(1, -1).map((id) => this.names().get(id) ?? id).join(', ') || 'no tee'}`;
+    return `${this.names().get(r.nodes[0]) ?? r.nodes[0]} → ${this.names().get(r.nodes[r.nodes.length - 1]) ?? r.nodes.at(-1)}, ${formatQuantity('length', r.length_m, this.units())}, via ${
+      r.nodes
+        .slice(1, -1)
+        .map((id) => this.names().get(id) ?? id)
+        .join(', ') || 'no tee'
+    }`;
   }
 
   protected exportPng(): void {
@@ -190,7 +233,12 @@ export class ProfileScreen {
     const p = this.profile();
     if (!p) return;
     const rows = ['distance_m,ground_m,pipe_m,hgl_m,static_m,link,element'];
-    for (const pt of p.points) rows.push([pt.distance_m, pt.ground_m, pt.pipe_m, pt.hgl_m, pt.static_m, pt.link, pt.element ?? ''].map((v) => (typeof v === 'number' && !Number.isFinite(v) ? '' : v)).join(','));
+    for (const pt of p.points)
+      rows.push(
+        [pt.distance_m, pt.ground_m, pt.pipe_m, pt.hgl_m, pt.static_m, pt.link, pt.element ?? '']
+          .map((v) => (typeof v === 'number' && !Number.isFinite(v) ? '' : v))
+          .join(','),
+      );
     downloadText(`${rows.join('\n')}\n`, 'profile.csv', 'text/csv');
   }
 }

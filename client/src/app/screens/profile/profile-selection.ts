@@ -1,6 +1,9 @@
 import { Injectable, signal } from '@angular/core';
 
-export interface ProfileEnds { from: string; to: string }
+export interface ProfileEnds {
+  from: string;
+  to: string;
+}
 
 /**
  * The route chosen on the Profile tab, per project, remembered for this visit so the Layout's
@@ -20,6 +23,10 @@ export class ProfileSelection {
   }
 
   clear(projectId: string): void {
-    this.ends.update((m) => { const next = new Map(m); next.delete(projectId); return next; });
+    this.ends.update((m) => {
+      const next = new Map(m);
+      next.delete(projectId);
+      return next;
+    });
   }
 }

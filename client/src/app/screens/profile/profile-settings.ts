@@ -31,10 +31,12 @@ export class ProfileSettings {
       this.loading.add(projectId);
       // outside the reading effect or computed: a signal must not be written while it is read
       // quietly: the Layout reads this too, offline or not; without it the engine's default cover applies
-      queueMicrotask(() => this.http.get<ProfileSettingsRecord>(url(projectId), { context: handleErrorsLocally() }).subscribe({
-        next: (r) => this.put(projectId, r),
-        error: () => this.loading.delete(projectId),
-      }));
+      queueMicrotask(() =>
+        this.http.get<ProfileSettingsRecord>(url(projectId), { context: handleErrorsLocally() }).subscribe({
+          next: (r) => this.put(projectId, r),
+          error: () => this.loading.delete(projectId),
+        }),
+      );
     }
     return found;
   }
@@ -46,8 +48,7 @@ export class ProfileSettings {
 
   /** Save the default cover (null: back to the engine's); a 400 is left to the caller. */
   saveCover(projectId: string, cover_m: number | null): Observable<ProfileSettingsRecord> {
-    return this.http.put<ProfileSettingsRecord>(url(projectId), { cover_m }, { context: handleErrorsLocally(400) })
-      .pipe(tap((r) => this.put(projectId, r)));
+    return this.http.put<ProfileSettingsRecord>(url(projectId), { cover_m }, { context: handleErrorsLocally(400) }).pipe(tap((r) => this.put(projectId, r)));
   }
 
   private put(projectId: string, r: ProfileSettingsRecord): void {

@@ -15,7 +15,10 @@ import { handleErrorsLocally } from '../../core/http-context';
 import { ProjectContext } from '../../core/project-context';
 import { ProjectsService } from '../../core/projects.service';
 
-interface ProjectTab { path: string; label: string }
+interface ProjectTab {
+  path: string;
+  label: string;
+}
 
 export const PROJECT_TABS: readonly ProjectTab[] = [
   { path: 'layout', label: 'Layout' },
@@ -32,7 +35,17 @@ export const PROJECT_TABS: readonly ProjectTab[] = [
 /** Frame of an open project: a compact header and the tab bar; the tab's screen fills the rest. */
 @Component({
   selector: 'rn-project-shell',
-  imports: [RouterOutlet, RouterLink, RouterLinkActive, MatTabsModule, MatButtonModule, MatButtonToggleModule, MatIconModule, MatTooltipModule, MatProgressBarModule],
+  imports: [
+    RouterOutlet,
+    RouterLink,
+    RouterLinkActive,
+    MatTabsModule,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatIconModule,
+    MatTooltipModule,
+    MatProgressBarModule,
+  ],
   providers: [ProjectContext],
   templateUrl: './project-shell.html',
   styleUrl: './project-shell.scss',
@@ -58,7 +71,12 @@ export class ProjectShell {
    * On a touch screen the tab strip scrolls under the finger (no paging arrows: a tab half under an
    * arrow could not be tapped, and a swipe is what a phone user tries first). Mouse users keep the arrows.
    */
-  protected readonly touch = toSignal(inject(BreakpointObserver).observe('(pointer: coarse)').pipe(map((s) => s.matches)), { initialValue: false });
+  protected readonly touch = toSignal(
+    inject(BreakpointObserver)
+      .observe('(pointer: coarse)')
+      .pipe(map((s) => s.matches)),
+    { initialValue: false },
+  );
   private readonly tabBar = viewChild('tabBar', { read: ElementRef });
   private readonly injector = inject(Injector);
 
@@ -71,15 +89,18 @@ export class ProjectShell {
    * strip so the tab is wholly in sight, with a little of its neighbour showing there is more.
    */
   protected revealTab(path: string): void {
-    afterNextRender(() => {
-      const strip = this.tabBar()?.nativeElement as HTMLElement | undefined;
-      const tab = strip?.querySelector<HTMLElement>(`[data-testid="tab-${path}"]`);
-      if (!strip || !tab || !this.touch()) return;
-      const s = strip.getBoundingClientRect();
-      const t = tab.getBoundingClientRect();
-      const peek = 32;
-      if (t.left < s.left) strip.scrollLeft -= s.left - t.left + peek;
-      else if (t.right > s.right) strip.scrollLeft += t.right - s.right + peek;
-    }, { injector: this.injector });
+    afterNextRender(
+      () => {
+        const strip = this.tabBar()?.nativeElement as HTMLElement | undefined;
+        const tab = strip?.querySelector<HTMLElement>(`[data-testid="tab-${path}"]`);
+        if (!strip || !tab || !this.touch()) return;
+        const s = strip.getBoundingClientRect();
+        const t = tab.getBoundingClientRect();
+        const peek = 32;
+        if (t.left < s.left) strip.scrollLeft -= s.left - t.left + peek;
+        else if (t.right > s.right) strip.scrollLeft += t.right - s.right + peek;
+      },
+      { injector: this.injector },
+    );
   }
 }

@@ -26,8 +26,19 @@ import { ProjectFormData, ProjectFormDialog } from './project-form-dialog';
 @Component({
   selector: 'rn-projects-screen',
   imports: [
-    DatePipe, RouterLink, MatTableModule, MatSortModule, MatPaginatorModule, MatFormFieldModule, MatInputModule, MatButtonModule,
-    MatIconModule, MatMenuModule, MatSlideToggleModule, MatProgressBarModule, MatTooltipModule,
+    DatePipe,
+    RouterLink,
+    MatTableModule,
+    MatSortModule,
+    MatPaginatorModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+    MatIconModule,
+    MatMenuModule,
+    MatSlideToggleModule,
+    MatProgressBarModule,
+    MatTooltipModule,
   ],
   templateUrl: './projects-screen.html',
   styleUrl: './projects-screen.scss',
@@ -54,9 +65,7 @@ export class ProjectsScreen {
   protected readonly canUpdate = computed(() => this.session.can('project.update'));
   protected readonly canDelete = computed(() => this.session.can('project.delete'));
   protected readonly columns = computed(() =>
-    this.canUpdate() || this.canDelete()
-      ? ['name', 'siteName', 'units', 'updatedAt', 'actions']
-      : ['name', 'siteName', 'units', 'updatedAt'],
+    this.canUpdate() || this.canDelete() ? ['name', 'siteName', 'units', 'updatedAt', 'actions'] : ['name', 'siteName', 'units', 'updatedAt'],
   );
 
   protected readonly dataSource = new MatTableDataSource<Project>([]);
@@ -64,8 +73,7 @@ export class ProjectsScreen {
   private readonly paginator = viewChild(MatPaginator);
 
   constructor() {
-    this.dataSource.filterPredicate = (project, text) =>
-      [project.name, project.siteName, project.notes].some((field) => field.toLowerCase().includes(text));
+    this.dataSource.filterPredicate = (project, text) => [project.name, project.siteName, project.notes].some((field) => field.toLowerCase().includes(text));
     this.dataSource.sortingDataAccessor = (project, column) => {
       if (column === 'updatedAt') return Date.parse(project.updatedAt);
       const value = project[column as keyof Project];
@@ -73,10 +81,7 @@ export class ProjectsScreen {
     };
 
     // Reload when the team changes (team switcher) or the archived toggle flips; edits update the list in place.
-    combineLatest([
-      toObservable(computed(() => this.session.me()?.currentTeamId ?? null)),
-      toObservable(this.showArchived),
-    ])
+    combineLatest([toObservable(computed(() => this.session.me()?.currentTeamId ?? null)), toObservable(this.showArchived)])
       .pipe(
         tap(([teamId]) => {
           if (teamId === null) this.loading.set(false);

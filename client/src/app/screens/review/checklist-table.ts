@@ -12,13 +12,24 @@ import type { UnitSystem } from '../../../../../engine/units';
 import { formatAmount } from './amount-format';
 
 const GROUPS: { id: CheckGroup; label: string }[] = [
-  { id: 'outlets', label: 'Outlets' }, { id: 'pipes', label: 'Pipes' }, { id: 'profile', label: 'Profile' },
-  { id: 'storage', label: 'Storage and supply' }, { id: 'safety', label: 'Safety' },
+  { id: 'outlets', label: 'Outlets' },
+  { id: 'pipes', label: 'Pipes' },
+  { id: 'profile', label: 'Profile' },
+  { id: 'storage', label: 'Storage and supply' },
+  { id: 'safety', label: 'Safety' },
 ];
 const STATUS_ORDER: Record<CheckStatus, number> = { fail: 0, caution: 1, pass: 2 };
 
-interface GroupLine { kind: 'group'; group: CheckGroup; label: string; counts: Record<CheckStatus, number> }
-interface CheckLine { kind: 'row'; row: CheckRow }
+interface GroupLine {
+  kind: 'group';
+  group: CheckGroup;
+  label: string;
+  counts: Record<CheckStatus, number>;
+}
+interface CheckLine {
+  kind: 'row';
+  row: CheckRow;
+}
 type Line = GroupLine | CheckLine;
 
 /**
@@ -46,7 +57,9 @@ type Line = GroupLine | CheckLine;
       <mat-form-field appearance="outline" subscriptSizing="dynamic" class="rn-phone-only rn-checklist-sort">
         <mat-label>Sort within groups</mat-label>
         <mat-select [value]="sortKey()" (selectionChange)="sortBy($event.value)" data-testid="checklist-sort">
-          @for (o of sortOptions; track o.key) { <mat-option [value]="o.key">{{ o.label }}</mat-option> }
+          @for (o of sortOptions; track o.key) {
+            <mat-option [value]="o.key">{{ o.label }}</mat-option>
+          }
         </mat-select>
       </mat-form-field>
     </div>
@@ -56,21 +69,33 @@ type Line = GroupLine | CheckLine;
           <td mat-cell *matCellDef="let l" [attr.colspan]="columns.length" class="rn-group-cell">
             <span class="rn-group-label">{{ l.label }}</span>
             <span class="rn-group-counts">
-              @if (l.counts.fail) { <span class="rn-verdict rn-verdict-fail">{{ l.counts.fail }} fail</span> }
-              @if (l.counts.caution) { <span class="rn-verdict rn-verdict-caution">{{ l.counts.caution }} caution</span> }
+              @if (l.counts.fail) {
+                <span class="rn-verdict rn-verdict-fail">{{ l.counts.fail }} fail</span>
+              }
+              @if (l.counts.caution) {
+                <span class="rn-verdict rn-verdict-caution">{{ l.counts.caution }} caution</span>
+              }
               <span class="rn-verdict rn-verdict-pass">{{ l.counts.pass }} pass</span>
             </span>
           </td>
         </ng-container>
         <ng-container matColumnDef="status">
           <th mat-header-cell *matHeaderCellDef mat-sort-header>Verdict</th>
-          <td mat-cell *matCellDef="let l"><span class="rn-verdict" [class]="'rn-verdict rn-verdict-' + l.row.status">{{ l.row.status }}</span></td>
+          <td mat-cell *matCellDef="let l">
+            <span class="rn-verdict" [class]="'rn-verdict rn-verdict-' + l.row.status">{{ l.row.status }}</span>
+          </td>
         </ng-container>
         <ng-container matColumnDef="element">
           <th mat-header-cell *matHeaderCellDef mat-sort-header>Element</th>
           <td mat-cell *matCellDef="let l">
-            @if (l.row.element) { <strong>{{ l.row.element }}</strong>@if (l.row.elementName) { <div class="rn-muted">{{ l.row.elementName }}</div> } }
-            @else { <span class="rn-muted">whole design</span> }
+            @if (l.row.element) {
+              <strong>{{ l.row.element }}</strong>
+              @if (l.row.elementName) {
+                <div class="rn-muted">{{ l.row.elementName }}</div>
+              }
+            } @else {
+              <span class="rn-muted">whole design</span>
+            }
           </td>
         </ng-container>
         <ng-container matColumnDef="check">
@@ -94,16 +119,29 @@ type Line = GroupLine | CheckLine;
         </ng-container>
         <ng-container matColumnDef="source">
           <th mat-header-cell *matHeaderCellDef>Rule and source</th>
-          <td mat-cell *matCellDef="let l" class="rn-small"><div>{{ l.row.ruleText }}</div><div class="rn-muted">{{ l.row.source }}</div></td>
+          <td mat-cell *matCellDef="let l" class="rn-small">
+            <div>{{ l.row.ruleText }}</div>
+            <div class="rn-muted">{{ l.row.source }}</div>
+          </td>
         </ng-container>
         <tr mat-header-row *matHeaderRowDef="columns; sticky: true"></tr>
         <tr mat-row *matRowDef="let l; columns: ['groupHeader']; when: isGroup" class="rn-group-row" [attr.data-testid]="'checklist-group-' + l.group"></tr>
-        <tr mat-row *matRowDef="let l; columns: columns" class="rn-check-row" [class.rn-clickable]="!!l.row.element"
-            [matTooltip]="l.row.source" matTooltipShowDelay="600"
-            [attr.data-testid]="'check-' + l.row.key" [attr.data-status]="l.row.status"
-            (click)="l.row.element && selectElement.emit(l.row.element)"
-            (keydown.enter)="l.row.element && selectElement.emit(l.row.element)" [attr.tabindex]="l.row.element ? 0 : null"></tr>
-        <tr class="mat-mdc-row" *matNoDataRow><td class="mat-mdc-cell rn-muted" [attr.colspan]="columns.length">No check matches the filter.</td></tr>
+        <tr
+          mat-row
+          *matRowDef="let l; columns: columns"
+          class="rn-check-row"
+          [class.rn-clickable]="!!l.row.element"
+          [matTooltip]="l.row.source"
+          matTooltipShowDelay="600"
+          [attr.data-testid]="'check-' + l.row.key"
+          [attr.data-status]="l.row.status"
+          (click)="l.row.element && selectElement.emit(l.row.element)"
+          (keydown.enter)="l.row.element && selectElement.emit(l.row.element)"
+          [attr.tabindex]="l.row.element ? 0 : null"
+        ></tr>
+        <tr class="mat-mdc-row" *matNoDataRow>
+          <td class="mat-mdc-cell rn-muted" [attr.colspan]="columns.length">No check matches the filter.</td>
+        </tr>
       </table>
     </div>
   `,
@@ -120,10 +158,16 @@ export class ChecklistTable {
   readonly sort = signal<Sort>({ active: '', direction: '' });
   /** Phones have no header row to sort by: the same sorts from a picker. */
   readonly sortOptions = [
-    { key: '', label: 'As listed' }, { key: 'status:asc', label: 'Worst verdict first' }, { key: 'margin:asc', label: 'Smallest margin first' },
-    { key: 'element:asc', label: 'Element' }, { key: 'check:asc', label: 'Check' },
+    { key: '', label: 'As listed' },
+    { key: 'status:asc', label: 'Worst verdict first' },
+    { key: 'margin:asc', label: 'Smallest margin first' },
+    { key: 'element:asc', label: 'Element' },
+    { key: 'check:asc', label: 'Check' },
   ];
-  readonly sortKey = computed(() => { const s = this.sort(); return s.active && s.direction ? `${s.active}:${s.direction}` : ''; });
+  readonly sortKey = computed(() => {
+    const s = this.sort();
+    return s.active && s.direction ? `${s.active}:${s.direction}` : '';
+  });
   sortBy(key: string): void {
     const [active, direction] = key.split(':');
     this.sort.set({ active: active ?? '', direction: (direction ?? '') as Sort['direction'] });
@@ -131,24 +175,38 @@ export class ChecklistTable {
 
   readonly counts = computed(() => {
     const rows = this.rows();
-    return { total: rows.length, fail: rows.filter((r) => r.status === 'fail').length, caution: rows.filter((r) => r.status === 'caution').length, pass: rows.filter((r) => r.status === 'pass').length };
+    return {
+      total: rows.length,
+      fail: rows.filter((r) => r.status === 'fail').length,
+      caution: rows.filter((r) => r.status === 'caution').length,
+      pass: rows.filter((r) => r.status === 'pass').length,
+    };
   });
 
   readonly lines = computed<Line[]>(() => {
     const words = this.text().trim().toLowerCase();
     const status = this.status();
-    const shown = this.rows().filter((r) => (status === 'all' || r.status === status)
-      && (!words || [r.element, r.elementName, r.title, r.note, r.ruleText, r.source].some((s) => s?.toLowerCase().includes(words))));
+    const shown = this.rows().filter(
+      (r) =>
+        (status === 'all' || r.status === status) &&
+        (!words || [r.element, r.elementName, r.title, r.note, r.ruleText, r.source].some((s) => s?.toLowerCase().includes(words))),
+    );
     const { active, direction } = this.sort();
     const sign = direction === 'desc' ? -1 : 1;
     const key = (r: CheckRow): string | number => {
       switch (active) {
-        case 'status': return STATUS_ORDER[r.status];
-        case 'element': return r.element ?? '';
-        case 'check': return r.title;
-        case 'measured': return r.measured?.value ?? -Infinity;
-        case 'margin': return r.margin?.value ?? -Infinity;
-        default: return 0;
+        case 'status':
+          return STATUS_ORDER[r.status];
+        case 'element':
+          return r.element ?? '';
+        case 'check':
+          return r.title;
+        case 'measured':
+          return r.measured?.value ?? -Infinity;
+        case 'margin':
+          return r.margin?.value ?? -Infinity;
+        default:
+          return 0;
       }
     };
     const out: Line[] = [];
@@ -156,10 +214,22 @@ export class ChecklistTable {
       const all = this.rows().filter((r) => r.group === g.id);
       let rows = shown.filter((r) => r.group === g.id);
       if (!rows.length) continue;
-      if (active && direction) rows = [...rows].sort((a, b) => { const x = key(a); const y = key(b); return (x < y ? -1 : x > y ? 1 : 0) * sign; });
-      out.push({ kind: 'group', group: g.id, label: g.label, counts: {
-        fail: all.filter((r) => r.status === 'fail').length, caution: all.filter((r) => r.status === 'caution').length, pass: all.filter((r) => r.status === 'pass').length,
-      } });
+      if (active && direction)
+        rows = [...rows].sort((a, b) => {
+          const x = key(a);
+          const y = key(b);
+          return (x < y ? -1 : x > y ? 1 : 0) * sign;
+        });
+      out.push({
+        kind: 'group',
+        group: g.id,
+        label: g.label,
+        counts: {
+          fail: all.filter((r) => r.status === 'fail').length,
+          caution: all.filter((r) => r.status === 'caution').length,
+          pass: all.filter((r) => r.status === 'pass').length,
+        },
+      });
       for (const row of rows) out.push({ kind: 'row', row });
     }
     return out;

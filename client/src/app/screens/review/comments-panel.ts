@@ -26,14 +26,19 @@ import { ReviewApi, type ReviewThread } from './review-api.service';
           <mat-label>Pin to</mat-label>
           <mat-select [ngModel]="element()" (ngModelChange)="element.set($event)" name="element" data-testid="comment-element">
             <mat-option [value]="POINT" data-testid="comment-at-point">A point on the plan…</mat-option>
-            @for (e of elements(); track e.id) { <mat-option [value]="e.id">{{ e.id }}{{ e.name ? ' · ' + e.name : '' }}</mat-option> }
+            @for (e of elements(); track e.id) {
+              <mat-option [value]="e.id">{{ e.id }}{{ e.name ? ' · ' + e.name : '' }}</mat-option>
+            }
           </mat-select>
         </mat-form-field>
         @if (element() === POINT) {
           <div class="rn-point-pick">
             <p class="rn-small rn-muted" data-testid="plan-point-hint">
-              @if (point(); as p) { Pinned at {{ p.x_m.toFixed(1) }}, {{ p.y_m.toFixed(1) }} m on the site plan; click again to move it. }
-              @else { Click or tap the plan where the comment belongs. }
+              @if (point(); as p) {
+                Pinned at {{ p.x_m.toFixed(1) }}, {{ p.y_m.toFixed(1) }} m on the site plan; click again to move it.
+              } @else {
+                Click or tap the plan where the comment belongs.
+              }
             </p>
             <rn-plan-point-picker [document]="document()" [pins]="pointPins()" [point]="point()" (picked)="point.set($event)" />
           </div>
@@ -47,20 +52,29 @@ import { ReviewApi, type ReviewThread } from './review-api.service';
     } @else if (frozen()) {
       <p class="rn-muted">Version {{ version() }} is approved and frozen; comment on the current version.</p>
     }
-    @if (!threads().length) { <p class="rn-muted" data-testid="comments-empty">No comments yet.</p> }
+    @if (!threads().length) {
+      <p class="rn-muted" data-testid="comments-empty">No comments yet.</p>
+    }
     <ul class="rn-threads">
       @for (t of sorted(); track t.id) {
-        <li class="rn-thread" [class.rn-resolved]="t.resolved" [attr.data-testid]="'thread-' + (t.element ?? 'point')" [attr.data-point]="t.element ? null : t.x_m + ',' + t.y_m">
+        <li
+          class="rn-thread"
+          [class.rn-resolved]="t.resolved"
+          [attr.data-testid]="'thread-' + (t.element ?? 'point')"
+          [attr.data-point]="t.element ? null : t.x_m + ',' + t.y_m"
+        >
           <div class="rn-thread-head">
             <button mat-button type="button" (click)="t.element ? selectElement.emit(t.element) : showPlan.emit()" data-testid="thread-element">
-              {{ t.element ? 'Show ' + t.element : ('plan point ' + t.x_m?.toFixed(1) + ', ' + t.y_m?.toFixed(1) + ' m') }}
+              {{ t.element ? 'Show ' + t.element : 'plan point ' + t.x_m?.toFixed(1) + ', ' + t.y_m?.toFixed(1) + ' m' }}
             </button>
             <span class="rn-muted rn-small">version {{ t.version }} · {{ t.createdBy }} · {{ t.createdAt | date: 'short' }}</span>
             <span class="rn-verdict" [class.rn-verdict-pass]="t.resolved" [class.rn-verdict-caution]="!t.resolved">{{ t.resolved ? 'resolved' : 'open' }}</span>
           </div>
           <p class="rn-thread-body">{{ t.body }}</p>
           @for (r of t.replies; track r.id) {
-            <p class="rn-reply"><span class="rn-muted rn-small">{{ r.createdBy }}:</span> {{ r.body }}</p>
+            <p class="rn-reply">
+              <span class="rn-muted rn-small">{{ r.createdBy }}:</span> {{ r.body }}
+            </p>
           }
           @if (canComment()) {
             <div class="rn-thread-actions">
@@ -69,7 +83,9 @@ import { ReviewApi, type ReviewThread } from './review-api.service';
                 <input matInput [ngModel]="replies()[t.id] ?? ''" (ngModelChange)="setReply(t.id, $event)" [name]="'reply-' + t.id" data-testid="reply-body" />
               </mat-form-field>
               <button mat-button type="button" (click)="reply(t)" [disabled]="!(replies()[t.id] ?? '').trim() || busy()" data-testid="reply-send">Reply</button>
-              <button mat-stroked-button type="button" (click)="resolve(t)" [disabled]="busy()" data-testid="thread-resolve">{{ t.resolved ? 'Reopen' : 'Resolve' }}</button>
+              <button mat-stroked-button type="button" (click)="resolve(t)" [disabled]="busy()" data-testid="thread-resolve">
+                {{ t.resolved ? 'Reopen' : 'Resolve' }}
+              </button>
             </div>
           }
         </li>
@@ -98,8 +114,11 @@ export class CommentsPanel {
   readonly element = signal<string | null>(null);
   readonly point = signal<PlanPoint | null>(null);
   readonly ready = computed(() => (this.element() === this.POINT ? this.point() !== null : !!this.element()));
-  readonly pointPins = computed(() => this.threads().filter((t) => !t.resolved && !t.element && t.x_m !== null && t.y_m !== null)
-    .map((t) => ({ id: t.id, x_m: t.x_m as number, y_m: t.y_m as number })));
+  readonly pointPins = computed(() =>
+    this.threads()
+      .filter((t) => !t.resolved && !t.element && t.x_m !== null && t.y_m !== null)
+      .map((t) => ({ id: t.id, x_m: t.x_m as number, y_m: t.y_m as number })),
+  );
   readonly body = signal('');
   readonly replies = signal<Record<string, string | undefined>>({});
   readonly busy = signal(false);

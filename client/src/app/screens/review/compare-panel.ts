@@ -16,25 +16,46 @@ import { ReviewApi, type VersionComparison, type VersionSummary } from './review
     <mat-form-field appearance="outline" subscriptSizing="dynamic">
       <mat-label>Compare version {{ version() }} with</mat-label>
       <mat-select [ngModel]="other()" (ngModelChange)="other.set($event)" data-testid="compare-with">
-        @for (v of versions(); track v.version) { @if (v.version !== version()) { <mat-option [value]="v.version">version {{ v.version }} · {{ v.summary }}</mat-option> } }
+        @for (v of versions(); track v.version) {
+          @if (v.version !== version()) {
+            <mat-option [value]="v.version">version {{ v.version }} · {{ v.summary }}</mat-option>
+          }
+        }
       </mat-select>
     </mat-form-field>
     @if (result(); as c) {
-      <p data-testid="compare-summary"><strong>From version {{ c.from.version }} to {{ c.to.version }}:</strong> {{ c.summary }}</p>
+      <p data-testid="compare-summary">
+        <strong>From version {{ c.from.version }} to {{ c.to.version }}:</strong> {{ c.summary }}
+      </p>
       @if (c.diff.changed.length) {
         <ul class="rn-small">
           @for (e of c.diff.changed; track e.id) {
-            <li><strong>{{ e.id }}</strong>: @for (f of e.fields; track f.field) { <span>{{ f.field }} {{ show(f.before) }} → {{ show(f.after) }}; </span> }</li>
+            <li>
+              <strong>{{ e.id }}</strong>:
+              @for (f of e.fields; track f.field) {
+                <span>{{ f.field }} {{ show(f.before) }} → {{ show(f.after) }}; </span>
+              }
+            </li>
           }
         </ul>
       }
       <div class="rn-checklist-scroll">
         <table class="rn-plain-table" data-testid="compare-outlets">
-          <thead><tr><th>Outlet</th><th class="rn-num">Pressure before</th><th class="rn-num">after</th><th class="rn-num">Flow before</th><th class="rn-num">after</th></tr></thead>
+          <thead>
+            <tr>
+              <th>Outlet</th>
+              <th class="rn-num">Pressure before</th>
+              <th class="rn-num">after</th>
+              <th class="rn-num">Flow before</th>
+              <th class="rn-num">after</th>
+            </tr>
+          </thead>
           <tbody>
             @for (o of c.outlets; track o.id) {
               <tr [class.rn-changed]="(o.pressureChange_m ?? 0) !== 0">
-                <td>{{ o.id }} <span class="rn-muted">{{ o.name }}</span></td>
+                <td>
+                  {{ o.id }} <span class="rn-muted">{{ o.name }}</span>
+                </td>
                 <td class="rn-num">{{ o.before?.pressure_m | quantity: 'pressure' : units() }}</td>
                 <td class="rn-num">{{ o.after?.pressure_m | quantity: 'pressure' : units() }}</td>
                 <td class="rn-num">{{ o.before?.flow_m3s | quantity: 'flow' : units() }}</td>

@@ -29,13 +29,18 @@ export class LayoutReview {
     } catch {
       return;
     }
-    this.host.markers.set('comments', threads.filter((t) => !t.resolved).map((t) => ({
-      id: t.id,
-      at: t.element ? { element: t.element } : { point: { x: t.x_m ?? 0, y: t.y_m ?? 0 } },
-      kind: 'pin',
-      label: t.replies.length ? String(t.replies.length + 1) : undefined,
-      onClick: () => void this.host.router.navigate(['/projects', projectId, 'review'], { queryParams: { version: t.version } }),
-    })));
+    this.host.markers.set(
+      'comments',
+      threads
+        .filter((t) => !t.resolved)
+        .map((t) => ({
+          id: t.id,
+          at: t.element ? { element: t.element } : { point: { x: t.x_m ?? 0, y: t.y_m ?? 0 } },
+          kind: 'pin',
+          label: t.replies.length ? String(t.replies.length + 1) : undefined,
+          onClick: () => void this.host.router.navigate(['/projects', projectId, 'review'], { queryParams: { version: t.version } }),
+        })),
+    );
   }
 
   /**

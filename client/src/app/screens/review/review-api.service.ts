@@ -9,18 +9,53 @@ import { handleErrorsLocally } from '../../core/http-context';
 export type VersionStatus = 'draft' | 'submitted' | 'approved' | 'returned';
 
 export interface VersionSummary {
-  version: number; summary: string; createdAt: string; createdBy: string | null; restoredFrom: number | null;
-  status: VersionStatus; statusAt: string | null; statusBy: string | null; statusNote: string;
+  version: number;
+  summary: string;
+  createdAt: string;
+  createdBy: string | null;
+  restoredFrom: number | null;
+  status: VersionStatus;
+  statusAt: string | null;
+  statusBy: string | null;
+  statusNote: string;
 }
-export interface StoredVersion extends VersionSummary { document: NetworkDocument; results: SteadyResult | null }
-export interface VersionComparison { from: VersionSummary; to: VersionSummary; diff: VersionDiff; summary: string; outlets: OutletComparison[] }
+export interface StoredVersion extends VersionSummary {
+  document: NetworkDocument;
+  results: SteadyResult | null;
+}
+export interface VersionComparison {
+  from: VersionSummary;
+  to: VersionSummary;
+  diff: VersionDiff;
+  summary: string;
+  outlets: OutletComparison[];
+}
 
 export interface ReviewComment {
-  id: string; version: number; parentId: string | null; element: string | null; x_m: number | null; y_m: number | null;
-  body: string; resolved: boolean; resolvedAt: string | null; resolvedBy: string | null; createdAt: string; createdBy: string | null;
+  id: string;
+  version: number;
+  parentId: string | null;
+  element: string | null;
+  x_m: number | null;
+  y_m: number | null;
+  body: string;
+  resolved: boolean;
+  resolvedAt: string | null;
+  resolvedBy: string | null;
+  createdAt: string;
+  createdBy: string | null;
 }
-export interface ReviewThread extends ReviewComment { replies: ReviewComment[] }
-export interface NewComment { version: number; body: string; element?: string; x_m?: number; y_m?: number; parentId?: string }
+export interface ReviewThread extends ReviewComment {
+  replies: ReviewComment[];
+}
+export interface NewComment {
+  version: number;
+  body: string;
+  element?: string;
+  x_m?: number;
+  y_m?: number;
+  parentId?: string;
+}
 
 /** The review's HTTP calls (server/API.md "Versions" and "Review sign-off and comments"). */
 @Injectable({ providedIn: 'root' })
@@ -42,7 +77,12 @@ export class ReviewApi {
   restore(projectId: string, version: number, current: number): Observable<{ version: number }> {
     return this.http.post<{ version: number }>(this.url(projectId, `/versions/${version}/restore`), { version: current });
   }
-  transition(projectId: string, version: number, action: 'submit' | 'approve' | 'return', note: string): Observable<{ version: number; status: VersionStatus }> {
+  transition(
+    projectId: string,
+    version: number,
+    action: 'submit' | 'approve' | 'return',
+    note: string,
+  ): Observable<{ version: number; status: VersionStatus }> {
     return this.http.post<{ version: number; status: VersionStatus }>(this.url(projectId, `/versions/${version}/${action}`), note ? { note } : {});
   }
   threads(projectId: string): Observable<{ threads: ReviewThread[] }> {
@@ -56,7 +96,8 @@ export class ReviewApi {
   }
   /** The project's water budget document, or null when none is saved or the call fails (the review then estimates from flows). */
   budget(projectId: string): Observable<{ version: number; document: unknown } | null> {
-    return this.http.get<{ version: number; document: unknown }>(this.url(projectId, '/budget'), { context: handleErrorsLocally() })
+    return this.http
+      .get<{ version: number; document: unknown }>(this.url(projectId, '/budget'), { context: handleErrorsLocally() })
       .pipe(catchError(() => of(null)));
   }
 }

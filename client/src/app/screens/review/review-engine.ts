@@ -2,7 +2,12 @@ import type { NetworkDocument } from '../../../../../engine/network-document';
 import type { Checklist } from '../../../../../engine/review/types';
 import type { WhatIfTable } from '../../../../../engine/review/what-ifs';
 
-interface Reply { seq: number; result?: unknown; error?: string; ms: number }
+interface Reply {
+  seq: number;
+  result?: unknown;
+  error?: string;
+  ms: number;
+}
 
 /**
  * Runs the review's engine tasks in review.worker.ts and answers each with a promise; one worker

@@ -20,7 +20,10 @@ import { ReviewEngine } from './review-engine';
 import { WhatIfPanel } from './what-if-panel';
 
 const STATUS_TEXT: Record<VersionStatus, string> = {
-  draft: 'Draft', submitted: 'Submitted for review', approved: 'Approved (frozen)', returned: 'Returned with comments',
+  draft: 'Draft',
+  submitted: 'Submitted for review',
+  approved: 'Approved (frozen)',
+  returned: 'Returned with comments',
 };
 
 /**
@@ -31,8 +34,20 @@ const STATUS_TEXT: Record<VersionStatus, string> = {
  */
 @Component({
   selector: 'rn-review-screen',
-  imports: [DatePipe, FormsModule, MatButtonModule, MatExpansionModule, MatFormFieldModule, MatInputModule, MatProgressBarModule, MatSelectModule,
-    ChecklistTable, CommentsPanel, ComparePanel, WhatIfPanel],
+  imports: [
+    DatePipe,
+    FormsModule,
+    MatButtonModule,
+    MatExpansionModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    ChecklistTable,
+    CommentsPanel,
+    ComparePanel,
+    WhatIfPanel,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './review-screen.html',
   styleUrl: './review-screen.scss',
@@ -91,7 +106,7 @@ export class ReviewScreen implements OnDestroy {
     try {
       const { versions } = await firstValueFrom(this.api.versions(id));
       this.versions.set(versions);
-      const pick = wanted !== null && versions.some((v) => v.version === wanted) ? wanted : versions[0]?.version ?? null;
+      const pick = wanted !== null && versions.some((v) => v.version === wanted) ? wanted : (versions[0]?.version ?? null);
       await Promise.all([this.open(pick), this.loadThreads()]);
       this.commentsOpen.set(this.openCount() > 0);
     } catch {

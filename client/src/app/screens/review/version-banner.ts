@@ -18,7 +18,18 @@ import { ReviewApi } from './review-api.service';
       }
     </div>
   `,
-  styles: `.rn-version-banner { display: flex; flex-wrap: wrap; gap: 8px; align-items: center; padding: 4px 12px; background: #fdf0c9; color: #3c3000; font-size: 14px; }`,
+  styles: `
+    .rn-version-banner {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 8px;
+      align-items: center;
+      padding: 4px 12px;
+      background: #fdf0c9;
+      color: #3c3000;
+      font-size: 14px;
+    }
+  `,
 })
 export class VersionBanner {
   private readonly api = inject(ReviewApi);

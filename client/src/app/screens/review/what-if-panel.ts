@@ -10,7 +10,10 @@ import { ReviewApi } from './review-api.service';
 import { ReviewEngine } from './review-engine';
 
 const KIND_TEXT: Record<string, string> = {
-  'pipe-broken': 'Pipe broken', 'valve-stuck-shut': 'Valve stuck shut', 'tank-out': 'Tank out of service', 'fill-off': 'Fill pump off',
+  'pipe-broken': 'Pipe broken',
+  'valve-stuck-shut': 'Valve stuck shut',
+  'tank-out': 'Tank out of service',
+  'fill-off': 'Fill pump off',
 };
 
 /**
@@ -25,10 +28,16 @@ const KIND_TEXT: Record<string, string> = {
   template: `
     <div class="rn-whatif-bar">
       <button mat-flat-button type="button" (click)="run()" [disabled]="running()" data-testid="whatif-run">Run every single failure</button>
-      @if (ms() !== null) { <span class="rn-muted rn-small" data-testid="whatif-time">{{ table()?.results?.length }} failures in {{ ms()!.toFixed(0) }} ms</span> }
+      @if (ms() !== null) {
+        <span class="rn-muted rn-small" data-testid="whatif-time">{{ table()?.results?.length }} failures in {{ ms()!.toFixed(0) }} ms</span>
+      }
     </div>
-    @if (running()) { <mat-progress-bar mode="indeterminate" aria-label="Running failures" /> }
-    @if (error()) { <p role="alert" class="rn-error">{{ error() }}</p> }
+    @if (running()) {
+      <mat-progress-bar mode="indeterminate" aria-label="Running failures" />
+    }
+    @if (error()) {
+      <p role="alert" class="rn-error">{{ error() }}</p>
+    }
     @if (table(); as t) {
       <div class="rn-checklist-scroll">
         <table mat-table [dataSource]="t.results" class="rn-whatifs" data-testid="whatif-table">
@@ -38,20 +47,28 @@ const KIND_TEXT: Record<string, string> = {
           </ng-container>
           <ng-container matColumnDef="hit">
             <th mat-header-cell *matHeaderCellDef class="rn-num">Outlets short</th>
-            <td mat-cell *matCellDef="let r" class="rn-num"><strong>{{ r.hit.length }}</strong></td>
+            <td mat-cell *matCellDef="let r" class="rn-num">
+              <strong>{{ r.hit.length }}</strong>
+            </td>
           </ng-container>
           <ng-container matColumnDef="outlets">
             <th mat-header-cell *matHeaderCellDef>Which and by how much</th>
             <td mat-cell *matCellDef="let r" class="rn-small">
-              @for (h of r.hit; track h.outlet) { <div>{{ hitText(h) }}</div> }
-              @if (r.unaffected.length) { <div class="rn-muted">unaffected: {{ r.unaffected.join(', ') }}</div> }
+              @for (h of r.hit; track h.outlet) {
+                <div>{{ hitText(h) }}</div>
+              }
+              @if (r.unaffected.length) {
+                <div class="rn-muted">unaffected: {{ r.unaffected.join(', ') }}</div>
+              }
             </td>
           </ng-container>
           <ng-container matColumnDef="add">
             <th mat-header-cell *matHeaderCellDef></th>
             <td mat-cell *matCellDef="let r">
               @if (canComment() && r.hit.length) {
-                <button mat-button type="button" (click)="addToReview(r)" [disabled]="added().has(r.scenario.key)" data-testid="whatif-add">{{ added().has(r.scenario.key) ? 'Added' : 'Add to review' }}</button>
+                <button mat-button type="button" (click)="addToReview(r)" [disabled]="added().has(r.scenario.key)" data-testid="whatif-add">
+                  {{ added().has(r.scenario.key) ? 'Added' : 'Add to review' }}
+                </button>
               }
             </td>
           </ng-container>
@@ -98,7 +115,9 @@ export class WhatIfPanel implements OnDestroy {
   failure(r: WhatIfResult): string {
     const s = r.scenario;
     const what = KIND_TEXT[s.kind] ?? s.kind;
-    return s.kind === 'fill-off' ? `${what} ${s.days} day${s.days === 1 ? '' : 's'} (${s.element})` : `${what}: ${s.element}${s.elementName ? ` (${s.elementName})` : ''}`;
+    return s.kind === 'fill-off'
+      ? `${what} ${s.days} day${s.days === 1 ? '' : 's'} (${s.element})`
+      : `${what}: ${s.element}${s.elementName ? ` (${s.elementName})` : ''}`;
   }
 
   hitText(h: OutletHit): string {

@@ -18,7 +18,10 @@ import { SessionService } from '../../core/session.service';
 import { TakeoffService, type PriceItem, type TakeoffSettingsBody } from '../../core/takeoff.service';
 import { QuantityPipe } from '../../shared/quantity.pipe';
 
-interface Line { row: TakeoffRow; line: EstimateLine }
+interface Line {
+  row: TakeoffRow;
+  line: EstimateLine;
+}
 
 /**
  * Takeoff: quantities derived from the design (pipe in coils or sticks, fittings from the
@@ -29,7 +32,20 @@ interface Line { row: TakeoffRow; line: EstimateLine }
 @Component({
   selector: 'rn-takeoff-screen',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [FormsModule, CurrencyPipe, DatePipe, DecimalPipe, QuantityPipe, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatInputModule, MatProgressBarModule, MatSelectModule, MatTableModule],
+  imports: [
+    FormsModule,
+    CurrencyPipe,
+    DatePipe,
+    DecimalPipe,
+    QuantityPipe,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    MatTableModule,
+  ],
   templateUrl: './takeoff-screen.html',
   styleUrl: './takeoff-screen.scss',
 })
@@ -46,7 +62,10 @@ export class TakeoffScreen {
 
   protected readonly option = signal<string | null>(null);
   protected readonly options = rxResource({ params: () => this.projectId(), stream: ({ params }) => this.optionsService.list(params) });
-  protected readonly view = rxResource({ params: () => ({ pid: this.projectId(), option: this.option() }), stream: ({ params }) => this.service.takeoff(params.pid, params.option) });
+  protected readonly view = rxResource({
+    params: () => ({ pid: this.projectId(), option: this.option() }),
+    stream: ({ params }) => this.service.takeoff(params.pid, params.option),
+  });
   protected readonly prices = rxResource({ stream: () => this.service.prices() });
 
   protected readonly lines = computed<Line[]>(() => {
@@ -70,50 +89,103 @@ export class TakeoffScreen {
 
   constructor() {
     // the settings form starts from what the server holds each time the view loads
-    effect(() => { if (this.view.hasValue()) this.settings = structuredClone(this.view.value().settings); });
+    effect(() => {
+      if (this.view.hasValue()) this.settings = structuredClone(this.view.value().settings);
+    });
   }
 
-  protected currency(): string { return this.view.hasValue() ? this.view.value().settings.currency : 'USD'; }
-  protected workbookUrl(): string { return this.service.workbookUrl(this.projectId(), this.option()); }
-  protected csvUrl(): string { return this.service.csvUrl(this.projectId(), this.option()); }
-  protected print(): void { window.print(); }
+  protected currency(): string {
+    return this.view.hasValue() ? this.view.value().settings.currency : 'USD';
+  }
+  protected workbookUrl(): string {
+    return this.service.workbookUrl(this.projectId(), this.option());
+  }
+  protected csvUrl(): string {
+    return this.service.csvUrl(this.projectId(), this.option());
+  }
+  protected print(): void {
+    window.print();
+  }
 
   private run<T>(work: Observable<T>, done: (v: T) => string, reload: ('view' | 'prices')[] = ['view']): void {
     this.busy.set(true);
     this.error.set('');
     this.message.set('');
     work.subscribe({
-      next: (v) => { this.busy.set(false); this.message.set(done(v)); if (reload.includes('view')) this.view.reload(); if (reload.includes('prices')) this.prices.reload(); },
-      error: (e: unknown) => { this.busy.set(false); this.error.set(apiErrorMessage(e)); },
+      next: (v) => {
+        this.busy.set(false);
+        this.message.set(done(v));
+        if (reload.includes('view')) this.view.reload();
+        if (reload.includes('prices')) this.prices.reload();
+      },
+      error: (e: unknown) => {
+        this.busy.set(false);
+        this.error.set(apiErrorMessage(e));
+      },
     });
   }
 
   protected savePrice(item: PriceItem, raw: string): void {
     const text = raw.trim();
     const price = text === '' ? null : Number(text);
-    if (price !== null && (!Number.isFinite(price) || price < 0)) { this.error.set(`${item.code}: the price must be a number ≥ 0, or empty for "not priced".`); return; }
+    if (price !== null && (!Number.isFinite(price) || price < 0)) {
+      this.error.set(`${item.code}: the price must be a number ≥ 0, or empty for "not priced".`);
+      return;
+    }
     if (price === item.price) return;
-    this.run(this.service.setPrice(item.id, price), () => (price === null ? `${item.code} is now unpriced.` : `Price of ${item.code} set to ${price}.`), ['view', 'prices']);
+    this.run(this.service.setPrice(item.id, price), () => (price === null ? `${item.code} is now unpriced.` : `Price of ${item.code} set to ${price}.`), [
+      'view',
+      'prices',
+    ]);
   }
 
   protected addItem(): void {
     const item = { ...this.newItem, code: this.newItem.code.trim() };
-    if (!item.code) { this.error.set('Give the item a code, such as other/gate-valve.'); return; }
-    this.run(this.service.addPrice(item), () => { this.newItem = { code: '', description: '', unit: 'each', price: null }; return `${item.code} added to the price list.`; }, ['view', 'prices']);
+    if (!item.code) {
+      this.error.set('Give the item a code, such as other/gate-valve.');
+      return;
+    }
+    this.run(
+      this.service.addPrice(item),
+      () => {
+        this.newItem = { code: '', description: '', unit: 'each', price: null };
+        return `${item.code} added to the price list.`;
+      },
+      ['view', 'prices'],
+    );
   }
 
   protected importFile(input: HTMLInputElement): void {
     const file = input.files?.[0];
     if (!file) return;
-    this.run(this.service.importPrices(file), (r) => { input.value = ''; return `Imported ${r.imported} rows from ${file.name} (${r.created} new, ${r.updated} updated).`; }, ['view', 'prices']);
+    this.run(
+      this.service.importPrices(file),
+      (r) => {
+        input.value = '';
+        return `Imported ${r.imported} rows from ${file.name} (${r.created} new, ${r.updated} updated).`;
+      },
+      ['view', 'prices'],
+    );
     input.value = '';
   }
 
-  protected addOther(): void { this.settings?.other.push({ code: `other/item-${(this.settings?.other.length ?? 0) + 1}`, description: 'New item', unit: 'each', quantity: 1 }); }
-  protected removeOther(i: number): void { this.settings?.other.splice(i, 1); }
-  protected otherMode(o: OtherItem): 'quantity' | 'per_pipe_m' { return o.per_pipe_m !== undefined ? 'per_pipe_m' : 'quantity'; }
+  protected addOther(): void {
+    this.settings?.other.push({ code: `other/item-${(this.settings?.other.length ?? 0) + 1}`, description: 'New item', unit: 'each', quantity: 1 });
+  }
+  protected removeOther(i: number): void {
+    this.settings?.other.splice(i, 1);
+  }
+  protected otherMode(o: OtherItem): 'quantity' | 'per_pipe_m' {
+    return o.per_pipe_m !== undefined ? 'per_pipe_m' : 'quantity';
+  }
   protected setOtherMode(o: OtherItem, mode: 'quantity' | 'per_pipe_m'): void {
-    if (mode === 'per_pipe_m') { o.per_pipe_m = o.quantity ?? 1; delete o.quantity; } else { o.quantity = o.per_pipe_m ?? 1; delete o.per_pipe_m; }
+    if (mode === 'per_pipe_m') {
+      o.per_pipe_m = o.quantity ?? 1;
+      delete o.quantity;
+    } else {
+      o.quantity = o.per_pipe_m ?? 1;
+      delete o.per_pipe_m;
+    }
   }
 
   protected saveSettings(): void {

@@ -35,8 +35,17 @@ export const ROLE_DESCRIPTIONS: Record<Role, string> = {
 @Component({
   selector: 'rn-team-screen',
   imports: [
-    DatePipe, ReactiveFormsModule, MatTableModule, MatSelectModule, MatFormFieldModule, MatInputModule,
-    MatButtonModule, MatCheckboxModule, MatIconModule, MatProgressBarModule, MatTooltipModule,
+    DatePipe,
+    ReactiveFormsModule,
+    MatTableModule,
+    MatSelectModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MatTooltipModule,
   ],
   templateUrl: './team-screen.html',
   styleUrl: './team-screen.scss',
@@ -77,10 +86,7 @@ export class TeamScreen {
   protected readonly invitationBusy = signal<ReadonlySet<string>>(new Set());
   /** resetForm() also clears the form's "submitted" state, which otherwise paints the emptied field red. */
   private readonly inviteFormDirective = viewChild.required(FormGroupDirective);
-  private readonly typedEmail = toSignal(
-    this.inviteForm.controls.email.valueChanges.pipe(map((value) => value.trim().toLowerCase())),
-    { initialValue: '' },
-  );
+  private readonly typedEmail = toSignal(this.inviteForm.controls.email.valueChanges.pipe(map((value) => value.trim().toLowerCase())), { initialValue: '' });
   /** Said before sending: the address is already a member, or already has an open invitation. */
   protected readonly emailWarning = computed(() => {
     const email = this.typedEmail();
@@ -148,24 +154,30 @@ export class TeamScreen {
     }
     const { email, roles, anyAccount } = this.inviteForm.getRawValue();
     this.inviting.set(true);
-    this.teamApi.invite(email.trim(), ROLES.filter((role) => roles.includes(role)), anyAccount).subscribe({
-      next: (invitation: Invitation) => {
-        this.inviting.set(false);
-        this.invitations.update((list) => [invitation, ...(list ?? [])]);
-        this.inviteFormDirective().resetForm({ email: '', roles: [], anyAccount: false });
-        this.snackBar.open(`Invitation sent to ${invitation.email}.`, undefined, { duration: 4000 });
-      },
-      error: (err: unknown) => {
-        this.inviting.set(false);
-        // Already a member, or an open invitation: say it on the field, where the admin is looking.
-        if (err instanceof HttpErrorResponse && err.status === 409) {
-          this.inviteForm.controls.email.setErrors({ server: apiErrorMessage(err).split('\n')[0] });
-          this.inviteForm.controls.email.markAsTouched();
-          this.members.reload();
-          this.invitations.reload();
-        }
-      },
-    });
+    this.teamApi
+      .invite(
+        email.trim(),
+        ROLES.filter((role) => roles.includes(role)),
+        anyAccount,
+      )
+      .subscribe({
+        next: (invitation: Invitation) => {
+          this.inviting.set(false);
+          this.invitations.update((list) => [invitation, ...(list ?? [])]);
+          this.inviteFormDirective().resetForm({ email: '', roles: [], anyAccount: false });
+          this.snackBar.open(`Invitation sent to ${invitation.email}.`, undefined, { duration: 4000 });
+        },
+        error: (err: unknown) => {
+          this.inviting.set(false);
+          // Already a member, or an open invitation: say it on the field, where the admin is looking.
+          if (err instanceof HttpErrorResponse && err.status === 409) {
+            this.inviteForm.controls.email.setErrors({ server: apiErrorMessage(err).split('\n')[0] });
+            this.inviteForm.controls.email.markAsTouched();
+            this.members.reload();
+            this.invitations.reload();
+          }
+        },
+      });
   }
 
   protected resend(invitation: Invitation): void {

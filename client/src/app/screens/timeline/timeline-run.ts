@@ -30,7 +30,10 @@ export class TimelineRun {
 
   start(doc: NetworkDocument, duration_s: number, step_s: number): void {
     this.cancel();
-    if (typeof Worker === 'undefined') { this.error.set('This browser cannot run the simulation in the background.'); return; }
+    if (typeof Worker === 'undefined') {
+      this.error.set('This browser cannot run the simulation in the background.');
+      return;
+    }
     const worker = new Worker(new URL('./simulate.worker', import.meta.url), { type: 'module' });
     this.worker = worker;
     this.running.set(true);
@@ -40,8 +43,14 @@ export class TimelineRun {
     this.started.set(performance.now());
     worker.addEventListener('message', (e: MessageEvent<{ stage?: 'simulating' | 'events'; progress?: number; result?: TimelineResult; error?: string }>) => {
       if (this.worker !== worker) return;
-      if (typeof e.data.progress === 'number') { this.progress.set(e.data.progress); return; }
-      if (e.data.stage) { this.stage.set(e.data.stage); return; }
+      if (typeof e.data.progress === 'number') {
+        this.progress.set(e.data.progress);
+        return;
+      }
+      if (e.data.stage) {
+        this.stage.set(e.data.stage);
+        return;
+      }
       if (e.data.result) this.result.set(e.data.result);
       if (e.data.error) this.error.set(e.data.error);
       this.finish();

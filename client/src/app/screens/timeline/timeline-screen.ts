@@ -21,8 +21,15 @@ import { TimelineRun } from './timeline-run';
 const HOUR_STEPS = [1, 2, 3, 6, 12, 24, 48];
 const COLOURS = ['#17677a', '#a8692e', '#5b7f3a', '#7a4a8c', '#b5485d', '#3d5a80'];
 const EVENT_COLOURS: Record<TimelineEvent['kind'], string> = {
-  'tank-low': '#c77d1a', 'tank-empty': '#b3261e', 'tank-full': '#2e7d4f', overflow: '#3d5a80', 'pump-stop': '#6b6b6b', 'pump-start': '#2e7d4f',
-  'low-cutoff': '#b3261e', 'outlet-short': '#b3261e', 'outlet-recovered': '#2e7d4f',
+  'tank-low': '#c77d1a',
+  'tank-empty': '#b3261e',
+  'tank-full': '#2e7d4f',
+  overflow: '#3d5a80',
+  'pump-stop': '#6b6b6b',
+  'pump-start': '#2e7d4f',
+  'low-cutoff': '#b3261e',
+  'outlet-short': '#b3261e',
+  'outlet-recovered': '#2e7d4f',
 };
 
 /** "07:30", "day 3 07:30". */
@@ -43,7 +50,17 @@ export function clock(t_s: number): string {
  */
 @Component({
   selector: 'rn-timeline-screen',
-  imports: [FormsModule, MatButtonModule, MatButtonToggleModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatProgressBarModule, LineChart, QuantityPipe],
+  imports: [
+    FormsModule,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    MatProgressBarModule,
+    LineChart,
+    QuantityPipe,
+  ],
   templateUrl: './timeline-screen.html',
   styleUrl: './timeline-screen.scss',
 })
@@ -71,7 +88,12 @@ export class TimelineScreen {
     inject(DestroyRef).onDestroy(() => this.run.cancel());
   }
 
-  protected readonly names = computed(() => new Map((this.network.hasValue() ? [...this.network.value().document.nodes, ...this.network.value().document.links] : []).map((e) => [e.id, e.name || e.id])));
+  protected readonly names = computed(
+    () =>
+      new Map(
+        (this.network.hasValue() ? [...this.network.value().document.nodes, ...this.network.value().document.links] : []).map((e) => [e.id, e.name || e.id]),
+      ),
+  );
   protected readonly outlets = computed(() => Object.keys(this.run.result()?.series.outlets ?? {}).map((id) => ({ id, name: this.names().get(id) ?? id })));
   protected readonly outlet = computed(() => {
     const r = this.run.result();
@@ -101,7 +123,10 @@ export class TimelineScreen {
   }
 
   private marks(kinds: TimelineEvent['kind'][]): ChartMark[] {
-    return (this.run.result()?.events ?? []).filter((e) => kinds.includes(e.kind)).slice(0, 60).map((e) => ({ x: e.time_s / 3600, colour: EVENT_COLOURS[e.kind] }));
+    return (this.run.result()?.events ?? [])
+      .filter((e) => kinds.includes(e.kind))
+      .slice(0, 60)
+      .map((e) => ({ x: e.time_s / 3600, colour: EVENT_COLOURS[e.kind] }));
   }
 
   protected readonly tankChart = computed<ChartSpec | null>(() => {
@@ -109,10 +134,27 @@ export class TimelineScreen {
     if (!r) return null;
     const tanks = Object.entries(r.series.tanks);
     return {
-      x: this.x(), xLabel: 'time', xFormat: this.xFormat, xIncrs: HOUR_STEPS, yLabel: `level (${label('head', this.units())})`, y2Label: `stored (${label('volume', this.units())})`,
+      x: this.x(),
+      xLabel: 'time',
+      xFormat: this.xFormat,
+      xIncrs: HOUR_STEPS,
+      yLabel: `level (${label('head', this.units())})`,
+      y2Label: `stored (${label('volume', this.units())})`,
       series: [
-        ...tanks.map(([id, t], i) => ({ label: `${this.names().get(id) ?? id} level`, values: this.conv('head', t.level_m), colour: COLOURS[i % COLOURS.length], format: this.fmt('head', 2) })),
-        { label: 'Bank volume', values: this.conv('volume', r.series.bank_volume_m3), colour: '#8a8f94', dash: [5, 4], scale: 'y2' as const, format: this.fmt('volume') },
+        ...tanks.map(([id, t], i) => ({
+          label: `${this.names().get(id) ?? id} level`,
+          values: this.conv('head', t.level_m),
+          colour: COLOURS[i % COLOURS.length],
+          format: this.fmt('head', 2),
+        })),
+        {
+          label: 'Bank volume',
+          values: this.conv('volume', r.series.bank_volume_m3),
+          colour: '#8a8f94',
+          dash: [5, 4],
+          scale: 'y2' as const,
+          format: this.fmt('volume'),
+        },
       ],
       marks: this.marks(['tank-low', 'tank-empty', 'overflow', 'low-cutoff']),
     };
@@ -123,10 +165,32 @@ export class TimelineScreen {
     if (!r) return null;
     const pumps = Object.entries(r.series.pumps);
     return {
-      x: this.x(), xLabel: 'time', xFormat: this.xFormat, xIncrs: HOUR_STEPS, yLabel: `flow (${label('flow', this.units())})`, y2Label: 'sun (0–1)',
+      x: this.x(),
+      xLabel: 'time',
+      xFormat: this.xFormat,
+      xIncrs: HOUR_STEPS,
+      yLabel: `flow (${label('flow', this.units())})`,
+      y2Label: 'sun (0–1)',
       series: [
-        ...pumps.map(([id, p], i) => ({ label: `${this.names().get(id) ?? id} flow`, values: this.conv('flow', p.flow_m3s.map((q) => Math.max(q, 0))), colour: COLOURS[(i + 1) % COLOURS.length], stepped: true, format: this.fmt('flow') })),
-        ...pumps.map(([id, p]) => ({ label: `${this.names().get(id) ?? id} sun`, values: p.sun, colour: '#e0a800', scale: 'y2' as const, dash: [3, 3], stepped: true, format: (v: number) => `${Math.round(v * 100)} %` })),
+        ...pumps.map(([id, p], i) => ({
+          label: `${this.names().get(id) ?? id} flow`,
+          values: this.conv(
+            'flow',
+            p.flow_m3s.map((q) => Math.max(q, 0)),
+          ),
+          colour: COLOURS[(i + 1) % COLOURS.length],
+          stepped: true,
+          format: this.fmt('flow'),
+        })),
+        ...pumps.map(([id, p]) => ({
+          label: `${this.names().get(id) ?? id} sun`,
+          values: p.sun,
+          colour: '#e0a800',
+          scale: 'y2' as const,
+          dash: [3, 3],
+          stepped: true,
+          format: (v: number) => `${Math.round(v * 100)} %`,
+        })),
       ],
       marks: this.marks(['pump-start', 'pump-stop', 'low-cutoff']),
     };
@@ -138,17 +202,28 @@ export class TimelineScreen {
     if (!r || !id) return null;
     const o = r.series.outlets[id];
     return {
-      x: this.x(), xLabel: 'time', xFormat: this.xFormat, xIncrs: HOUR_STEPS, yLabel: `flow (${label('flow', this.units())})`,
+      x: this.x(),
+      xLabel: 'time',
+      xFormat: this.xFormat,
+      xIncrs: HOUR_STEPS,
+      yLabel: `flow (${label('flow', this.units())})`,
       series: [
         { label: 'requested', values: this.conv('flow', o.requested_m3s), colour: '#8a8f94', dash: [5, 4], stepped: true, format: this.fmt('flow') },
         { label: 'delivered', values: this.conv('flow', o.delivered_m3s), colour: '#17677a', format: this.fmt('flow') },
       ],
-      marks: (r.events ?? []).filter((e) => e.element === id && e.kind === 'outlet-short').slice(0, 60).map((e) => ({ x: e.time_s / 3600, colour: EVENT_COLOURS[e.kind] })),
+      marks: (r.events ?? [])
+        .filter((e) => e.element === id && e.kind === 'outlet-short')
+        .slice(0, 60)
+        .map((e) => ({ x: e.time_s / 3600, colour: EVENT_COLOURS[e.kind] })),
     };
   });
 
-  protected readonly lowest = computed(() => Object.entries(this.run.result()?.summary.tanks ?? {}).map(([id, t]) => ({ id, name: this.names().get(id) ?? id, ...t })));
-  protected readonly pumped = computed(() => Object.entries(this.run.result()?.summary.pumps ?? {}).map(([id, p]) => ({ id, name: this.names().get(id) ?? id, ...p })));
+  protected readonly lowest = computed(() =>
+    Object.entries(this.run.result()?.summary.tanks ?? {}).map(([id, t]) => ({ id, name: this.names().get(id) ?? id, ...t })),
+  );
+  protected readonly pumped = computed(() =>
+    Object.entries(this.run.result()?.summary.pumps ?? {}).map(([id, p]) => ({ id, name: this.names().get(id) ?? id, ...p })),
+  );
 
   protected exportCsv(): void {
     const r = this.run.result();

@@ -16,7 +16,9 @@ const mb = (bytes: number) => `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
 /** Checks what can be checked without decoding; throws PhotoError with a message for the person holding the phone. */
 export function checkPhotoFile(file: { name: string; size: number; type: string }): void {
   if (file.size > PHOTO_INPUT_MAX_BYTES) {
-    throw new PhotoError(`The photo "${file.name}" is ${mb(file.size)}; photos up to ${mb(PHOTO_INPUT_MAX_BYTES)} can be taken in. Take it again at a lower resolution. The point itself is kept.`);
+    throw new PhotoError(
+      `The photo "${file.name}" is ${mb(file.size)}; photos up to ${mb(PHOTO_INPUT_MAX_BYTES)} can be taken in. Take it again at a lower resolution. The point itself is kept.`,
+    );
   }
   if (file.type && !file.type.startsWith('image/')) throw new PhotoError(`"${file.name}" is not a picture. Choose a photo. The point itself is kept.`);
 }
@@ -38,5 +40,7 @@ export async function compressPhoto(file: File): Promise<Blob> {
     const blob = await canvas.convertToBlob({ type: 'image/jpeg', quality });
     if (blob.size <= PHOTO_STORED_MAX_BYTES) return blob;
   }
-  throw new PhotoError(`"${file.name}" stays larger than ${mb(PHOTO_STORED_MAX_BYTES)} even compressed. Take it again at a lower resolution. The point itself is kept.`);
+  throw new PhotoError(
+    `"${file.name}" stays larger than ${mb(PHOTO_STORED_MAX_BYTES)} even compressed. Take it again at a lower resolution. The point itself is kept.`,
+  );
 }

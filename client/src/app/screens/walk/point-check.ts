@@ -19,8 +19,16 @@ export function checkPoint(draft: PointDraft, fix: Fix | null, limit_m: number, 
   if (!draft.label.trim()) return { ok: false, message: 'Give the point a label (e.g. "Trough 3").', overridable: false };
   if (!fix) {
     return draft.typedElevation_m === null
-      ? { ok: false, message: 'No position fix and no typed elevation: wait for the phone to find its place, and type the elevation if the fix gives none.', overridable: false }
-      : { ok: false, message: 'No position fix yet: a point needs a place. Wait for the fix (step into the open, away from trees and buildings).', overridable: false };
+      ? {
+          ok: false,
+          message: 'No position fix and no typed elevation: wait for the phone to find its place, and type the elevation if the fix gives none.',
+          overridable: false,
+        }
+      : {
+          ok: false,
+          message: 'No position fix yet: a point needs a place. Wait for the fix (step into the open, away from trees and buildings).',
+          overridable: false,
+        };
   }
   const poor = fix.accuracy_m > limit_m;
   if (poor && !recordPoorFix) {

@@ -21,15 +21,21 @@ export class PositionWatch {
       (pos) => {
         this.problemState.set(null);
         this.fixState.set({
-          lat: pos.coords.latitude, lon: pos.coords.longitude, accuracy_m: pos.coords.accuracy,
-          altitude_m: pos.coords.altitude ?? null, timestamp: pos.timestamp,
+          lat: pos.coords.latitude,
+          lon: pos.coords.longitude,
+          accuracy_m: pos.coords.accuracy,
+          altitude_m: pos.coords.altitude ?? null,
+          timestamp: pos.timestamp,
         });
       },
-      (err) => this.problemState.set(
-        err.code === err.PERMISSION_DENIED
-          ? 'Location is blocked for Runnel: allow it in the browser settings to record points.'
-          : err.code === err.TIMEOUT ? 'Still looking for a position fix…' : 'The phone cannot find its position right now.',
-      ),
+      (err) =>
+        this.problemState.set(
+          err.code === err.PERMISSION_DENIED
+            ? 'Location is blocked for Runnel: allow it in the browser settings to record points.'
+            : err.code === err.TIMEOUT
+              ? 'Still looking for a position fix…'
+              : 'The phone cannot find its position right now.',
+        ),
       { enableHighAccuracy: true, maximumAge: 0, timeout: 30000 },
     );
     inject(DestroyRef).onDestroy(() => navigator.geolocation.clearWatch(id));

@@ -101,7 +101,10 @@ export class WalkScreen {
 
   constructor() {
     const destroyRef = inject(DestroyRef);
-    const onOnline = () => { this.online.set(true); void this.syncNow(); };
+    const onOnline = () => {
+      this.online.set(true);
+      void this.syncNow();
+    };
     const onOffline = () => this.online.set(false);
     window.addEventListener('online', onOnline);
     window.addEventListener('offline', onOffline);
@@ -206,10 +209,20 @@ export class WalkScreen {
       }
     }
     const point: WalkPoint = {
-      id: crypto.randomUUID(), walkId: walk.id, recordedAt: new Date().toISOString(),
-      lat: fix!.lat, lon: fix!.lon, accuracy_m: fix!.accuracy_m,
-      label: this.label.trim(), kind: this.kind, elevation_m: check.elevation_m, elevation_source: check.elevation_source,
-      note: this.note.trim(), photo_id: photo?.id ?? null, poor_fix: check.poor_fix, synced: 0,
+      id: crypto.randomUUID(),
+      walkId: walk.id,
+      recordedAt: new Date().toISOString(),
+      lat: fix!.lat,
+      lon: fix!.lon,
+      accuracy_m: fix!.accuracy_m,
+      label: this.label.trim(),
+      kind: this.kind,
+      elevation_m: check.elevation_m,
+      elevation_source: check.elevation_source,
+      note: this.note.trim(),
+      photo_id: photo?.id ?? null,
+      poor_fix: check.poor_fix,
+      synced: 0,
     };
     await this.db.addPoint(point, photo);
     this.message.set(null);
@@ -229,8 +242,14 @@ export class WalkScreen {
     const last = this.track().at(-1);
     if (last && Math.abs(last.lat - fix.lat) < 1e-6 && Math.abs(last.lon - fix.lon) < 1e-6) return;
     const t: TrackPoint = {
-      id: crypto.randomUUID(), walkId: walk.id, recordedAt: new Date().toISOString(),
-      lat: fix.lat, lon: fix.lon, accuracy_m: fix.accuracy_m, elevation_m: fix.altitude_m, synced: 0,
+      id: crypto.randomUUID(),
+      walkId: walk.id,
+      recordedAt: new Date().toISOString(),
+      lat: fix.lat,
+      lon: fix.lon,
+      accuracy_m: fix.accuracy_m,
+      elevation_m: fix.altitude_m,
+      synced: 0,
     };
     this.track.update((tr) => [...tr, t]);
     await this.db.addTrackPoint(t);
@@ -249,9 +268,11 @@ export class WalkScreen {
       this.retryDelay_s = 3;
     } catch (e) {
       const offline = noSignal(e);
-      this.syncStatus.set(offline
-        ? 'No signal: everything stays on this phone and syncs when the network is back.'
-        : `Not synced: ${apiErrorMessage(e)} Everything stays on this phone.`);
+      this.syncStatus.set(
+        offline
+          ? 'No signal: everything stays on this phone and syncs when the network is back.'
+          : `Not synced: ${apiErrorMessage(e)} Everything stays on this phone.`,
+      );
       if (offline) this.retryLater();
     } finally {
       this.syncing.set(false);

@@ -11,7 +11,12 @@ import { handleErrorsLocally } from '../../core/http-context';
 import { WalkDb } from './walk-db';
 import type { Walk, WalkRecording } from './walk-types';
 
-export interface SyncResult { added: number; points: number; track: number; filename: string }
+export interface SyncResult {
+  added: number;
+  points: number;
+  track: number;
+  filename: string;
+}
 
 /** The request never reached the server (no signal; or the service worker answered 504 for it). */
 export function noSignal(e: unknown): boolean {
@@ -55,7 +60,10 @@ export class WalkSync {
       track: track.map(({ walkId: _w, synced: _s, ...t }) => t),
     };
     const res = await firstValueFrom(this.http.put<SyncResult>(base, body, { context: handleErrorsLocally() }));
-    await this.db.markSynced(points.map((p) => p.id), track.map((t) => t.id));
+    await this.db.markSynced(
+      points.map((p) => p.id),
+      track.map((t) => t.id),
+    );
     return res;
   }
 

@@ -10,10 +10,24 @@ const REF = referenceAt(44.5, -122.1, 'demo');
 
 /** A walk laid out in plan metres around REF: spring at (0,0) 320 m, down a bend to a trough at (200, 100). */
 function walk(): WalkRecording {
-  const at = (x: number, y: number) => { const [lon, lat] = toLonLat(REF, x, y); return { lat, lon }; };
+  const at = (x: number, y: number) => {
+    const [lon, lat] = toLonLat(REF, x, y);
+    return { lat, lon };
+  };
   const t = (i: number) => new Date(Date.UTC(2026, 11, 3, 10, 0, i)).toISOString();
-  const point = (id: string, label: string, kind: WalkRecording['points'][number]['kind'], x: number, y: number, z: number) =>
-    ({ id, recordedAt: t(0), ...at(x, y), accuracy_m: 3, label, kind, elevation_m: z, elevation_source: 'typed' as const, note: '', photo_id: null, poor_fix: false });
+  const point = (id: string, label: string, kind: WalkRecording['points'][number]['kind'], x: number, y: number, z: number) => ({
+    id,
+    recordedAt: t(0),
+    ...at(x, y),
+    accuracy_m: 3,
+    label,
+    kind,
+    elevation_m: z,
+    elevation_source: 'typed' as const,
+    note: '',
+    photo_id: null,
+    poor_fix: false,
+  });
   return {
     points: [
       point('p1', 'Spring', 'spring-box', 0, 0, 320),
@@ -21,7 +35,13 @@ function walk(): WalkRecording {
       point('p3', 'Low gully', 'low-point', 150, 50, 296),
       point('p4', 'Trough 3', 'trough', 200, 100, 300),
     ],
-    track: [[1, 1], [50, 0], [100, 0], [150, 50], [199, 99]].map(([x, y], i) => ({ id: `t${i}`, recordedAt: t(i + 1), ...at(x, y), accuracy_m: 4, elevation_m: null })),
+    track: [
+      [1, 1],
+      [50, 0],
+      [100, 0],
+      [150, 50],
+      [199, 99],
+    ].map(([x, y], i) => ({ id: `t${i}`, recordedAt: t(i + 1), ...at(x, y), accuracy_m: 4, elevation_m: null })),
   };
 }
 
@@ -61,7 +81,7 @@ describe('Walk: build the recorded points and track into the design', () => {
     expect(twice.doc.links).to.have.length(1);
   });
 
-  it('shifts the phone\'s track altitudes onto the typed elevations\' datum (median offset)', () => {
+  it("shifts the phone's track altitudes onto the typed elevations' datum (median offset)", () => {
     const w = walk();
     // The phone reads 30 m high everywhere; the typed spring (320 m) and trough (300 m) sit on fixes 0 and 4.
     const ground = [320, 315, 310, 296, 300];

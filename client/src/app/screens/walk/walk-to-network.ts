@@ -44,7 +44,10 @@ function simplify(pts: XY[], tol: number): XY[] {
   for (let i = 1; i < pts.length - 1; i++) {
     const p = pts[i];
     const d = len < 1e-9 ? Math.hypot(p.x - a.x, p.y - a.y) : Math.abs((b.x - a.x) * (a.y - p.y) - (a.x - p.x) * (b.y - a.y)) / len;
-    if (d > worstD) { worstD = d; worst = i; }
+    if (d > worstD) {
+      worstD = d;
+      worst = i;
+    }
   }
   if (worstD <= tol) return [a, b];
   return [...simplify(pts.slice(0, worst + 1), tol).slice(0, -1), ...simplify(pts.slice(worst), tol)];
@@ -85,21 +88,24 @@ function trackElevations(walk: WalkRecording, local: (p: { lat: number; lon: num
   diffs.sort((a, b) => a - b);
   const offset = diffs.length === 0 ? 0 : diffs.length % 2 ? diffs[(diffs.length - 1) / 2] : (diffs[diffs.length / 2 - 1] + diffs[diffs.length / 2]) / 2;
   if (Math.abs(offset) >= 0.05) {
-    notes.push(`Track elevations from the phone shifted by ${offset > 0 ? '+' : '−'}${formatQuantity('elevation', Math.abs(offset), units)} to agree with the ${diffs.length} typed elevation(s) along it.`);
+    notes.push(
+      `Track elevations from the phone shifted by ${offset > 0 ? '+' : '−'}${formatQuantity('elevation', Math.abs(offset), units)} to agree with the ${diffs.length} typed elevation(s) along it.`,
+    );
   }
   return fixes.map((f) => (f.z === null ? null : round2(f.z + offset)));
 }
 
-export function buildFromWalk(
-  doc: NetworkDocument, walk: WalkRecording, walkName: string, units: UnitSystem,
-): { doc: NetworkDocument; summary: BuildSummary } {
+export function buildFromWalk(doc: NetworkDocument, walk: WalkRecording, walkName: string, units: UnitSystem): { doc: NetworkDocument; summary: BuildSummary } {
   const first = walk.points[0] ?? walk.track[0];
   if (!first) throw new Error('The walk has no points and no track yet.');
   const existingRef = geoReferenceOf(doc.layout);
   const ref: GeoReference = existingRef ?? referenceAt(first.lat, first.lon, 'walk');
   const summary: BuildSummary = { elements: [], pipe: null, surveyPoints: 0, referenceSet: !existingRef, notes: [] };
-  if (!existingRef) summary.notes.push('The project had no geographic reference: the walk\'s first fix is now the plan\'s origin.');
-  const local = (p: { lat: number; lon: number }) => { const l = toLocal(ref, p.lat, p.lon); return { x: round2(l.x_m), y: round2(l.y_m) }; };
+  if (!existingRef) summary.notes.push("The project had no geographic reference: the walk's first fix is now the plan's origin.");
+  const local = (p: { lat: number; lon: number }) => {
+    const l = toLocal(ref, p.lat, p.lon);
+    return { x: round2(l.x_m), y: round2(l.y_m) };
+  };
 
   const nodes = [...doc.nodes];
   const ids = () => [...nodes.map((n) => n.id), ...doc.links.map((l) => l.id)];
@@ -127,9 +133,11 @@ export function buildFromWalk(
   summary.surveyPoints = survey.length;
 
   let next: NetworkDocument = {
-    ...doc, nodes,
+    ...doc,
+    nodes,
     layout: {
-      ...doc.layout, geo: ref,
+      ...doc.layout,
+      geo: ref,
       survey: { filename: oldSurvey.filename ? `${oldSurvey.filename} + ${walkName}` : walkName, format: 'gpx', points: [...kept, ...survey] },
     },
   };
@@ -143,11 +151,17 @@ export function buildFromWalk(
     const near = nearestNode(next.nodes, p);
     if (near && near.d <= END_SNAP_M) return near.node;
     const def = NODE_KINDS.tee;
-    const ground = elevationNear ?? survey.reduce<{ z: number; d: number } | null>((best, s) => {
-      const d = Math.hypot(s.x_m - p.x, s.y_m - p.y);
-      return !best || d < best.d ? { z: s.elevation_m, d } : best;
-    }, null)?.z ?? 0;
-    const tee = { ...def.create(nextId(def.prefix, [...next.nodes.map((n) => n.id), ...next.links.map((l) => l.id)]), p.x, p.y, units), elevation_m: ground } as NetworkNode;
+    const ground =
+      elevationNear ??
+      survey.reduce<{ z: number; d: number } | null>((best, s) => {
+        const d = Math.hypot(s.x_m - p.x, s.y_m - p.y);
+        return !best || d < best.d ? { z: s.elevation_m, d } : best;
+      }, null)?.z ??
+      0;
+    const tee = {
+      ...def.create(nextId(def.prefix, [...next.nodes.map((n) => n.id), ...next.links.map((l) => l.id)]), p.x, p.y, units),
+      elevation_m: ground,
+    } as NetworkNode;
     next = { ...next, nodes: [...next.nodes, tee] };
     summary.elements.push(tee.id);
     return tee;
@@ -162,9 +176,14 @@ export function buildFromWalk(
     summary.notes.push(`The pipe "${walkName}" was already built from this walk.`);
     return { doc: next, summary };
   }
-  const bends = simplify(line, BEND_TOLERANCE_M).slice(1, -1).map((p): [number, number] => [p.x, p.y]);
+  const bends = simplify(line, BEND_TOLERANCE_M)
+    .slice(1, -1)
+    .map((p): [number, number] => [p.x, p.y]);
   const def = LINK_KINDS.pipe;
-  const pipe = { ...def.create(nextId(def.prefix, [...next.nodes.map((n) => n.id), ...next.links.map((l) => l.id)]), from.id, to.id, bends, units), name: walkName } as PipeLink;
+  const pipe = {
+    ...def.create(nextId(def.prefix, [...next.nodes.map((n) => n.id), ...next.links.map((l) => l.id)]), from.id, to.id, bends, units),
+    name: walkName,
+  } as PipeLink;
   next = { ...next, links: [...next.links, pipe] };
   const prof = profileAlong(next, pipe.id, survey, PROFILE_CORRIDOR_M);
   if (prof) {

@@ -26,8 +26,16 @@ export interface ChartSeries {
   stepped?: boolean;
 }
 
-export interface ChartBand { from: number; to: number; colour: string }
-export interface ChartMark { x: number; colour: string; label?: string }
+export interface ChartBand {
+  from: number;
+  to: number;
+  colour: string;
+}
+export interface ChartMark {
+  x: number;
+  colour: string;
+  label?: string;
+}
 
 export interface ChartSpec {
   x: number[];
@@ -50,9 +58,17 @@ export interface ChartSpec {
   styleUrl: '../../../../../node_modules/uplot/dist/uPlot.min.css',
   template: `<div class="rn-chart" #host [style.height.px]="height()" [attr.data-points]="points()"></div>`,
   styles: `
-    .rn-chart { width: 100%; position: relative; }
-    .rn-chart .u-legend { font: var(--mat-sys-body-small); text-align: left; }
-    .rn-chart .u-legend .u-series > * { padding: 1px 3px; }
+    .rn-chart {
+      width: 100%;
+      position: relative;
+    }
+    .rn-chart .u-legend {
+      font: var(--mat-sys-body-small);
+      text-align: left;
+    }
+    .rn-chart .u-legend .u-series > * {
+      padding: 1px 3px;
+    }
   `,
 })
 export class LineChart {
@@ -75,7 +91,10 @@ export class LineChart {
       void this.draw(el, spec, height);
       observer?.observe(el);
     });
-    destroyRef.onDestroy(() => { observer?.disconnect(); this.plot?.destroy(); });
+    destroyRef.onDestroy(() => {
+      observer?.disconnect();
+      this.plot?.destroy();
+    });
   }
 
   /** The plot as a PNG data URL on a white ground (null before the first draw). */
@@ -105,14 +124,39 @@ export class LineChart {
       scales: { x: { time: false } },
       legend: { live: true },
       axes: [
-        { label: spec.xLabel, values: (_u, ticks) => ticks.map((t) => spec.xFormat(t)), size: 36, labelSize: 18, space: 84, ...(spec.xIncrs ? { incrs: spec.xIncrs } : {}) },
+        {
+          label: spec.xLabel,
+          values: (_u, ticks) => ticks.map((t) => spec.xFormat(t)),
+          size: 36,
+          labelSize: 18,
+          space: 84,
+          ...(spec.xIncrs ? { incrs: spec.xIncrs } : {}),
+        },
         { label: spec.yLabel, scale: 'y', size: 64, labelSize: 18, values: (_u, ticks) => ticks.map((t) => trim(t)) },
-        ...(spec.series.some((s) => s.scale === 'y2') ? [{ label: spec.y2Label, scale: 'y2', side: 1 as const, grid: { show: false }, size: 64, labelSize: 18, values: (_u: uPlot, ticks: number[]) => ticks.map((t) => trim(t)) }] : []),
+        ...(spec.series.some((s) => s.scale === 'y2')
+          ? [
+              {
+                label: spec.y2Label,
+                scale: 'y2',
+                side: 1 as const,
+                grid: { show: false },
+                size: 64,
+                labelSize: 18,
+                values: (_u: uPlot, ticks: number[]) => ticks.map((t) => trim(t)),
+              },
+            ]
+          : []),
       ],
       series: [
         { label: spec.xLabel, value: (_u, v) => (v === null || v === undefined ? '—' : spec.xFormat(v)) },
         ...spec.series.map((s): uPlot.Series => ({
-          label: s.label, stroke: s.colour, width: s.width ?? 1.6, dash: s.dash, fill: s.fill, scale: s.scale ?? 'y', spanGaps: false,
+          label: s.label,
+          stroke: s.colour,
+          width: s.width ?? 1.6,
+          dash: s.dash,
+          fill: s.fill,
+          scale: s.scale ?? 'y',
+          spanGaps: false,
           paths: s.stepped ? U.paths.stepped?.({ align: 1 }) : undefined,
           value: (_u, v) => (v === null || v === undefined ? '—' : s.format(v)),
           points: { show: false },
@@ -157,7 +201,8 @@ export class LineChart {
 
   private resize(): void {
     const el = this.host().nativeElement;
-    if (this.plot && el.clientWidth > 0 && Math.abs(this.plot.width - el.clientWidth) > 2) this.plot.setSize({ width: el.clientWidth, height: this.plot.height });
+    if (this.plot && el.clientWidth > 0 && Math.abs(this.plot.width - el.clientWidth) > 2)
+      this.plot.setSize({ width: el.clientWidth, height: this.plot.height });
   }
 }
 

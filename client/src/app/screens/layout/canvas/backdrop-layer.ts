@@ -10,7 +10,10 @@ export class BackdropLayer {
   private shown: Backdrop | null = null;
 
   /** `src` turns a file id into its URL; `loaded` asks for a redraw once the image arrives. */
-  constructor(private readonly src: (fileId: string) => string, private readonly loaded: () => void) {}
+  constructor(
+    private readonly src: (fileId: string) => string,
+    private readonly loaded: () => void,
+  ) {}
 
   /** Place the backdrop for this view; true when the base layer needs drawing. */
   draw(b: Backdrop | null, vp: Viewport, viewChanged: boolean): boolean {

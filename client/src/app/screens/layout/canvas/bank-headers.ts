@@ -15,7 +15,13 @@ export interface SymbolPlacement {
 }
 
 /** A bank as the label placement sees it: its header, the box around its tanks and its badge text. */
-export interface BankView { tanks: TankNode[]; header: Box; tankBox: Box; crowded: boolean; text: string }
+export interface BankView {
+  tanks: TankNode[];
+  header: Box;
+  tankBox: Box;
+  crowded: boolean;
+  text: string;
+}
 
 /** Tanks grouped by bank id (banks of two or more). */
 export function groupBanks(nodes: NetworkNode[]): { id: string; tanks: TankNode[] }[] {
@@ -45,8 +51,12 @@ export class BankHeaders {
     for (const bank of banks) {
       const g = this.geometry(bank.tanks);
       const flat = [g.x0, g.y, ...g.pts.flatMap((p) => [p.x, g.y]), g.x1, g.y];
-      this.group.add(new Konva.Line({ points: flat, stroke: LABEL, strokeWidth: 7, lineCap: 'round', lineJoin: 'round', listening: false, perfectDrawEnabled: false }));
-      this.group.add(new Konva.Line({ points: flat, stroke: '#cfe6f3', strokeWidth: 3.5, lineCap: 'round', lineJoin: 'round', listening: false, perfectDrawEnabled: false }));
+      this.group.add(
+        new Konva.Line({ points: flat, stroke: LABEL, strokeWidth: 7, lineCap: 'round', lineJoin: 'round', listening: false, perfectDrawEnabled: false }),
+      );
+      this.group.add(
+        new Konva.Line({ points: flat, stroke: '#cfe6f3', strokeWidth: 3.5, lineCap: 'round', lineJoin: 'round', listening: false, perfectDrawEnabled: false }),
+      );
       for (const p of g.pts) this.group.add(new Konva.Line({ points: [p.x, g.y - 4, p.x, g.y], stroke: LABEL, strokeWidth: 3, listening: false }));
     }
     return true;
@@ -59,7 +69,13 @@ export class BankHeaders {
       const geo = this.geometry(bank.tanks);
       const top = Math.min(...geo.pts.map((p) => p.y)) - 15 * geo.k;
       const tankBox = { x: geo.x0, y: top, w: geo.x1 - geo.x0, h: geo.box.y + geo.box.h - top };
-      out.set(bank.id, { tanks: bank.tanks, header: geo.box, tankBox, crowded: geo.span < CROWDED_BANK_PX, text: `${bank.id} bank · ${bank.tanks.length} tanks` });
+      out.set(bank.id, {
+        tanks: bank.tanks,
+        header: geo.box,
+        tankBox,
+        crowded: geo.span < CROWDED_BANK_PX,
+        text: `${bank.id} bank · ${bank.tanks.length} tanks`,
+      });
     }
     return out;
   }

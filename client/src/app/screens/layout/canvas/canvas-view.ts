@@ -59,7 +59,12 @@ export class CanvasView {
   private readonly unsubscribe: (() => void)[] = [];
   private frame = 0;
 
-  constructor(container: HTMLDivElement, private readonly editor: Editor, backdropSrc: (fileId: string) => string, markers = new PlanMarkers()) {
+  constructor(
+    container: HTMLDivElement,
+    private readonly editor: Editor,
+    backdropSrc: (fileId: string) => string,
+    markers = new PlanMarkers(),
+  ) {
     this.stage = new Konva.Stage({ container, width: container.clientWidth || 800, height: container.clientHeight || 600, listening: false });
     this.headers = new BankHeaders(editor);
     this.crossings = new CrossingMarks(editor.viewport, this.views);
@@ -81,13 +86,17 @@ export class CanvasView {
     // Crossing marks sit over every line and under every node symbol.
     this.nodeLayer.add(this.crossings.group);
     this.baseLayer.add(this.backdrop.group);
-    this.baseLayer.add(new Konva.Shape({ listening: false, perfectDrawEnabled: false, sceneFunc: (ctx) => drawGrid(ctx, editor.viewport, editor.grid.step_m) }));
+    this.baseLayer.add(
+      new Konva.Shape({ listening: false, perfectDrawEnabled: false, sceneFunc: (ctx) => drawGrid(ctx, editor.viewport, editor.grid.step_m) }),
+    );
     editor.resize(this.stage.width(), this.stage.height());
     this.unsubscribe.push(editor.subscribe((what) => this.changed(what)));
-    this.unsubscribe.push(markers.subscribe(() => {
-      this.labelsDirty = true;
-      this.schedule();
-    }));
+    this.unsubscribe.push(
+      markers.subscribe(() => {
+        this.labelsDirty = true;
+        this.schedule();
+      }),
+    );
   }
 
   dispose(): void {
@@ -169,7 +178,8 @@ export class CanvasView {
     // on every frame of a large plan costs more than a frame); they are placed again when it ends.
     const panOnly = viewChanged && ed.panning && ed.viewport.scale === this.labels.placedAt.scale;
     if (panOnly) this.labels.followPan();
-    const geometryChanged = (viewChanged && !panOnly) || doc.nodes !== this.labelledNodes || doc.links !== this.labelledLinks || selection !== this.labelledSelection;
+    const geometryChanged =
+      (viewChanged && !panOnly) || doc.nodes !== this.labelledNodes || doc.links !== this.labelledLinks || selection !== this.labelledSelection;
     if ((this.labelsDirty || geometryChanged) && ed.dragging.length === 0) {
       if (overlayChanged && !geometryChanged) {
         // New results only: the badges and line widths (badges kept where they were) show this
@@ -246,7 +256,8 @@ export class CanvasView {
       if (!v) {
         v = this.createLink(l);
         this.views.links.set(l.id, v);
-      } else if (v.rec === l && v.from === a && v.to === b && !viewChanged && this.selectionShown.has(l.id) === selected && !moving && !this.lifted.has(l.id)) continue;
+      } else if (v.rec === l && v.from === a && v.to === b && !viewChanged && this.selectionShown.has(l.id) === selected && !moving && !this.lifted.has(l.id))
+        continue;
       if (v.rec !== l && v.rec.kind === l.kind) {
         v.mid.destroyChildren();
         v.mid.add(...drawShapes(LINK_KINDS[l.kind].midSymbol(l)));
@@ -318,9 +329,33 @@ export class CanvasView {
 
   private createNode(n: NetworkNode): NodeView {
     const group = new Konva.Group({ listening: false });
-    const halo = new Konva.Rect({ x: -19, y: -19, width: 38, height: 38, cornerRadius: 8, stroke: SELECT, strokeWidth: 2.5, dash: [5, 3], visible: false, listening: false, perfectDrawEnabled: false });
+    const halo = new Konva.Rect({
+      x: -19,
+      y: -19,
+      width: 38,
+      height: 38,
+      cornerRadius: 8,
+      stroke: SELECT,
+      strokeWidth: 2.5,
+      dash: [5, 3],
+      visible: false,
+      listening: false,
+      perfectDrawEnabled: false,
+    });
     const symbol = new Konva.Group({ listening: false });
-    const label = new Konva.Text({ text: n.name || n.id, x: -60, y: 19, width: 120, align: 'center', wrap: 'none', fontFamily: FONT, fontSize: 11, fill: LABEL, listening: false, perfectDrawEnabled: false });
+    const label = new Konva.Text({
+      text: n.name || n.id,
+      x: -60,
+      y: 19,
+      width: 120,
+      align: 'center',
+      wrap: 'none',
+      fontFamily: FONT,
+      fontSize: 11,
+      fill: LABEL,
+      listening: false,
+      perfectDrawEnabled: false,
+    });
     group.add(halo, symbol, label);
     const overlay = new Konva.Group({ listening: false });
     const marks = new Konva.Group({ listening: false });
@@ -343,9 +378,35 @@ export class CanvasView {
   private createLink(l: NetworkLink): LinkView {
     const def = LINK_KINDS[l.kind];
     const group = new Konva.Group({ listening: false });
-    const halo = new Konva.Line({ stroke: SELECT, strokeWidth: 9, opacity: 0.35, lineCap: 'round', lineJoin: 'round', visible: false, listening: false, perfectDrawEnabled: false });
-    const line = new Konva.Line({ stroke: def.stroke.colour, strokeWidth: def.stroke.widthPx, dash: def.stroke.dash, lineCap: 'round', lineJoin: 'round', listening: false, perfectDrawEnabled: false });
-    const hatch = new Konva.Line({ stroke: '#ffffff', strokeWidth: 2, dash: [5, 4], lineCap: 'butt', lineJoin: 'round', visible: false, listening: false, perfectDrawEnabled: false });
+    const halo = new Konva.Line({
+      stroke: SELECT,
+      strokeWidth: 9,
+      opacity: 0.35,
+      lineCap: 'round',
+      lineJoin: 'round',
+      visible: false,
+      listening: false,
+      perfectDrawEnabled: false,
+    });
+    const line = new Konva.Line({
+      stroke: def.stroke.colour,
+      strokeWidth: def.stroke.widthPx,
+      dash: def.stroke.dash,
+      lineCap: 'round',
+      lineJoin: 'round',
+      listening: false,
+      perfectDrawEnabled: false,
+    });
+    const hatch = new Konva.Line({
+      stroke: '#ffffff',
+      strokeWidth: 2,
+      dash: [5, 4],
+      lineCap: 'butt',
+      lineJoin: 'round',
+      visible: false,
+      listening: false,
+      perfectDrawEnabled: false,
+    });
     const mid = new Konva.Group({ listening: false });
     mid.add(...drawShapes(def.midSymbol(l)));
     group.add(halo, line, hatch, mid);

@@ -24,7 +24,10 @@ export class CrossingMarks {
   private of: NetworkDocument['links'] | null = null;
   private ofNodes: NetworkDocument['nodes'] | null = null;
 
-  constructor(private readonly vp: Viewport, private readonly views: SceneViews) {}
+  constructor(
+    private readonly vp: Viewport,
+    private readonly views: SceneViews,
+  ) {}
 
   draw(doc: NetworkDocument, dragging: boolean): void {
     this.group.destroyChildren();
@@ -45,9 +48,24 @@ export class CrossingMarks {
       const gap = 4 + overW;
       const u = { x: Math.cos(-c.underAngle), y: Math.sin(-c.underAngle) };
       const o = { x: Math.cos(-c.overAngle), y: Math.sin(-c.overAngle) };
-      this.group.add(new Konva.Line({ points: [p.x - u.x * gap, p.y - u.y * gap, p.x + u.x * gap, p.y + u.y * gap], stroke: PAPER, strokeWidth: underW + 3, listening: false }));
+      this.group.add(
+        new Konva.Line({
+          points: [p.x - u.x * gap, p.y - u.y * gap, p.x + u.x * gap, p.y + u.y * gap],
+          stroke: PAPER,
+          strokeWidth: underW + 3,
+          listening: false,
+        }),
+      );
       const half = gap + 2;
-      this.group.add(new Konva.Line({ points: [p.x - o.x * half, p.y - o.y * half, p.x + o.x * half, p.y + o.y * half], stroke: LABEL, strokeWidth: overW, lineCap: 'butt', listening: false }));
+      this.group.add(
+        new Konva.Line({
+          points: [p.x - o.x * half, p.y - o.y * half, p.x + o.x * half, p.y + o.y * half],
+          stroke: LABEL,
+          strokeWidth: overW,
+          lineCap: 'butt',
+          listening: false,
+        }),
+      );
     }
   }
 
@@ -79,16 +97,21 @@ export class CrossingMarks {
       const b = { x: p.x + u.x * r, y: p.y + u.y * r };
       // Under the symbols: the symbol stays whole, the line no longer runs into it.
       this.group.add(new Konva.Line({ points: [a.x, a.y, b.x, b.y], stroke: PAPER, strokeWidth: w + 2, listening: false }));
-      this.hops.add(new Konva.Shape({
-        listening: false, stroke: ink, strokeWidth: w, lineCap: 'round',
-        sceneFunc: (ctx, shape) => {
-          ctx.beginPath();
-          ctx.moveTo(a.x, a.y);
-          // Control points at 4/3 r: a near-semicircle of height r over the symbol.
-          ctx.bezierCurveTo(a.x + n.x * r * 1.33, a.y + n.y * r * 1.33, b.x + n.x * r * 1.33, b.y + n.y * r * 1.33, b.x, b.y);
-          ctx.strokeShape(shape);
-        },
-      }));
+      this.hops.add(
+        new Konva.Shape({
+          listening: false,
+          stroke: ink,
+          strokeWidth: w,
+          lineCap: 'round',
+          sceneFunc: (ctx, shape) => {
+            ctx.beginPath();
+            ctx.moveTo(a.x, a.y);
+            // Control points at 4/3 r: a near-semicircle of height r over the symbol.
+            ctx.bezierCurveTo(a.x + n.x * r * 1.33, a.y + n.y * r * 1.33, b.x + n.x * r * 1.33, b.y + n.y * r * 1.33, b.x, b.y);
+            ctx.strokeShape(shape);
+          },
+        }),
+      );
     }
   }
 }

@@ -43,6 +43,17 @@ export function drawShapes(specs: ShapeSpec[]): Konva.Shape[] {
 export function badge(x: number, y: number): Konva.Shape[] {
   return [
     new Konva.Circle({ x, y, radius: 7, fill: WARN, stroke: '#ffffff', strokeWidth: 1.5, listening: false }),
-    new Konva.Text({ x: x - 7, y: y - 6, width: 14, align: 'center', text: '!', fontFamily: FONT, fontStyle: 'bold', fontSize: 11, fill: '#ffffff', listening: false }),
+    new Konva.Text({
+      x: x - 7,
+      y: y - 6,
+      width: 14,
+      align: 'center',
+      text: '!',
+      fontFamily: FONT,
+      fontStyle: 'bold',
+      fontSize: 11,
+      fill: '#ffffff',
+      listening: false,
+    }),
   ];
 }

@@ -35,7 +35,10 @@ export class LabelLayout {
   /** Extra obstacles (markers drawn by other features), from the canvas. */
   extraObstacles: () => Box[] = () => [];
 
-  constructor(private readonly views: SceneViews, private readonly vp: Viewport) {}
+  constructor(
+    private readonly views: SceneViews,
+    private readonly vp: Viewport,
+  ) {}
 
   /** While a pan drag is in progress the labels ride along with their elements. */
   followPan(): void {
@@ -68,7 +71,7 @@ export class LabelLayout {
       // At whole-site zoom a plain junction gives up its name (hover and the results list have it),
       // so every outlet, tank and source keeps both its state and its name on a crowded plan.
       const quietJunction = n.kind === 'tee' && !v.tag && v.scale < 1;
-      const showName = ((!inCrowdedBank.has(n.id) && !quietJunction) || selection.has(n.id));
+      const showName = (!inCrowdedBank.has(n.id) && !quietJunction) || selection.has(n.id);
       if (v.tag && showName) variants.push({ w: Math.max(tagW, nameW), h: tagH + NAME_H });
       // Then the badge and the name on one line, then the badge alone.
       if (v.tag && showName) variants.push({ w: tagW + INLINE_GAP + nameW, h: tagH });
@@ -82,7 +85,11 @@ export class LabelLayout {
       const w = textWidth(b.text, 10) + 8;
       obstacles.push(b.header);
       // A crowded bank's badge stands in for its tanks' names; otherwise it comes after the tees.
-      requests.push({ id: 'bank:' + bank, priority: b.crowded ? 1.5 : 3.5, candidates: aroundBox(b.tankBox, { w, h: 15 }, ['below', 'left', 'right', 'above', 'below-left', 'below-right', 'above-left', 'above-right']) });
+      requests.push({
+        id: 'bank:' + bank,
+        priority: b.crowded ? 1.5 : 3.5,
+        candidates: aroundBox(b.tankBox, { w, h: 15 }, ['below', 'left', 'right', 'above', 'below-left', 'below-right', 'above-left', 'above-right']),
+      });
     }
     const lines: Box[] = [];
     for (const l of links) {
@@ -159,10 +166,12 @@ export class LabelLayout {
     for (const [bank, b] of banks) {
       const at = this.placed.get('bank:' + bank);
       if (!at) continue;
-      this.bankBadges.add(new Konva.Label({ x: at.box.x, y: at.box.y, listening: false }).add(
-        new Konva.Tag({ fill: '#eef4f8', stroke: LABEL, strokeWidth: 1, cornerRadius: 7, listening: false }),
-        new Konva.Text({ text: b.text, padding: 2.5, fontFamily: FONT, fontSize: 10, fill: LABEL, listening: false, width: at.box.w, align: 'center' }),
-      ));
+      this.bankBadges.add(
+        new Konva.Label({ x: at.box.x, y: at.box.y, listening: false }).add(
+          new Konva.Tag({ fill: '#eef4f8', stroke: LABEL, strokeWidth: 1, cornerRadius: 7, listening: false }),
+          new Konva.Text({ text: b.text, padding: 2.5, fontFamily: FONT, fontSize: 10, fill: LABEL, listening: false, width: at.box.w, align: 'center' }),
+        ),
+      );
     }
   }
 }

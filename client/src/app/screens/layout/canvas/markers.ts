@@ -32,15 +32,27 @@ export interface MarkerKind {
 
 const MARKER_KINDS = new Map<string, MarkerKind>([
   // A map pin whose tip sits on the anchor.
-  ['pin', { hitRadiusPx: 10, shapes: () => [
-    { t: 'poly', points: [0, 0, -6, -11, -6, -16, 0, -21, 6, -16, 6, -11], closed: true, fill: '#f2c14e', stroke: LABEL, sw: 1.5 },
-    { t: 'circle', x: 0, y: -14, r: 2.5, fill: LABEL },
-  ] }],
+  [
+    'pin',
+    {
+      hitRadiusPx: 10,
+      shapes: () => [
+        { t: 'poly', points: [0, 0, -6, -11, -6, -16, 0, -21, 6, -16, 6, -11], closed: true, fill: '#f2c14e', stroke: LABEL, sw: 1.5 },
+        { t: 'circle', x: 0, y: -14, r: 2.5, fill: LABEL },
+      ],
+    },
+  ],
   // A small pennant on a staff, for findings along a line.
-  ['flag', { hitRadiusPx: 10, shapes: () => [
-    { t: 'poly', points: [0, 0, 0, -20], stroke: LABEL, sw: 1.5 },
-    { t: 'poly', points: [0, -20, 12, -16, 0, -12], closed: true, fill: '#e07a5f', stroke: LABEL, sw: 1.2 },
-  ] }],
+  [
+    'flag',
+    {
+      hitRadiusPx: 10,
+      shapes: () => [
+        { t: 'poly', points: [0, 0, 0, -20], stroke: LABEL, sw: 1.5 },
+        { t: 'poly', points: [0, -20, 12, -16, 0, -12], closed: true, fill: '#e07a5f', stroke: LABEL, sw: 1.2 },
+      ],
+    },
+  ],
   ['dot', { hitRadiusPx: 8, shapes: () => [{ t: 'circle', r: 5, fill: '#3d5a80', stroke: '#ffffff', sw: 1.5 }] }],
 ]);
 
@@ -80,7 +92,13 @@ export class PlanMarkers {
   }
 }
 
-interface Drawn { marker: PlanMarker; at: Point; r: number; box: Box; label?: Box }
+interface Drawn {
+  marker: PlanMarker;
+  at: Point;
+  r: number;
+  box: Box;
+  label?: Box;
+}
 
 function overlaps(a: Box | undefined, b: Box): boolean {
   return !!a && a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
@@ -94,7 +112,10 @@ export class MarkerLayer {
   readonly layer = new Konva.Layer({ listening: false });
   private drawn: Drawn[] = [];
 
-  constructor(private readonly markers: PlanMarkers, private readonly vp: Viewport) {}
+  constructor(
+    private readonly markers: PlanMarkers,
+    private readonly vp: Viewport,
+  ) {}
 
   draw(doc: NetworkDocument, symbolScale: (id: string) => number): void {
     this.layer.destroyChildren();

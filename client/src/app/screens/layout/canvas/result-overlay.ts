@@ -28,9 +28,29 @@ function stateMark(tone: BadgeTone): Konva.Shape[] {
   const at = { x: 11, y: 11 };
   const disc = new Konva.Circle({ ...at, radius: 5.5, fill: t.fill, stroke: t.stroke, strokeWidth: 1.5, listening: false });
   const glyph =
-    tone === 'ok' ? new Konva.Line({ points: [at.x - 2.6, at.y, at.x - 0.6, at.y + 2, at.x + 2.8, at.y - 2], stroke: t.text, strokeWidth: 1.6, lineCap: 'round', lineJoin: 'round', listening: false })
-    : tone === 'close' ? new Konva.Line({ points: [at.x - 2.6, at.y, at.x + 2.6, at.y], stroke: t.text, strokeWidth: 1.8, lineCap: 'round', listening: false })
-    : new Konva.Text({ x: at.x - 4, y: at.y - 4.5, width: 8, align: 'center', text: '!', fontFamily: FONT, fontStyle: 'bold', fontSize: 9, fill: t.text, listening: false });
+    tone === 'ok'
+      ? new Konva.Line({
+          points: [at.x - 2.6, at.y, at.x - 0.6, at.y + 2, at.x + 2.8, at.y - 2],
+          stroke: t.text,
+          strokeWidth: 1.6,
+          lineCap: 'round',
+          lineJoin: 'round',
+          listening: false,
+        })
+      : tone === 'close'
+        ? new Konva.Line({ points: [at.x - 2.6, at.y, at.x + 2.6, at.y], stroke: t.text, strokeWidth: 1.8, lineCap: 'round', listening: false })
+        : new Konva.Text({
+            x: at.x - 4,
+            y: at.y - 4.5,
+            width: 8,
+            align: 'center',
+            text: '!',
+            fontFamily: FONT,
+            fontStyle: 'bold',
+            fontSize: 9,
+            fill: t.text,
+            listening: false,
+          });
   return [disc, glyph];
 }
 

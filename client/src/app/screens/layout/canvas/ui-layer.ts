@@ -18,7 +18,11 @@ const CALIBRATE = '#c2410c';
  * calibration line).
  */
 export class UiLayer {
-  constructor(readonly layer: Konva.Layer, private readonly editor: Editor, private readonly views: SceneViews) {}
+  constructor(
+    readonly layer: Konva.Layer,
+    private readonly editor: Editor,
+    private readonly views: SceneViews,
+  ) {}
 
   draw(byId: Map<string, NetworkNode>, survey: SurveyPoint[], units: UnitSystem, placed: ReadonlyMap<string, Placement>): void {
     this.layer.destroyChildren();
@@ -29,7 +33,14 @@ export class UiLayer {
     for (const s of survey) {
       const p = vp.toScreen({ x: s.x_m, y: s.y_m });
       if (p.x < -20 || p.y < -20 || p.x > vp.width + 20 || p.y > vp.height + 20) continue;
-      add(new Konva.Line({ points: [p.x - 4, p.y - 4, p.x + 4, p.y + 4, p.x, p.y, p.x + 4, p.y - 4, p.x - 4, p.y + 4], stroke: SURVEY, strokeWidth: 1.5, listening: false }));
+      add(
+        new Konva.Line({
+          points: [p.x - 4, p.y - 4, p.x + 4, p.y + 4, p.x, p.y, p.x + 4, p.y - 4, p.x - 4, p.y + 4],
+          stroke: SURVEY,
+          strokeWidth: 1.5,
+          listening: false,
+        }),
+      );
       // The point's name (when the survey gave one) from farm zoom, its elevation when closer.
       const words = [vp.scale > 0.8 ? s.label : '', vp.scale > 2 ? formatQuantity('elevation', s.elevation_m, units) : ''].filter(Boolean).join(' · ');
       if (words) add(new Konva.Text({ x: p.x + 5, y: p.y - 12, text: words, fontSize: 9, fontFamily: FONT, fill: SURVEY, listening: false }));
@@ -51,12 +62,35 @@ export class UiLayer {
       (link?.vertices ?? []).forEach(([x, y], i) => {
         const p = vp.toScreen({ x, y });
         const chosen = ed.selectedVertex?.link === link?.id && ed.selectedVertex?.index === i;
-        add(new Konva.Rect({ x: p.x - 4.5, y: p.y - 4.5, width: 9, height: 9, fill: chosen ? SELECT : '#ffffff', stroke: SELECT, strokeWidth: 1.5, listening: false }));
+        add(
+          new Konva.Rect({
+            x: p.x - 4.5,
+            y: p.y - 4.5,
+            width: 9,
+            height: 9,
+            fill: chosen ? SELECT : '#ffffff',
+            stroke: SELECT,
+            strokeWidth: 1.5,
+            listening: false,
+          }),
+        );
       });
     }
     if (pv.marquee) {
       const a = vp.toScreen({ x: pv.marquee.x, y: pv.marquee.y + pv.marquee.height });
-      add(new Konva.Rect({ x: a.x, y: a.y, width: pv.marquee.width * vp.scale, height: pv.marquee.height * vp.scale, fill: 'rgba(23,105,194,0.08)', stroke: SELECT, strokeWidth: 1, dash: [4, 3], listening: false }));
+      add(
+        new Konva.Rect({
+          x: a.x,
+          y: a.y,
+          width: pv.marquee.width * vp.scale,
+          height: pv.marquee.height * vp.scale,
+          fill: 'rgba(23,105,194,0.08)',
+          stroke: SELECT,
+          strokeWidth: 1,
+          dash: [4, 3],
+          listening: false,
+        }),
+      );
     }
     if (pv.rubberBand) {
       const pts = pv.rubberBand.map((p) => vp.toScreen(p));
@@ -88,7 +122,16 @@ export class UiLayer {
     const r = (SYMBOL_HALF + 6) * k;
     const card = new Konva.Label({ x: p.x + r + 4, y: p.y - r, listening: false });
     card.add(
-      new Konva.Tag({ fill: '#ffffff', stroke: '#9aa6b0', strokeWidth: 1, cornerRadius: 4, shadowColor: 'rgba(0,0,0,0.18)', shadowBlur: 6, shadowOffsetY: 2, listening: false }),
+      new Konva.Tag({
+        fill: '#ffffff',
+        stroke: '#9aa6b0',
+        strokeWidth: 1,
+        cornerRadius: 4,
+        shadowColor: 'rgba(0,0,0,0.18)',
+        shadowBlur: 6,
+        shadowOffsetY: 2,
+        listening: false,
+      }),
       new Konva.Text({ text, padding: 5, lineHeight: 1.3, fontFamily: FONT, fontSize: 11, fill: LABEL, listening: false }),
     );
     const vp = this.editor.viewport;

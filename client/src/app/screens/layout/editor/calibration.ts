@@ -26,10 +26,12 @@ export function calibratedDocument(doc: NetworkDocument, a: Point, b: Point, dis
   if (!(drawn > 0) || !(distance_m > 0)) return null;
   const f = distance_m / drawn;
   const sc = (x: number, y: number): [number, number] => [a.x + (x - a.x) * f, a.y + (y - a.y) * f];
-  const nodes = !network ? doc.nodes : doc.nodes.map((n) => {
-    const [x, y] = sc(n.x_m ?? 0, n.y_m ?? 0);
-    return { ...n, x_m: x, y_m: y };
-  });
+  const nodes = !network
+    ? doc.nodes
+    : doc.nodes.map((n) => {
+        const [x, y] = sc(n.x_m ?? 0, n.y_m ?? 0);
+        return { ...n, x_m: x, y_m: y };
+      });
   const links = !network ? doc.links : doc.links.map((l) => (l.vertices?.length ? { ...l, vertices: l.vertices.map(([x, y]) => sc(x, y)) } : l));
   const layout = { ...(doc.layout ?? {}) };
   const bd = layout.backdrop;

@@ -43,7 +43,11 @@ export class Clipboard {
       linkIds.push(id);
       const name = l.name && l.name !== l.id ? l.name + ' copy' : id;
       return {
-        ...structuredClone(l), id, name, from: rename.get(l.from) ?? l.from, to: rename.get(l.to) ?? l.to,
+        ...structuredClone(l),
+        id,
+        name,
+        from: rename.get(l.from) ?? l.from,
+        to: rename.get(l.to) ?? l.to,
         vertices: (l.vertices ?? []).map(([x, y]) => [x + offset, y - offset] as [number, number]),
       } as NetworkLink;
     });

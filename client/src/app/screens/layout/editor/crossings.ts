@@ -3,7 +3,13 @@ import { linkPoints } from './document-store';
 import type { Point } from './geometry';
 
 /** Where two lines cross on the plan without joining: which passes over, and both directions (radians). */
-export interface Crossing { at: Point; over: string; under: string; overAngle: number; underAngle: number }
+export interface Crossing {
+  at: Point;
+  over: string;
+  under: string;
+  overAngle: number;
+  underAngle: number;
+}
 
 /**
  * Links a pump drives: from each pump's delivery end along pipes and valves up to the first tank
@@ -67,15 +73,20 @@ export function lineCrossings(doc: NetworkDocument): Crossing[] {
       const aOver = pumped.has(A.l.id) && !pumped.has(B.l.id) ? true : pumped.has(B.l.id) && !pumped.has(A.l.id) ? false : A.order > B.order;
       for (let p = 1; p < A.pts.length; p++) {
         for (let q = 1; q < B.pts.length; q++) {
-          const a = A.pts[p - 1], b = A.pts[p], c = B.pts[q - 1], d = B.pts[q];
+          const a = A.pts[p - 1],
+            b = A.pts[p],
+            c = B.pts[q - 1],
+            d = B.pts[q];
           const hit = segmentCross(a, b, c, d);
           if (!hit) continue;
           const angA = Math.atan2(b.y - a.y, b.x - a.x);
           const angB = Math.atan2(d.y - c.y, d.x - c.x);
           out.push({
             at: { x: a.x + (b.x - a.x) * hit.t, y: a.y + (b.y - a.y) * hit.t },
-            over: aOver ? A.l.id : B.l.id, under: aOver ? B.l.id : A.l.id,
-            overAngle: aOver ? angA : angB, underAngle: aOver ? angB : angA,
+            over: aOver ? A.l.id : B.l.id,
+            under: aOver ? B.l.id : A.l.id,
+            overAngle: aOver ? angA : angB,
+            underAngle: aOver ? angB : angA,
           });
         }
       }
@@ -85,7 +96,13 @@ export function lineCrossings(doc: NetworkDocument): Crossing[] {
 }
 
 /** A line drawn over a node it does not join (a tee under the rising main): where, and the line's direction. */
-export interface PassOver { at: Point; link: string; node: string; angle: number; distance_m: number }
+export interface PassOver {
+  at: Point;
+  link: string;
+  node: string;
+  angle: number;
+  distance_m: number;
+}
 
 /**
  * Every node that sits on (within `within_m` of) a line it is not an end of, with the point on the
@@ -107,17 +124,23 @@ export function nodesUnderLines(doc: NetworkDocument, within_m: number): PassOve
     const pts = linkPoints(l, byId);
     const seen = new Set<string>([l.from, l.to]);
     for (let i = 1; i < pts.length; i++) {
-      const a = pts[i - 1], b = pts[i];
-      const dx = b.x - a.x, dy = b.y - a.y;
+      const a = pts[i - 1],
+        b = pts[i];
+      const dx = b.x - a.x,
+        dy = b.y - a.y;
       const len2 = dx * dx + dy * dy;
       if (len2 === 0) continue;
-      const x0 = cell(Math.min(a.x, b.x) - within_m), x1 = cell(Math.max(a.x, b.x) + within_m);
-      const y0 = cell(Math.min(a.y, b.y) - within_m), y1 = cell(Math.max(a.y, b.y) + within_m);
+      const x0 = cell(Math.min(a.x, b.x) - within_m),
+        x1 = cell(Math.max(a.x, b.x) + within_m);
+      const y0 = cell(Math.min(a.y, b.y) - within_m),
+        y1 = cell(Math.max(a.y, b.y) + within_m);
       // A long line at a fine grid: walk the nodes instead of the cells.
-      const candidates = (x1 - x0 + 1) * (y1 - y0 + 1) > doc.nodes.length
-        ? doc.nodes
-        : Array.from({ length: x1 - x0 + 1 }, (_, i) => x0 + i).flatMap((cx) =>
-          Array.from({ length: y1 - y0 + 1 }, (_, j) => grid.get(`${cx},${y0 + j}`) ?? []).flat());
+      const candidates =
+        (x1 - x0 + 1) * (y1 - y0 + 1) > doc.nodes.length
+          ? doc.nodes
+          : Array.from({ length: x1 - x0 + 1 }, (_, i) => x0 + i).flatMap((cx) =>
+              Array.from({ length: y1 - y0 + 1 }, (_, j) => grid.get(`${cx},${y0 + j}`) ?? []).flat(),
+            );
       for (const n of candidates) {
         if (seen.has(n.id) || n.x_m === undefined || n.y_m === undefined) continue;
         const t = ((n.x_m - a.x) * dx + (n.y_m - a.y) * dy) / len2;

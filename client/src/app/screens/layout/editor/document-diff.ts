@@ -13,7 +13,11 @@ export function describeChanges(d: VersionDiff, maxNames = 3): string {
     return ` (${shown.join(', ')}${list.length > maxNames ? `, +${list.length - maxNames} more` : ''})`;
   };
   const parts: string[] = [];
-  const groups: [ElementRef[], string][] = [[d.changed, 'changed'], [d.added, 'added'], [d.removed, 'removed']];
+  const groups: [ElementRef[], string][] = [
+    [d.changed, 'changed'],
+    [d.added, 'added'],
+    [d.removed, 'removed'],
+  ];
   for (const [list, verb] of groups) {
     if (!list.length) continue;
     const noun = parts.length ? '' : list.length === 1 ? ' element' : ' elements';

@@ -4,7 +4,11 @@ import { Point, polylineLength } from './geometry';
 
 export { emptyDocument, type LengthSource };
 
-interface HistoryEntry { before: NetworkDocument; after: NetworkDocument; label: string }
+interface HistoryEntry {
+  before: NetworkDocument;
+  after: NetworkDocument;
+  label: string;
+}
 
 /**
  * The single source of truth for the Layout editor: an immutable NetworkDocument replaced on each
@@ -189,11 +193,17 @@ export class DocumentStore {
     const removed: string[] = [];
     this.update('delete', (d) => {
       const nodes = d.nodes.filter((n) => {
-        if (gone.has(n.id)) { removed.push(n.id); return false; }
+        if (gone.has(n.id)) {
+          removed.push(n.id);
+          return false;
+        }
         return true;
       });
       const links = d.links.filter((l) => {
-        if (gone.has(l.id) || gone.has(l.from) || gone.has(l.to)) { removed.push(l.id); return false; }
+        if (gone.has(l.id) || gone.has(l.from) || gone.has(l.to)) {
+          removed.push(l.id);
+          return false;
+        }
         return true;
       });
       return removed.length ? { ...d, nodes, links } : d;

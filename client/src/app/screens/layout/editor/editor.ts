@@ -59,7 +59,12 @@ export class Editor implements ToolHost {
   /** Called by the calibrate tool with the two clicked points; the screen asks for the distance. */
   onCalibrationRequest: ((a: Point, b: Point) => void) | null = null;
 
-  constructor(private readonly tools: ToolRegistry, doc?: NetworkDocument, width = 800, height = 600) {
+  constructor(
+    private readonly tools: ToolRegistry,
+    doc?: NetworkDocument,
+    width = 800,
+    height = 600,
+  ) {
     this.store = new DocumentStore(doc);
     this.viewport = new Viewport(width, height);
     this.hits = new HitTester(() => this.store.doc, this.viewport);
@@ -337,7 +342,10 @@ export class Editor implements ToolHost {
     if (this.readOnly) return null;
     const def = NODE_KINDS[kind];
     const doc = this.store.doc;
-    const id = nextId(def.prefix, doc.nodes.map((n) => n.id));
+    const id = nextId(
+      def.prefix,
+      doc.nodes.map((n) => n.id),
+    );
     const p = this.snap(at);
     const node = def.create(id, p.x, p.y, this.units);
     // The elevation is guessed (survey, nearest element) and marked so, or left unset and asked for.
@@ -352,9 +360,11 @@ export class Editor implements ToolHost {
     this.select([id]);
     const name = node.name || id;
     this.flash(
-      guess.source === 'unset' ? `What is the ground elevation at ${name}? Type it in Elevation: pressures show once every elevation is set.`
-      : guess.source === 'survey' ? `${name}: elevation from survey point ${guess.from ?? ''} — check it.`
-      : `${name}: elevation copied from ${guess.from} — type the real one if the ground differs.`,
+      guess.source === 'unset'
+        ? `What is the ground elevation at ${name}? Type it in Elevation: pressures show once every elevation is set.`
+        : guess.source === 'survey'
+          ? `${name}: elevation from survey point ${guess.from ?? ''} — check it.`
+          : `${name}: elevation copied from ${guess.from} — type the real one if the ground differs.`,
     );
     return id;
   }
@@ -371,7 +381,10 @@ export class Editor implements ToolHost {
    */
   addLink(kind: LinkKind, from: string, to: string, vertices: [number, number][] = []): string {
     const def = LINK_KINDS[kind];
-    const id = nextId(def.prefix, this.store.doc.links.map((l) => l.id));
+    const id = nextId(
+      def.prefix,
+      this.store.doc.links.map((l) => l.id),
+    );
     const link = def.create(id, from, to, vertices, this.units);
     const main = kind === 'pump' ? risingMain(this.store.doc, link, this.units) : null;
     if (main) this.store.update('add pump and rising main', (d) => main.apply(d));
@@ -438,7 +451,11 @@ export class Editor implements ToolHost {
     this.store.begin('set scale');
     this.store.update('set scale', () => next);
     // Re-measure drawn pipe lengths at the new scale.
-    this.store.moveNodes(this.store.doc.nodes.map((n) => n.id), 0, 0);
+    this.store.moveNodes(
+      this.store.doc.nodes.map((n) => n.id),
+      0,
+      0,
+    );
     this.store.commit();
     this.setPreview({});
     this.setTool('select');

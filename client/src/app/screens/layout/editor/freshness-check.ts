@@ -80,10 +80,11 @@ export class FreshnessCheck {
       const decision = decideOnServerCopy(status, version, copy);
       if (decision !== 'none') this.act(decision, copy);
     }
-    if (this.visible) this.timer = this.timers.set(() => {
-      this.timer = null;
-      void this.check();
-    }, FreshnessCheck.INTERVAL_MS);
+    if (this.visible)
+      this.timer = this.timers.set(() => {
+        this.timer = null;
+        void this.check();
+      }, FreshnessCheck.INTERVAL_MS);
   }
 
   private cancel(): void {

@@ -4,7 +4,10 @@ import type { SteadyResult } from '../../../../../../engine/steady';
 import { linkPoints } from './document-store';
 
 type Feature = { type: 'Feature'; id: string; geometry: { type: 'Point' | 'LineString'; coordinates: unknown }; properties: Record<string, unknown> };
-export interface GeoJsonCollection { type: 'FeatureCollection'; features: Feature[] }
+export interface GeoJsonCollection {
+  type: 'FeatureCollection';
+  features: Feature[];
+}
 
 /** Said when the plan cannot be placed on the Earth (RFC 7946 §4 allows only WGS 84 longitude/latitude). */
 export const NO_GEO_REFERENCE =
@@ -27,14 +30,20 @@ export function toGeoJson(doc: NetworkDocument, results?: SteadyResult | null): 
       const { x_m, y_m, ...props } = n;
       const r = results?.nodes[n.id];
       const solved = r ? { result_head_m: r.head_m, result_pressure_m: r.pressure_m, result_demand_m3s: r.demand_m3s } : {};
-      return { type: 'Feature' as const, id: n.id, geometry: { type: 'Point' as const, coordinates: place(x_m ?? 0, y_m ?? 0) }, properties: { ...props, ...solved } };
+      return {
+        type: 'Feature' as const,
+        id: n.id,
+        geometry: { type: 'Point' as const, coordinates: place(x_m ?? 0, y_m ?? 0) },
+        properties: { ...props, ...solved },
+      };
     }),
     ...doc.links.map((l) => {
       const { vertices: _v, ...props } = l;
       const r = results?.links[l.id];
       const solved = r ? { result_flow_m3s: r.flow_m3s, result_velocity_ms: r.velocity_ms, result_headloss_m: r.headloss_m, result_status: r.status } : {};
       return {
-        type: 'Feature' as const, id: l.id,
+        type: 'Feature' as const,
+        id: l.id,
         geometry: { type: 'LineString' as const, coordinates: linkPoints(l, byId).map((p) => place(p.x, p.y)) },
         properties: { ...props, ...solved },
       };

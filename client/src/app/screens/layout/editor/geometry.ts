@@ -3,8 +3,16 @@
  * (north); screen coordinates are CSS pixels with y pointing down. Pure functions, no DOM.
  */
 
-export interface Point { x: number; y: number }
-export interface Rect { x: number; y: number; width: number; height: number }
+export interface Point {
+  x: number;
+  y: number;
+}
+export interface Rect {
+  x: number;
+  y: number;
+  width: number;
+  height: number;
+}
 
 export function distance(a: Point, b: Point): number {
   return Math.hypot(a.x - b.x, a.y - b.y);
@@ -81,7 +89,10 @@ export function rectContains(r: Rect, p: Point): boolean {
 /** Bounding box of points, or null for none. */
 export function boundsOf(points: readonly Point[]): Rect | null {
   if (points.length === 0) return null;
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  let minX = Infinity,
+    minY = Infinity,
+    maxX = -Infinity,
+    maxY = -Infinity;
   for (const p of points) {
     if (p.x < minX) minX = p.x;
     if (p.y < minY) minY = p.y;

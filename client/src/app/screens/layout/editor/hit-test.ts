@@ -13,7 +13,11 @@ const HANDLE_HIT_PX = 7;
 /** A segment shorter than this on screen offers no add-bend handle at its middle. */
 const MIN_SEGMENT_FOR_HANDLE_PX = 36;
 
-export interface SegmentHandle { link: string; segment: number; screen: Point }
+export interface SegmentHandle {
+  link: string;
+  segment: number;
+  screen: Point;
+}
 
 /**
  * Hit testing as plain maths on the document (no Konva shape listens): symbols at the size the
@@ -23,7 +27,10 @@ export class HitTester {
   private spacingOf: NetworkNode[] | null = null;
   private spacing = new Map<string, number>();
 
-  constructor(private readonly doc: () => NetworkDocument, private readonly viewport: Viewport) {}
+  constructor(
+    private readonly doc: () => NetworkDocument,
+    private readonly viewport: Viewport,
+  ) {}
 
   /**
    * Scale (0.5…1) at which a node's symbol is drawn now: smaller at whole-site zoom and where

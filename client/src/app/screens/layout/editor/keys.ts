@@ -40,7 +40,11 @@ export interface KeyTarget {
 
 /** Letter keys that choose a tool (with its variant). */
 const TOOL_KEYS: Record<string, [ToolId, string?]> = {
-  v: ['select'], h: ['pan'], p: ['link', 'pipe'], u: ['link', 'pump'], l: ['link', 'valve'],
+  v: ['select'],
+  h: ['pan'],
+  p: ['link', 'pipe'],
+  u: ['link', 'pump'],
+  l: ['link', 'valve'],
 };
 
 /**
@@ -51,7 +55,11 @@ export function handleEditorKey(ed: KeyTarget, key: string, mods: { mod: boolean
   const k = key.length === 1 ? key.toLowerCase() : key;
   if (mods.mod) {
     const act: Record<string, () => void> = {
-      z: () => (mods.shift ? ed.redo() : ed.undo()), y: () => ed.redo(), c: () => ed.copy(), v: () => ed.paste(), a: () => ed.selectAll(),
+      z: () => (mods.shift ? ed.redo() : ed.undo()),
+      y: () => ed.redo(),
+      c: () => ed.copy(),
+      v: () => ed.paste(),
+      a: () => ed.selectAll(),
     };
     const f = act[k];
     if (!f) return false;
@@ -65,11 +73,15 @@ export function handleEditorKey(ed: KeyTarget, key: string, mods: { mod: boolean
   }
   const tool = TOOL_KEYS[k];
   const act: (() => void) | undefined =
-    k === 'Delete' || k === 'Backspace' ? () => ed.deleteSelection()
-    : tool ? () => ed.setTool(tool[0], tool[1])
-    : k === 'f' ? () => ed.fitToView()
-    : k === 'g' ? () => ed.toggleSnap()
-    : undefined;
+    k === 'Delete' || k === 'Backspace'
+      ? () => ed.deleteSelection()
+      : tool
+        ? () => ed.setTool(tool[0], tool[1])
+        : k === 'f'
+          ? () => ed.fitToView()
+          : k === 'g'
+            ? () => ed.toggleSnap()
+            : undefined;
   if (!act) return false;
   act();
   return true;

@@ -10,12 +10,21 @@
 import type { Point } from './geometry';
 
 /** Axis-aligned box, screen px: top-left corner and size. */
-export interface Box { x: number; y: number; w: number; h: number }
+export interface Box {
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+}
 
 /** Where a label sits relative to its anchor. */
 export type Side = 'right' | 'left' | 'above' | 'below' | 'above-right' | 'below-right' | 'above-left' | 'below-left' | 'along';
 
-export interface Candidate { box: Box; side: Side; /** Index of the content variant this box is sized for (0 = fullest). */ variant: number }
+export interface Candidate {
+  box: Box;
+  side: Side;
+  /** Index of the content variant this box is sized for (0 = fullest). */ variant: number;
+}
 
 export interface LabelRequest {
   id: string;
@@ -25,7 +34,12 @@ export interface LabelRequest {
   candidates: Candidate[];
 }
 
-export interface Placement { id: string; box: Box; side: Side; variant: number }
+export interface Placement {
+  id: string;
+  box: Box;
+  side: Side;
+  variant: number;
+}
 
 /** Two boxes overlap (touching edges do not count). */
 export function boxesIntersect(a: Box, b: Box): boolean {
@@ -58,8 +72,10 @@ export class BoxGrid {
 
   private visit(b: Box, fn: (list: Box[] | undefined, key: number) => boolean): boolean {
     const c = this.cell;
-    const x0 = Math.floor(b.x / c), x1 = Math.floor((b.x + b.w) / c);
-    const y0 = Math.floor(b.y / c), y1 = Math.floor((b.y + b.h) / c);
+    const x0 = Math.floor(b.x / c),
+      x1 = Math.floor((b.x + b.w) / c);
+    const y0 = Math.floor(b.y / c),
+      y1 = Math.floor((b.y + b.h) / c);
     for (let i = x0; i <= x1; i++) {
       for (let j = y0; j <= y1; j++) {
         // Cells are numbered on a 2^20-wide lattice: unique for any screen a canvas can have.
@@ -78,7 +94,13 @@ export class BoxGrid {
  * label never does.
  * @example placeLabels([{ id: 'A', priority: 0, candidates: around({ x: 50, y: 50 }, 10, [{ w: 40, h: 12 }]) }], [], { x: 0, y: 0, w: 200, h: 200 })
  */
-export function placeLabels(requests: readonly LabelRequest[], obstacles: readonly Box[], bounds: Box | null, gap = 2, soft: readonly Box[] = []): Map<string, Placement> {
+export function placeLabels(
+  requests: readonly LabelRequest[],
+  obstacles: readonly Box[],
+  bounds: Box | null,
+  gap = 2,
+  soft: readonly Box[] = [],
+): Map<string, Placement> {
   const grid = new BoxGrid();
   for (const o of obstacles) grid.add(o);
   const softGrid = new BoxGrid();
@@ -149,15 +171,23 @@ export function around(anchor: Point, clearance: number, variants: readonly { w:
     for (const side of sides) {
       const { x, y } = anchor;
       const box =
-        side === 'right' ? { x: x + c, y: y - h / 2 }
-        : side === 'left' ? { x: x - c - w, y: y - h / 2 }
-        : side === 'above' ? { x: x - w / 2, y: y - c - h }
-        : side === 'below' ? { x: x - w / 2, y: y + c }
-        : side === 'above-right' ? { x: x + c * 0.7, y: y - c * 0.7 - h }
-        : side === 'below-right' ? { x: x + c * 0.7, y: y + c * 0.7 }
-        : side === 'above-left' ? { x: x - c * 0.7 - w, y: y - c * 0.7 - h }
-        : side === 'below-left' ? { x: x - c * 0.7 - w, y: y + c * 0.7 }
-        : { x: x - w / 2, y: y - h / 2 };
+        side === 'right'
+          ? { x: x + c, y: y - h / 2 }
+          : side === 'left'
+            ? { x: x - c - w, y: y - h / 2 }
+            : side === 'above'
+              ? { x: x - w / 2, y: y - c - h }
+              : side === 'below'
+                ? { x: x - w / 2, y: y + c }
+                : side === 'above-right'
+                  ? { x: x + c * 0.7, y: y - c * 0.7 - h }
+                  : side === 'below-right'
+                    ? { x: x + c * 0.7, y: y + c * 0.7 }
+                    : side === 'above-left'
+                      ? { x: x - c * 0.7 - w, y: y - c * 0.7 - h }
+                      : side === 'below-left'
+                        ? { x: x - c * 0.7 - w, y: y + c * 0.7 }
+                        : { x: x - w / 2, y: y - h / 2 };
       out.push({ box: { ...box, w, h }, side, variant });
     }
   });
@@ -174,8 +204,10 @@ export function besideLine(a: Point, b: Point, size: { w: number; h: number }, o
   const dy = b.y - a.y;
   const len = Math.hypot(dx, dy);
   if (len < size.w + margin) return [];
-  const ux = dx / len, uy = dy / len;
-  const nx = -uy, ny = ux;
+  const ux = dx / len,
+    uy = dy / len;
+  const nx = -uy,
+    ny = ux;
   const out: Candidate[] = [];
   for (const t of [0.5, 0.3, 0.7]) {
     for (const s of [1, -1]) {

@@ -4,7 +4,12 @@ import type { ServiceStates } from '../../../../../../engine/service-state';
 import { formatQuantity, UnitSystem } from '../../../../../../engine/units';
 import { BadgeTone, groupedVolume, linkStateWords, nodeBadge, signedPressure, WORK_WORDS } from './plan-words';
 
-export interface OwnRow { key: string; label: string; value: string; tone?: BadgeTone }
+export interface OwnRow {
+  key: string;
+  label: string;
+  value: string;
+  tone?: BadgeTone;
+}
 
 /**
  * The selected element's own results for the top of its properties: an outlet's pressure, what it
@@ -21,8 +26,12 @@ export function ownResults(el: NetworkNode | NetworkLink, doc: NetworkDocument, 
     const s = svc?.links[el.id];
     rows.push({ key: 'flow', label: 'Flow', value: formatQuantity('flow', Math.abs(r.flow_m3s), u) });
     if (el.kind === 'pipe') {
-      rows.push({ key: 'speed', label: 'Speed', value: `${formatQuantity('velocity', Math.abs(r.velocity_ms), u)}${s ? ` · ${WORK_WORDS[s.work]}` : ''}`,
-        tone: s?.work === 'over' ? 'short' : s?.work === 'hard' ? 'close' : undefined });
+      rows.push({
+        key: 'speed',
+        label: 'Speed',
+        value: `${formatQuantity('velocity', Math.abs(r.velocity_ms), u)}${s ? ` · ${WORK_WORDS[s.work]}` : ''}`,
+        tone: s?.work === 'over' ? 'short' : s?.work === 'hard' ? 'close' : undefined,
+      });
       rows.push({ key: 'loss', label: 'Pressure lost along it', value: p(Math.abs(r.headloss_m)) });
     } else if (el.kind === 'pump') {
       rows.push({ key: 'lift', label: 'Adds', value: `${formatQuantity('head', Math.max(0, -r.headloss_m), u)} of head` });
@@ -53,8 +62,12 @@ export function ownResults(el: NetworkNode | NetworkLink, doc: NetworkDocument, 
     rows.push({ key: 'delivers', label: 'Delivers', value: `${formatQuantity('flow', r.demand_m3s, u)} of ${formatQuantity('flow', el.demand_m3s, u)}` });
   }
   if (s.ratingShare !== undefined) {
-    rows.push({ key: 'rating', label: 'Share of pipe rating', value: `${Math.round(s.ratingShare * 100)} %${s.rating === 'near' ? ' · near rating' : s.rating === 'over' ? ' · over rating' : ''}`,
-      tone: s.rating === 'over' ? 'over-rating' : s.rating === 'near' ? 'near-rating' : undefined });
+    rows.push({
+      key: 'rating',
+      label: 'Share of pipe rating',
+      value: `${Math.round(s.ratingShare * 100)} %${s.rating === 'near' ? ' · near rating' : s.rating === 'over' ? ' · over rating' : ''}`,
+      tone: s.rating === 'over' ? 'over-rating' : s.rating === 'near' ? 'near-rating' : undefined,
+    });
   }
   void doc;
   return rows;

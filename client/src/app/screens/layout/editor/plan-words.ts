@@ -6,7 +6,10 @@ import { formatQuantity, toDisplay, unitLabel, UnitSystem } from '../../../../..
 /** How a badge looks: the state decides the ink, never a colour ramp. */
 export type BadgeTone = 'ok' | 'close' | 'short' | 'near-rating' | 'over-rating' | 'tank' | 'quiet' | 'unset';
 
-export interface PlanBadge { text: string; tone: BadgeTone }
+export interface PlanBadge {
+  text: string;
+  tone: BadgeTone;
+}
 
 const MINUS = '\u2212';
 
@@ -44,9 +47,10 @@ export function nodeBadge(n: NetworkNode, s: NodeService | undefined, units: Uni
     if (s.state === 'no-supply') return { text: 'no supply', tone: 'short' };
     if (pressureState(s.pressure_m, true) === 'below-vacuum') return { text: PRESSURE_STATE_TEXT['below-vacuum'], tone: 'short' };
     const verdict =
-      s.state === 'unknown' || s.margin_m === undefined ? formatQuantity('pressure', s.pressure_m, units)
-      : `${s.state === 'ok' ? 'OK' : s.state} ${signedPressure(s.margin_m, units)}`;
-    const tone: BadgeTone = s.state === 'short' ? 'short' : ratingTone ?? (s.state === 'close' ? 'close' : s.state === 'ok' ? 'ok' : 'quiet');
+      s.state === 'unknown' || s.margin_m === undefined
+        ? formatQuantity('pressure', s.pressure_m, units)
+        : `${s.state === 'ok' ? 'OK' : s.state} ${signedPressure(s.margin_m, units)}`;
+    const tone: BadgeTone = s.state === 'short' ? 'short' : (ratingTone ?? (s.state === 'close' ? 'close' : s.state === 'ok' ? 'ok' : 'quiet'));
     return { text: rating ? `${verdict} · ${rating}` : verdict, tone };
   }
   if (s.state === 'no-supply') return { text: 'no supply', tone: 'short' };
@@ -67,11 +71,16 @@ export const WORK_WORDS: Record<PipeWork, string> = {
 /** Line width (px) and dash for a pipe's work: wider is harder; over the limit adds a hatch. */
 export function workStroke(work: PipeWork | undefined): { width: number; dash?: number[]; hatch: boolean } {
   switch (work) {
-    case 'idle': return { width: 1.6, dash: [2, 4], hatch: false };
-    case 'working': return { width: 3.5, hatch: false };
-    case 'hard': return { width: 5, hatch: false };
-    case 'over': return { width: 6, hatch: true };
-    default: return { width: 2.2, hatch: false };
+    case 'idle':
+      return { width: 1.6, dash: [2, 4], hatch: false };
+    case 'working':
+      return { width: 3.5, hatch: false };
+    case 'hard':
+      return { width: 5, hatch: false };
+    case 'over':
+      return { width: 6, hatch: true };
+    default:
+      return { width: 2.2, hatch: false };
   }
 }
 

@@ -23,11 +23,22 @@ export function risingMain(doc: NetworkDocument, pump: NetworkLink, units: UnitS
   const stretch = Math.hypot(dx, dy);
   if (stretch < 1) return null;
   const along = Math.min(PUMP_OUTLET_M, stretch / 5);
-  const teeId = nextId(NODE_KINDS.tee.prefix, doc.nodes.map((n) => n.id));
+  const teeId = nextId(
+    NODE_KINDS.tee.prefix,
+    doc.nodes.map((n) => n.id),
+  );
   const tee = NODE_KINDS.tee.create(teeId, (a.x_m ?? 0) + (dx / stretch) * along, (a.y_m ?? 0) + (dy / stretch) * along, units) as NetworkNode;
   // The pump outlet stands at the pump's ground: the source's (or tank's) own elevation.
-  Object.assign(tee, { name: `${pump.name && pump.name !== pump.id ? pump.name : 'Pump'} outlet`, elevation_m: a.elevation_m, elevation_source: 'nearest', elevation_from: a.name || a.id });
-  const pipeId = nextId(LINK_KINDS.pipe.prefix, doc.links.map((l) => l.id));
+  Object.assign(tee, {
+    name: `${pump.name && pump.name !== pump.id ? pump.name : 'Pump'} outlet`,
+    elevation_m: a.elevation_m,
+    elevation_source: 'nearest',
+    elevation_from: a.name || a.id,
+  });
+  const pipeId = nextId(
+    LINK_KINDS.pipe.prefix,
+    doc.links.map((l) => l.id),
+  );
   const pipe = LINK_KINDS.pipe.create(pipeId, teeId, b.id, pump.vertices ?? [], units);
   pipe.name = 'Rising main';
   const shortPump: PumpLink = { ...pump, to: teeId, vertices: [] };

@@ -4,13 +4,15 @@ import type { Timers } from './timers';
 export type SaveStatus = 'loading' | 'saved' | 'dirty' | 'saving' | 'offline' | 'conflict' | 'rejected' | 'read-only';
 
 /** The server's copy when a save hits a newer version (409 body `current`). */
-export interface ServerCopy { version: number; document: NetworkDocument; updatedAt?: string; updatedBy?: string | null }
+export interface ServerCopy {
+  version: number;
+  document: NetworkDocument;
+  updatedAt?: string;
+  updatedBy?: string | null;
+}
 
 export type PutOutcome =
-  | { kind: 'saved'; version: number }
-  | { kind: 'conflict'; current: ServerCopy }
-  | { kind: 'offline' }
-  | { kind: 'rejected'; message: string };
+  { kind: 'saved'; version: number } | { kind: 'conflict'; current: ServerCopy } | { kind: 'offline' } | { kind: 'rejected'; message: string };
 
 /**
  * Autosave: a save is sent `debounceMs` after the last edit with the version last loaded or

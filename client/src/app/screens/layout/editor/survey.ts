@@ -84,7 +84,14 @@ export function groundElevationAt(doc: NetworkDocument, p: Point): number | null
 }
 
 /** One element whose elevation the survey would change, for the preview before applying. */
-export interface SurveyChange { id: string; name: string; from_m: number; to_m: number; point: string; distance_m: number }
+export interface SurveyChange {
+  id: string;
+  name: string;
+  from_m: number;
+  to_m: number;
+  point: string;
+  distance_m: number;
+}
 
 /**
  * What "apply survey elevations to all" would do: each node within `reach_m` of a survey point
@@ -99,7 +106,14 @@ export function surveyElevationChanges(doc: NetworkDocument, reach_m = 25): Surv
     if (!near || near.distance_m > reach_m) continue;
     const unset = elevationSource(n) === 'unset';
     if (!unset && Math.abs(near.point.elevation_m - n.elevation_m) < 0.005) continue;
-    out.push({ id: n.id, name: n.name || n.id, from_m: unset ? NaN : n.elevation_m, to_m: near.point.elevation_m, point: near.point.label ?? '', distance_m: near.distance_m });
+    out.push({
+      id: n.id,
+      name: n.name || n.id,
+      from_m: unset ? NaN : n.elevation_m,
+      to_m: near.point.elevation_m,
+      point: near.point.label ?? '',
+      distance_m: near.distance_m,
+    });
   }
   return out;
 }
@@ -131,7 +145,10 @@ export function surveySnap(doc: NetworkDocument, p: Point, metresPerPx: number, 
  * sum of the sloped segments (Pythagoras on each pair).
  */
 export function profileAlong(
-  doc: NetworkDocument, linkId: string, points: readonly SurveyPoint[], corridor_m = 10,
+  doc: NetworkDocument,
+  linkId: string,
+  points: readonly SurveyPoint[],
+  corridor_m = 10,
 ): { profile: [number, number][]; planLength_m: number; groundLength_m: number; used: number } | null {
   const link = doc.links.find((l) => l.id === linkId);
   if (!link) return null;

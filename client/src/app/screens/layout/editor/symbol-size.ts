@@ -33,10 +33,15 @@ export function nearestDistances(points: readonly Point[]): number[] {
   const n = points.length;
   const out = new Array<number>(n).fill(Infinity);
   if (n < 2) return out;
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  let minX = Infinity,
+    minY = Infinity,
+    maxX = -Infinity,
+    maxY = -Infinity;
   for (const p of points) {
-    minX = Math.min(minX, p.x); maxX = Math.max(maxX, p.x);
-    minY = Math.min(minY, p.y); maxY = Math.max(maxY, p.y);
+    minX = Math.min(minX, p.x);
+    maxX = Math.max(maxX, p.x);
+    minY = Math.min(minY, p.y);
+    maxY = Math.max(maxY, p.y);
   }
   const span = Math.max(maxX - minX, maxY - minY);
   // About one point per cell; never so small that a line of points spans millions of cells.

@@ -12,7 +12,9 @@ let loading: Promise<void> | null = null;
 
 /** Starts loading the reader (idempotent); resolves once it is there. */
 export function loadQuantityReader(): Promise<void> {
-  loading ??= import('../../../../../../engine/quantity-input').then((m) => { parser = m.parseQuantity; });
+  loading ??= import('../../../../../../engine/quantity-input').then((m) => {
+    parser = m.parseQuantity;
+  });
   return loading;
 }
 

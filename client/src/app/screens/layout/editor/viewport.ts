@@ -1,7 +1,12 @@
 import { Point, Rect } from './geometry';
 
 /** Screen margins, CSS px. */
-export interface Insets { top: number; right: number; bottom: number; left: number }
+export interface Insets {
+  top: number;
+  right: number;
+  bottom: number;
+  left: number;
+}
 
 /**
  * The view onto the site plan: `scale` CSS pixels per metre and the screen position of the
@@ -17,7 +22,10 @@ export class Viewport {
   static readonly MIN_SCALE = 0.02;
   static readonly MAX_SCALE = 400;
 
-  constructor(public width: number, public height: number) {
+  constructor(
+    public width: number,
+    public height: number,
+  ) {
     this.originX = width / 2;
     this.originY = height / 2;
   }

@@ -21,7 +21,14 @@ function refillSeconds(o: OutletNode): number | undefined {
 /** A trough: "refill N gal in M min with a float valve" sets its design flow N / M. */
 export const troughFields: FieldSpec[] = [
   {
-    key: 'refill_m3', label: 'Refills', type: 'number', quantity: 'volume', min: 0.001, max: 100, testid: 'prop-refill-volume', when: isType('trough'),
+    key: 'refill_m3',
+    label: 'Refills',
+    type: 'number',
+    quantity: 'volume',
+    min: 0.001,
+    max: 100,
+    testid: 'prop-refill-volume',
+    when: isType('trough'),
     hint: 'Water the float valve lets in after the stock drink it down',
     write: (e, v) => {
       const o = asOutlet(e);
@@ -30,7 +37,14 @@ export const troughFields: FieldSpec[] = [
     },
   },
   {
-    key: 'refill_minutes', label: 'in', type: 'number', suffix: 'min', min: 0.5, max: 24 * 60, testid: 'prop-refill-minutes', when: isType('trough'),
+    key: 'refill_minutes',
+    label: 'in',
+    type: 'number',
+    suffix: 'min',
+    min: 0.5,
+    max: 24 * 60,
+    testid: 'prop-refill-minutes',
+    when: isType('trough'),
     read: (e) => {
       const secs = refillSeconds(asOutlet(e));
       return secs === undefined ? undefined : secs / 60;
@@ -67,7 +81,10 @@ function tapePatch(o: OutletNode, tape: Tape, each = emitterFlow(o) ?? DEFAULT_E
 
 function tapeField(key: keyof Tape, spec: Omit<FieldSpec, 'key' | 'type'> & { type?: FieldSpec['type'] }): FieldSpec {
   return {
-    type: 'number', ...spec, key: `drip_tape.${key}`, when: byTape,
+    type: 'number',
+    ...spec,
+    key: `drip_tape.${key}`,
+    when: byTape,
     write: (e, v) => {
       const o = asOutlet(e);
       return v === undefined || !o.drip_tape ? {} : tapePatch(o, { ...o.drip_tape, [key]: key === 'rows' ? Math.round(v) : v });
@@ -81,8 +98,16 @@ function tapeField(key: keyof Tape, spec: Omit<FieldSpec, 'key' | 'type'> & { ty
  */
 export const dripFields: FieldSpec[] = [
   {
-    key: 'drip_entry', label: 'Described as', type: 'select', testid: 'prop-drip-entry', when: isDrip, fallback: 'emitters',
-    options: [{ value: 'emitters', label: 'A count of emitters' }, { value: 'tape', label: 'Rows of drip tape' }],
+    key: 'drip_entry',
+    label: 'Described as',
+    type: 'select',
+    testid: 'prop-drip-entry',
+    when: isDrip,
+    fallback: 'emitters',
+    options: [
+      { value: 'emitters', label: 'A count of emitters' },
+      { value: 'tape', label: 'Rows of drip tape' },
+    ],
     read: (e) => (asOutlet(e).drip_tape ? 'tape' : 'emitters'),
     choose: (e, value) => {
       const o = asOutlet(e);
@@ -97,7 +122,14 @@ export const dripFields: FieldSpec[] = [
   tapeField('row_length_m', { label: 'each', quantity: 'length', min: 0.1, max: 100000, testid: 'prop-tape-row-length' }),
   tapeField('spacing_m', { label: 'Emitters every', quantity: 'diameter', min: 0.02, max: 10, testid: 'prop-tape-spacing' }),
   {
-    key: 'emitters', label: 'Emitters', type: 'number', suffix: 'emitters', min: 1, max: 100000, testid: 'prop-emitters', when: byCount,
+    key: 'emitters',
+    label: 'Emitters',
+    type: 'number',
+    suffix: 'emitters',
+    min: 1,
+    max: 100000,
+    testid: 'prop-emitters',
+    when: byCount,
     write: (e, n) => {
       const o = asOutlet(e);
       if (n === undefined) return { emitters: undefined };
@@ -106,7 +138,14 @@ export const dripFields: FieldSpec[] = [
     },
   },
   {
-    key: 'emitter_flow', label: '× each', type: 'number', quantity: 'emitter-flow', min: 1e-8, max: 1e-3, testid: 'prop-emitter-flow', when: isDrip,
+    key: 'emitter_flow',
+    label: '× each',
+    type: 'number',
+    quantity: 'emitter-flow',
+    min: 1e-8,
+    max: 1e-3,
+    testid: 'prop-emitter-flow',
+    when: isDrip,
     labelFor: (e) => (byTape(e) ? 'Each emitter gives' : '× each'),
     hintFor: (e) => {
       const t = asOutlet(e).drip_tape;
@@ -150,9 +189,16 @@ export function curveForSunHours(shape: readonly number[], hours: number): numbe
 /** A solar pump's sun hours: typed hours reshape its daylight curve. */
 export function sunHoursField(shape: readonly number[]): FieldSpec {
   return {
-    key: 'sun_hours', label: 'Sun hours', type: 'number', suffix: 'h/day', min: 0.5, max: 24, testid: 'prop-sun-hours',
+    key: 'sun_hours',
+    label: 'Sun hours',
+    type: 'number',
+    suffix: 'h/day',
+    min: 0.5,
+    max: 24,
+    testid: 'prop-sun-hours',
     hint: 'Full-sun hours a day at the site; the daylight curve below follows',
     read: (e) => sunHours((e as PumpLink).schedule),
-    write: (e, h) => (h === undefined ? {} : { schedule: curveForSunHours((e as PumpLink).schedule?.some((v) => v > 0) ? (e as PumpLink).schedule! : shape, h) }),
+    write: (e, h) =>
+      h === undefined ? {} : { schedule: curveForSunHours((e as PumpLink).schedule?.some((v) => v > 0) ? (e as PumpLink).schedule! : shape, h) },
   };
 }

@@ -94,7 +94,13 @@ const isNode = (e: NetworkNode | NetworkLink): e is NetworkNode => 'elevation_m'
 
 export const nameField: FieldSpec = { key: 'name', label: 'Name', type: 'text', testid: 'prop-name' };
 export const elevationField: FieldSpec = {
-  key: 'elevation_m', label: 'Elevation', type: 'number', quantity: 'elevation', required: true, min: -500, max: 9000,
+  key: 'elevation_m',
+  label: 'Elevation',
+  type: 'number',
+  quantity: 'elevation',
+  required: true,
+  min: -500,
+  max: 9000,
   testid: 'prop-elevation',
   // Unset shows empty (and is asked for); a guess says where it came from. A source's water
   // surface moves with a first typed elevation (it keeps its height over the ground).
@@ -106,7 +112,11 @@ export const elevationField: FieldSpec = {
   hintFor: (e) => {
     if (!isNode(e)) return undefined;
     const { elevation_source: src, elevation_from: from } = e;
-    return src === 'nearest' ? `Copied from ${from ?? 'the nearest element'}: check it` : src === 'survey' ? `From survey point ${from ?? ''}`.trim() : undefined;
+    return src === 'nearest'
+      ? `Copied from ${from ?? 'the nearest element'}: check it`
+      : src === 'survey'
+        ? `From survey point ${from ?? ''}`.trim()
+        : undefined;
   },
 };
 export const notesField: FieldSpec = { key: 'notes', label: 'Notes', type: 'text', testid: 'prop-notes' };

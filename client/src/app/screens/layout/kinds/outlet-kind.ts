@@ -22,10 +22,20 @@ const OUTLET_TYPES: { value: OutletType; label: string }[] = [
 
 /** What an outlet's design flow is called, by type: a hose bib gives 5 gpm at 8 psi. */
 const FLOW_WORDS: Record<OutletType, string> = {
-  'hose-bib': 'Gives', trough: 'Fills at', 'drip-zone': 'Whole zone draws', sprinkler: 'Gives', house: 'Draws at peak', other: 'Draws',
+  'hose-bib': 'Gives',
+  trough: 'Fills at',
+  'drip-zone': 'Whole zone draws',
+  sprinkler: 'Gives',
+  house: 'Draws at peak',
+  other: 'Draws',
 };
 const PRESSURE_WORDS: Record<OutletType, string> = {
-  'hose-bib': 'at', trough: 'Float valve needs', 'drip-zone': 'Emitters rated at', sprinkler: 'at', house: 'Needs at the taps', other: 'Needs at least',
+  'hose-bib': 'at',
+  trough: 'Float valve needs',
+  'drip-zone': 'Emitters rated at',
+  sprinkler: 'at',
+  house: 'Needs at the taps',
+  other: 'Needs at least',
 };
 
 /** One glyph per outlet type, all about 24 px across, white body with dark outline. */
@@ -56,7 +66,10 @@ function glyph(type: OutletType): ShapeSpec[] {
     case 'house': // a gabled outline
       return [{ t: 'poly', points: [-10, 10, -10, -2, 0, -11, 10, -2, 10, 10], closed: true, fill: PAPER, stroke: INK, sw: 2 }];
     default:
-      return [{ t: 'circle', r: 9, fill: PAPER, stroke: INK, sw: 2 }, { t: 'circle', r: 3, fill: INK }];
+      return [
+        { t: 'circle', r: 9, fill: PAPER, stroke: INK, sw: 2 },
+        { t: 'circle', r: 3, fill: INK },
+      ];
   }
 }
 
@@ -71,8 +84,15 @@ export const outletKind: NodeKindDef<OutletNode> = {
   requiredPressure_m: (o) => o.min_pressure_m ?? 0,
   symbolKey: (o) => o.outlet_type ?? '',
   create: (id, x_m, y_m, units = 'si') => ({
-    id, kind: 'outlet', name: id, elevation_m: 0, ...siDefaults(OUTLET_DEFAULTS, units), outlet_type: 'hose-bib',
-    demand_model: { type: 'fixed' }, x_m, y_m,
+    id,
+    kind: 'outlet',
+    name: id,
+    elevation_m: 0,
+    ...siDefaults(OUTLET_DEFAULTS, units),
+    outlet_type: 'hose-bib',
+    demand_model: { type: 'fixed' },
+    x_m,
+    y_m,
   }),
   symbol: (o) => glyph(o.outlet_type ?? 'other'),
   fields: [
@@ -82,15 +102,32 @@ export const outletKind: NodeKindDef<OutletNode> = {
     ...troughFields,
     ...dripFields,
     {
-      key: 'demand_m3s', label: 'Design flow', type: 'number', quantity: 'flow', required: true, min: 0, max: 1, testid: 'prop-demand',
+      key: 'demand_m3s',
+      label: 'Design flow',
+      type: 'number',
+      quantity: 'flow',
+      required: true,
+      min: 0,
+      max: 1,
+      testid: 'prop-demand',
       labelFor: (o) => FLOW_WORDS[(o as OutletNode).outlet_type ?? 'other'],
     },
     {
-      key: 'min_pressure_m', label: 'Needs at least', type: 'number', quantity: 'pressure', min: 0, max: 200, testid: 'prop-min-pressure',
+      key: 'min_pressure_m',
+      label: 'Needs at least',
+      type: 'number',
+      quantity: 'pressure',
+      min: 0,
+      max: 200,
+      testid: 'prop-min-pressure',
       labelFor: (o) => PRESSURE_WORDS[(o as OutletNode).outlet_type ?? 'other'],
     },
     {
-      key: 'demand_model.type', label: 'When pressure drops', type: 'select', testid: 'prop-demand-model', fallback: 'fixed',
+      key: 'demand_model.type',
+      label: 'When pressure drops',
+      type: 'select',
+      testid: 'prop-demand-model',
+      fallback: 'fixed',
       options: [
         { value: 'fixed', label: 'Still draws its flow (tap, float valve)' },
         { value: 'pressure-dependent', label: 'Weakens below full-flow pressure' },
@@ -98,19 +135,39 @@ export const outletKind: NodeKindDef<OutletNode> = {
       ],
     },
     {
-      key: 'demand_model.required_pressure_m', label: 'Full flow from', type: 'number', quantity: 'pressure', min: 0, max: 200,
-      testid: 'prop-required-pressure', when: (o) => (o as OutletNode).demand_model?.type === 'pressure-dependent',
+      key: 'demand_model.required_pressure_m',
+      label: 'Full flow from',
+      type: 'number',
+      quantity: 'pressure',
+      min: 0,
+      max: 200,
+      testid: 'prop-required-pressure',
+      when: (o) => (o as OutletNode).demand_model?.type === 'pressure-dependent',
     },
     {
-      key: 'demand_model.k', label: 'Flow at 1 m of water (law constant)', type: 'number', min: 0, max: 1, testid: 'prop-emitter-k',
-      hint: 'm³/s per m^x of pressure', when: (o) => (o as OutletNode).demand_model?.type === 'emitter',
-    },
-    {
-      key: 'demand_model.exponent', label: 'Pressure exponent (0.5 plain, near 0 compensating)', type: 'number', min: 0, max: 2, testid: 'prop-emitter-exponent',
+      key: 'demand_model.k',
+      label: 'Flow at 1 m of water (law constant)',
+      type: 'number',
+      min: 0,
+      max: 1,
+      testid: 'prop-emitter-k',
+      hint: 'm³/s per m^x of pressure',
       when: (o) => (o as OutletNode).demand_model?.type === 'emitter',
     },
     {
-      key: 'float_valve', label: 'Float valve (stops when full)', type: 'checkbox', testid: 'prop-float-valve',
+      key: 'demand_model.exponent',
+      label: 'Pressure exponent (0.5 plain, near 0 compensating)',
+      type: 'number',
+      min: 0,
+      max: 2,
+      testid: 'prop-emitter-exponent',
+      when: (o) => (o as OutletNode).demand_model?.type === 'emitter',
+    },
+    {
+      key: 'float_valve',
+      label: 'Float valve (stops when full)',
+      type: 'checkbox',
+      testid: 'prop-float-valve',
       when: (o) => (o as OutletNode).outlet_type === 'trough',
     },
     notesField,

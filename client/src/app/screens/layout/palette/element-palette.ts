@@ -36,8 +36,16 @@ export const PHONE_QUERY = '(max-width: 699.98px)';
       <aside class="column" aria-label="Elements">
         <h2>Elements</h2>
         @for (p of items(); track p.kind) {
-          <button type="button" class="palette-item" cdkDrag (cdkDragEnded)="dropped.emit({ end: $event, kind: p.kind })" (click)="chosen.emit(p.kind)"
-            [attr.data-testid]="p.testid" [matTooltip]="'Drag onto the site, or click then click the site'" matTooltipPosition="right">
+          <button
+            type="button"
+            class="palette-item"
+            cdkDrag
+            (cdkDragEnded)="dropped.emit({ end: $event, kind: p.kind })"
+            (click)="chosen.emit(p.kind)"
+            [attr.data-testid]="p.testid"
+            [matTooltip]="'Drag onto the site, or click then click the site'"
+            matTooltipPosition="right"
+          >
             <rn-palette-symbol [shapes]="p.shapes" />
             <span>{{ p.label }}</span>
           </button>
@@ -59,14 +67,23 @@ export class ElementPalette {
   /** A palette item chosen by click, keyboard or the phone's sheet: arm the place tool. */
   readonly chosen = output<NodeKind>();
 
-  protected readonly phone = toSignal(inject(BreakpointObserver).observe(PHONE_QUERY).pipe(map((s) => s.matches)), { initialValue: false });
+  protected readonly phone = toSignal(
+    inject(BreakpointObserver)
+      .observe(PHONE_QUERY)
+      .pipe(map((s) => s.matches)),
+    { initialValue: false },
+  );
   protected readonly lastChosen = signal('');
 
   protected openSheet(): void {
     const ref = this.sheet.open<PaletteSheet, PaletteItem[], NodeKind>(PaletteSheet, { data: this.items(), ariaLabel: 'Add an element' });
     ref.afterDismissed().subscribe((kind) => {
       if (!kind) return;
-      this.lastChosen.set(this.items().find((p) => p.kind === kind)?.label.toLowerCase() ?? kind);
+      this.lastChosen.set(
+        this.items()
+          .find((p) => p.kind === kind)
+          ?.label.toLowerCase() ?? kind,
+      );
       this.chosen.emit(kind);
     });
   }

@@ -18,7 +18,10 @@ import { PaletteItem, PaletteSymbol } from './palette-symbol';
         <li>
           <button type="button" class="item" (click)="choose(p.kind)" [attr.data-testid]="'sheet-' + p.testid">
             <rn-palette-symbol [shapes]="p.shapes" [size]="36" />
-            <span class="words"><strong>{{ p.label }}</strong><span>{{ p.purpose }}</span></span>
+            <span class="words"
+              ><strong>{{ p.label }}</strong
+              ><span>{{ p.purpose }}</span></span
+            >
           </button>
         </li>
       }
@@ -26,18 +29,57 @@ import { PaletteItem, PaletteSymbol } from './palette-symbol';
     <p class="hint">Then tap the site where it goes. Pipes, pumps and valves: the tools along the top, from one element to the next.</p>
   `,
   styles: `
-    :host { display: block; padding: 4px 0 8px; }
-    .title { font: var(--mat-sys-title-medium); margin: 4px 8px 8px; }
-    .items { list-style: none; margin: 0; padding: 0; }
-    .item {
-      display: flex; align-items: center; gap: 14px; width: 100%; min-height: 56px; padding: 8px; border: 0; border-radius: 12px;
-      background: none; color: inherit; font: inherit; text-align: left; cursor: pointer;
+    :host {
+      display: block;
+      padding: 4px 0 8px;
     }
-    .item:hover, .item:focus-visible { background: var(--mat-sys-surface-container-high); outline: none; }
-    .words { display: flex; flex-direction: column; gap: 2px; min-width: 0; }
-    .words strong { font: var(--mat-sys-title-small); }
-    .words span { font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
-    .hint { font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); margin: 8px 8px 0; }
+    .title {
+      font: var(--mat-sys-title-medium);
+      margin: 4px 8px 8px;
+    }
+    .items {
+      list-style: none;
+      margin: 0;
+      padding: 0;
+    }
+    .item {
+      display: flex;
+      align-items: center;
+      gap: 14px;
+      width: 100%;
+      min-height: 56px;
+      padding: 8px;
+      border: 0;
+      border-radius: 12px;
+      background: none;
+      color: inherit;
+      font: inherit;
+      text-align: left;
+      cursor: pointer;
+    }
+    .item:hover,
+    .item:focus-visible {
+      background: var(--mat-sys-surface-container-high);
+      outline: none;
+    }
+    .words {
+      display: flex;
+      flex-direction: column;
+      gap: 2px;
+      min-width: 0;
+    }
+    .words strong {
+      font: var(--mat-sys-title-small);
+    }
+    .words span {
+      font: var(--mat-sys-body-small);
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .hint {
+      font: var(--mat-sys-body-small);
+      color: var(--mat-sys-on-surface-variant);
+      margin: 8px 8px 0;
+    }
   `,
 })
 export class PaletteSheet {

@@ -3,7 +3,13 @@ import type { NodeKind } from '../../../../../../engine/network-document';
 import { NODE_KINDS, ShapeSpec } from '../kinds';
 
 /** One element the palette offers: its kind, its name, and the plan symbol drawn small. */
-export interface PaletteItem { kind: NodeKind; label: string; testid: string; shapes: ShapeSpec[]; purpose: string }
+export interface PaletteItem {
+  kind: NodeKind;
+  label: string;
+  testid: string;
+  shapes: ShapeSpec[];
+  purpose: string;
+}
 
 /** What each palette kind is for, in the farm's words (the bottom sheet shows it under the name). */
 const PURPOSE: Partial<Record<NodeKind, string>> = {
@@ -29,17 +35,57 @@ export function paletteItems(kinds: NodeKind[] = ['source', 'tank', 'tee', 'outl
     <svg viewBox="-16 -16 32 32" [attr.width]="size()" [attr.height]="size()" aria-hidden="true">
       @for (s of shapes(); track $index) {
         @switch (s.t) {
-          @case ('circle') { <circle [attr.cx]="s.x ?? 0" [attr.cy]="s.y ?? 0" [attr.r]="s.r" [attr.fill]="s.fill ?? 'none'" [attr.stroke]="s.stroke ?? 'none'" [attr.stroke-width]="s.sw ?? 0" /> }
-          @case ('rect') { <rect [attr.x]="s.x" [attr.y]="s.y" [attr.width]="s.w" [attr.height]="s.h" [attr.rx]="s.corner ?? 0" [attr.fill]="s.fill ?? 'none'" [attr.stroke]="s.stroke ?? 'none'" [attr.stroke-width]="s.sw ?? 0" /> }
+          @case ('circle') {
+            <circle
+              [attr.cx]="s.x ?? 0"
+              [attr.cy]="s.y ?? 0"
+              [attr.r]="s.r"
+              [attr.fill]="s.fill ?? 'none'"
+              [attr.stroke]="s.stroke ?? 'none'"
+              [attr.stroke-width]="s.sw ?? 0"
+            />
+          }
+          @case ('rect') {
+            <rect
+              [attr.x]="s.x"
+              [attr.y]="s.y"
+              [attr.width]="s.w"
+              [attr.height]="s.h"
+              [attr.rx]="s.corner ?? 0"
+              [attr.fill]="s.fill ?? 'none'"
+              [attr.stroke]="s.stroke ?? 'none'"
+              [attr.stroke-width]="s.sw ?? 0"
+            />
+          }
           @case ('poly') {
-            @if (s.closed) { <polygon [attr.points]="s.points.join(',')" [attr.fill]="s.fill ?? 'none'" [attr.stroke]="s.stroke ?? 'none'" [attr.stroke-width]="s.sw ?? 0" stroke-linejoin="round" /> }
-            @else { <polyline [attr.points]="s.points.join(',')" fill="none" [attr.stroke]="s.stroke ?? 'none'" [attr.stroke-width]="s.sw ?? 0" stroke-linecap="round" /> }
+            @if (s.closed) {
+              <polygon
+                [attr.points]="s.points.join(',')"
+                [attr.fill]="s.fill ?? 'none'"
+                [attr.stroke]="s.stroke ?? 'none'"
+                [attr.stroke-width]="s.sw ?? 0"
+                stroke-linejoin="round"
+              />
+            } @else {
+              <polyline
+                [attr.points]="s.points.join(',')"
+                fill="none"
+                [attr.stroke]="s.stroke ?? 'none'"
+                [attr.stroke-width]="s.sw ?? 0"
+                stroke-linecap="round"
+              />
+            }
           }
         }
       }
     </svg>
   `,
-  styles: `:host { display: inline-flex; flex: none; }`,
+  styles: `
+    :host {
+      display: inline-flex;
+      flex: none;
+    }
+  `,
 })
 export class PaletteSymbol {
   readonly shapes = input.required<ShapeSpec[]>();

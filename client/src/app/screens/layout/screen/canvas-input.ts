@@ -57,8 +57,12 @@ export function attachCanvasInput(el: HTMLElement, editor: Editor, hooks: Canvas
   };
   const noMenu = (e: Event) => e.preventDefault();
   const listeners: [string, EventListener, AddEventListenerOptions?][] = [
-    ['pointerdown', down as EventListener], ['pointermove', move as EventListener], ['pointerup', up as EventListener],
-    ['pointercancel', up as EventListener], ['wheel', wheel as EventListener, { passive: false }], ['dblclick', dbl as EventListener],
+    ['pointerdown', down as EventListener],
+    ['pointermove', move as EventListener],
+    ['pointerup', up as EventListener],
+    ['pointercancel', up as EventListener],
+    ['wheel', wheel as EventListener, { passive: false }],
+    ['dblclick', dbl as EventListener],
     ['contextmenu', noMenu],
   ];
   for (const [type, fn, opts] of listeners) el.addEventListener(type, fn, opts);

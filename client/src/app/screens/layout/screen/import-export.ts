@@ -40,5 +40,10 @@ function download(filename: string, text: string, type: string): void {
 }
 
 export function slug(name: string): string {
-  return name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'runnel';
+  return (
+    name
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '') || 'runnel'
+  );
 }

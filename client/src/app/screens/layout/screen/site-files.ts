@@ -41,8 +41,13 @@ export class SiteFiles {
       const m_per_px = (visible.width * 0.8) / img.naturalWidth;
       const centre = { x: visible.x + visible.width / 2, y: visible.y + visible.height / 2 };
       const backdrop: Backdrop = {
-        fileId: rec.id, opacity: 0.6, m_per_px, width_px: img.naturalWidth, height_px: img.naturalHeight,
-        x_m: centre.x - (img.naturalWidth * m_per_px) / 2, y_m: centre.y + (img.naturalHeight * m_per_px) / 2,
+        fileId: rec.id,
+        opacity: 0.6,
+        m_per_px,
+        width_px: img.naturalWidth,
+        height_px: img.naturalHeight,
+        x_m: centre.x - (img.naturalWidth * m_per_px) / 2,
+        y_m: centre.y + (img.naturalHeight * m_per_px) / 2,
       };
       editor.store.patchLayout({ backdrop });
       snack.open('Backdrop added. Use the Scale tool to set its scale from two points a known distance apart.', 'OK', { duration: 8000 });
@@ -91,8 +96,13 @@ export class SiteFiles {
       const first = parsed.points.find((p) => p.lat !== undefined && p.lon !== undefined);
       const geo = existing ?? (first ? referenceAt(first.lat!, first.lon!, 'gpx') : null);
       const points = existing
-        ? parsed.points.flatMap((p) => p.x_m !== undefined && p.y_m !== undefined ? [{ label: p.label, x_m: p.x_m, y_m: p.y_m, elevation_m: p.elevation_m }]
-          : p.lat !== undefined && p.lon !== undefined ? [{ label: p.label, ...toLocal(existing, p.lat, p.lon), elevation_m: p.elevation_m }] : [])
+        ? parsed.points.flatMap((p) =>
+            p.x_m !== undefined && p.y_m !== undefined
+              ? [{ label: p.label, x_m: p.x_m, y_m: p.y_m, elevation_m: p.elevation_m }]
+              : p.lat !== undefined && p.lon !== undefined
+                ? [{ label: p.label, ...toLocal(existing, p.lat, p.lon), elevation_m: p.elevation_m }]
+                : [],
+          )
         : toLocalPoints(parsed.points);
       this.host.editor.store.patchLayout({ survey: { filename: file.name, format: parsed.format, points }, ...(geo && !existing ? { geo } : {}) });
       this.host.snack.open(`${points.length} survey point(s) from ${file.name}. Select an element to apply them.`, 'OK', { duration: 6000 });
@@ -113,14 +123,20 @@ export class SiteFiles {
     const changes = surveyElevationChanges(store.doc);
     const u = this.host.units();
     const rows = changes.map((c) => ({
-      id: c.id, name: c.name, now: Number.isNaN(c.from_m) ? 'not set' : formatQuantity('elevation', c.from_m, u),
-      next: formatQuantity('elevation', c.to_m, u), point: `${c.point || 'unnamed'} (${formatQuantity('length', c.distance_m, u)} away)`,
+      id: c.id,
+      name: c.name,
+      now: Number.isNaN(c.from_m) ? 'not set' : formatQuantity('elevation', c.from_m, u),
+      next: formatQuantity('elevation', c.to_m, u),
+      point: `${c.point || 'unnamed'} (${formatQuantity('length', c.distance_m, u)} away)`,
     }));
-    this.host.dialog.open(SurveyApplyDialog, { data: { rows }, width: '560px' }).afterClosed().subscribe((ok?: boolean) => {
-      if (!ok) return;
-      store.update('elevations from survey', (d) => withSurveyElevations(d, changes));
-      this.host.say(`Elevations from the survey applied to ${changes.length} element(s). Undo puts them back.`);
-    });
+    this.host.dialog
+      .open(SurveyApplyDialog, { data: { rows }, width: '560px' })
+      .afterClosed()
+      .subscribe((ok?: boolean) => {
+        if (!ok) return;
+        store.update('elevations from survey', (d) => withSurveyElevations(d, changes));
+        this.host.say(`Elevations from the survey applied to ${changes.length} element(s). Undo puts them back.`);
+      });
   }
 
   snapElevation(id: string): void {

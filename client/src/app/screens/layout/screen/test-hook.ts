@@ -23,7 +23,10 @@ export interface RunnelEditorHook {
 }
 
 declare global {
-  interface Window { __runnelEditor?: RunnelEditorHook; __runnelTestHooks?: boolean }
+  interface Window {
+    __runnelEditor?: RunnelEditorHook;
+    __runnelTestHooks?: boolean;
+  }
 }
 
 export interface HookSource {

@@ -15,7 +15,10 @@ export function attachTouchGestures(el: HTMLElement, editor: Editor): () => void
   let gesture: { cx: number; cy: number; d: number } | null = null;
   let startOne: { x: number; y: number } | null = null;
 
-  const at = (e: PointerEvent) => { const r = el.getBoundingClientRect(); return { x: e.clientX - r.left, y: e.clientY - r.top }; };
+  const at = (e: PointerEvent) => {
+    const r = el.getBoundingClientRect();
+    return { x: e.clientX - r.left, y: e.clientY - r.top };
+  };
   const measure = () => {
     const pts = [...fingers.values()];
     const cx = pts.reduce((s, p) => s + p.x, 0) / pts.length;
@@ -23,12 +26,18 @@ export function attachTouchGestures(el: HTMLElement, editor: Editor): () => void
     const d = pts.length >= 2 ? Math.hypot(pts[0].x - pts[1].x, pts[0].y - pts[1].y) : 0;
     return { cx, cy, d };
   };
-  const take = (e: PointerEvent) => { e.stopImmediatePropagation(); e.preventDefault(); };
+  const take = (e: PointerEvent) => {
+    e.stopImmediatePropagation();
+    e.preventDefault();
+  };
 
   const down = (e: PointerEvent) => {
     if (e.pointerType !== 'touch') return;
     fingers.set(e.pointerId, at(e));
-    if (fingers.size === 1) { startOne = at(e); return; }
+    if (fingers.size === 1) {
+      startOne = at(e);
+      return;
+    }
     // A second finger: whatever the first started (a marquee, a drag) is abandoned.
     editor.activeTool.cancel();
     gesture = measure();
@@ -62,9 +71,13 @@ export function attachTouchGestures(el: HTMLElement, editor: Editor): () => void
   };
 
   const listeners: [string, EventListener][] = [
-    ['pointerdown', down as EventListener], ['pointermove', move as EventListener],
-    ['pointerup', up as EventListener], ['pointercancel', up as EventListener],
+    ['pointerdown', down as EventListener],
+    ['pointermove', move as EventListener],
+    ['pointerup', up as EventListener],
+    ['pointercancel', up as EventListener],
   ];
   for (const [type, fn] of listeners) el.addEventListener(type, fn, { capture: true });
-  return () => { for (const [type, fn] of listeners) el.removeEventListener(type, fn, { capture: true }); };
+  return () => {
+    for (const [type, fn] of listeners) el.removeEventListener(type, fn, { capture: true });
+  };
 }

@@ -15,7 +15,10 @@ export class LinkTool implements Tool {
   private vertices: Point[] = [];
   private cursor: Point | null = null;
 
-  constructor(private readonly ed: ToolHost, readonly kind: LinkKind) {}
+  constructor(
+    private readonly ed: ToolHost,
+    readonly kind: LinkKind,
+  ) {}
 
   enter(): void {
     this.reset();
@@ -41,7 +44,12 @@ export class LinkTool implements Tool {
       return;
     }
     if (node && node.id !== this.from && this.from) {
-      const id = this.ed.addLink(this.kind, this.from, node.id, this.vertices.map((v) => [v.x, v.y] as [number, number]));
+      const id = this.ed.addLink(
+        this.kind,
+        this.from,
+        node.id,
+        this.vertices.map((v) => [v.x, v.y] as [number, number]),
+      );
       this.ed.select([id]);
       this.reset();
       return;

@@ -9,7 +9,10 @@ export class PlaceTool implements Tool {
   readonly id = 'place' as const;
   state = 'aiming' as const;
 
-  constructor(private readonly ed: ToolHost, readonly kind: NodeKind) {}
+  constructor(
+    private readonly ed: ToolHost,
+    readonly kind: NodeKind,
+  ) {}
 
   enter(): void {
     this.state = 'aiming';

@@ -45,7 +45,10 @@ export interface Preview {
 }
 
 /** A bend point of a link: the link id and the index in its `vertices`. */
-export interface VertexRef { link: string; index: number }
+export interface VertexRef {
+  link: string;
+  index: number;
+}
 
 /**
  * What a tool may ask of the editor. Tools know this interface only (never the Editor class),
