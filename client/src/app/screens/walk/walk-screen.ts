@@ -260,7 +260,9 @@ export class WalkScreen {
     const walk = this.walk();
     if (!walk || this.syncing() || !this.canRecord()) return;
     const waiting = await this.db.waiting(walk.id);
-    if (waiting.points + waiting.track + waiting.photos === 0) return;
+    // The background sync (core/walk-autosync) may have sent everything since this screen last read
+    // its counts: show that rather than a stale "waiting to sync".
+    if (waiting.points + waiting.track + waiting.photos === 0) return this.refresh();
     this.syncing.set(true);
     try {
       const res = await this.syncer.sync(walk);
