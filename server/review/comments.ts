@@ -12,25 +12,10 @@ import { ApiError } from '../errors';
 import { isUuid } from '../ids';
 import { loadVersion } from '../network/versions-store';
 import type { ProjectRow } from '../project-scope';
+import type { ReviewComment, ReviewThread } from '../../shared/review-api';
 
-export interface CommentJson {
-  id: string;
-  version: number;
-  parentId: string | null;
-  element: string | null;
-  x_m: number | null;
-  y_m: number | null;
-  body: string;
-  resolved: boolean;
-  resolvedAt: string | null;
-  resolvedBy: string | null;
-  createdAt: string;
-  createdBy: string | null;
-}
-
-export interface ThreadJson extends CommentJson {
-  replies: CommentJson[];
-}
+export type CommentJson = ReviewComment;
+export type ThreadJson = ReviewThread;
 
 const author = alias(users, 'author');
 const resolver = alias(users, 'resolver');

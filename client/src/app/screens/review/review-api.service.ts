@@ -31,23 +31,8 @@ export interface VersionComparison {
   outlets: OutletComparison[];
 }
 
-export interface ReviewComment {
-  id: string;
-  version: number;
-  parentId: string | null;
-  element: string | null;
-  x_m: number | null;
-  y_m: number | null;
-  body: string;
-  resolved: boolean;
-  resolvedAt: string | null;
-  resolvedBy: string | null;
-  createdAt: string;
-  createdBy: string | null;
-}
-export interface ReviewThread extends ReviewComment {
-  replies: ReviewComment[];
-}
+import type { ReviewComment, ReviewThread } from '../../../../../shared/review-api';
+export type { ReviewComment, ReviewThread };
 export interface NewComment {
   version: number;
   body: string;
