@@ -123,12 +123,19 @@ export function fromDisplay(q: Quantity, shown: number, system: UnitSystem): num
   return TABLE[q][system].toSi(shown);
 }
 
-/** Formatted value with its unit, e.g. "42.3 psi". */
+/** Formatted value with its unit, e.g. "42.3 psi" or "6,932 L/day" (thousands grouped so large volumes read at a glance). */
 export function formatQuantity(q: Quantity, si: number, system: UnitSystem, digits?: number): string {
   const def = TABLE[q][system];
   const value = def.fromSi(si);
   if (!Number.isFinite(value)) return `— ${def.label}`;
-  return `${value.toFixed(digits ?? def.digits)} ${def.label}`;
+  return `${groupThousands(value.toFixed(digits ?? def.digits))} ${def.label}`;
+}
+
+/** "-12345.60" → "-12,345.60": commas between thousands of the whole part only (English-language screens). */
+export function groupThousands(fixed: string): string {
+  const [whole, fraction] = fixed.split('.');
+  const grouped = whole.replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+  return fraction === undefined ? grouped : `${grouped}.${fraction}`;
 }
 
 export const PSI_PER_METRE_OF_WATER = PSI_PER_M_WATER;

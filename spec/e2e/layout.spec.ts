@@ -137,7 +137,7 @@ describe('Layout screen end to end (Chromium, real server)', function () {
 
     // A good CSV afterwards is taken.
     await page.getByTestId('survey-file').setInputFiles({ name: 'levels.csv', mimeType: 'text/csv', buffer: Buffer.from(csv.replace('ten', '22')) });
-    expect(await snackText(page)).to.contain('3 survey point(s)');
+    expect(await snackText(page)).to.contain('3 survey points');
   });
 
   // Found by this suite and fixed: the first fit was taken before the canvas reached its final

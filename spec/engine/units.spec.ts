@@ -1,5 +1,5 @@
 import { expect } from 'chai';
-import { fromDisplay, toDisplay, formatQuantity } from '../../engine/units';
+import { fromDisplay, toDisplay, formatQuantity, groupThousands } from '../../engine/units';
 
 describe('units (display conversion)', () => {
   it('100 ft is 30.48 m (exact by definition, NIST SP 811)', () => {
@@ -14,5 +14,12 @@ describe('units (display conversion)', () => {
   });
   it('formats with the unit', () => {
     expect(formatQuantity('pressure', 10, 'si')).to.equal('98 kPa');
+  });
+  it('groups thousands of the whole part only, sign kept (English-language number style)', () => {
+    // 6.932 m³ = 6,932 L; 1 US gal = 3.785411784 L exactly (NIST SP 811): 10 m³ = 2,641.7 gal.
+    expect(formatQuantity('volume', 6.932, 'si')).to.equal('6,932 L');
+    expect(formatQuantity('volume', 10, 'us', 1)).to.equal('2,641.7 gal');
+    expect(groupThousands('-1234567.50')).to.equal('-1,234,567.50');
+    expect(groupThousands('999.999')).to.equal('999.999');
   });
 });

@@ -20,9 +20,9 @@ const base: MonthVerdict = {
 describe('budget screen wording', () => {
   it('names the shortfall per day and the storage rule with units', () => {
     expect(verdictText(base, 'si')).to.equal('enough');
-    expect(verdictText({ ...base, status: 'short', balance_m3: -1.2345 }, 'si')).to.equal('short by 1235 L per day');
+    expect(verdictText({ ...base, status: 'short', balance_m3: -1.2345 }, 'si')).to.equal('short by 1,235 L per day');
     expect(verdictText({ ...base, status: 'short-and-storage-low', balance_m3: -3.785411784 }, 'us')).to.equal(
-      'short by 1000 gal per day; storage below 3 days (holds 2.1 days)',
+      'short by 1,000 gal per day; storage below 3 days (holds 2.1 days)',
     );
   });
   it('seasons read as month runs, wrapping over the new year', () => {

@@ -16,6 +16,7 @@ import { OptionsService, type OptionDetail, type OptionRow, type SizingReport } 
 import { ProjectContext } from '../../core/project-context';
 import { SessionService } from '../../core/session.service';
 import { QuantityPipe } from '../../shared/quantity.pipe';
+import { CountPipe } from '../../shared/count';
 import { MiniPlan } from './mini-plan';
 
 interface Column {
@@ -42,6 +43,7 @@ interface Column {
     DecimalPipe,
     PercentPipe,
     QuantityPipe,
+    CountPipe,
     MiniPlan,
     MatButtonModule,
     MatCheckboxModule,

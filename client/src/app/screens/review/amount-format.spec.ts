@@ -9,7 +9,7 @@ describe('review: formatAmount', () => {
     expect(formatAmount({ value: 10, quantity: 'pressure' }, 'si')).to.equal('98 kPa');
   });
   it('daily volumes, shares, days and hours carry their own units', () => {
-    expect(formatAmount({ value: 1, quantity: 'volume-per-day' }, 'si')).to.equal('1000 L/day');
+    expect(formatAmount({ value: 1, quantity: 'volume-per-day' }, 'si')).to.equal('1,000 L/day');
     expect(formatAmount({ value: 1, quantity: 'volume-per-day' }, 'us')).to.equal('264 gal/day');
     expect(formatAmount({ value: 75.9, quantity: 'percent' }, 'us')).to.equal('76 %');
     expect(formatAmount({ value: 2.29, quantity: 'days' }, 'us')).to.equal('2.3 days');

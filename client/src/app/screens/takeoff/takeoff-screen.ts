@@ -17,6 +17,7 @@ import { ProjectContext } from '../../core/project-context';
 import { SessionService } from '../../core/session.service';
 import { TakeoffService, type PriceItem, type TakeoffSettingsBody } from '../../core/takeoff.service';
 import { QuantityPipe } from '../../shared/quantity.pipe';
+import { CountPipe } from '../../shared/count';
 
 interface Line {
   row: TakeoffRow;
@@ -38,6 +39,7 @@ interface Line {
     DatePipe,
     DecimalPipe,
     QuantityPipe,
+    CountPipe,
     MatButtonModule,
     MatCheckboxModule,
     MatFormFieldModule,

@@ -27,6 +27,7 @@ import { type BuildSummary, buildFromWalk } from './walk-to-network';
 import { WalkDb } from './walk-db';
 import { noSignal, WalkSync } from './walk-sync';
 import { POINT_KINDS, type PointKind, type TrackPoint, type Walk, type WalkPhoto, type WalkPoint } from './walk-types';
+import { countOf, CountPipe } from '../../shared/count';
 
 /** No answer from Runnel itself: offline, or the service worker's 504 when the network failed under it. */
 /** Accuracy limits offered, metres (a phone in the open manages 3–5 m; under trees 10–30 m). */
@@ -36,7 +37,7 @@ const INTERVALS_S = [2, 5, 10, 30];
 
 @Component({
   selector: 'rn-walk-screen',
-  imports: [FormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatInputModule, MatIconModule, MatSlideToggleModule, QuantityPipe],
+  imports: [FormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatInputModule, MatIconModule, MatSlideToggleModule, QuantityPipe, CountPipe],
   providers: [PositionWatch],
   templateUrl: './walk-screen.html',
   styleUrl: './walk-screen.scss',
@@ -266,7 +267,7 @@ export class WalkScreen {
     this.syncing.set(true);
     try {
       const res = await this.syncer.sync(walk);
-      this.syncStatus.set(`Synced: ${res.points} point(s) and ${res.track} track fix(es) in ${res.filename}.`);
+      this.syncStatus.set(`Synced: ${countOf(res.points, 'point')} and ${countOf(res.track, 'track fix', 'track fixes')} in ${res.filename}.`);
       this.retryDelay_s = 3;
     } catch (e) {
       const offline = noSignal(e);

@@ -17,6 +17,7 @@ import { geoReferenceOf, type GeoReference, referenceAt, toLocal } from '../../.
 import { LINK_KINDS, NODE_KINDS, nextId } from '../layout/kinds';
 import { profileAlong, type SurveyPoint } from '../layout/editor/survey';
 import type { PointKind, WalkRecording } from './walk-types';
+import { countOf } from '../../shared/count';
 
 const ELEMENT_OF: Partial<Record<PointKind, NodeKind>> = { 'spring-box': 'source', 'tank-pad': 'tank', tee: 'tee', trough: 'outlet' };
 const SAME_PLACE_M = 2;
@@ -89,7 +90,7 @@ function trackElevations(walk: WalkRecording, local: (p: { lat: number; lon: num
   const offset = diffs.length === 0 ? 0 : diffs.length % 2 ? diffs[(diffs.length - 1) / 2] : (diffs[diffs.length / 2 - 1] + diffs[diffs.length / 2]) / 2;
   if (Math.abs(offset) >= 0.05) {
     notes.push(
-      `Track elevations from the phone shifted by ${offset > 0 ? '+' : '−'}${formatQuantity('elevation', Math.abs(offset), units)} to agree with the ${diffs.length} typed elevation(s) along it.`,
+      `Track elevations from the phone shifted by ${offset > 0 ? '+' : '−'}${formatQuantity('elevation', Math.abs(offset), units)} to agree with the ${countOf(diffs.length, 'typed elevation')} along it.`,
     );
   }
   return fixes.map((f) => (f.z === null ? null : round2(f.z + offset)));

@@ -14,6 +14,7 @@ import { handleEditorKey } from './keys';
 import { risingMain } from './rising-main';
 import { groundElevationAt, groundGuess, surveySnap } from './survey';
 import { Insets, Viewport } from './viewport';
+import { countOf } from '../../../shared/count';
 
 export type { Backdrop } from './calibration';
 export { SHORTCUTS } from './keys';
@@ -416,7 +417,7 @@ export class Editor implements ToolHost {
   // ---- clipboard (clipboard.ts) ----
   copy(): void {
     const n = this.clipboard.copy(this.store.doc, this.selected);
-    this.flash(`Copied ${n} element(s)`);
+    this.flash(`Copied ${countOf(n, 'element')}`);
   }
 
   /** Paste offset down-right, with new ids; the pasted elements become the selection. */

@@ -9,6 +9,7 @@ import type { Point } from '../editor/geometry';
 import { nearestSurveyPoint, profileAlong, surveyElevationChanges, surveyPointsOf, toLocalPoints, withSurveyElevations } from '../editor/survey';
 import { CalibrateDialog, MessagesDialog, SurveyApplyDialog } from '../layout-dialogs';
 import { LayoutApi, LayoutApiError } from '../layout-api.service';
+import { countOf } from '../../../shared/count';
 
 /** What the site tools need from the screen. */
 export interface SiteHost {
@@ -105,7 +106,7 @@ export class SiteFiles {
           )
         : toLocalPoints(parsed.points);
       this.host.editor.store.patchLayout({ survey: { filename: file.name, format: parsed.format, points }, ...(geo && !existing ? { geo } : {}) });
-      this.host.snack.open(`${points.length} survey point(s) from ${file.name}. Select an element to apply them.`, 'OK', { duration: 6000 });
+      this.host.snack.open(`${countOf(points.length, 'survey point')} from ${file.name}. Select an element to apply them.`, 'OK', { duration: 6000 });
     } catch (err) {
       const e = err instanceof LayoutApiError ? err : null;
       const where = e?.line !== undefined && !/\b(line|point)\s+\d+/i.test(e.message) ? ` (line/point ${e.line})` : '';
@@ -135,7 +136,7 @@ export class SiteFiles {
       .subscribe((ok?: boolean) => {
         if (!ok) return;
         store.update('elevations from survey', (d) => withSurveyElevations(d, changes));
-        this.host.say(`Elevations from the survey applied to ${changes.length} element(s). Undo puts them back.`);
+        this.host.say(`Elevations from the survey applied to ${countOf(changes.length, 'element')}. Undo puts them back.`);
       });
   }
 
@@ -158,7 +159,7 @@ export class SiteFiles {
     if (!prof) return;
     store.patchElement(id, { profile: prof.profile, length_m: prof.groundLength_m, length_source: 'survey' });
     this.host.say(
-      `Profile from ${prof.used} survey point(s) within 10 m of the line; length along the ground ${formatQuantity('length', prof.groundLength_m, this.host.units())}`,
+      `Profile from ${countOf(prof.used, 'survey point')} within 10 m of the line; length along the ground ${formatQuantity('length', prof.groundLength_m, this.host.units())}`,
     );
   }
 }
