@@ -1,9 +1,10 @@
-/** Pure helpers of the Layout editor: colour scale, survey maths, GeoJSON export, kinds. */
+/** Pure helpers of the Layout editor: survey maths, kinds, the solar pump's daylight curve. */
 import { expect } from 'chai';
 import { createEditor } from '../../client/src/app/screens/layout/create-editor';
 import { niceStep, projectOnPolyline } from '../../client/src/app/screens/layout/editor/geometry';
 import { nearestSurveyPoint, profileAlong, toLocalPoints } from '../../client/src/app/screens/layout/editor/survey';
 import { LINK_KINDS, NODE_KINDS, nextId, patchForPath, readPath } from '../../client/src/app/screens/layout/kinds';
+import type { NetworkDocument, PumpLink } from '../../engine/network-document';
 
 describe('Layout editor: geometry and survey', () => {
   it('nice steps are 1, 2 or 5 times a power of ten', () => {
@@ -79,12 +80,45 @@ describe('Layout editor: export and kinds', () => {
   });
 });
 
-describe('Layout editor: pump daylight preset', () => {
-  it('has 24 hourly factors in 0..1, zero through the night, summing to 8.7 full-flow hours', async () => {
+describe('Layout editor: pump daylight preset and sun hours', () => {
+  it('the preset is a clear day: dark at night, symmetric about solar noon (12:30 here), rising through the morning, inside the day length at 45° N', async () => {
     const { DAYLIGHT_SCHEDULE } = await import('../../client/src/app/screens/layout/kinds/pump-kind');
     expect(DAYLIGHT_SCHEDULE).to.have.length(24);
     expect(DAYLIGHT_SCHEDULE.every((f) => f >= 0 && f <= 1)).to.equal(true);
-    expect([0, 1, 2, 3, 4, 5, 20, 21, 22, 23].map((h) => DAYLIGHT_SCHEDULE[h])).to.deep.equal(Array(10).fill(0));
-    expect(DAYLIGHT_SCHEDULE.reduce((a, b) => a + b, 0)).to.be.closeTo(8.7, 1e-9);
+    // sunlight is symmetric about solar noon (any astronomy text): hour h mirrors hour 24 − h (centres h + ½ about 12:30)
+    for (let h = 1; h < 24; h++) expect(DAYLIGHT_SCHEDULE[h], `hour ${h}`).to.equal(DAYLIGHT_SCHEDULE[24 - h]);
+    for (let h = 1; h <= 12; h++) expect(DAYLIGHT_SCHEDULE[h], `hour ${h}`).to.be.at.least(DAYLIGHT_SCHEDULE[h - 1]);
+    // lit hours no longer than a summer day: cos ω0 = −tan φ·tan δ at φ = 45°, δ = 23.44° gives ω0 = 115.7°,
+    // a day of 2·115.7/15 = 15.4 h (sunrise equation, C), and no shorter than the 12 h of an equinox
+    const lit = DAYLIGHT_SCHEDULE.filter((f) => f > 0).length;
+    const dayLength = (2 * ((Math.acos(-Math.tan(Math.PI / 4) * Math.tan((23.44 * Math.PI) / 180)) * 180) / Math.PI)) / 15;
+    expect(dayLength).to.be.closeTo(15.4, 0.05);
+    expect(lit).to.be.within(12, dayLength);
+  });
+
+  it("typing the site's sun hours reshapes the curve: a pump then fills flow × sun hours a day (REFERENCES.md: daily volume ≈ full-sun flow × peak sun hours, common practice)", async () => {
+    const { simulate } = await import('../../engine/simulate');
+    const field = LINK_KINDS.pump.fields.find((f) => f.key === 'sun_hours')!;
+    const pump = LINK_KINDS.pump.create('Pu1', 'W', 'T', [], 'si') as PumpLink;
+    // 5.5 h: inside the 5–6 peak-sun hours solar pumps are commonly sized on (trade practice, M)
+    const reshaped = { ...pump, ...(field.write!(pump, 5.5) as Partial<PumpLink>) };
+    expect(field.read!(reshaped) as number).to.be.closeTo(5.5, 0.012); // shares rounded to 0.001 in 24 hours
+    expect(reshaped.schedule!.every((f, h) => f <= 1 && f > 0 === pump.schedule![h] > 0)).to.equal(true);
+    // 13 h of sun would need every lit hour full: capped at 1, all 13 lit hours run flat out
+    const long = field.write!(pump, 13) as Partial<PumpLink>;
+    expect(long.schedule!.filter((f) => f === 1)).to.have.length(13);
+    // a day of that pump into a large tank, no control: 0.5 L/s × 5.5 h × 3600 s = 9.9 m³ (C)
+    const doc: NetworkDocument = {
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
+      nodes: [
+        { id: 'W', kind: 'source', elevation_m: 0, head_m: 0 },
+        { id: 'T', kind: 'tank', elevation_m: 10, diameter_m: 10, level_m: 0.5, min_level_m: 0.1, max_level_m: 5 },
+      ],
+      links: [{ id: 'Pu1', kind: 'pump', from: 'W', to: 'T', flow_m3s: 0.0005, schedule: reshaped.schedule }],
+    };
+    const day = simulate(doc, { duration_s: 86400, step_s: 600 });
+    expect(day.summary.pumps['Pu1'].pumped_m3).to.be.closeTo(0.0005 * (field.read!(reshaped) as number) * 3600, 1e-6);
+    expect(day.summary.pumps['Pu1'].pumped_m3).to.be.closeTo(9.9, 0.0005 * 0.012 * 3600);
   });
 });

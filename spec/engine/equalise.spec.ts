@@ -4,6 +4,7 @@ import { equalisationTime } from '../../engine/equalise';
 import { hillSmallholding, twoTankBank } from '../../engine/examples/hill-smallholding';
 import { hazenWilliamsResistance, HW_FLOW_EXPONENT } from '../../engine/hazen-williams';
 import type { NetworkDocument, TankNode } from '../../engine/network-document';
+import { area, bisect, hwLoss, minorLoss } from './hand-formulas';
 
 /**
  * Tank banks equalising (equalise.ts) against closed forms (REFERENCES.md, worked examples, V):
@@ -66,7 +67,18 @@ describe('tank-bank equalisation (equalise.ts)', () => {
     (doc.nodes.find((n) => n.id === 'T2') as TankNode).level_m = 0.6;
     const r = equalisationTime(doc, { tanks: ['T1', 'T2'], tolerance_m: 0.005 });
     expect(r.equalises).to.equal(true);
-    expect(r.time_s).to.be.above(0);
+    // Worked apart from the engine: the 4 m header of 2" Sch 40 (ID 2.067 in, ASTM D1785, V2), PVC C 150,
+    // K 1.5 passes Q(Δ) with hwLoss(Q) + K·v²/2g = Δ (bisection); two tanks of A = π·2.44²/4 close their
+    // gap as dΔ/dt = −2Q/A, so T = (A/2)·∫ dΔ/Q(Δ) from 0.005 to 1.2 m (Simpson on ln Δ, 4000 panels; C)
+    const d = 2.067 * 0.0254;
+    const flow = (gap: number) => bisect((q) => hwLoss(q, 4, d, 150) + minorLoss(1.5, q, d) - gap, 0, 1);
+    const [lo, hi, n] = [Math.log(0.005), Math.log(1.2), 4000];
+    const g = (u: number) => Math.exp(u) / flow(Math.exp(u));
+    let sum = g(lo) + g(hi);
+    for (let i = 1; i < n; i++) sum += (i % 2 ? 4 : 2) * g(lo + ((hi - lo) * i) / n);
+    const byHand = ((area(2.44) / 2) * (sum * (hi - lo))) / (3 * n);
+    expect(byHand).to.be.closeTo(867, 1); // about 14½ minutes
+    expect(r.time_s).to.be.closeTo(byHand, 1e-3 * byHand);
     expect(Math.abs(r.levels_m['T1'] - r.levels_m['T2'])).to.be.at.most(0.005 + 1e-9);
     expect(r.levels_m['T1'] + r.levels_m['T2']).to.be.closeTo(2.4, 1e-6); // volume conserved (equal tanks)
   });

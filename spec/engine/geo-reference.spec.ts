@@ -13,7 +13,11 @@ describe('geo reference (plan metres ⇄ WGS 84)', () => {
     const ref = referenceAt(44.5, -122.1);
     expect(toLonLat(ref, 0, 0)).to.deep.equal([-122.1, 44.5]);
     const [lon, lat] = toLonLat(ref, 1000, 0);
-    expect(lon).to.be.greaterThan(-122.1);
+    // a degree of longitude at 44.5° on WGS 84 is (π/180)·a·cos φ/√(1 − e²·sin²φ) = 79,529 m
+    // (a = 6,378,137 m, e² = 0.00669438; geodesy texts, V2): 1 km east is 0.012574° (C)
+    const phi = (44.5 * Math.PI) / 180;
+    const degLon = ((Math.PI / 180) * 6378137 * Math.cos(phi)) / Math.sqrt(1 - 0.00669438 * Math.sin(phi) ** 2);
+    expect(lon).to.be.closeTo(-122.1 + 1000 / degLon, 2e-6);
     expect(lat).to.be.closeTo(44.5, 1e-4);
     expect(haversine(44.5, -122.1, lat, lon)).to.be.closeTo(1000, 5);
     // One degree of latitude is about 111.1 km near 45° (meridian arc on WGS 84; V2, geodesy tables).

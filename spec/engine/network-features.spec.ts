@@ -1,6 +1,7 @@
 import { expect } from 'chai';
 import type { NetworkDocument, NetworkLink, NetworkNode } from '../../engine/network-document';
 import { solve } from '../../engine/steady';
+import { area, bisect, dwLoss, hwLoss, minorLoss } from './hand-formulas';
 
 const doc = (nodes: NetworkNode[], links: NetworkLink[], extra: Partial<NetworkDocument> = {}): NetworkDocument => ({
   schema: 'runnel.network/1',
@@ -31,12 +32,14 @@ describe('valves (gradient-solver.ts status logic)', () => {
     expect(r.links['PRV'].status).to.equal('active');
     expect(r.nodes['B'].pressure_m).to.be.closeTo(20, 1e-6);
     expect(r.links['PRV'].flow_m3s).to.be.closeTo(0.001, 1e-12);
-    expect(r.nodes['A'].pressure_m).to.be.above(20);
+    // upstream: 60 m less the Hazen-Williams loss of 1 L/s in 100 m of 50 mm, C 150 (hand-formulas.ts, C) = 59.40 m
+    expect(r.nodes['A'].pressure_m).to.be.closeTo(60 - hwLoss(0.001, 100, 0.05, 150), 1e-6);
   });
   it('…and opens fully when the upstream head cannot reach the setting', () => {
     const r = solve(prvNet(15));
     expect(r.links['PRV'].status).to.equal('open');
-    expect(r.nodes['B'].pressure_m).to.be.below(15);
+    // wide open it is a fitting of K 0.2 (the engine's default valve loss, trade practice): 15 m less that and P1's loss (C)
+    expect(r.nodes['B'].pressure_m).to.be.closeTo(15 - hwLoss(0.001, 100, 0.05, 150) - minorLoss(0.2, 0.001, 0.05), 1e-6);
     expect(r.links['PRV'].flow_m3s).to.be.closeTo(0.001, 1e-12);
   });
   it('a check valve stops reverse flow (status check-closed), and passes forward flow', () => {
@@ -55,7 +58,9 @@ describe('valves (gradient-solver.ts status logic)', () => {
     expect(back.nodes['A'].head_m).to.be.closeTo(40, 1e-6);
     const forward = solve(net(60));
     expect(forward.links['CV'].status).to.equal('open');
-    expect(forward.links['CV'].flow_m3s).to.be.above(0);
+    // 10 m of head difference spent in P1 (Hazen-Williams) and the open valve (K 0.2), flow found by bisection (C): 4.55 L/s
+    const q = bisect((x) => hwLoss(x, 100, 0.05, 150) + minorLoss(0.2, x, 0.05) - 10, 0, 0.1);
+    expect(forward.links['CV'].flow_m3s).to.be.closeTo(q, 1e-7);
   });
   it('a shut valve cuts off what lies behind it: disconnected, no flow, no NaN', () => {
     const r = solve(
@@ -196,8 +201,12 @@ describe('design checks (checks.ts)', () => {
         [pipe('P', 'S', 'O', 100, 0.02)],
       );
     const r = solve(net(19));
-    expect(r.links['P'].velocity_ms).to.be.above(1.5);
-    expect(r.nodes['O'].pressure_m).to.be.within(0, 19);
+    // v = Q/A = 0.55 L/s over π·(0.02 m)²/4 = 1.751 m/s (C), above 1.5 m/s
+    expect(r.links['P'].velocity_ms).to.be.closeTo(0.00055 / area(0.02), 1e-9);
+    expect(0.00055 / area(0.02)).to.be.closeTo(1.751, 0.001);
+    // 30 m less the Hazen-Williams loss in 100 m of 20 mm (C) = 12.8 m, under the 19 m asked
+    expect(r.nodes['O'].pressure_m).to.be.closeTo(30 - hwLoss(0.00055, 100, 0.02, 150), 1e-6);
+    expect(r.nodes['O'].pressure_m).to.be.below(19);
     expect(codes(r, 'P')).to.deep.equal(['velocity-high']);
     expect(codes(r, 'O')).to.deep.equal(['below-minimum']);
     expect(solve(net(), { velocityLimit_ms: 3 }).warnings).to.deep.equal([]);
@@ -237,10 +246,14 @@ describe('design checks (checks.ts)', () => {
         ],
       ),
     );
-    // HGL at 100 m is below 20 − (20·100/300 + loss share) < 18.5 m pipe crown
     const w = r.warnings.find((x) => x.code === 'negative-pressure');
     expect(w?.element).to.equal('P');
-    expect(w?.message).to.match(/^P: HGL is [0-9.]+ m below the pipe at 100 m from S; air-lock \/ siphon risk/);
+    // by hand: the HGL falls linearly by the Hazen-Williams loss over 300 m; at 100 m it stands at
+    // 20 − loss/3, and the pipe lies 0.5 m under the 19 m ground (C)
+    const deficit = 19 - 0.5 - (20 - hwLoss(0.0005, 300, 0.03, 150) / 3);
+    expect(deficit).to.be.closeTo(0.5025, 1e-4);
+    expect(w?.message).to.match(/^P: HGL is 0\.5\d* m below the pipe at 100 m from S; air-lock \/ siphon risk/);
+    expect(Number(/HGL is ([0-9.]+) m/.exec(w?.message ?? '')?.[1])).to.be.closeTo(deficit, 0.01);
   });
   it('a tank at its minimum level is flagged tank-empty', () => {
     const r = solve(
@@ -266,6 +279,7 @@ describe('design checks (checks.ts)', () => {
       ),
     );
     expect(r.converged).to.equal(true);
-    expect(r.nodes['O'].pressure_m).to.be.within(0, 20);
+    // 20 m less f·(L/D)·v²/2g with Colebrook's f iterated by hand (ε 0.0015 mm, ν 1.004e-6 m²/s; hand-formulas.ts, C) = 17.82 m
+    expect(r.nodes['O'].pressure_m).to.be.closeTo(20 - dwLoss(0.0005, 100, 0.03, 0.0015e-3), 1e-4);
   });
 });

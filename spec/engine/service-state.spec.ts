@@ -1,5 +1,6 @@
 import { expect } from 'chai';
 import { hillSmallholding, solve } from '../../engine/index';
+import { M_PER_PSI } from './hand-formulas';
 import { outletState, pipeWork, ratingState, serviceStates, tankVolume } from '../../engine/service-state';
 
 describe('Service states: what the plan says about each element', () => {
@@ -34,7 +35,9 @@ describe('Service states: what the plan says about each element', () => {
     const s = serviceStates(hillSmallholding, res);
     const wh = s.nodes['WH'];
     const r1 = hillSmallholding.links.find((l) => l.id === 'R1')!;
-    expect(r1.kind === 'pipe' && r1.rating_m).to.be.a('number');
+    // R1 is 1" PE SIDR 9: P = 2S/(SIDR + 1) = 2·800/10 = 160 psi (NRCS NEH; PE3608 HDS 800 psi, PPI, V),
+    // 160 × 0.70307 m/psi = 112.49 m (NIST SP 811 factors, C)
+    expect(r1.kind === 'pipe' && r1.rating_m).to.be.closeTo(160 * M_PER_PSI, 0.01);
     // The share is the solved pressure over the rising main's rating, recomputed here from both.
     expect(wh.ratingShare).to.be.closeTo(res.nodes['WH'].pressure_m / (r1 as { rating_m: number }).rating_m, 1e-9);
     expect(wh.rating).to.equal('near');

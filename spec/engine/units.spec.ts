@@ -9,10 +9,11 @@ describe('units (display conversion)', () => {
     const ftPerPsi = toDisplay('head', fromDisplay('pressure', 1, 'us'), 'us');
     expect(ftPerPsi).to.be.closeTo(2.31, 0.01);
   });
-  it('round-trips flow in gpm', () => {
+  it('1 US gpm is 0.0630902 L/s (231 in³ per gallon, exact by definition, NIST SP 811) and round-trips', () => {
+    expect(fromDisplay('flow', 1, 'us')).to.be.closeTo(0.003785411784 / 60, 1e-15);
     expect(toDisplay('flow', fromDisplay('flow', 7.5, 'us'), 'us')).to.be.closeTo(7.5, 1e-12);
   });
-  it('formats with the unit', () => {
+  it('formats with the unit: 10 m of water is 1000 kg/m³ × 9.80665 m/s² × 10 m = 98.07 kPa, shown as 98 kPa', () => {
     expect(formatQuantity('pressure', 10, 'si')).to.equal('98 kPa');
   });
   it('groups thousands of the whole part only, sign kept (English-language number style)', () => {
