@@ -7,7 +7,7 @@ import {
   NODE_TANK as NODE_TANK_,
   type NetworkModel,
 } from './network-model';
-import type { PipeLink } from './network-document';
+import type { NetworkDocument, PipeLink } from './network-document';
 import type { Warning } from './warnings';
 
 // local copies of imported constants read per element (see gradient-solver.ts)
@@ -38,6 +38,16 @@ const NODE_TANK = NODE_TANK_;
 export const DEFAULT_VELOCITY_LIMIT_MS = 1.5;
 /** Default burial depth of a pipe below its ground profile, m (18 in, common practice). */
 export const DEFAULT_COVER_M = 0.45;
+
+/**
+ * The document with a project's default cover (the Profile tab's setting) written onto every pipe
+ * that has none of its own; a pipe's own cover wins. The same document back when there is no project cover,
+ * so every check downstream reads one `cover_m ?? DEFAULT_COVER_M`.
+ */
+export function withProjectCover(doc: NetworkDocument, cover_m: number | null | undefined): NetworkDocument {
+  if (cover_m === null || cover_m === undefined) return doc;
+  return { ...doc, links: doc.links.map((l) => (l.kind === 'pipe' && l.cover_m === undefined ? { ...l, cover_m } : l)) };
+}
 
 export interface SteadySolution {
   head: Float64Array;

@@ -1,4 +1,5 @@
 import { planBudget } from '../budget/plan';
+import { withProjectCover } from '../checks';
 import type { NetworkDocument, PipeLink } from '../network-document';
 import { failingCheckCount } from '../review/checklist';
 import { designChecks } from '../sizing/verify';
@@ -34,6 +35,8 @@ export interface SummaryInputs {
   estimateSettings?: Partial<EstimateSettings>;
   /** The project's water budget document (runnel.budget/1), if any. */
   budget?: unknown;
+  /** The project's default cover over pipes without their own, m (Profile tab). */
+  cover_m?: number | null;
 }
 
 export interface DesignEvaluation {
@@ -44,7 +47,8 @@ export interface DesignEvaluation {
 }
 
 /** Solve, check, take off and price one design. */
-export function evaluateDesign(doc: NetworkDocument, inputs: SummaryInputs): DesignEvaluation {
+export function evaluateDesign(drawn: NetworkDocument, inputs: SummaryInputs): DesignEvaluation {
+  const doc = withProjectCover(drawn, inputs.cover_m);
   const steady = solve(doc);
   const check = designChecks(doc, steady, {});
   const lowest = check.outlets.reduce<DesignSummary['lowestOutlet']>(
@@ -53,7 +57,7 @@ export function evaluateDesign(doc: NetworkDocument, inputs: SummaryInputs): Des
   );
   let failing = 0;
   try {
-    failing = failingCheckCount(doc);
+    failing = failingCheckCount(doc, { cover_m: inputs.cover_m });
   } catch {
     failing = Number.NaN;
   }

@@ -9,6 +9,7 @@
  * failingCheckCount(optionDocument) // the Options screen's column
  */
 import type { NetworkDocument } from '../network-document';
+import { withProjectCover } from '../checks';
 import { outletChecks } from './outlet-checks';
 import { pipeChecks } from './pipe-checks';
 import { profileChecks } from './profile-checks';
@@ -20,11 +21,13 @@ import type { Checklist, CheckRow, CheckStatus } from './types';
 export interface ChecklistOptions {
   /** From the water budget, when the project has one (see ./supply-checks). */
   supply?: SupplyInputs;
+  /** The project's default cover over pipes without their own, m (Profile tab; ../checks withProjectCover). */
+  cover_m?: number | null;
 }
 
 /** Every check of a validated document (validate first: the checks trust the types). */
 export function reviewChecklist(doc: NetworkDocument, options: ChecklistOptions = {}): Checklist {
-  const ctx = reviewContext(doc);
+  const ctx = reviewContext(withProjectCover(doc, options.cover_m));
   const rows: CheckRow[] = [...outletChecks(ctx), ...pipeChecks(ctx), ...profileChecks(ctx), ...supplyChecks(ctx, options.supply), ...safetyChecks(ctx)];
   const counts: Record<CheckStatus, number> = { pass: 0, caution: 0, fail: 0 };
   for (const r of rows) counts[r.status]++;

@@ -1,4 +1,4 @@
-import { DEFAULT_VELOCITY_LIMIT_MS } from '../checks';
+import { DEFAULT_VELOCITY_LIMIT_MS, withProjectCover } from '../checks';
 import { HW_OMEGA_SI } from '../hazen-williams';
 import type { NetworkDocument, NetworkLink, PipeLink } from '../network-document';
 import { DEFAULT_VALVE_MINOR_LOSS } from '../network-model';
@@ -49,6 +49,8 @@ export interface SizingOptions extends CheckSettings {
   /** Looped regions: budget of hydraulic solves (default 40,000). */
   maxEvaluations?: number;
   seed?: number;
+  /** The project's default cover over pipes without their own, m (Profile tab); the sized document keeps pipes without a cover of their own. */
+  cover_m?: number | null;
 }
 
 export interface PipeChoice {
@@ -123,7 +125,8 @@ function better(a: SizingCandidate, b: SizingCandidate, headloss: string): boole
 export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[], options: SizingOptions = {}): SizingResult {
   const invalid = validateDocument(input);
   if (invalid.length > 0) throw new Error(invalid.map((w) => w.message).join('\n'));
-  const doc: NetworkDocument = { ...input, links: input.links.map((l) => ({ ...l })) as NetworkLink[], nodes: input.nodes };
+  const covered = withProjectCover(input, options.cover_m);
+  const doc: NetworkDocument = { ...covered, links: covered.links.map((l) => ({ ...l })) as NetworkLink[], nodes: input.nodes };
   const omega = options.omega ?? HW_OMEGA_SI;
   const limit = options.velocityLimit_ms ?? DEFAULT_VELOCITY_LIMIT_MS;
   const share = options.ratingFraction ?? 1;
@@ -391,5 +394,15 @@ export function sizeNetwork(input: NetworkDocument, candidates: SizingCandidate[
     });
   }
   const feasible = reports.every((r) => r.feasible) && check.failures.length === 0;
-  return { feasible, document: doc, cost, largestCost, choices: chosen, skipped, regions: reports, check, settings };
+  const document: NetworkDocument = {
+    ...doc,
+    links: doc.links.map((l, k) => (l.kind === 'pipe' && (input.links[k] as PipeLink).cover_m === undefined ? withoutCover(l) : l)),
+  };
+  return { feasible, document, cost, largestCost, choices: chosen, skipped, regions: reports, check, settings };
+}
+
+/** A sized pipe as the designer left it: without the project cover the search wrote onto it. */
+function withoutCover(pipe: PipeLink): PipeLink {
+  const { cover_m: _cover, ...rest } = pipe;
+  return rest;
 }

@@ -1,6 +1,6 @@
 /**
  * What pricing and comparing a design needs from the database: the team's prices, the project's
- * takeoff and estimate settings, and its water budget (for storage days).
+ * takeoff and estimate settings, its water budget (for storage days) and its default cover (Profile tab).
  */
 import { eq } from 'drizzle-orm';
 import {
@@ -15,6 +15,7 @@ import {
 import { budgets, takeoffSettings } from '../../drizzle/schema';
 import type { DbOrTx } from '../db';
 import { priceMap } from '../prices/price-store';
+import { loadProfileSettings } from '../profile/profile-settings-store';
 
 export interface ProjectTakeoffSettings extends Required<Pick<TakeoffSettings, 'waste_fraction' | 'bendAngle_deg' | 'other'>>, Required<EstimateSettings> {}
 
@@ -31,10 +32,11 @@ export async function loadTakeoffSettings(db: DbOrTx, projectId: string): Promis
 }
 
 export async function designInputs(db: DbOrTx, teamId: string, projectId: string): Promise<SummaryInputs & { settings: ProjectTakeoffSettings }> {
-  const [prices, settings, budgetRows] = await Promise.all([
+  const [prices, settings, budgetRows, profile] = await Promise.all([
     priceMap(db, teamId),
     loadTakeoffSettings(db, projectId),
     db.select({ document: budgets.document }).from(budgets).where(eq(budgets.projectId, projectId)),
+    loadProfileSettings(db, projectId),
   ]);
   const budget = budgetRows[0]?.document as { uses?: unknown[] } | undefined;
   return {
@@ -43,6 +45,7 @@ export async function designInputs(db: DbOrTx, teamId: string, projectId: string
     budget: budget && Array.isArray(budget.uses) && budget.uses.length > 0 ? budget : undefined,
     takeoffSettings: { waste_fraction: settings.waste_fraction, bendAngle_deg: settings.bendAngle_deg, other: settings.other },
     estimateSettings: settings,
+    cover_m: profile.cover_m,
   };
 }
 

@@ -253,6 +253,7 @@ export function optionRoutes(api: ApiRoutes, ctx: AppContext): void {
       minPressure_m: body.minPressure_m,
       sameSeries: body.sameSeries,
       ratingFraction: body.ratingFraction,
+      cover_m: inputs.cover_m,
     });
     const { document, ...report } = result;
     const sizing = { ...report, at: new Date().toISOString(), request: body };

@@ -3,15 +3,13 @@
  * over pipes that have no cover of their own (a pipe's cover_m in the network wins). Any member
  * reads them; designers change them (validated, audited). No stored row means the engine's default.
  */
-import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { DEFAULT_COVER_M } from '../../engine/checks';
-import { profileSettings, users } from '../../drizzle/schema';
+import { profileSettings } from '../../drizzle/schema';
 import type { ApiRoutes } from '../api-routes';
 import { audit } from '../audit';
 import type { AppContext } from '../context';
-import type { DbOrTx } from '../db';
 import { parseBody } from '../errors';
+import { loadProfileSettings } from '../profile/profile-settings-store';
 import { projectOf } from '../project-scope';
 
 /** Deepest default cover accepted, m: beyond any frost depth a farm line is laid at (about 10 ft). */
@@ -27,25 +25,6 @@ const settingsBody = z
       .nullable(),
   })
   .strict();
-
-export interface ProfileSettings {
-  /** Default cover for pipes without their own, m; null: the engine's default. */
-  cover_m: number | null;
-  /** The engine's default cover, m (what null means). */
-  default_cover_m: number;
-  updatedAt: string | null;
-  updatedBy: string | null;
-}
-
-export async function loadProfileSettings(db: DbOrTx, projectId: string): Promise<ProfileSettings> {
-  const [row] = await db
-    .select({ settings: profileSettings.settings, updatedAt: profileSettings.updatedAt, userName: users.name })
-    .from(profileSettings)
-    .leftJoin(users, eq(users.id, profileSettings.updatedBy))
-    .where(eq(profileSettings.projectId, projectId));
-  const cover = (row?.settings as { cover_m?: number | null } | undefined)?.cover_m ?? null;
-  return { cover_m: cover, default_cover_m: DEFAULT_COVER_M, updatedAt: row?.updatedAt.toISOString() ?? null, updatedBy: row?.userName ?? null };
-}
 
 export function profileRoutes(api: ApiRoutes, ctx: AppContext): void {
   const { db } = ctx;

@@ -267,4 +267,48 @@ describe('API: options, prices, takeoff and export', () => {
       await est.put(`${base}/takeoff/settings`, { ...settings, currency: 'USD' }).expect(200);
     }
   });
+  it("the project's default cover (Profile tab) reaches the Options summary: a pipe over a hump passes once it is laid deeper", async () => {
+    // A tank (water surface 102 m) feeds an outlet over a hump at 103 m. Hazen-Williams, 0.2 L/s in 30 mm,
+    // C 150, 100 m: about 0.37 m of friction (C), so the HGL at the hump is about 101.8 m. Under 0.45 m
+    // of cover (the engine default) the pipe is at 102.55 m, above the HGL; under 2 m at 101 m, below it.
+    const designer = await t.signInAs('designer');
+    const made = await designer.post(`${base}/options`, { name: 'Over the hump' }).expect(201);
+    const hump: NetworkDocument = {
+      schema: 'runnel.network/1',
+      headloss: 'hazen-williams',
+      nodes: [
+        { id: 'T', kind: 'tank', elevation_m: 100, diameter_m: 2, level_m: 2, min_level_m: 0.2, max_level_m: 2 },
+        { id: 'O', kind: 'outlet', elevation_m: 40, demand_m3s: 0.0002, min_pressure_m: 10, outlet_type: 'hose-bib' },
+      ],
+      links: [
+        {
+          id: 'P',
+          kind: 'pipe',
+          from: 'T',
+          to: 'O',
+          length_m: 100,
+          diameter_m: 0.03,
+          roughness: 150,
+          profile: [
+            [0, 100],
+            [50, 103],
+            [100, 40],
+          ],
+        },
+      ],
+    };
+    await designer.patch(`${base}/options/${made.body.id}`, { document: hump }).expect(200);
+    const failing = async () =>
+      ((await designer.get(`${base}/options`).expect(200)).body.options as { id: string; summary: { failingChecks: number } }[]).find(
+        (o) => o.id === made.body.id,
+      )!.summary.failingChecks;
+    const shallow = await failing();
+    try {
+      await designer.put(`${base}/profile-settings`, { cover_m: 2 }).expect(200);
+      expect(await failing()).to.equal(shallow - 1);
+    } finally {
+      await designer.put(`${base}/profile-settings`, { cover_m: null }).expect(200);
+      await designer.delete(`${base}/options/${made.body.id}`).expect(204);
+    }
+  });
 });

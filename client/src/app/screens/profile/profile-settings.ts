@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject, signal } from '@angular/core';
-import { Observable, tap } from 'rxjs';
+import { Observable, of, tap } from 'rxjs';
 import { handleErrorsLocally } from '../../core/http-context';
 
 /** GET/PUT /api/projects/:id/profile-settings (server/API.md "Profile settings of a project"). */
@@ -39,6 +39,14 @@ export class ProfileSettings {
       );
     }
     return found;
+  }
+
+  /** The saved settings, from the cache or the server: for work that must wait for them (the Review checklist). */
+  load(projectId: string): Observable<ProfileSettingsRecord> {
+    const found = this.byProject().get(projectId);
+    return found
+      ? of(found)
+      : this.http.get<ProfileSettingsRecord>(url(projectId), { context: handleErrorsLocally() }).pipe(tap((r) => this.put(projectId, r)));
   }
 
   /** The cover for pipes without their own, m, or undefined for the engine's default. */

@@ -28,18 +28,18 @@ export class ReviewEngine {
     });
   }
 
-  private run(task: 'checklist' | 'what-ifs', doc: NetworkDocument, budget?: unknown): Promise<{ result: unknown; ms: number }> {
+  private run(task: 'checklist' | 'what-ifs', doc: NetworkDocument, budget?: unknown, cover_m?: number | null): Promise<{ result: unknown; ms: number }> {
     if (!this.worker) return Promise.reject(new Error('This browser cannot run the review engine (no Web Workers)'));
     const seq = ++this.seq;
     return new Promise((resolve, reject) => {
       this.waiting.set(seq, { resolve, reject });
-      this.worker!.postMessage({ seq, task, doc, budget });
+      this.worker!.postMessage({ seq, task, doc, budget, cover_m });
     });
   }
 
-  /** The checklist of `doc`; with the project's budget document the storage checks use it. */
-  async checklist(doc: NetworkDocument, budget?: unknown): Promise<Checklist> {
-    return (await this.run('checklist', doc, budget)).result as Checklist;
+  /** The checklist of `doc`; with the project's budget document the storage checks use it, with its default cover (m) the pipe checks. */
+  async checklist(doc: NetworkDocument, budget?: unknown, cover_m?: number | null): Promise<Checklist> {
+    return (await this.run('checklist', doc, budget, cover_m)).result as Checklist;
   }
 
   async whatIfs(doc: NetworkDocument): Promise<{ table: WhatIfTable; ms: number }> {

@@ -8,7 +8,8 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
-import { firstValueFrom } from 'rxjs';
+import { catchError, firstValueFrom, of } from 'rxjs';
+import { ProfileSettings } from '../profile/profile-settings';
 import type { Checklist } from '../../../../../engine/review/types';
 import { ProjectContext } from '../../core/project-context';
 import { SessionService } from '../../core/session.service';
@@ -64,6 +65,7 @@ export class ReviewScreen implements OnDestroy {
   private readonly router = inject(Router);
   private readonly context = inject(ProjectContext, { optional: true });
   private readonly engine = new ReviewEngine();
+  private readonly profileSettings = inject(ProfileSettings);
 
   readonly units = computed(() => this.context?.units() ?? 'us');
   readonly versions = signal<VersionSummary[]>([]);
@@ -122,11 +124,16 @@ export class ReviewScreen implements OnDestroy {
     this.current.set(null);
     if (version === null) return;
     const id = this.projectId();
-    const [stored, budget] = await Promise.all([firstValueFrom(this.api.version(id, version)), firstValueFrom(this.api.budget(id))]);
+    const [stored, budget, profile] = await Promise.all([
+      firstValueFrom(this.api.version(id, version)),
+      firstValueFrom(this.api.budget(id)),
+      // without the saved cover the checks use the engine's default (a failed read is not a reason to show no checklist)
+      firstValueFrom(this.profileSettings.load(id).pipe(catchError(() => of(null)))),
+    ]);
     if (this.selected() !== version) return;
     this.current.set(stored);
     try {
-      this.checklist.set(await this.engine.checklist(stored.document, budget?.document));
+      this.checklist.set(await this.engine.checklist(stored.document, budget?.document, profile?.cover_m));
     } catch (e) {
       this.error.set(`The checklist could not be computed: ${e instanceof Error ? e.message : String(e)}`);
     }
