@@ -270,7 +270,16 @@ describe('pipe sizing (engine/sizing)', () => {
       expect(r.status, r.stderr).to.equal(0);
       const out = JSON.parse(r.stdout);
       expect(out.feasible).to.equal(true);
-      expect(out.cost).to.be.a('number').and.below(out.largestCost);
+      // the cost re-added from the price list (series/nominal price × length of each sized pipe, C), and the
+      // same answer the engine gives in-process
+      const prices = new Map(demoPriceCatalogue().items.map((i) => [`${i.series}/${i.nominal}`, i.price_per_m]));
+      const sized = new Set((out.choices as { pipe: string }[]).map((c) => c.pipe));
+      const readded = (out.document as NetworkDocument).links
+        .filter((l): l is PipeLink => l.kind === 'pipe' && sized.has(l.id))
+        .reduce((sum, l) => sum + (prices.get(`${l.series}/${l.nominal}`) as number) * l.length_m, 0);
+      expect(out.cost).to.be.closeTo(readded, 1e-6);
+      expect(out.cost).to.be.below(out.largestCost);
+      expect(out.cost).to.equal(sizeNetwork(hillSmallholding, demoCandidates, { minPressure_m: 5 }).cost);
       expect(out.document.links).to.have.length(hillSmallholding.links.length);
       expect(out.currency).to.equal('USD');
     });
