@@ -4,6 +4,7 @@ import { hillSmallholdingBudget } from '../../engine/examples/hill-smallholding-
 import type { NetworkDocument, OutletNode } from '../../engine/network-document';
 import { insertProject, insertSavedProject } from './fixtures';
 import { startTestApp, type TestApp } from './test-app';
+import { GAL } from '../engine/hand-formulas';
 
 describe('API: water budget (versioned, validated, outlet flows carried into the network)', () => {
   let t: TestApp;
@@ -59,6 +60,9 @@ describe('API: water budget (versioned, validated, outlet flows carried into the
     const net1 = (await a.get(`/api/projects/${id}/network`).expect(200)).body;
     const tr4 = first.body.plan.outlets.find((o: { id: string }) => o.id === 'TR4').design_flow_m3s;
     expect(outlet(net1.document, 'TR4').demand_m3s).to.be.closeTo(tr4, 1e-15);
+    // by hand (C): 10 cow-calf pairs × 20 gal/day (NRCS Kansas, V2) × 1.1 delivered in 4 h (Ohio State ANR-12;
+    // Nebraska NRCS 2008, V2), shared by TR3 and TR4
+    expect(tr4).to.be.closeTo((10 * 20 * GAL * 1.1) / (4 * 3600) / 2, 1e-12);
     // the hand-typed hydrant and house flows are kept ("not from budget")
     expect(outlet(net1.document, 'HYD').demand_m3s).to.equal(outlet(hillSmallholding, 'HYD').demand_m3s);
     expect(outlet(net1.document, 'HOUSE').demand_m3s).to.equal(outlet(hillSmallholding, 'HOUSE').demand_m3s);

@@ -22,7 +22,11 @@ describe('server config (environment, validated once)', () => {
 
   it('generates a session secret once and keeps it in the data dir', () => {
     const first = loadConfig({ RUNNEL_DATA_DIR: dir });
-    expect(first.sessionSecret).to.have.length.greaterThan(30);
+    // 32 random bytes (256 bits) in base64url: ⌈32·8/6⌉ = 43 characters of A–Z a–z 0–9 - _ (RFC 4648 §5, C)
+    expect(first.sessionSecret).to.match(/^[A-Za-z0-9_-]{43}$/);
+    const other = makeTempDir('runnel-config-other-');
+    expect(loadConfig({ RUNNEL_DATA_DIR: other }).sessionSecret).to.not.equal(first.sessionSecret);
+    removeTempDir(other);
     expect(existsSync(join(dir, 'session-secret'))).to.equal(true);
     expect(loadConfig({ RUNNEL_DATA_DIR: dir }).sessionSecret).to.equal(first.sessionSecret);
     expect(readFileSync(join(dir, 'session-secret'), 'utf8').trim()).to.equal(first.sessionSecret);
