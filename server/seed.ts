@@ -95,7 +95,14 @@ export async function seed(db: Db, { bcryptCost }: { bcryptCost: number }): Prom
     expectedVersion: 0,
     document: applyBudget(hillSmallholding, planBudget(hillSmallholdingBudget, hillSmallholding)),
   });
-  await saveBudget(db, { projectId: ids.demoProjectId, teamId: ids.demoTeamId, user: ids.designer, expectedVersion: 0, document: hillSmallholdingBudget });
+  await saveBudget(db, {
+    projectId: ids.demoProjectId,
+    projectName: DEMO_PROJECT,
+    teamId: ids.demoTeamId,
+    user: ids.designer,
+    expectedVersion: 0,
+    document: hillSmallholdingBudget,
+  });
   // Version 1 waits for review, so the reviewer has something to approve or return.
   await markSubmitted(db, {
     projectId: ids.demoProjectId,

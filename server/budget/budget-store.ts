@@ -46,6 +46,8 @@ function planOrNull(budget: BudgetDocument, network: unknown): BudgetPlan | null
 
 export interface SaveBudgetRequest {
   projectId: string;
+  /** Shown in the audit log (the log names projects, not ids). */
+  projectName: string;
   teamId: string;
   user: { id: string; email: string };
   expectedVersion: number;
@@ -86,7 +88,7 @@ export async function saveBudget(db: Db, request: SaveBudgetRequest): Promise<Sa
       teamId: request.teamId,
       user: request.user,
       action: 'budget.save',
-      target: request.projectId,
+      target: request.projectName,
       detail: {
         version: written[0].version,
         uses: document.uses.length,

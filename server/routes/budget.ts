@@ -19,6 +19,7 @@ export function budgetRoutes(api: ApiRoutes, ctx: AppContext): void {
     res.json(
       await saveBudget(db, {
         projectId: project.id,
+        projectName: project.name,
         teamId: project.teamId,
         user: req.user!,
         expectedVersion: body.version,

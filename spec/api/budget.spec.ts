@@ -38,7 +38,8 @@ describe('API: water budget (versioned, validated, outlet flows carried into the
   });
 
   it("a first save holds the flows typed on the Layout until the designer chooses; raising a head count then raises the linked trough's flow", async () => {
-    const id = await insertProject(t.db, t.seeded!.demoTeamId);
+    const projectName = 'Budget flows fixture';
+    const id = await insertProject(t.db, t.seeded!.demoTeamId, projectName);
     const a = await t.signInAs('designer');
     const { hillSmallholding } = await import('../../engine/examples/hill-smallholding');
     await a.put(`/api/projects/${id}/network`, { version: 0, document: hillSmallholding }).expect(200);
@@ -96,7 +97,9 @@ describe('API: water budget (versioned, validated, outlet flows carried into the
       1e-15,
     );
     const log = (await (await t.signInAs('admin')).get('/api/team/audit').expect(200)).body as { action: string; detail: string }[];
-    expect(log.some((r) => r.action === 'budget.save' && /TR3/.test(r.detail))).to.equal(true);
+    // the log names the project as the team sees it, not by its id
+    const save = log.find((r) => r.action === 'budget.save' && /TR3/.test(r.detail)) as { target: string } | undefined;
+    expect(save?.target).to.equal(projectName);
   });
 
   it('a stale save → 409 with the current budget; the newer save is kept', async () => {
