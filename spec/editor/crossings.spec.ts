@@ -9,7 +9,39 @@ describe('Layout: crossing marks (newcomer item 8)', () => {
     expect([...pumpedLinks(doc)].sort()).to.deep.equal(['CV1', 'R1']);
     const crossings = lineCrossings(doc);
     const overR1 = crossings.filter((c) => c.over === 'R1');
-    expect(overR1.length).to.be.greaterThan(0);
+    // Worked apart: every proper intersection of R1's drawn polyline with each line that shares no end with it
+    // (segments p + t·r and q + u·s meet where t, u ∈ (0, 1); any geometry text)
+    const xy = (id: string): [number, number] => {
+      const n = doc.nodes.find((m) => m.id === id)!;
+      return [n.x_m as number, n.y_m as number];
+    };
+    const path = (l: NetworkDocument['links'][number]) => [xy(l.from), ...((l as { vertices?: [number, number][] }).vertices ?? []), xy(l.to)];
+    const r1 = doc.links.find((l) => l.id === 'R1')!;
+    const expected: { under: string; x: number; y: number }[] = [];
+    for (const other of doc.links) {
+      if (other.id === 'R1' || [other.from, other.to].some((e) => e === r1.from || e === r1.to)) continue;
+      const a = path(r1);
+      const b = path(other);
+      for (let i = 1; i < a.length; i++)
+        for (let j = 1; j < b.length; j++) {
+          const [px, py] = a[i - 1];
+          const [rx, ry] = [a[i][0] - px, a[i][1] - py];
+          const [qx, qy] = b[j - 1];
+          const [sx, sy] = [b[j][0] - qx, b[j][1] - qy];
+          const den = rx * sy - ry * sx;
+          if (den === 0) continue;
+          const t = ((qx - px) * sy - (qy - py) * sx) / den;
+          const u = ((qx - px) * ry - (qy - py) * rx) / den;
+          if (t > 1e-9 && t < 1 - 1e-9 && u > 1e-9 && u < 1 - 1e-9) expected.push({ under: other.id, x: px + t * rx, y: py + t * ry });
+        }
+    }
+    expect(overR1.map((c) => c.under).sort()).to.deep.equal(expected.map((e) => e.under).sort());
+    expect(overR1.map((c) => c.under).sort()).to.deep.equal(['L-HOUSE', 'L-HYD', 'L-J8', 'L-SHED', 'V-WEST']);
+    for (const e of expected) {
+      const got = overR1.find((c) => c.under === e.under)!;
+      expect(got.at.x, e.under).to.be.closeTo(e.x, 1e-6);
+      expect(got.at.y, e.under).to.be.closeTo(e.y, 1e-6);
+    }
     // The rising main always passes over, never under.
     expect(crossings.filter((c) => c.under === 'R1')).to.deep.equal([]);
   });

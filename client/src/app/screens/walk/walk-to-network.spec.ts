@@ -2,6 +2,7 @@ import { expect } from 'chai';
 import type { NetworkDocument, PipeLink } from '../../../../../engine/network-document';
 import { validateDocument } from '../../../../../engine/validate';
 import { referenceAt, toLonLat } from '../../../../../engine/geo-reference';
+import { createEditor } from '../layout/create-editor';
 import { buildFromWalk } from './walk-to-network';
 import type { WalkRecording } from './walk-types';
 
@@ -53,7 +54,12 @@ describe('Walk: build the recorded points and track into the design', () => {
     const spring = doc.nodes.find((n) => n.name === 'Spring')!;
     const trough = doc.nodes.find((n) => n.name === 'Trough 3')!;
     expect(spring).to.include({ kind: 'source', elevation_m: 320, x_m: 0, y_m: 0 });
-    expect((spring as { head_m: number }).head_m).to.be.greaterThan(320);
+    // its water surface stands above the ground as for a source placed from the palette (the same kind's defaults)
+    const palette = createEditor();
+    const placedId = palette.placeNode('source', { x: 0, y: 0 });
+    const placed = palette.store.doc.nodes.find((n) => n.id === placedId) as { head_m: number; elevation_m: number };
+    expect((spring as { head_m: number }).head_m - 320).to.be.closeTo(placed.head_m - placed.elevation_m, 1e-9);
+    expect((spring as { head_m: number }).head_m).to.be.above(320);
     expect(trough).to.include({ kind: 'outlet', outlet_type: 'trough', elevation_m: 300 });
     expect(trough.x_m).to.be.closeTo(200, 0.01);
     const pipe = doc.links[0] as PipeLink & { length_source?: string };
@@ -65,7 +71,11 @@ describe('Walk: build the recorded points and track into the design', () => {
     expect(pipe.profile!.map(([, z]) => z)).to.deep.equal([320, 310, 296, 300]);
     const plan = 100 + Math.hypot(50, 50) * 2;
     expect(pipe.profile![pipe.profile!.length - 1][0]).to.be.closeTo(plan, 1);
-    expect(pipe.length_m).to.be.greaterThan(plan);
+    // the pipe lies on the slope: its length is the sloped length along the profile, Σ √(Δchainage² + Δz²)
+    // (Pythagoras, C): √(100² + 10²) + √(70.7² + 14²) + √(70.7² + 4²) ≈ 100.5 + 72.1 + 70.8 = 243.4 m
+    const sloped = pipe.profile!.slice(1).reduce((sum, [c, z], i) => sum + Math.hypot(c - pipe.profile![i][0], z - pipe.profile![i][1]), 0);
+    expect(pipe.length_m).to.be.closeTo(sloped, 0.01);
+    expect(pipe.length_m).to.be.closeTo(243.4, 1);
     expect(summary.surveyPoints).to.equal(4);
     expect(validateDocument(doc)).to.deep.equal([]);
   });
@@ -87,7 +97,7 @@ describe('Walk: build the recorded points and track into the design', () => {
     const ground = [320, 315, 310, 296, 300];
     w.track = w.track.map((t, i) => ({ ...t, elevation_m: ground[i] + 30 }));
     const { doc, summary } = buildFromWalk({ ...EMPTY, layout: { geo: REF } }, w, 'North line', 'si');
-    expect(summary.notes).to.include('Track elevations from the phone shifted by −30.00 m to agree with the 4 typed elevation(s) along it.');
+    expect(summary.notes).to.include('Track elevations from the phone shifted by −30.00 m to agree with the 4 typed elevations along it.');
     const survey = (doc.layout!['survey'] as { points: { label?: string; elevation_m: number }[] }).points.filter((p) => !p.label);
     expect(survey.map((p) => p.elevation_m)).to.deep.equal(ground);
   });
