@@ -59,6 +59,18 @@ describe('Layout editor: defaults of new elements per unit system', () => {
     expect(o.min_pressure_m).to.be.closeTo(70 / 9.80665, 1e-12); // 1 m of water = 9.80665 kPa (standard gravity, CGPM 1901)
   });
 
+  it('US defaults are stored as the exact SI of the round US figure (NIST SP 811: 1 psi = 6894.757 Pa, 1 gal = 3.785411784 L, 1 ft = 0.3048 m)', () => {
+    const outlet = NODE_KINDS.outlet.create('O1', 0, 0, 'us') as { min_pressure_m: number; demand_m3s: number };
+    const tank = NODE_KINDS.tank.create('T1', 0, 0, 'us') as { diameter_m: number; max_level_m: number };
+    const valve = LINK_KINDS.valve.create('V1', 'a', 'b', [], 'us') as { diameter_m: number };
+    // 10 psi = 68,947.57 Pa ÷ (1000 kg/m³ · 9.80665 m/s²) = 7.0307 m of water (C)
+    expect(outlet.min_pressure_m).to.be.closeTo(68947.57293168 / 9806.65, 1e-9);
+    expect(outlet.demand_m3s).to.be.closeTo((5 * 3.785411784e-3) / 60, 1e-15); // 5 gpm = 0.31545 L/s
+    expect(tank.diameter_m).to.be.closeTo(5 * 0.3048, 1e-12);
+    expect(tank.max_level_m).to.be.closeTo(5 * 0.3048, 1e-12);
+    expect(valve.diameter_m).to.be.closeTo(0.0254, 1e-12);
+  });
+
   it('the editor places elements with its project units', () => {
     const ed = createEditor();
     ed.units = 'us';

@@ -5,6 +5,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { hillSmallholding } from '../../engine/examples/hill-smallholding';
 import { hillSmallholdingBudget } from '../../engine/examples/hill-smallholding-budget';
+import { planBudget } from '../../engine/budget';
+import { GAL } from './hand-formulas';
 
 const run = (cli: string, ...args: string[]) => spawnSync(process.execPath, ['--import', 'tsx', cli, ...args], { encoding: 'utf8' });
 
@@ -23,7 +25,10 @@ describe('budget and profile CLIs', () => {
     const out = JSON.parse(r.stdout);
     expect(out.months).to.have.length(12);
     expect(out.verdicts).to.have.length(12);
-    expect(out.outlets.map((o: { id: string }) => o.id)).to.include('TR4');
+    expect(out).to.deep.equal(JSON.parse(JSON.stringify(planBudget(hillSmallholdingBudget, hillSmallholding))));
+    // TR4 by hand (C): 10 cow-calf pairs × 20 gal/day (NRCS Kansas, V2) × 1.1 in 4 h (Ohio State ANR-12, V2), shared with TR3
+    const tr4 = out.outlets.find((o: { id: string }) => o.id === 'TR4');
+    expect(tr4.design_flow_m3s).to.be.closeTo((10 * 20 * GAL * 1.1) / (4 * 3600) / 2, 1e-12);
   });
   it('budget: a budget file with --network gives the same plan; without one, no verdicts', () => {
     const a = JSON.parse(run('engine/budget/cli.ts', plan).stdout);
@@ -45,6 +50,7 @@ describe('budget and profile CLIs', () => {
     expect(out.routes[0].nodes.at(-1)).to.equal('TR4');
     expect(out.profile.findings.some((f: { kind: string }) => f.kind === 'high-point')).to.equal(true);
     const longest = JSON.parse(run('engine/profile/cli.ts', network).stdout);
+    // tank outlet to TR4 across the dip: M1 75 + M2 50 + M3 55 + M4 110 + L-TR4 270 m (examples/hill-smallholding.ts)
     expect(longest.routes[0].length_m).to.equal(560);
   });
   it('profile: unknown or unconnected elements exit 2 naming the field', () => {

@@ -5,6 +5,7 @@ import { darcyFactor, darcyFactorAndSlope, darcyWeisbachHeadloss } from '../../e
 import { hazenWilliamsHeadloss, hazenWilliamsResistance, HW_OMEGA_SI } from '../../engine/hazen-williams';
 import { minorLossCoefficient } from '../../engine/minor-loss';
 import { swameeJainFactor } from '../../engine/swamee-jain';
+import { colebrook } from './hand-formulas';
 
 const GPM = 3.785411784e-3 / 60; // m³/s per US gpm (exact by definition, NIST SP 811)
 const FT = 0.3048;
@@ -66,6 +67,9 @@ describe('Colebrook-White friction factor (colebrook.ts)', () => {
       expect(colebrookFactor(re, rr)).to.be.closeTo(f, 6e-7);
     });
   }
+  it('the table itself is reproduced by plain fixed-point iteration on 1/√f, written apart from the engine (hand-formulas.ts, C)', () => {
+    for (const [re, rr, f] of table) expect(colebrook(re, rr), `Re ${re}, ε/D ${rr}`).to.be.closeTo(f, 6e-7);
+  });
   it('satisfies the Colebrook equation itself to 1e-12 (the defining identity)', () => {
     for (const re of [2500, 3e4, 7e5, 5e7])
       for (const rr of [0, 1e-5, 3e-3, 0.05]) {

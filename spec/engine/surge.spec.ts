@@ -14,7 +14,7 @@ describe('surge: Joukowsky and Korteweg', () => {
     expect(joukowskyHead(2690 * FT, 6.48 * FT, 32 * FT) / FT).to.be.closeTo(544.7, 0.1);
   });
 
-  it('about 19 psi of surge per 1 ft/s stopped at a = 1400 ft/s (REFERENCES.md, C)', () => {
+  it('about 19 psi of surge per 1 ft/s stopped at a = 1400 ft/s (REFERENCES.md, C: 1400 × 1 / 32.174 = 43.5 ft × 0.433 psi/ft = 18.8 psi)', () => {
     const psi = (joukowskyHead(1400 * FT, 1 * FT) / FT) * 0.433;
     expect(psi).to.be.closeTo(19, 0.5);
   });
