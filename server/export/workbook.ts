@@ -60,8 +60,8 @@ export function sheetUnits(system: UnitSystem): SheetUnits {
   };
 }
 
-/** A takeoff or estimate row's unit as sold in this unit system: metres become feet in US workbooks. */
-function soldUnit(unit: string, u: SheetUnits): { unit: string; perSi: number } {
+/** A takeoff or estimate row's unit as sold in this unit system: metres become feet in US workbooks (and the CSV). */
+export function soldUnit(unit: string, u: SheetUnits): { unit: string; perSi: number } {
   if (unit !== 'm' || u.system === 'si') return { unit, perSi: 1 };
   return { unit: u.label('length'), perSi: toDisplay('length', 1, u.system) };
 }

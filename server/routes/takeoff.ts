@@ -13,7 +13,7 @@ import { audit } from '../audit';
 import type { AppContext } from '../context';
 import type { DbOrTx } from '../db';
 import { ApiError, parseBody } from '../errors';
-import { buildWorkbook, CODES_NOTE } from '../export/workbook';
+import { buildWorkbook, CODES_NOTE, sheetUnits, soldUnit } from '../export/workbook';
 import { inlineDisposition } from './files';
 import { isUuid } from '../ids';
 import { loadNetwork } from '../network/network-store';
@@ -175,7 +175,11 @@ export function takeoffRoutes(api: ApiRoutes, ctx: AppContext): void {
 
   api.get('/projects/:id/takeoff.csv', 'takeoff.read', async (req, res) => {
     const project = projectOf(req);
-    const { design, evaluation } = await priced(project, req.query.option);
+    const { design, inputs, evaluation } = await priced(project, req.query.option);
+    // the project's units, as the screen and the workbook: lengths sold by the metre are sold by the foot in US files
+    const u = sheetUnits(project.units);
+    const L = u.label('length');
+    const length = (si: number | undefined) => (si === undefined ? '' : u.v('length', si));
     const csv = Papa.unparse({
       fields: [
         'code',
@@ -183,28 +187,34 @@ export function takeoffRoutes(api: ApiRoutes, ctx: AppContext): void {
         'group',
         'quantity',
         'unit',
-        'network_length_m',
-        'with_waste_m',
+        `network_length_${L}`,
+        `with_waste_${L}`,
         'pieces',
-        'piece_length_m',
+        `piece_length_${L}`,
         'unit_price',
         'amount',
+        'currency',
         'elements',
       ],
-      data: evaluation.takeoff.rows.map((r, i) => [
-        r.code,
-        r.description,
-        r.group,
-        r.quantity,
-        r.unit,
-        r.network_m ?? '',
-        r.with_waste_m ?? '',
-        r.pieces ?? '',
-        r.piece_m ?? '',
-        evaluation.estimate.lines[i].unit_price ?? '',
-        evaluation.estimate.lines[i].amount,
-        r.elements.join(' '),
-      ]),
+      data: evaluation.takeoff.rows.map((r, i) => {
+        const sold = soldUnit(r.unit, u);
+        const price = evaluation.estimate.lines[i].unit_price;
+        return [
+          r.code,
+          r.description,
+          r.group,
+          r.quantity * sold.perSi,
+          sold.unit,
+          length(r.network_m),
+          length(r.with_waste_m),
+          r.pieces ?? '',
+          length(r.piece_m),
+          price === null ? '' : price / sold.perSi,
+          evaluation.estimate.lines[i].amount,
+          inputs.settings.currency,
+          r.elements.join(' '),
+        ];
+      }),
     });
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
     res.setHeader('Content-Disposition', inlineDisposition(`${project.name} - ${design.name} - takeoff.csv`).replace(/^inline/, 'attachment'));

@@ -6,6 +6,7 @@
  */
 import { expect } from 'chai';
 import ExcelJS from 'exceljs';
+import Papa from 'papaparse';
 import { eq } from 'drizzle-orm';
 import { priceItems } from '../../drizzle/schema';
 import { countFittings, minorLossAllowance, solve, type NetworkDocument, type PipeLink } from '../../engine';
@@ -210,6 +211,8 @@ describe('API: options, prices, takeoff and export', () => {
       await book.xlsx.load((await est.get(`${base}/export.xlsx`).buffer(true).parse(binaryBody).expect(200)).body);
       return book;
     };
+    const readCsv = async () =>
+      Papa.parse<Record<string, string>>((await est.get(`${base}/takeoff.csv`).expect(200)).text, { header: true, skipEmptyLines: true });
     const header = (book: ExcelJS.Workbook, sheet: string) => (book.getWorksheet(sheet)!.getRow(1).values as unknown[]).slice(1).map(String);
     const column = (book: ExcelJS.Workbook, sheet: string, title: RegExp) => {
       const ws = book.getWorksheet(sheet)!;
@@ -225,8 +228,10 @@ describe('API: options, prices, takeoff and export', () => {
       await est.put(`${base}/takeoff/settings`, { ...settings, currency: 'NZD' }).expect(200);
       expect((await est.get(`${base}/options`).expect(200)).body.currency).to.equal('NZD');
       const si = await read();
+      const csvSi = await readCsv();
       await admin.patch(base, { units: 'us' }).expect(200);
       const us = await read();
+      const csvUs = await readCsv();
       expect(header(si, 'Pipes')).to.include.members(['Length (m)', 'Inside diameter (mm)', 'Flow (L/s)', 'Velocity (m/s)', 'Static pressure (kPa)']);
       expect(header(us, 'Pipes')).to.include.members([
         'Length (ft)',
@@ -269,6 +274,22 @@ describe('API: options, prices, takeoff and export', () => {
         expect(amount(us).get(code), code).to.equal(amount(si).get(code));
       }
       expect(pipes).to.be.above(3);
+      // The CSV follows the same units: lengths in ft, pipe sold by the foot, amounts unchanged, the currency named.
+      expect(csvSi.meta.fields).to.include.members(['network_length_m', 'with_waste_m', 'currency']);
+      expect(csvUs.meta.fields).to.include.members(['network_length_ft', 'with_waste_ft', 'piece_length_ft']);
+      let csvPipes = 0;
+      csvSi.data.forEach((row, i) => {
+        const usRow = csvUs.data[i];
+        expect(usRow.code).to.equal(row.code);
+        expect(usRow.amount, row.code).to.equal(row.amount);
+        expect(usRow.currency).to.equal('NZD');
+        if (row.unit !== 'm') return;
+        csvPipes++;
+        expect(usRow.unit).to.equal('ft');
+        expect(Number(usRow.quantity) * 0.3048, row.code).to.be.closeTo(Number(row.quantity), 1e-9);
+        expect(Number(usRow.network_length_ft) * 0.3048, row.code).to.be.closeTo(Number(row.network_length_m), 1e-9);
+      });
+      expect(csvPipes).to.equal(pipes);
       expect(us.getWorksheet('Summary')!.getCell('B11').value).to.match(/^US customary/);
       expect(si.getWorksheet('Summary')!.getCell('B11').value).to.match(/^SI/);
     } finally {
