@@ -165,6 +165,8 @@ export class GradientSolver {
   private readonly headPrev: Float64Array;
   private readonly virtualPrev: Float64Array;
   private initialised = false;
+  /** Σ|Q| of the last assembly or flow update (a second return value of those methods). */
+  private stepScale = 0;
   private readonly prvs: Int32Array;
   private readonly prvDone: Uint8Array;
   /** Links with status logic of their own (check, PRV, curve pump) and all links. */
@@ -357,30 +359,9 @@ export class GradientSolver {
     };
     const n = model.nodeCount;
     const m = model.linkCount;
-    const {
-      head,
-      flow,
-      status,
-      unknown,
-      ldl,
-      rhs,
-      x,
-      virtualFlow,
-      virtualFull,
-      pinned,
-      netOut,
-      changes,
-      active,
-      gradientPrev,
-      flowPrev,
-      headPrev,
-      virtualPrev,
-      delta,
-      chord,
-    } = this;
+    const { head, flow, status, ldl, rhs, x, virtualFlow, virtualFull, pinned, netOut, changes, active, gradientPrev, flowPrev, headPrev, virtualPrev } = this;
     const values = ldl.values;
-    const { posFF, posTT, posFT, posTF, p, y } = this;
-    const { resistance, minor, linkKind } = model;
+    const { linkKind } = model;
     const linkFrom = model.from;
     const linkTo = model.to;
     const hazenWilliams = model.headloss !== 'darcy-weisbach';
@@ -388,7 +369,6 @@ export class GradientSolver {
     changes.fill(0);
     gradientPrev.fill(0);
     this.collapsing.fill(0);
-    const collapsing = this.collapsing;
     this.prepare(state);
     connect(this);
     let hasBlocks = false;
@@ -419,121 +399,11 @@ export class GradientSolver {
       values.fill(0);
       rhs.fill(0);
       pinned.fill(Number.NaN);
-      let merit = 0;
-      let qScale = 0;
-      for (let k = 0; k < m; k++) {
-        const f = linkFrom[k];
-        const t = linkTo[k];
-        const st = status[k];
-        if (isShut(st) || !active[f] || !active[t]) {
-          flow[k] = 0;
-          p[k] = 0;
-          y[k] = 0;
-          continue;
-        }
-        const uf = unknown[f];
-        const ut = unknown[t];
-        const kind = linkKind[k];
-        if (kind === LINK_PUMP_FLOW) {
-          const q = model.pumpFlow[k] * state.pumpFactor[k];
-          flow[k] = q;
-          p[k] = 0;
-          y[k] = 0;
-          if (uf >= 0) rhs[uf] -= q;
-          if (ut >= 0) rhs[ut] += q;
-          continue;
-        }
-        if (kind === LINK_PRV && st === STATUS_ACTIVE) {
-          p[k] = 0;
-          y[k] = 0;
-          if (uf >= 0) rhs[uf] -= flow[k];
-          const hset = prvHead(model, k);
-          if (!(pinned[t] >= hset)) pinned[t] = hset; // parallel valves: the higher setting governs
-          continue;
-        }
-        const q = flow[k];
-        const a = q < 0 ? -q : q;
-        let hk: number;
-        let g: number;
-        if (a < delta[k]) {
-          hk = chord[k] * q;
-          g = chord[k];
-        } else if (kind === LINK_PIPE && hazenWilliams) {
-          // nearly every link of a large network: the law of ./hazen-williams without a call per term
-          const s = hazenWilliamsSecant(resistance[k], a);
-          const mk = minor[k];
-          hk = (s + mk * a) * q;
-          g = HW_FLOW_EXPONENT * s + 2 * mk * a;
-        } else {
-          linkLaw(model, k, q, state.pumpFactor[k], this.scratch);
-          hk = this.scratch[0];
-          g = this.scratch[1];
-        }
-        // a flow shrinking at Newton's ratio 1 − 1/n towards zero: take the chord through the origin,
-        // which lands on a zero flow in one step instead of halving it each iteration
-        if (collapsing[k] === 1 && a >= delta[k] && kind !== LINK_PUMP_CURVE) g = hk / q;
-        const resid = hk - (head[f] - head[t]);
-        merit += (resid < 0 ? -resid : resid) * a;
-        qScale += a;
-        if (kind !== LINK_PUMP_CURVE) {
-          const memory = GRADIENT_MEMORY * gradientPrev[k];
-          gradientPrev[k] = g;
-          if (memory > g) g = memory;
-        }
-        if (g < GRADIENT_FLOOR) g = GRADIENT_FLOOR;
-        const pk = 1 / g;
-        const yk = hk * pk;
-        p[k] = pk;
-        y[k] = yk;
-        const qy = q - yk;
-        if (uf >= 0) {
-          values[posFF[k]] += pk;
-          rhs[uf] -= qy;
-        } else if (ut >= 0) rhs[ut] += pk * head[f];
-        if (ut >= 0) {
-          values[posTT[k]] += pk;
-          rhs[ut] += qy;
-        } else if (uf >= 0) rhs[uf] += pk * head[t];
-        if (uf >= 0 && ut >= 0) {
-          values[posFT[k]] -= pk;
-          values[posTF[k]] -= pk;
-        }
-      }
-      for (let u = 0; u < this.unknownNode.length; u++) {
-        const i = this.unknownNode[u];
-        const pd = this.posDiag[u];
-        if (model.nodeKind[i] === NODE_TANK) {
-          const c = state.tankStorage[i];
-          const w = c > 0 ? c : PIN_WEIGHT;
-          values[pd] += w;
-          rhs[u] += w * state.fixedHead[i] + (c > 0 ? state.tankInflow[i] : 0);
-          continue;
-        }
-        if (!active[i]) {
-          values[pd] = 1;
-          rhs[u] = model.elevation[i];
-          continue;
-        }
-        if (virtualFull[i] > 0) {
-          virtualLaw(model, i, virtualFlow[i], virtualFull[i], state.demandFactor[i], state.pressureDriven, this.scratch);
-          const base = model.elevation[i] + zeroPressure(model, i);
-          const resid = this.scratch[0] - (head[i] - base);
-          merit += (resid < 0 ? -resid : resid) * Math.abs(virtualFlow[i]);
-          const g = this.scratch[1] > GRADIENT_FLOOR ? this.scratch[1] : GRADIENT_FLOOR;
-          const pv = 1 / g;
-          const yv = this.scratch[0] * pv;
-          values[pd] += pv;
-          rhs[u] += -(virtualFlow[i] - yv) + pv * base;
-          this.virtualY[i] = yv;
-          this.virtualP[i] = pv;
-        } else {
-          rhs[u] -= this.requested[i] > 0 || this.requested[i] < 0 ? this.requested[i] : 0;
-        }
-        if (!Number.isNaN(pinned[i])) {
-          values[pd] += PIN_WEIGHT;
-          rhs[u] += PIN_WEIGHT * pinned[i];
-        }
-      }
+      // the loops are methods of their own: small functions are optimised (and, in a fresh
+      // process, compiled on stack replacement) far sooner than one long one
+      let merit = this.assembleLinks(state, hazenWilliams);
+      const qScale = this.stepScale;
+      merit = this.assembleNodes(state, merit);
       // a step that made the laws worse by far: go back half way (continuity holds on the segment)
       if (merit > meritPrev * (1 + 1e-6) && merit > tol.head_m * qScale && halvings < 8 && sinceReset >= 2) {
         halvings++;
@@ -561,31 +431,8 @@ export class GradientSolver {
       for (let u = 0; u < this.unknownNode.length; u++) head[this.unknownNode[u]] = x[u];
 
       // flow update
-      let sumQ = 0;
-      let sumDQ = 0;
-      for (let i = 0; i < n; i++) {
-        if (model.nodeKind[i] !== NODE_JUNCTION || !active[i]) {
-          virtualFlow[i] = 0;
-          this.demand[i] = 0;
-          continue;
-        }
-        if (virtualFull[i] > 0) {
-          const qv = virtualFlow[i] - this.virtualY[i] + this.virtualP[i] * (head[i] - model.elevation[i] - zeroPressure(model, i));
-          sumDQ += Math.abs(qv - virtualFlow[i]);
-          sumQ += Math.abs(qv);
-          virtualFlow[i] = qv;
-          this.demand[i] = qv;
-        } else this.demand[i] = this.requested[i] || 0;
-      }
-      for (let k = 0; k < m; k++) {
-        if (p[k] === 0) continue;
-        const q = flow[k] - y[k] + p[k] * (head[linkFrom[k]] - head[linkTo[k]]);
-        const ratio = q / flow[k];
-        collapsing[k] = ratio > 0.42 && ratio < 0.5 ? 1 : 0;
-        sumDQ += Math.abs(q - flow[k]);
-        sumQ += Math.abs(q);
-        flow[k] = q;
-      }
+      let sumDQ = this.updateFlows();
+      let sumQ = this.stepScale;
       if (this.prvs.length > 0) {
         netOut.fill(0);
         for (let k = 0; k < m; k++) {
@@ -626,5 +473,181 @@ export class GradientSolver {
     }
     if (!singular && !verified && reason === null) reason = firstViolation(this, state, tol, netOut, this.scratch);
     return { converged: reason === null, iterations, singular, reason };
+  }
+
+  /**
+   * One Newton step's link terms: each open link's conductance p = 1/h'(Q) and y = h(Q)/h'(Q) into
+   * the matrix and right-hand side. Returns the merit Σ|h(Q) − ΔH|·|Q| of the links and leaves
+   * Σ|Q| in stepScale.
+   */
+  private assembleLinks(state: SolverState, hazenWilliams: boolean): number {
+    const { model, head, flow, status, unknown, rhs, pinned, delta, chord, gradientPrev, collapsing, posFF, posTT, posFT, posTF, p, y } = this;
+    const active = this.active;
+    const values = this.ldl.values;
+    const { resistance, minor, linkKind } = model;
+    const linkFrom = model.from;
+    const linkTo = model.to;
+    const m = model.linkCount;
+    let merit = 0;
+    let qScale = 0;
+    for (let k = 0; k < m; k++) {
+      const f = linkFrom[k];
+      const t = linkTo[k];
+      const st = status[k];
+      if (isShut(st) || !active[f] || !active[t]) {
+        flow[k] = 0;
+        p[k] = 0;
+        y[k] = 0;
+        continue;
+      }
+      const uf = unknown[f];
+      const ut = unknown[t];
+      const kind = linkKind[k];
+      if (kind === LINK_PUMP_FLOW) {
+        const q = model.pumpFlow[k] * state.pumpFactor[k];
+        flow[k] = q;
+        p[k] = 0;
+        y[k] = 0;
+        if (uf >= 0) rhs[uf] -= q;
+        if (ut >= 0) rhs[ut] += q;
+        continue;
+      }
+      if (kind === LINK_PRV && st === STATUS_ACTIVE) {
+        p[k] = 0;
+        y[k] = 0;
+        if (uf >= 0) rhs[uf] -= flow[k];
+        const hset = prvHead(model, k);
+        if (!(pinned[t] >= hset)) pinned[t] = hset; // parallel valves: the higher setting governs
+        continue;
+      }
+      const q = flow[k];
+      const a = q < 0 ? -q : q;
+      let hk: number;
+      let g: number;
+      if (a < delta[k]) {
+        hk = chord[k] * q;
+        g = chord[k];
+      } else if (kind === LINK_PIPE && hazenWilliams) {
+        // nearly every link of a large network: the law of ./hazen-williams without a call per term
+        const s = hazenWilliamsSecant(resistance[k], a);
+        const mk = minor[k];
+        hk = (s + mk * a) * q;
+        g = HW_FLOW_EXPONENT * s + 2 * mk * a;
+      } else {
+        linkLaw(model, k, q, state.pumpFactor[k], this.scratch);
+        hk = this.scratch[0];
+        g = this.scratch[1];
+      }
+      // a flow shrinking at Newton's ratio 1 − 1/n towards zero: take the chord through the origin,
+      // which lands on a zero flow in one step instead of halving it each iteration
+      if (collapsing[k] === 1 && a >= delta[k] && kind !== LINK_PUMP_CURVE) g = hk / q;
+      const resid = hk - (head[f] - head[t]);
+      merit += (resid < 0 ? -resid : resid) * a;
+      qScale += a;
+      if (kind !== LINK_PUMP_CURVE) {
+        const memory = GRADIENT_MEMORY * gradientPrev[k];
+        gradientPrev[k] = g;
+        if (memory > g) g = memory;
+      }
+      if (g < GRADIENT_FLOOR) g = GRADIENT_FLOOR;
+      const pk = 1 / g;
+      const yk = hk * pk;
+      p[k] = pk;
+      y[k] = yk;
+      const qy = q - yk;
+      if (uf >= 0) {
+        values[posFF[k]] += pk;
+        rhs[uf] -= qy;
+      } else if (ut >= 0) rhs[ut] += pk * head[f];
+      if (ut >= 0) {
+        values[posTT[k]] += pk;
+        rhs[ut] += qy;
+      } else if (uf >= 0) rhs[uf] += pk * head[t];
+      if (uf >= 0 && ut >= 0) {
+        values[posFT[k]] -= pk;
+        values[posTF[k]] -= pk;
+      }
+    }
+    this.stepScale = qScale;
+    return merit;
+  }
+
+  /** One Newton step's node terms (tanks, cut-off nodes, outlets' virtual links, demands, PRV pins); returns `merit` plus the outlets' terms. */
+  private assembleNodes(state: SolverState, meritOfLinks: number): number {
+    const { model, head, rhs, pinned, active, virtualFull, virtualFlow } = this;
+    const values = this.ldl.values;
+    let merit = meritOfLinks;
+    for (let u = 0; u < this.unknownNode.length; u++) {
+      const i = this.unknownNode[u];
+      const pd = this.posDiag[u];
+      if (model.nodeKind[i] === NODE_TANK) {
+        const c = state.tankStorage[i];
+        const w = c > 0 ? c : PIN_WEIGHT;
+        values[pd] += w;
+        rhs[u] += w * state.fixedHead[i] + (c > 0 ? state.tankInflow[i] : 0);
+        continue;
+      }
+      if (!active[i]) {
+        values[pd] = 1;
+        rhs[u] = model.elevation[i];
+        continue;
+      }
+      if (virtualFull[i] > 0) {
+        virtualLaw(model, i, virtualFlow[i], virtualFull[i], state.demandFactor[i], state.pressureDriven, this.scratch);
+        const base = model.elevation[i] + zeroPressure(model, i);
+        const resid = this.scratch[0] - (head[i] - base);
+        merit += (resid < 0 ? -resid : resid) * Math.abs(virtualFlow[i]);
+        const g = this.scratch[1] > GRADIENT_FLOOR ? this.scratch[1] : GRADIENT_FLOOR;
+        const pv = 1 / g;
+        const yv = this.scratch[0] * pv;
+        values[pd] += pv;
+        rhs[u] += -(virtualFlow[i] - yv) + pv * base;
+        this.virtualY[i] = yv;
+        this.virtualP[i] = pv;
+      } else {
+        rhs[u] -= this.requested[i] > 0 || this.requested[i] < 0 ? this.requested[i] : 0;
+      }
+      if (!Number.isNaN(pinned[i])) {
+        values[pd] += PIN_WEIGHT;
+        rhs[u] += PIN_WEIGHT * pinned[i];
+      }
+    }
+    return merit;
+  }
+
+  /** Flows from the new heads (Q − y + p·ΔH per link, the same for outlets); returns Σ|ΔQ| and leaves Σ|Q| in stepScale. */
+  private updateFlows(): number {
+    const { model, head, flow, active, virtualFull, virtualFlow, collapsing, p, y } = this;
+    const n = model.nodeCount;
+    const m = model.linkCount;
+    const linkFrom = model.from;
+    const linkTo = model.to;
+    let sumQ = 0;
+    let sumDQ = 0;
+    for (let i = 0; i < n; i++) {
+      if (model.nodeKind[i] !== NODE_JUNCTION || !active[i]) {
+        virtualFlow[i] = 0;
+        this.demand[i] = 0;
+        continue;
+      }
+      if (virtualFull[i] > 0) {
+        const qv = virtualFlow[i] - this.virtualY[i] + this.virtualP[i] * (head[i] - model.elevation[i] - zeroPressure(model, i));
+        sumDQ += Math.abs(qv - virtualFlow[i]);
+        sumQ += Math.abs(qv);
+        virtualFlow[i] = qv;
+        this.demand[i] = qv;
+      } else this.demand[i] = this.requested[i] || 0;
+    }
+    for (let k = 0; k < m; k++) {
+      if (p[k] === 0) continue;
+      const q = flow[k] - y[k] + p[k] * (head[linkFrom[k]] - head[linkTo[k]]);
+      const ratio = q / flow[k];
+      collapsing[k] = ratio > 0.42 && ratio < 0.5 ? 1 : 0;
+      sumDQ += Math.abs(q - flow[k]);
+      sumQ += Math.abs(q);
+      flow[k] = q;
+    }
+    this.stepScale = sumQ;
+    return sumDQ;
   }
 }
