@@ -10,7 +10,7 @@
  */
 import ExcelJS from 'exceljs';
 import type { DesignSummary, Estimate, NetworkDocument, SteadyResult, Takeoff, TimeSeriesResult } from '../../engine';
-import { designChecks, pipeStaticPressures } from '../../engine';
+import { designChecks, pipeStaticPressures, soldUnit } from '../../engine';
 import { toDisplay, unitDigits, unitLabel, type Quantity, type UnitSystem } from '../../engine/units';
 
 export interface WorkbookInput {
@@ -58,12 +58,6 @@ export function sheetUnits(system: UnitSystem): SheetUnits {
     },
     v: (q, si) => (si === null || si === undefined || !Number.isFinite(si) ? null : toDisplay(q, si, system)),
   };
-}
-
-/** A takeoff or estimate row's unit as sold in this unit system: metres become feet in US workbooks (and the CSV). */
-export function soldUnit(unit: string, u: SheetUnits): { unit: string; perSi: number } {
-  if (unit !== 'm' || u.system === 'si') return { unit, perSi: 1 };
-  return { unit: u.label('length'), perSi: toDisplay('length', 1, u.system) };
 }
 
 function sheet(book: ExcelJS.Workbook, name: string, columns: { header: string; key: string; width: number; fmt?: string }[]): ExcelJS.Worksheet {
@@ -124,7 +118,7 @@ export async function buildWorkbook(input: WorkbookInput): Promise<Buffer> {
     { header: 'From elements', key: 'elements', width: 40 },
   ]);
   for (const r of input.takeoff.rows) {
-    const sold = soldUnit(r.unit, u);
+    const sold = soldUnit(r.unit, u.system);
     t.addRow({
       code: r.code,
       description: r.description,
@@ -151,7 +145,7 @@ export async function buildWorkbook(input: WorkbookInput): Promise<Buffer> {
   ]);
   e.lines.forEach((l, i) => {
     const r = i + 2;
-    const sold = soldUnit(l.unit, u);
+    const sold = soldUnit(l.unit, u.system);
     est.addRow({
       code: l.code,
       description: l.description,

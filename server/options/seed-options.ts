@@ -1,12 +1,13 @@
 /**
  * Demo data for Options and Takeoff (invented): the team's price list (engine/examples/demo-prices)
- * and two options of the demo design with different mainline sizes, so their pressures and costs
- * differ on the Options screen.
+ * two options of the demo design with different mainline sizes, so their pressures and costs
+ * differ on the Options screen, and the estimator's labour and margin, so the estimate has every line.
  */
 import { applyCandidate, catalogueCandidate, demoPriceList, type NetworkDocument, type PipeLink } from '../../engine';
-import { designOptions, priceItems } from '../../drizzle/schema';
+import { designOptions, priceItems, takeoffSettings } from '../../drizzle/schema';
 import type { Db } from '../db';
 import { loadNetwork } from '../network/network-store';
+import { DEFAULT_PROJECT_SETTINGS } from './design-inputs';
 
 const MAINLINE = ['M1', 'M2', 'M3', 'M4'];
 
@@ -46,5 +47,11 @@ export async function seedPricesAndOptions(db: Db, ids: { teamId: string; projec
         updatedBy: ids.userId,
       },
     ]);
+    // Invented figures: two people for three days to trench, lay and test; a 10 % margin; no sales tax on farm water supply here.
+    await tx.insert(takeoffSettings).values({
+      projectId: ids.projectId,
+      settings: { ...DEFAULT_PROJECT_SETTINGS, labour_hours: 48, labour_rate: 38, markup_fraction: 0.1, tax_fraction: 0 },
+      updatedBy: ids.userId,
+    });
   });
 }

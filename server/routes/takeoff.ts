@@ -6,14 +6,14 @@
 import { and, desc, eq } from 'drizzle-orm';
 import Papa from 'papaparse';
 import { z } from 'zod';
-import { evaluateDesign, simulate, type NetworkDocument } from '../../engine';
+import { evaluateDesign, simulate, soldUnit, type NetworkDocument } from '../../engine';
 import { designOptions, estimateAcceptances, networkVersions, takeoffSettings, users } from '../../drizzle/schema';
 import type { ApiRoutes } from '../api-routes';
 import { audit } from '../audit';
 import type { AppContext } from '../context';
 import type { DbOrTx } from '../db';
 import { ApiError, parseBody } from '../errors';
-import { buildWorkbook, CODES_NOTE, sheetUnits, soldUnit } from '../export/workbook';
+import { buildWorkbook, CODES_NOTE, sheetUnits } from '../export/workbook';
 import { inlineDisposition } from './files';
 import { isUuid } from '../ids';
 import { loadNetwork } from '../network/network-store';
@@ -197,7 +197,7 @@ export function takeoffRoutes(api: ApiRoutes, ctx: AppContext): void {
         'elements',
       ],
       data: evaluation.takeoff.rows.map((r, i) => {
-        const sold = soldUnit(r.unit, u);
+        const sold = soldUnit(r.unit, u.system);
         const price = evaluation.estimate.lines[i].unit_price;
         return [
           r.code,

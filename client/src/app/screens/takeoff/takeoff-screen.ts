@@ -11,6 +11,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
 import type { Observable } from 'rxjs';
 import type { EstimateLine, OtherItem, TakeoffRow } from '../../../../../engine';
+import { soldUnit } from '../../../../../engine/takeoff/sold-unit';
 import { apiErrorMessage } from '../../core/api-errors';
 import { OptionsService } from '../../core/options.service';
 import { ProjectContext } from '../../core/project-context';
@@ -22,6 +23,9 @@ import { CountPipe } from '../../shared/count';
 interface Line {
   row: TakeoffRow;
   line: EstimateLine;
+  /** The unit price in the unit the row is sold by in the project's units (pipe per ft in US), null when unpriced. */
+  price: number | null;
+  soldBy: string;
 }
 
 /**
@@ -73,7 +77,12 @@ export class TakeoffScreen {
   protected readonly lines = computed<Line[]>(() => {
     if (!this.view.hasValue()) return [];
     const v = this.view.value();
-    return v.takeoff.rows.map((row, i) => ({ row, line: v.estimate.lines[i] }));
+    const units = this.units();
+    return v.takeoff.rows.map((row, i) => {
+      const line = v.estimate.lines[i];
+      const sold = soldUnit(row.unit, units);
+      return { row, line, price: line.unit_price === null ? null : line.unit_price / sold.perSi, soldBy: sold.unit };
+    });
   });
   protected readonly unpricedOnly = signal(false);
   protected readonly priceRows = computed<PriceItem[]>(() => {
