@@ -92,6 +92,13 @@ export class OptionsScreen {
     ];
   });
 
+  /** An element as the designer named it in this column's design (its id until the design has loaded, or when unnamed). */
+  protected nameIn(c: Column, id: string | undefined): string {
+    if (id === undefined) return '—';
+    const e = c.document?.nodes.find((n) => n.id === id) ?? c.document?.links.find((l) => l.id === id);
+    return e?.name ? e.name : id;
+  }
+
   protected readonly pipes = computed(() => {
     const c = this.columns()[0]?.document;
     return (c?.links.filter((l) => l.kind === 'pipe') ?? []) as PipeLink[];
