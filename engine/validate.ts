@@ -12,6 +12,7 @@ import { networkDocumentSchema } from './document-schema';
 import { migrateDocument } from './migrations';
 import type { NetworkDocument } from './network-document';
 import { physicalProblems, type DocumentProblem } from './physical-checks';
+import { quickValid } from './validate-quick';
 import type { Warning } from './warnings';
 
 /** At most this many problems are listed (a garbage document could have 100,000). */
@@ -31,8 +32,11 @@ export type DocumentParse =
 export function parseDocument(raw: unknown): DocumentParse {
   const migrated = migrateDocument(raw);
   if (!migrated.ok) return failed([{ path: ['schema'], element: null, message: `document.schema: ${migrated.message}` }]);
-  const parsed = networkDocumentSchema.safeParse(migrated.doc);
-  if (!parsed.success) return failed(parsed.error.issues.map((issue) => issueProblem(issue, migrated.doc)));
+  // most documents are plain tees and pipes: a quick yes skips zod, a no asks it for the messages
+  if (!quickValid(migrated.doc)) {
+    const parsed = networkDocumentSchema.safeParse(migrated.doc);
+    if (!parsed.success) return failed(parsed.error.issues.map((issue) => issueProblem(issue, migrated.doc)));
+  }
   const doc = migrated.doc as NetworkDocument;
   const problems = physicalProblems(doc);
   if (problems.length) return failed(problems);
