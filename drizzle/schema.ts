@@ -18,6 +18,7 @@ import {
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core';
+import { VERSION_STATUSES } from '../shared/versions-api';
 
 /** Raw bytes (PostgreSQL bytea) as a Node Buffer. */
 const bytea = customType<{ data: Buffer; driverData: Buffer | Uint8Array }>({
@@ -25,12 +26,48 @@ const bytea = customType<{ data: Buffer; driverData: Buffer | Uint8Array }>({
   fromDriver: (value) => Buffer.from(value),
 });
 
-const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
+// Column helpers: the blocks every table repeats, written once (the SQL they make is unchanged).
+/** A time column (always with time zone). */
+const at = (name: string) => timestamp(name, { withTimezone: true });
+const createdAt = () => at('created_at').notNull().defaultNow();
+const updatedAt = () => at('updated_at').notNull().defaultNow();
+/** A random uuid primary key. */
+const id = () => uuid('id').primaryKey().defaultRandom();
+/** Who did something; the row stays (with null) when the account is deleted. */
+const byUser = (name: string) => uuid(name).references(() => users.id, { onDelete: 'set null' });
+/** The owning team or project: the row goes with it. */
+const teamId = () =>
+  uuid('team_id')
+    .notNull()
+    .references(() => teams.id, { onDelete: 'cascade' });
+const projectId = () =>
+  uuid('project_id')
+    .notNull()
+    .references(() => projects.id, { onDelete: 'cascade' });
+/** When and by whom a row was made / last saved. */
+const created = () => ({ createdAt: createdAt(), createdBy: byUser('created_by') });
+const lastSaved = () => ({ updatedAt: updatedAt(), updatedBy: byUser('updated_by') });
+/** A project's one document saved whole, version-checked on every save (network, budget). */
+const versionedDocument = () => ({
+  id: id(),
+  projectId: projectId(),
+  /** Incremented on every save; a save must name the version it started from. */
+  version: integer('version').notNull(),
+  document: jsonb('document').notNull(),
+});
+/** A project's settings record (one row per project, replaced whole). */
+const projectSettings = () => ({
+  projectId: uuid('project_id')
+    .primaryKey()
+    .references(() => projects.id, { onDelete: 'cascade' }),
+  settings: jsonb('settings').notNull(),
+  ...lastSaved(),
+});
 
 export const users = pgTable(
   'users',
   {
-    id: uuid('id').primaryKey().defaultRandom(),
+    id: id(),
     /** Stored lower-cased. */
     email: text('email').notNull(),
     name: text('name').notNull(),
@@ -41,7 +78,7 @@ export const users = pgTable(
 );
 
 export const teams = pgTable('teams', {
-  id: uuid('id').primaryKey().defaultRandom(),
+  id: id(),
   name: text('name').notNull(),
   createdAt: createdAt(),
 });
@@ -49,9 +86,7 @@ export const teams = pgTable('teams', {
 export const memberships = pgTable(
   'memberships',
   {
-    teamId: uuid('team_id')
-      .notNull()
-      .references(() => teams.id, { onDelete: 'cascade' }),
+    teamId: teamId(),
     userId: uuid('user_id')
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
@@ -65,10 +100,8 @@ export const memberships = pgTable(
 export const projects = pgTable(
   'projects',
   {
-    id: uuid('id').primaryKey().defaultRandom(),
-    teamId: uuid('team_id')
-      .notNull()
-      .references(() => teams.id, { onDelete: 'cascade' }),
+    id: id(),
+    teamId: teamId(),
     name: text('name').notNull(),
     siteName: text('site_name').notNull().default(''),
     notes: text('notes').notNull().default(''),
@@ -77,7 +110,7 @@ export const projects = pgTable(
       .default('us'),
     archived: boolean('archived').notNull().default(false),
     createdAt: createdAt(),
-    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: updatedAt(),
   },
   (t) => [index('projects_team_idx').on(t.teamId)],
 );
@@ -88,7 +121,7 @@ export const sessions = pgTable(
   {
     sid: text('sid').primaryKey(),
     data: jsonb('data').notNull(),
-    expires: timestamp('expires', { withTimezone: true }).notNull(),
+    expires: at('expires').notNull(),
   },
   (t) => [index('sessions_expires_idx').on(t.expires)],
 );
@@ -97,32 +130,30 @@ export const sessions = pgTable(
 export const rateLimits = pgTable('rate_limits', {
   key: text('key').primaryKey(),
   hits: integer('hits').notNull(),
-  resetAt: timestamp('reset_at', { withTimezone: true }).notNull(),
+  resetAt: at('reset_at').notNull(),
 });
 
 export const invitations = pgTable(
   'invitations',
   {
-    id: uuid('id').primaryKey().defaultRandom(),
-    teamId: uuid('team_id')
-      .notNull()
-      .references(() => teams.id, { onDelete: 'cascade' }),
+    id: id(),
+    teamId: teamId(),
     email: text('email').notNull(),
     roles: text('roles').array().notNull(),
     /** SHA-256 of the token mailed in the link; the token itself is never stored. */
     tokenHash: text('token_hash').notNull(),
-    invitedBy: uuid('invited_by').references(() => users.id, { onDelete: 'set null' }),
+    invitedBy: byUser('invited_by'),
     createdAt: createdAt(),
-    expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
-    acceptedAt: timestamp('accepted_at', { withTimezone: true }),
-    acceptedBy: uuid('accepted_by').references(() => users.id, { onDelete: 'set null' }),
+    expiresAt: at('expires_at').notNull(),
+    acceptedAt: at('accepted_at'),
+    acceptedBy: byUser('accepted_by'),
     /**
      * Admin override, audited when set: any signed-in account may accept (e.g. the person uses
      * another address for Runnel). Without it only an account with `email` may accept.
      */
     anyAccount: boolean('any_account').notNull().default(false),
     /** Withdrawn by an admin: the link no longer works. */
-    revokedAt: timestamp('revoked_at', { withTimezone: true }),
+    revokedAt: at('revoked_at'),
   },
   (t) => [uniqueIndex('invitations_token_idx').on(t.tokenHash), index('invitations_team_idx').on(t.teamId)],
 );
@@ -131,9 +162,9 @@ export const auditLog = pgTable(
   'audit_log',
   {
     id: bigserial('id', { mode: 'number' }).primaryKey(),
-    at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+    at: at('at').notNull().defaultNow(),
     teamId: uuid('team_id').references(() => teams.id, { onDelete: 'cascade' }),
-    userId: uuid('user_id').references(() => users.id, { onDelete: 'set null' }),
+    userId: byUser('user_id'),
     /** Copied so the entry stays readable after the user is gone. */
     userEmail: text('user_email'),
     action: text('action').notNull(),
@@ -155,22 +186,15 @@ export const outbox = pgTable('outbox', {
   subject: text('subject').notNull().default(''),
   text: text('text').notNull().default(''),
   raw: text('raw').notNull(),
-  sentAt: timestamp('sent_at', { withTimezone: true }).notNull().defaultNow(),
+  sentAt: at('sent_at').notNull().defaultNow(),
 });
 
 export const networks = pgTable(
   'networks',
   {
-    id: uuid('id').primaryKey().defaultRandom(),
-    projectId: uuid('project_id')
-      .notNull()
-      .references(() => projects.id, { onDelete: 'cascade' }),
-    /** Incremented on every save; a save must name the version it started from. */
-    version: integer('version').notNull(),
-    document: jsonb('document').notNull(),
+    ...versionedDocument(),
     results: jsonb('results'),
-    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
-    updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+    ...lastSaved(),
   },
   (t) => [uniqueIndex('networks_project_idx').on(t.projectId)],
 );
@@ -179,42 +203,27 @@ export const networks = pgTable(
 export const budgets = pgTable(
   'budgets',
   {
-    id: uuid('id').primaryKey().defaultRandom(),
-    projectId: uuid('project_id')
-      .notNull()
-      .references(() => projects.id, { onDelete: 'cascade' }),
-    /** Incremented on every save; a save must name the version it started from. */
-    version: integer('version').notNull(),
-    document: jsonb('document').notNull(),
-    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
-    updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+    ...versionedDocument(),
+    ...lastSaved(),
   },
   (t) => [uniqueIndex('budgets_project_idx').on(t.projectId)],
 );
 
 /** A project's Profile settings (the default cover over pipes without their own, ...): one row per project. */
-export const profileSettings = pgTable('profile_settings', {
-  projectId: uuid('project_id')
-    .primaryKey()
-    .references(() => projects.id, { onDelete: 'cascade' }),
-  settings: jsonb('settings').notNull(),
-  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
-  updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
-});
+export const profileSettings = pgTable('profile_settings', projectSettings());
 
 export const files = pgTable(
   'files',
   {
-    id: uuid('id').primaryKey().defaultRandom(),
-    projectId: uuid('project_id')
-      .notNull()
-      .references(() => projects.id, { onDelete: 'cascade' }),
+    id: id(),
+    projectId: projectId(),
     kind: text('kind', { enum: ['backdrop', 'survey', 'photo'] }).notNull(),
     filename: text('filename').notNull(),
     mime: text('mime').notNull(),
     size: integer('size').notNull(),
     bytes: bytea('bytes').notNull(),
-    createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+    // created_by before created_at, as the table was first made
+    createdBy: byUser('created_by'),
     createdAt: createdAt(),
   },
   (t) => [index('files_project_idx').on(t.projectId)],
@@ -228,24 +237,19 @@ export const files = pgTable(
 export const networkVersions = pgTable(
   'network_versions',
   {
-    id: uuid('id').primaryKey().defaultRandom(),
-    projectId: uuid('project_id')
-      .notNull()
-      .references(() => projects.id, { onDelete: 'cascade' }),
+    id: id(),
+    projectId: projectId(),
     version: integer('version').notNull(),
     document: jsonb('document').notNull(),
     results: jsonb('results'),
     summary: text('summary').notNull().default(''),
     /** Set when the version was made by restoring an earlier one. */
     restoredFrom: integer('restored_from'),
-    createdAt: createdAt(),
-    createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+    ...created(),
     /** Sign-off state: draft → submitted → approved | returned (a returned version may be submitted again). */
-    status: text('status', { enum: ['draft', 'submitted', 'approved', 'returned'] })
-      .notNull()
-      .default('draft'),
-    statusAt: timestamp('status_at', { withTimezone: true }),
-    statusBy: uuid('status_by').references(() => users.id, { onDelete: 'set null' }),
+    status: text('status', { enum: VERSION_STATUSES }).notNull().default('draft'),
+    statusAt: at('status_at'),
+    statusBy: byUser('status_by'),
     /** The note given with the last transition (submit note, return reason, approval remark). */
     statusNote: text('status_note').notNull().default(''),
   },
@@ -256,10 +260,8 @@ export const networkVersions = pgTable(
 export const reviewComments = pgTable(
   'review_comments',
   {
-    id: uuid('id').primaryKey().defaultRandom(),
-    projectId: uuid('project_id')
-      .notNull()
-      .references(() => projects.id, { onDelete: 'cascade' }),
+    id: id(),
+    projectId: projectId(),
     /** The version the comment was made on. */
     version: integer('version').notNull(),
     /** A reply's thread root; null for a thread's first comment (which carries the pin). */
@@ -269,10 +271,9 @@ export const reviewComments = pgTable(
     yM: doublePrecision('y_m'),
     body: text('body').notNull(),
     resolved: boolean('resolved').notNull().default(false),
-    resolvedAt: timestamp('resolved_at', { withTimezone: true }),
-    resolvedBy: uuid('resolved_by').references(() => users.id, { onDelete: 'set null' }),
-    createdAt: createdAt(),
-    createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+    resolvedAt: at('resolved_at'),
+    resolvedBy: byUser('resolved_by'),
+    ...created(),
   },
   (t) => [index('review_comments_project_idx').on(t.projectId, t.version)],
 );
@@ -281,17 +282,14 @@ export const reviewComments = pgTable(
 export const priceItems = pgTable(
   'price_items',
   {
-    id: uuid('id').primaryKey().defaultRandom(),
-    teamId: uuid('team_id')
-      .notNull()
-      .references(() => teams.id, { onDelete: 'cascade' }),
+    id: id(),
+    teamId: teamId(),
     code: text('code').notNull(),
     description: text('description').notNull().default(''),
     unit: text('unit').notNull().default('each'),
     /** Unit price in the team's currency; null = not priced yet (the takeoff flags it). */
     price: doublePrecision('price'),
-    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
-    updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+    ...lastSaved(),
   },
   (t) => [uniqueIndex('price_items_team_code_idx').on(t.teamId, t.code)],
 );
@@ -303,10 +301,8 @@ export const priceItems = pgTable(
 export const designOptions = pgTable(
   'design_options',
   {
-    id: uuid('id').primaryKey().defaultRandom(),
-    projectId: uuid('project_id')
-      .notNull()
-      .references(() => projects.id, { onDelete: 'cascade' }),
+    id: id(),
+    projectId: projectId(),
     name: text('name').notNull(),
     notes: text('notes').notNull().default(''),
     /** The network version the option was made from. */
@@ -314,46 +310,35 @@ export const designOptions = pgTable(
     document: jsonb('document').notNull(),
     /** The last sizing report (engine SizingResult without its document), null until sized. */
     sizing: jsonb('sizing'),
-    createdAt: createdAt(),
-    createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
-    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
-    updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
+    ...created(),
+    ...lastSaved(),
     preferred: boolean('preferred').notNull().default(false),
-    preferredAt: timestamp('preferred_at', { withTimezone: true }),
-    preferredBy: uuid('preferred_by').references(() => users.id, { onDelete: 'set null' }),
+    preferredAt: at('preferred_at'),
+    preferredBy: byUser('preferred_by'),
     /** Network version created when the option was promoted to be the design. */
     promotedVersion: integer('promoted_version'),
-    promotedAt: timestamp('promoted_at', { withTimezone: true }),
-    promotedBy: uuid('promoted_by').references(() => users.id, { onDelete: 'set null' }),
+    promotedAt: at('promoted_at'),
+    promotedBy: byUser('promoted_by'),
   },
   (t) => [index('design_options_project_idx').on(t.projectId)],
 );
 
 /** The estimator's takeoff and estimate settings of a project (waste, bend angle, other list, labour, markup, tax). */
-export const takeoffSettings = pgTable('takeoff_settings', {
-  projectId: uuid('project_id')
-    .primaryKey()
-    .references(() => projects.id, { onDelete: 'cascade' }),
-  settings: jsonb('settings').notNull(),
-  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
-  updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
-});
+export const takeoffSettings = pgTable('takeoff_settings', projectSettings());
 
 /** An owner's acceptance of an estimate: what was accepted (a snapshot), for which design, who and when. */
 export const estimateAcceptances = pgTable(
   'estimate_acceptances',
   {
-    id: uuid('id').primaryKey().defaultRandom(),
-    projectId: uuid('project_id')
-      .notNull()
-      .references(() => projects.id, { onDelete: 'cascade' }),
+    id: id(),
+    projectId: projectId(),
     networkVersion: integer('network_version').notNull(),
     optionId: uuid('option_id').references(() => designOptions.id, { onDelete: 'set null' }),
     total: doublePrecision('total').notNull(),
     currency: text('currency').notNull().default('USD'),
     estimate: jsonb('estimate').notNull(),
     acceptedAt: createdAt(),
-    acceptedBy: uuid('accepted_by').references(() => users.id, { onDelete: 'set null' }),
+    acceptedBy: byUser('accepted_by'),
   },
   (t) => [index('estimate_acceptances_project_idx').on(t.projectId)],
 );
@@ -366,16 +351,15 @@ export const estimateAcceptances = pgTable(
 export const walkPoints = pgTable(
   'walk_points',
   {
-    projectId: uuid('project_id')
-      .notNull()
-      .references(() => projects.id, { onDelete: 'cascade' }),
+    projectId: projectId(),
     id: uuid('id').notNull(),
     walkId: uuid('walk_id').notNull(),
     type: text('type', { enum: ['point', 'track'] }).notNull(),
-    recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull(),
+    recordedAt: at('recorded_at').notNull(),
     /** lat, lon, elevation_m, elevation_source, accuracy_m, label, kind, note, photo_id, poor_fix. */
     data: jsonb('data').notNull(),
-    createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+    // created_by before created_at, as the table was first made
+    createdBy: byUser('created_by'),
     createdAt: createdAt(),
   },
   (t) => [primaryKey({ columns: [t.projectId, t.id] }), index('walk_points_walk_idx').on(t.projectId, t.walkId)],

@@ -8,27 +8,8 @@
  * `{ "budget": {…}, "network": {…} }` (adds storage, fill and the monthly verdicts).
  * Exit codes: 0 success, 2 bad input with one line per problem on stderr naming the row and field.
  */
-import { readFileSync } from 'node:fs';
+import { fail, printJson, readJson } from '../cli-io';
 import { BudgetInputError, planBudget } from './plan';
-
-function fail(message: string): never {
-  process.stderr.write(`${message}\n`);
-  process.exit(2);
-}
-
-function readJson(file: string): unknown {
-  let text: string;
-  try {
-    text = readFileSync(file, 'utf8');
-  } catch (error) {
-    fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
-  }
-  try {
-    return JSON.parse(text);
-  } catch (error) {
-    fail(`${file}: not valid JSON (${(error as Error).message})`);
-  }
-}
 
 function main(argv: string[]): void {
   const n = argv.indexOf('--network');
@@ -44,7 +25,7 @@ function main(argv: string[]): void {
     if (network === undefined && 'network' in input) network = (input as { network: unknown }).network;
   }
   try {
-    process.stdout.write(`${JSON.stringify(planBudget(budget, network), (_k, v) => (v === Infinity ? null : v))}\n`);
+    printJson(planBudget(budget, network));
   } catch (error) {
     if (error instanceof BudgetInputError) fail(error.problems.join('\n'));
     throw error;

@@ -3,22 +3,12 @@
  * { rows, row_length_m, spacing_m, emitter_flow_m3s } or { rows, row_length_m, flow_per_m_m3s }
  * (or an array of them). Prints the result(s) as JSON; exit 2 with a message naming the row and field.
  */
-import { readFileSync } from 'node:fs';
+import { fail, printJson, readJson } from '../cli-io';
 import { dripTapeFlow, dripTapeProblem, type DripTapeInput } from './tape';
-
-function fail(message: string): never {
-  process.stderr.write(`${message}\n`);
-  process.exit(2);
-}
 
 const file = process.argv[2];
 if (!file) fail('usage: drip-tape <zone.json>   ({ rows, row_length_m, spacing_m, emitter_flow_m3s } or { rows, row_length_m, flow_per_m_m3s })');
-let data: unknown;
-try {
-  data = JSON.parse(readFileSync(file, 'utf8'));
-} catch (e) {
-  fail(`${file}: ${(e as Error).message}`);
-}
+const data = readJson(file);
 const many = Array.isArray(data);
 const zones = (many ? data : [data]) as unknown[];
 const out = zones.map((z, i) => {
@@ -27,4 +17,4 @@ const out = zones.map((z, i) => {
   if (problem) fail(`row ${i + 1}: ${problem}`);
   return dripTapeFlow(z as DripTapeInput);
 });
-process.stdout.write(`${JSON.stringify(many ? out : out[0])}\n`);
+printJson(many ? out : out[0]);

@@ -8,50 +8,21 @@
  * (price null = not priced yet). Prints { takeoff, estimate } (estimate only with --prices).
  * Exit 2 on bad input, naming the file, row and field.
  */
-import { readFileSync } from 'node:fs';
-import { validateDocument } from '../validate';
-import type { NetworkDocument } from '../network-document';
+import { CliArgs, checkedDocument, fail, printJson, readJson } from '../cli-io';
 import { estimate } from './estimate';
 import { takeoff } from './takeoff';
 
-function fail(message: string): never {
-  process.stderr.write(`${message}\n`);
-  process.exit(2);
-}
-
-function readJson(file: string): unknown {
-  let text: string;
-  try {
-    text = readFileSync(file, 'utf8');
-  } catch (error) {
-    fail(`${file}: cannot read (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
-  }
-  try {
-    return JSON.parse(text);
-  } catch (error) {
-    fail(`${file}: not valid JSON (${(error as Error).message})`);
-  }
-}
-
-const VALUES = ['--prices', '--waste', '--bend-angle', '--labour-hours', '--labour-rate', '--markup', '--tax'];
-
-function main(args: string[]): void {
-  const file = args.find((a, i) => !a.startsWith('--') && !VALUES.includes(args[i - 1]));
+function main(argv: string[]): void {
+  const args = new CliArgs(argv, ['--prices', '--waste', '--bend-angle', '--labour-hours', '--labour-rate', '--markup', '--tax']);
+  const file = args.file;
   if (!file) fail('usage: takeoff <doc.json> [--prices list.json] [--waste F] [--bend-angle DEG] [--labour-hours H --labour-rate R --markup F --tax F]');
-  const value = (name: string): number | undefined => {
-    const i = args.indexOf(name);
-    if (i < 0) return undefined;
-    const n = Number(args[i + 1]);
-    if (args[i + 1] === undefined || !Number.isFinite(n) || n < 0) fail(`${name}: must be a non-negative number (got ${args[i + 1] ?? 'nothing'})`);
-    return n;
-  };
-  const doc = readJson(file);
-  const invalid = validateDocument(doc);
-  if (invalid.length > 0) fail(invalid.map((w) => `${file}: ${w.message}`).join('\n'));
-  const t = takeoff(doc as NetworkDocument, { waste_fraction: value('--waste'), bendAngle_deg: value('--bend-angle') });
-  const pricesFile = args[args.indexOf('--prices') + 1];
+  const value = (name: string): number | undefined => args.number(name, 'non-negative');
+  const doc = checkedDocument(readJson(file), `${file}: `);
+  const t = takeoff(doc, { waste_fraction: value('--waste'), bendAngle_deg: value('--bend-angle') });
+  const pricesFile = args.text('--prices');
   let out: unknown = { takeoff: t };
-  if (args.includes('--prices')) {
+  if (pricesFile !== undefined) {
+    if (!pricesFile) fail('--prices: give the price list file, e.g. --prices list.json');
     const list = readJson(pricesFile);
     if (!Array.isArray(list)) fail(`${pricesFile}: must be a list of { code, price } rows`);
     const prices = new Map<string, number | null>();
@@ -72,7 +43,7 @@ function main(args: string[]): void {
       }),
     };
   }
-  process.stdout.write(`${JSON.stringify(out)}\n`);
+  printJson(out);
 }
 
 main(process.argv.slice(2));

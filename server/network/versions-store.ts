@@ -5,31 +5,15 @@
  */
 import { and, asc, desc, eq } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import type { NetworkDocument } from '../../engine';
-import { compareOutlets, diffVersions, summariseDiff, type OutletComparison, type OutletResults, type VersionDiff } from '../../engine/review/version-diff';
+import type { NetworkDocument, SteadyResult } from '../../engine';
+import { compareOutlets, diffVersions, summariseDiff } from '../../engine/review/version-diff';
 import { networkVersions, users } from '../../drizzle/schema';
 import type { DbOrTx } from '../db';
 import { ApiError } from '../errors';
 import { versionChange } from './version-change';
+import type { StoredVersion, VersionComparison, VersionStatus, VersionSummary } from '../../shared/versions-api';
 
-export type VersionStatus = (typeof networkVersions.$inferSelect)['status'];
-
-export interface VersionSummary {
-  version: number;
-  summary: string;
-  createdAt: string;
-  createdBy: string | null;
-  restoredFrom: number | null;
-  status: VersionStatus;
-  statusAt: string | null;
-  statusBy: string | null;
-  statusNote: string;
-}
-
-export interface StoredVersion extends VersionSummary {
-  document: NetworkDocument;
-  results: unknown;
-}
+export type { StoredVersion, VersionComparison, VersionStatus, VersionSummary };
 
 /**
  * Records version `version` of a project. `change` is the one-line summary against the document it
@@ -42,7 +26,7 @@ export async function recordVersion(
     projectId: string;
     version: number;
     document: NetworkDocument;
-    results: unknown;
+    results: SteadyResult | null;
     userId: string;
     change: string | (() => Promise<NetworkDocument | null>);
     restoredFrom?: number;
@@ -117,7 +101,8 @@ export async function loadVersion(db: DbOrTx, projectId: string, version: number
   if (!row)
     throw new ApiError('not-found', `Version ${version} of this project does not exist`, { fields: [{ path: 'version', message: `no version ${version}` }] });
   const { document, results, ...rest } = row;
-  return { ...toSummary(rest), document: document as NetworkDocument, results };
+  // jsonb reads back as unknown: these columns are written only by recordVersion, with the types above.
+  return { ...toSummary(rest), document: document as NetworkDocument, results: results as SteadyResult | null };
 }
 
 /** The newest version number of a project (0 when none is kept). */
@@ -129,14 +114,6 @@ export async function latestVersion(db: DbOrTx, projectId: string): Promise<numb
     .orderBy(desc(networkVersions.version))
     .limit(1);
   return row?.version ?? 0;
-}
-
-export interface VersionComparison {
-  from: VersionSummary;
-  to: VersionSummary;
-  diff: VersionDiff;
-  summary: string;
-  outlets: OutletComparison[];
 }
 
 /** Elements added, removed and changed field by field from `from` to `to`, and every outlet before and after. */
@@ -151,7 +128,7 @@ export async function compareVersions(db: DbOrTx, projectId: string, from: numbe
     to: sb,
     diff,
     summary: summariseDiff(diff),
-    outlets: compareOutlets(da, ra as OutletResults | null, db2, rb as OutletResults | null),
+    outlets: compareOutlets(da, ra, db2, rb),
   };
 }
 

@@ -1,38 +1,13 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable, catchError, of } from 'rxjs';
-import type { NetworkDocument } from '../../../../../engine/network-document';
-import type { SteadyResult } from '../../../../../engine/index';
-import type { OutletComparison, VersionDiff } from '../../../../../engine/review/version-diff';
+import type { ReviewComment, ReviewThread } from '../../../../../shared/review-api';
+import type { StoredVersion, VersionComparison, VersionStatus, VersionSummary } from '../../../../../shared/versions-api';
 import { handleErrorsLocally } from '../../core/http-context';
 
-export type VersionStatus = 'draft' | 'submitted' | 'approved' | 'returned';
+/** Wire types kept once in shared/ (the server's stores answer these shapes). */
+export type { ReviewComment, ReviewThread, StoredVersion, VersionComparison, VersionStatus, VersionSummary };
 
-export interface VersionSummary {
-  version: number;
-  summary: string;
-  createdAt: string;
-  createdBy: string | null;
-  restoredFrom: number | null;
-  status: VersionStatus;
-  statusAt: string | null;
-  statusBy: string | null;
-  statusNote: string;
-}
-export interface StoredVersion extends VersionSummary {
-  document: NetworkDocument;
-  results: SteadyResult | null;
-}
-export interface VersionComparison {
-  from: VersionSummary;
-  to: VersionSummary;
-  diff: VersionDiff;
-  summary: string;
-  outlets: OutletComparison[];
-}
-
-import type { ReviewComment, ReviewThread } from '../../../../../shared/review-api';
-export type { ReviewComment, ReviewThread };
 export interface NewComment {
   version: number;
   body: string;

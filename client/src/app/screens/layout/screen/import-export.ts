@@ -1,5 +1,5 @@
 import type { NetworkDocument } from '../../../../../../engine/network-document';
-import { parseDocument } from '../../../../../../engine/index';
+import { parseDocument } from '../../../core/document-parse';
 import type { SteadyResult } from '../../../../../../engine/steady';
 import { toGeoJson } from '../editor/geojson-export';
 
