@@ -40,6 +40,8 @@ export class TimelineRun {
     this.stage.set('starting');
     this.progress.set(0);
     this.error.set(null);
+    // a new run replaces the shown one: no chart of the old span or step while it computes
+    this.result.set(null);
     this.started.set(performance.now());
     worker.addEventListener('message', (e: MessageEvent<{ stage?: 'simulating' | 'events'; progress?: number; result?: TimelineResult; error?: string }>) => {
       if (this.worker !== worker) return;

@@ -1,4 +1,4 @@
-import { Component, DestroyRef, computed, inject, input, signal, viewChildren } from '@angular/core';
+import { Component, DestroyRef, computed, effect, inject, input, signal, untracked, viewChildren } from '@angular/core';
 import { rxResource } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -86,6 +86,14 @@ export class TimelineScreen {
 
   constructor() {
     inject(DestroyRef).onDestroy(() => this.run.cancel());
+    // The tab opens on a week of the saved design (a second or less in the worker), so an owner
+    // glancing at it sees the tanks rather than an empty page; Run again after changing the span or step.
+    let opened = false;
+    effect(() => {
+      if (opened || !this.network.hasValue() || this.network.value().document.nodes.length === 0) return;
+      opened = true;
+      untracked(() => this.start());
+    });
   }
 
   protected readonly names = computed(
