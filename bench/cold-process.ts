@@ -29,13 +29,13 @@ interface Timing {
 }
 
 /** Wall and CPU ms of one child process (CPU from its own resource usage at exit, written to `report`). */
-function child(args: string[], report: string): Timing & { first?: number } {
+function child(args: string[], report: string): Timing & { first?: number; firstCpu?: number } {
   const t0 = performance.now();
   execFileSync(process.execPath, args, { cwd: root, maxBuffer: 1 << 28, env: { ...process.env, RUNNEL_BENCH_REPORT: report } });
   const wall = performance.now() - t0;
-  const m = /^cpu (\S+) first (\S+)/.exec(readFileSync(report, 'utf8'));
+  const m = /^cpu (\S+) first (\S+) (\S+)/.exec(readFileSync(report, 'utf8'));
   if (!m) throw new Error(`no timing report from ${args.join(' ')}`);
-  return { wall, cpu: Number(m[1]), ...(m[2] !== '-' ? { first: Number(m[2]) } : {}) };
+  return { wall, cpu: Number(m[1]), ...(m[2] !== '-' ? { first: Number(m[2]), firstCpu: Number(m[3]) } : {}) };
 }
 
 export function coldProcess(rounds = 5): string {
@@ -48,12 +48,12 @@ export function coldProcess(rounds = 5): string {
   const reportFile = join(dir, 'report.txt');
   writeFileSync(
     report,
-    "process.on('exit', () => { const u = process.resourceUsage(); require('node:fs').writeFileSync(process.env.RUNNEL_BENCH_REPORT, `cpu ${(u.userCPUTime + u.systemCPUTime) / 1000} first ${globalThis.__first ?? '-'}`); });\n",
+    "process.on('exit', () => { const u = process.resourceUsage(); require('node:fs').writeFileSync(process.env.RUNNEL_BENCH_REPORT, `cpu ${(u.userCPUTime + u.systemCPUTime) / 1000} first ${globalThis.__first ?? '-'} ${globalThis.__firstCpu ?? '-'}`); });\n",
   );
   const firstSolve = join(dir, 'first-solve.ts');
   writeFileSync(
     firstSolve,
-    `import { readFileSync } from 'node:fs';\nimport { solve } from ${JSON.stringify(join(root, 'engine', 'steady.ts'))};\nconst doc = JSON.parse(readFileSync(${JSON.stringify(file)}, 'utf8'));\nconst t = performance.now();\nsolve(doc);\n(globalThis as { __first?: number }).__first = performance.now() - t;\n`,
+    `import { readFileSync } from 'node:fs';\nimport { solve } from ${JSON.stringify(join(root, 'engine', 'steady.ts'))};\nconst doc = JSON.parse(readFileSync(${JSON.stringify(file)}, 'utf8'));\nconst t = performance.now();\nconst c = process.cpuUsage();\nsolve(doc);\nconst u = process.cpuUsage(c);\nObject.assign(globalThis, { __first: performance.now() - t, __firstCpu: (u.user + u.system) / 1000 });\n`,
   );
   const cases: Record<string, string[]> = {
     'CLI as npm run solve (bundle)': ['--require', report, join(root, 'scripts', 'bundled-cli.mjs'), 'engine/cli.ts', file],
@@ -79,7 +79,7 @@ export function coldProcess(rounds = 5): string {
   const load0 = loadavg()[0];
   for (const args of Object.values(cases)) child(args, reportFile); // builds the bundles once, untimed
   const before = warmMedian();
-  const times: Record<string, (Timing & { first?: number })[]> = Object.fromEntries(Object.keys(cases).map((n) => [n, []]));
+  const times: Record<string, (Timing & { first?: number; firstCpu?: number })[]> = Object.fromEntries(Object.keys(cases).map((n) => [n, []]));
   for (let r = 0; r < rounds; r++) for (const [name, args] of Object.entries(cases)) times[name].push(child(args, reportFile));
   const after = warmMedian();
   const load1 = loadavg()[0];
@@ -95,7 +95,11 @@ export function coldProcess(rounds = 5): string {
     const wall = median(t.map((x) => x.wall));
     const cpu = median(t.map((x) => x.cpu));
     lines.push(`${name}: whole process | ${wall.toFixed(0)} | ${(wall / warm.wall).toFixed(1)} | ${cpu.toFixed(0)} | ${(cpu / warm.cpu).toFixed(1)}`);
-    if (first !== undefined) lines.push(`${name}: the solve() call alone | ${first.toFixed(0)} | ${(first / warm.wall).toFixed(1)} | – | –`);
+    const firstCpu = first !== undefined ? median(t.map((x) => x.firstCpu!)) : 0;
+    if (first !== undefined)
+      lines.push(
+        `${name}: the solve() call alone | ${first.toFixed(0)} | ${(first / warm.wall).toFixed(1)} | ${firstCpu.toFixed(0)} | ${(firstCpu / warm.cpu).toFixed(1)}`,
+      );
   }
   return lines.join('\n');
 }

@@ -187,8 +187,7 @@ export class SupernodalCholesky {
   /** Numeric factorisation from pattern.values; returns n on success or the failing column. */
   factor(): number {
     if (this.block.length !== this.blockPtr[this.supernodes]) this.block = new Float64Array(this.blockPtr[this.supernodes]);
-    const { n, first, rowPtr, rows, blockPtr, block, superOf, relative, head, next, position, update, map } = this;
-    const half = update.length >> 1;
+    const { n, block, head } = this;
     const { values } = this.pattern;
     const { scatterFrom, scatterTo } = this;
     const ns = this.supernodes;
@@ -196,103 +195,114 @@ export class SupernodalCholesky {
     // A's lower triangle into the blocks (see scatterFrom)
     block.fill(0);
     for (let e = 0; e < scatterFrom.length; e++) block[scatterTo[e]] += values[scatterFrom[e]];
+    // one supernode per call: a small method is optimised after a few calls, where one long loop
+    // in a fresh process runs interpreted until it is compiled on stack replacement
     for (let s = 0; s < ns; s++) {
-      const f = first[s];
-      const wdt = first[s + 1] - f;
-      const r0 = rowPtr[s];
-      const m = rowPtr[s + 1] - r0;
-      const b0 = blockPtr[s];
-      for (let q = 0; q < m; q++) relative[rows[r0 + q]] = q;
-      // updates from descendants whose next rows fall in this supernode's columns
-      let d = head[s];
-      while (d >= 0) {
-        const nextD = next[d];
-        const dr0 = rowPtr[d];
-        const dm = rowPtr[d + 1] - dr0;
-        const dw = first[d + 1] - first[d];
-        const db0 = blockPtr[d];
-        const p1 = position[d];
-        let p2 = p1;
-        const last = f + wdt - 1;
-        while (p2 < dm && rows[dr0 + p2] <= last) p2++;
-        const um = dm - p1; // rows to update
-        const uw = p2 - p1; // columns of s touched
-        // block(rows, cols of s) −= L_d[p1:dm, :] · L_d[p1:p2, :]ᵀ, two target columns per pass
-        // over d's columns (subtractProductsPair). Where d's rows are s's rows shifted (common in a
-        // postordered tree) the target columns are contiguous and updated in place; otherwise d's
-        // rows are mapped to s's once and each pair of columns is formed in `update`, then scattered
-        const rel0 = relative[rows[dr0 + p1]];
-        const contiguous = relative[rows[dr0 + dm - 1]] - rel0 === um - 1;
-        if (!contiguous) for (let ii = 0; ii < um; ii++) map[ii] = relative[rows[dr0 + p1 + ii]];
-        const c0 = db0 + p1;
-        let jj = 0;
-        for (; jj + 1 < uw; jj += 2) {
-          const base = b0 + (rows[dr0 + p1 + jj] - f) * m;
-          const base1 = b0 + (rows[dr0 + p1 + jj + 1] - f) * m;
-          if (contiguous) subtractProductsPair(block, c0, dm, dw, jj, um, block, base + rel0, base1 + rel0);
-          else {
-            for (let ii = jj; ii < um; ii++) {
-              update[ii] = 0;
-              update[half + ii] = 0;
-            }
-            subtractProductsPair(block, c0, dm, dw, jj, um, update, 0, half);
-            for (let ii = jj; ii < um; ii++) block[base + map[ii]] += update[ii];
-            for (let ii = jj + 1; ii < um; ii++) block[base1 + map[ii]] += update[half + ii];
-          }
-        }
-        if (jj < uw) {
-          const base = b0 + (rows[dr0 + p1 + jj] - f) * m;
-          if (contiguous) subtractProducts(block, c0, dm, dw, jj, um, block, base + rel0);
-          else {
-            for (let ii = jj; ii < um; ii++) update[ii] = 0;
-            subtractProducts(block, c0, dm, dw, jj, um, update, 0);
-            for (let ii = jj; ii < um; ii++) block[base + map[ii]] += update[ii];
-          }
-        }
-        // move d on to the supernode of its next row
-        position[d] = p2;
-        if (p2 < dm) {
-          const t = superOf[rows[dr0 + p2]];
-          next[d] = head[t];
-          head[t] = d;
-        }
-        d = nextD;
-      }
-      // dense Cholesky of the diagonal block and triangular solve of the rows below, left-looking
-      // two columns at a time: the products of the earlier columns off both (subtractProductsPair),
-      // then column c is finished and its own term is taken off column c + 1
-      for (let c = 0; c < wdt; c += 2) {
-        const cb = b0 + c * m;
-        const pair = c + 1 < wdt;
-        const cb1 = cb + m;
-        if (c > 0) {
-          if (pair) subtractProductsPair(block, b0, m, c, c, m, block, cb, cb1);
-          else subtractProducts(block, b0, m, c, c, m, block, cb);
-        }
-        const diag = block[cb + c];
-        if (!(diag > 0) || !Number.isFinite(diag)) return f + c;
-        const lcc = Math.sqrt(diag);
-        block[cb + c] = lcc;
-        const inv = 1 / lcc;
-        for (let i = c + 1; i < m; i++) block[cb + i] *= inv;
-        if (!pair) break;
-        const l = block[cb + c + 1];
-        for (let i = c + 1; i < m; i++) block[cb1 + i] -= block[cb + i] * l;
-        const diag1 = block[cb1 + c + 1];
-        if (!(diag1 > 0) || !Number.isFinite(diag1)) return f + c + 1;
-        const l11 = Math.sqrt(diag1);
-        block[cb1 + c + 1] = l11;
-        const inv1 = 1 / l11;
-        for (let i = c + 2; i < m; i++) block[cb1 + i] *= inv1;
-      }
-      if (wdt < m) {
-        position[s] = wdt;
-        const t = superOf[rows[r0 + wdt]];
-        next[s] = head[t];
-        head[t] = s;
-      }
+      const failed = this.factorSupernode(s);
+      if (failed >= 0) return failed;
     }
     return n;
+  }
+
+  /** Supernode s of factor(): the updates from its descendants, then its own dense block; −1 or the failing column. */
+  private factorSupernode(s: number): number {
+    const { first, rowPtr, rows, blockPtr, block, superOf, relative, head, next, position, update, map } = this;
+    const half = update.length >> 1;
+    const f = first[s];
+    const wdt = first[s + 1] - f;
+    const r0 = rowPtr[s];
+    const m = rowPtr[s + 1] - r0;
+    const b0 = blockPtr[s];
+    for (let q = 0; q < m; q++) relative[rows[r0 + q]] = q;
+    // updates from descendants whose next rows fall in this supernode's columns
+    let d = head[s];
+    while (d >= 0) {
+      const nextD = next[d];
+      const dr0 = rowPtr[d];
+      const dm = rowPtr[d + 1] - dr0;
+      const dw = first[d + 1] - first[d];
+      const db0 = blockPtr[d];
+      const p1 = position[d];
+      let p2 = p1;
+      const last = f + wdt - 1;
+      while (p2 < dm && rows[dr0 + p2] <= last) p2++;
+      const um = dm - p1; // rows to update
+      const uw = p2 - p1; // columns of s touched
+      // block(rows, cols of s) −= L_d[p1:dm, :] · L_d[p1:p2, :]ᵀ, two target columns per pass
+      // over d's columns (subtractProductsPair). Where d's rows are s's rows shifted (common in a
+      // postordered tree) the target columns are contiguous and updated in place; otherwise d's
+      // rows are mapped to s's once and each pair of columns is formed in `update`, then scattered
+      const rel0 = relative[rows[dr0 + p1]];
+      const contiguous = relative[rows[dr0 + dm - 1]] - rel0 === um - 1;
+      if (!contiguous) for (let ii = 0; ii < um; ii++) map[ii] = relative[rows[dr0 + p1 + ii]];
+      const c0 = db0 + p1;
+      let jj = 0;
+      for (; jj + 1 < uw; jj += 2) {
+        const base = b0 + (rows[dr0 + p1 + jj] - f) * m;
+        const base1 = b0 + (rows[dr0 + p1 + jj + 1] - f) * m;
+        if (contiguous) subtractProductsPair(block, c0, dm, dw, jj, um, block, base + rel0, base1 + rel0);
+        else {
+          for (let ii = jj; ii < um; ii++) {
+            update[ii] = 0;
+            update[half + ii] = 0;
+          }
+          subtractProductsPair(block, c0, dm, dw, jj, um, update, 0, half);
+          for (let ii = jj; ii < um; ii++) block[base + map[ii]] += update[ii];
+          for (let ii = jj + 1; ii < um; ii++) block[base1 + map[ii]] += update[half + ii];
+        }
+      }
+      if (jj < uw) {
+        const base = b0 + (rows[dr0 + p1 + jj] - f) * m;
+        if (contiguous) subtractProducts(block, c0, dm, dw, jj, um, block, base + rel0);
+        else {
+          for (let ii = jj; ii < um; ii++) update[ii] = 0;
+          subtractProducts(block, c0, dm, dw, jj, um, update, 0);
+          for (let ii = jj; ii < um; ii++) block[base + map[ii]] += update[ii];
+        }
+      }
+      // move d on to the supernode of its next row
+      position[d] = p2;
+      if (p2 < dm) {
+        const t = superOf[rows[dr0 + p2]];
+        next[d] = head[t];
+        head[t] = d;
+      }
+      d = nextD;
+    }
+    // dense Cholesky of the diagonal block and triangular solve of the rows below, left-looking
+    // two columns at a time: the products of the earlier columns off both (subtractProductsPair),
+    // then column c is finished and its own term is taken off column c + 1
+    for (let c = 0; c < wdt; c += 2) {
+      const cb = b0 + c * m;
+      const pair = c + 1 < wdt;
+      const cb1 = cb + m;
+      if (c > 0) {
+        if (pair) subtractProductsPair(block, b0, m, c, c, m, block, cb, cb1);
+        else subtractProducts(block, b0, m, c, c, m, block, cb);
+      }
+      const diag = block[cb + c];
+      if (!(diag > 0) || !Number.isFinite(diag)) return f + c;
+      const lcc = Math.sqrt(diag);
+      block[cb + c] = lcc;
+      const inv = 1 / lcc;
+      for (let i = c + 1; i < m; i++) block[cb + i] *= inv;
+      if (!pair) break;
+      const l = block[cb + c + 1];
+      for (let i = c + 1; i < m; i++) block[cb1 + i] -= block[cb + i] * l;
+      const diag1 = block[cb1 + c + 1];
+      if (!(diag1 > 0) || !Number.isFinite(diag1)) return f + c + 1;
+      const l11 = Math.sqrt(diag1);
+      block[cb1 + c + 1] = l11;
+      const inv1 = 1 / l11;
+      for (let i = c + 2; i < m; i++) block[cb1 + i] *= inv1;
+    }
+    if (wdt < m) {
+      position[s] = wdt;
+      const t = superOf[rows[r0 + wdt]];
+      next[s] = head[t];
+      head[t] = s;
+    }
+    return -1;
   }
 
   /** Solve A·x = b with the current factorisation (b and x may be the same array). */
