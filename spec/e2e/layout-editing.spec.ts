@@ -7,6 +7,7 @@
  * the page's own session cookie and CSRF token (server/API.md).
  */
 import { expect } from 'chai';
+import { hwLoss, minorLoss } from '../engine/hand-formulas';
 import { signIn, useBrowserApp } from './harness';
 import {
   apiCall,
@@ -108,7 +109,16 @@ describe('Layout screen: editing end to end (Chromium, real server)', function (
       await shot(page, '1-three-elements');
     }
     const kPa = valueOf((await value.textContent()) ?? '');
-    expect(kPa).to.be.greaterThan(staticKPa * 0.5);
+    // Worked by hand from the drawn document: the outlet's demand runs through both pipes (the tee draws
+    // nothing), each losing Hazen-Williams friction and K·v²/2g (spec/engine/hand-formulas.ts); whole kPa shown.
+    const drawnDoc = await editorHook.doc(page);
+    const out = drawnDoc.nodes.find((n) => n.id === outlet.id) as unknown as { demand_m3s: number };
+    const tankNow = drawnDoc.nodes.find((n) => n.id === tank.id) as unknown as { level_m: number };
+    let metres = 45 + tankNow.level_m - 5;
+    for (const l of drawnDoc.links as unknown as { length_m: number; diameter_m: number; roughness: number; minor_loss?: number }[])
+      metres -= hwLoss(out.demand_m3s, l.length_m, l.diameter_m, l.roughness) + minorLoss(l.minor_loss ?? 0, out.demand_m3s, l.diameter_m);
+    expect(metres * 9.80665).to.be.within(staticKPa * 0.5, staticKPa);
+    expect(kPa).to.be.closeTo(metres * 9.80665, 0.5 + 1e-9);
     expect(await editorHook.solveMs(page), 'the worker reported its solve time').to.be.greaterThan(0);
     // The outlet's state in words, readable without hovering: on its results row and on the plan.
     expect(await page.getByTestId(`result-${outlet.id}`).locator('.state').textContent()).to.match(/^(OK|close|short) [+−±]/);

@@ -7,6 +7,7 @@
  */
 import { expect } from 'chai';
 import type { Page } from 'playwright-core';
+import { hwLoss, minorLoss } from '../engine/hand-formulas';
 import { signIn, useBrowserApp } from './harness';
 import { canvasPoint, clickNode, createProject, dragFromPalette, editorHook, findProject, openLayout, setProperty, shot, waitSolved } from './layout-helpers';
 
@@ -98,7 +99,17 @@ describe("Layout screen: a newcomer's first network (Chromium, real server)", fu
     });
     expect(await state.textContent()).to.match(/^OK \+\d+ kPa$/);
     const kPa = Number(/(\d+) kPa/.exec((await page.getByTestId(`result-${outlet.id}`).locator('.value').textContent()) ?? '')?.[1]);
-    expect(kPa).to.be.within(150, 208);
+    // Worked by hand from the drawn document: the outlet's demand runs through both pipes (the tee draws
+    // nothing), each losing Hazen-Williams friction and its fittings' K·v²/2g (spec/engine/hand-formulas.ts,
+    // REFERENCES.md); 1 m of water = 9.80665 kPa. The screen shows whole kPa.
+    doc = await editorHook.doc(page);
+    const drawn = doc.nodes.find((n) => n.id === outlet.id) as unknown as { demand_m3s: number; elevation_m: number };
+    const water = doc.nodes.find((n) => n.id === tank.id) as unknown as { elevation_m: number; level_m: number };
+    let metres = water.elevation_m + water.level_m - drawn.elevation_m;
+    for (const l of doc.links as unknown as { length_m: number; diameter_m: number; roughness: number; minor_loss?: number }[])
+      metres -= hwLoss(drawn.demand_m3s, l.length_m, l.diameter_m, l.roughness) + minorLoss(l.minor_loss ?? 0, drawn.demand_m3s, l.diameter_m);
+    expect(metres).to.be.within(15, 21.2);
+    expect(kPa).to.be.closeTo(metres * 9.80665, 0.5 + 1e-9);
     await expectNoNegative(page, 'the finished network');
     await shot(page, 'newcomer-first-network');
   });

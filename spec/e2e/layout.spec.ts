@@ -39,7 +39,10 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     await openLayout(page, app.baseUrl, demo.id);
     await page.waitForFunction(() => (window.__runnelEditor?.getDocument().nodes.length ?? 0) > 0);
     const shown = await editorHook.doc(page);
-    expect(shown.nodes.length).to.be.greaterThan(0);
+    // the stored demo network, element for element
+    const stored = (await getNetwork(page, app.baseUrl, demo.id)).document;
+    expect(shown.nodes.map((n) => n.id)).to.deep.equal(stored.nodes.map((n) => n.id));
+    expect(shown.links.map((l) => l.id)).to.deep.equal(stored.links.map((l) => l.id));
     expect(await page.getByTestId('view-only-chip').textContent()).to.contain('View only');
     for (const kind of ['source', 'tank', 'tee', 'outlet']) expect(await page.getByTestId(`palette-${kind}`).count(), kind).to.equal(0);
     expect(await page.getByTestId('tool-pipe').count()).to.equal(0);
@@ -48,8 +51,10 @@ describe('Layout screen end to end (Chromium, real server)', function () {
     // The network is drawn with its results, and every number in the list carries its unit.
     await page.getByTestId('results-list').waitFor();
     const values = await page.locator('[data-testid=results-list] .value').allTextContents();
-    expect(values.length).to.be.greaterThan(0);
-    // (A tank reads its water now and when full: "6,079 of 8,651 L".)
+    // A ridge tank reads its water now and when full: π·(2.44 m)²/4 × 1.3 m = 6,079 L of π·(2.44 m)²/4 × 1.85 m = 8,651 L (C)
+    expect(values.map((v) => v.trim())).to.include(
+      `${Math.round(((Math.PI * 2.44 ** 2 * 1.3) / 4) * 1000).toLocaleString('en-US')} of ${Math.round(((Math.PI * 2.44 ** 2 * 1.85) / 4) * 1000).toLocaleString('en-US')} L`,
+    );
     for (const v of values) expect(v.trim()).to.match(/^(-?[\d,.]+ (kPa|m head|L\/s · [\d,.]+ m\/s|L\/s · \+[\d,.]+ m head)|[\d,]+ of [\d,]+ L)$/);
 
     // Selecting works; deleting from the keyboard does nothing; the fields are read-only.

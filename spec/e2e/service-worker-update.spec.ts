@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import { expect } from 'chai';
 import type { Browser } from 'playwright-core';
 import { startTestApp, type TestApp } from '../api/test-app';
-import { hasChromium, launchBrowser, signIn } from './harness';
+import { launchBrowser, requireChromium, signIn } from './harness';
 
 const built = new URL('../../dist/client/browser/', import.meta.url).pathname;
 
@@ -24,7 +24,7 @@ describe('Service worker: a new deploy is picked up', function () {
   let clientDir: string;
   let baseUrl: string;
   before(async function () {
-    if (!hasChromium()) this.skip();
+    requireChromium(this);
     clientDir = mkdtempSync(join(tmpdir(), 'runnel-sw-'));
     cpSync(built, clientDir, { recursive: true });
     t = await startTestApp({ clientDir });

@@ -6,7 +6,7 @@
  */
 import { expect } from 'chai';
 import type { BrowserContext, CDPSession, Page } from 'playwright-core';
-import { launchBrowser, hasChromium, signIn, startApp, type RunningApp } from './harness';
+import { launchBrowser, requireChromium, signIn, startApp, type RunningApp } from './harness';
 import { apiCall, createProject, getNetwork } from './layout-helpers';
 import type { Browser } from 'playwright-core';
 
@@ -38,7 +38,7 @@ describe('Walk mode: recording on a phone without signal', function () {
   let app: RunningApp;
   let browser: Browser;
   before(async function () {
-    if (!hasChromium()) this.skip();
+    requireChromium(this);
     app = await startApp();
     browser = await launchBrowser();
   });
@@ -223,7 +223,10 @@ describe('Walk mode: recording on a phone without signal', function () {
       expect(profile.length).to.be.greaterThan(3);
       expect(profile[0][1]).to.equal(320);
       expect(pipe['length_source']).to.equal('survey');
-      // The walked line is 277.8 m in plan (spring → four stops); along the ground a little more.
+      // The walked line is 277.8 m in plan (spring → four stops); along the ground a little more: the sloped
+      // length along its profile, Σ √(Δchainage² + Δz²) (Pythagoras, C)
+      const sloped = profile.slice(1).reduce((sum, [c, z], i) => sum + Math.hypot(c - profile[i][0], z - profile[i][1]), 0);
+      expect(pipe['length_m'] as number).to.be.closeTo(sloped, 0.01);
       expect(pipe['length_m'] as number).to.be.within(278, 320);
       expect((net.document.layout?.['geo'] as { source: string }).source).to.equal('walk');
     } finally {
