@@ -14,6 +14,7 @@ export { migrateDocument, documentVersion, type Migration } from './migrations';
 export { networkDocumentSchema } from './document-schema';
 export { BOUNDS, MAX_ELEMENTS, boundProblem, type Bound, type BoundName } from './bounds';
 export { solve, type SteadyResult, type SteadyOptions, type NodeResult, type LinkResult } from './steady';
+export { LiveSolver } from './live-solve';
 export { clearStructureCache } from './gradient-solver';
 export { simulate, type SimulateOptions, type TimeSeriesResult, type SimulationSummary } from './simulate';
 export { equalisationTime, type EqualiseOptions, type EqualiseResult } from './equalise';
