@@ -11,6 +11,7 @@ import { eq } from 'drizzle-orm';
 import { priceItems } from '../../drizzle/schema';
 import { countFittings, minorLossAllowance, solve, type NetworkDocument, type PipeLink } from '../../engine';
 import { failingCheckCount } from '../../engine/review';
+import { humpLine } from '../engine/hump-line';
 import { binaryBody, startTestApp, type TestApp } from './test-app';
 
 describe('API: options, prices, takeoff and export', () => {
@@ -303,30 +304,7 @@ describe('API: options, prices, takeoff and export', () => {
     // of cover (the engine default) the pipe is at 102.55 m, above the HGL; under 2 m at 101 m, below it.
     const designer = await t.signInAs('designer');
     const made = await designer.post(`${base}/options`, { name: 'Over the hump' }).expect(201);
-    const hump: NetworkDocument = {
-      schema: 'runnel.network/1',
-      headloss: 'hazen-williams',
-      nodes: [
-        { id: 'T', kind: 'tank', elevation_m: 100, diameter_m: 2, level_m: 2, min_level_m: 0.2, max_level_m: 2 },
-        { id: 'O', kind: 'outlet', elevation_m: 40, demand_m3s: 0.0002, min_pressure_m: 10, outlet_type: 'hose-bib' },
-      ],
-      links: [
-        {
-          id: 'P',
-          kind: 'pipe',
-          from: 'T',
-          to: 'O',
-          length_m: 100,
-          diameter_m: 0.03,
-          roughness: 150,
-          profile: [
-            [0, 100],
-            [50, 103],
-            [100, 40],
-          ],
-        },
-      ],
-    };
+    const hump = humpLine(103);
     await designer.patch(`${base}/options/${made.body.id}`, { document: hump }).expect(200);
     const failing = async () =>
       ((await designer.get(`${base}/options`).expect(200)).body.options as { id: string; summary: { failingChecks: number } }[]).find(
