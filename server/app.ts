@@ -23,10 +23,13 @@ import { loadProject } from './project-scope';
 import { checkJsonText, requireJsonOrMultipart } from './request-guards';
 import { createMailer } from './mail/mailer';
 import { startMailSink, type MailSink } from './mail/sink';
+import { logTeamlessMail } from './mail/dev-mail-log';
+import { rollingSessionCookie } from './auth/rolling-cookie';
 import { budgetRoutes } from './routes/budget';
 import { profileRoutes } from './routes/profile';
 import { authRoutes, SESSION_COOKIE, type SigninLimit } from './routes/auth';
 import { optionRoutes } from './routes/options';
+import { DEFAULT_SIGNUP_LIMIT, signupRoutes, type SignupLimit } from './routes/signup';
 import { priceRoutes } from './routes/prices';
 import { takeoffRoutes } from './routes/takeoff';
 import { fileRoutes } from './routes/files';
@@ -48,6 +51,8 @@ export interface AppOptions {
   bcryptCost?: number;
   /** Failed sign-ins allowed per IP and e-mail per window; default 10 per 15 minutes. */
   signinLimit?: SigninLimit;
+  /** Sign-up requests allowed per IP and per e-mail per window; default 10 and 3 per hour. */
+  signupLimit?: SignupLimit;
   /** Password checks (sign-in, sign-up, invitation accept) allowed per IP per window; default 50 per 15 minutes. */
   passwordBudget?: PasswordBudget;
   /** Worker threads for bcrypt; default the process-wide pool (1 worker, 16 waiting). */
@@ -76,6 +81,8 @@ export interface RunnelApp {
 }
 
 export const JSON_BODY_LIMIT = '5mb';
+/** A session lasts this long after its last use (the cookie's expiry rolls: server/auth/rolling-cookie.ts). */
+export const SESSION_MAX_AGE_MS = 14 * 24 * 60 * 60 * 1000;
 /** Angular's build loads its stylesheet with onload="this.media='all'"; this allows exactly that handler. */
 const ANGULAR_STYLESHEET_ONLOAD = "'sha256-MhtPZXr7+LpJUY5qtMutB+qWfQtMaPccfe7QXtCcEYc='";
 
@@ -94,7 +101,11 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
 
   let sink: MailSink | null = null;
   if (!config.smtp) sink = await startMailSink(db);
-  const mailer = createMailer(config.smtp ?? { host: '127.0.0.1', port: sink!.port }, config.mailFrom);
+  const sent = createMailer(config.smtp ?? { host: '127.0.0.1', port: sink!.port }, config.mailFrom);
+  // Development without SMTP: mail no team's Outbox shows (sign-up links) goes to the log too. Never in production.
+  const mailer = sink && !config.production ? logTeamlessMail(sent, logger) : sent;
+  if (sink && config.production)
+    logger.warn("No SMTP_HOST in production: mail is kept in the teams' Outbox only, and sign-up is closed (503) until SMTP_HOST is set");
 
   const seeded = options.seed === false ? null : await database.exclusive(() => seedDemo(db, { bcryptCost }));
   const passwords = options.passwordPool ?? sharedPasswordPool();
@@ -146,6 +157,7 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
   const api = new ApiRoutes(loadProject(db));
   api.get('/csrf', 'public', csrf.issue);
   authRoutes(api, ctx, passport, options.signinLimit ?? { max: 10, windowMs: 15 * 60 * 1000 });
+  signupRoutes(api, ctx, options.signupLimit ?? DEFAULT_SIGNUP_LIMIT);
   teamRoutes(api, ctx);
   projectRoutes(api, ctx);
   networkRoutes(api, ctx);
@@ -171,10 +183,11 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
       store,
       resave: false,
       saveUninitialized: false,
-      cookie: { httpOnly: true, sameSite: 'lax', secure: config.cookieSecure, maxAge: 14 * 24 * 60 * 60 * 1000 },
+      cookie: { httpOnly: true, sameSite: 'lax', secure: config.cookieSecure, maxAge: SESSION_MAX_AGE_MS },
     }),
     passport.initialize(),
     passport.session(),
+    rollingSessionCookie(SESSION_MAX_AGE_MS),
     currentMember(db),
     csrf.protect,
     api.router,

@@ -6,7 +6,17 @@ import { z } from 'zod';
 import type { Logger } from './logging';
 
 export type ErrorCode =
-  'validation' | 'unauthenticated' | 'forbidden' | 'csrf' | 'not-found' | 'conflict' | 'too-large' | 'unsupported-type' | 'rate-limited' | 'internal';
+  | 'validation'
+  | 'unauthenticated'
+  | 'forbidden'
+  | 'csrf'
+  | 'not-found'
+  | 'conflict'
+  | 'too-large'
+  | 'unsupported-type'
+  | 'rate-limited'
+  | 'internal'
+  | 'unavailable';
 
 const STATUS: Record<ErrorCode, number> = {
   validation: 400,
@@ -19,6 +29,7 @@ const STATUS: Record<ErrorCode, number> = {
   'unsupported-type': 415,
   'rate-limited': 429,
   internal: 500,
+  unavailable: 503,
 };
 
 export interface FieldError {

@@ -64,7 +64,10 @@ async function main(): Promise<void> {
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
   runnel.logger.info(`Runnel listening on http://${config.host}:${port} (data: ${store})`);
-  if (runnel.mailSinkPort) runnel.logger.info(`Mail is captured by the local SMTP sink on 127.0.0.1:${runnel.mailSinkPort}; admins see it under Outbox`);
+  if (runnel.mailSinkPort) {
+    const teamless = config.production ? 'sign-up is closed without SMTP_HOST' : 'mail for no team (sign-up links) is printed in this log, in development only';
+    runnel.logger.info(`Mail is captured by the local SMTP sink on 127.0.0.1:${runnel.mailSinkPort}; admins see a team's mail under Outbox; ${teamless}`);
+  }
 
   let stopping = false;
   const stop = (signal: string) => {

@@ -32,5 +32,7 @@ declare module 'express-session' {
   interface SessionData {
     /** Current team of the signed-in user. */
     teamId?: string;
+    /** When the cookie's expiry was last moved (server/auth/rolling-cookie.ts). */
+    renewedAt?: number;
   }
 }

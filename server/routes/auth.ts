@@ -1,17 +1,13 @@
-/** /api/auth/*: sign-up, sign-in (rate-limited), sign-out, me, switching team. */
+/** /api/auth/*: sign-in (rate-limited), sign-out, me, switching team. */
 import type { Request, RequestHandler } from 'express';
-import { eq } from 'drizzle-orm';
 import rateLimit, { ipKeyGenerator } from 'express-rate-limit';
 import type passport from 'passport';
 import { z } from 'zod';
-import { memberships, teams, users } from '../../drizzle/schema';
 import { MIN_PASSWORD_LENGTH } from '../../shared/accounts';
 import type { ApiRoutes } from '../api-routes';
-import { audit } from '../audit';
 import { buildMe, loadMe, teamsOf } from '../auth/me';
 import { normaliseEmail } from '../auth/passport';
 import { DrizzleRateLimitStore } from '../auth/rate-limit-store';
-import { hashPassword } from '../auth/passwords';
 import type { AppContext } from '../context';
 import { ApiError, parseBody } from '../errors';
 import type { SessionUser } from '../types';
@@ -21,7 +17,6 @@ export const emailField = z.email('must be an e-mail address').max(254);
 export const passwordField = z.string().min(PASSWORD_MIN, `must be at least ${PASSWORD_MIN} characters`).max(200);
 export const nameField = z.string().trim().min(1, 'is required').max(120);
 
-const signupBody = z.object({ email: emailField, name: nameField, password: passwordField, teamName: nameField });
 const signinBody = z.object({
   email: z.string({ error: 'must be a text' }).min(1, 'is required').max(254, 'must be at most 254 characters'),
   password: z.string({ error: 'must be a text' }).min(1, 'is required').max(200, 'must be at most 200 characters'),
@@ -56,26 +51,6 @@ export function authRoutes(api: ApiRoutes, ctx: AppContext, auth: passport.Authe
       const minutes = Math.ceil(options.windowMs / 60000);
       res.status(429).json({ error: { code: 'rate-limited', message: `Too many sign-in attempts for this e-mail; try again in ${minutes} minutes.` } });
     },
-  });
-
-  api.post('/auth/signup', 'public', ctx.passwordBudget, async (req, res) => {
-    const body = parseBody(signupBody, req.body);
-    const email = normaliseEmail(body.email);
-    const passwordHash = await hashPassword(body.password, ctx.bcryptCost, ctx.passwords);
-    const created = await db.transaction(async (tx) => {
-      const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, email));
-      if (existing)
-        throw new ApiError('conflict', 'An account with this e-mail already exists; sign in instead', {
-          fields: [{ path: 'email', message: 'is already registered' }],
-        });
-      const [user] = await tx.insert(users).values({ email, name: body.name, passwordHash }).returning({ id: users.id, email: users.email, name: users.name });
-      const [team] = await tx.insert(teams).values({ name: body.teamName }).returning({ id: teams.id });
-      await tx.insert(memberships).values({ teamId: team.id, userId: user.id, roles: ['admin'] });
-      await audit(tx, { teamId: team.id, user, action: 'team.create', target: body.teamName });
-      return { user, teamId: team.id };
-    });
-    await signIn(req, created.user, created.teamId);
-    res.status(201).json(await loadMe(db, created.user, created.teamId));
   });
 
   // The body is checked before the limiter, whose key holds the e-mail (an object or a megabyte is a 400, not a key).

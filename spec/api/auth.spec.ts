@@ -2,7 +2,9 @@ import { expect } from 'chai';
 import { openDatabase } from '../../server/db';
 import supertest from 'supertest';
 import { permissionsFor } from '../../server/permissions';
+import { SIGNUP_ANSWER } from '../../server/routes/signup';
 import { DEMO_PASSWORD } from '../../server/seed';
+import { confirmTokenIn, mailTo } from './mail-helpers';
 import { startTestApp, type TestApp } from './test-app';
 
 describe('API: auth, CSRF, errors', () => {
@@ -14,7 +16,7 @@ describe('API: auth, CSRF, errors', () => {
     await t.close();
   });
 
-  it('signs up: creates the user and a team where they are admin, and signs them in', async () => {
+  it('signs up by e-mail: the link in the mail creates the user and a team where they are admin, and signs them in', async () => {
     const a = await t.anonymous();
     const res = await a.post('/api/auth/signup', {
       email: 'Newcomer@Example.test',
@@ -22,21 +24,34 @@ describe('API: auth, CSRF, errors', () => {
       password: 'long-enough-pw',
       teamName: 'Fresh Spring Team',
     });
-    expect(res.status, JSON.stringify(res.body)).to.equal(201);
-    expect(res.body.user.email).to.equal('newcomer@example.test');
-    expect(res.body.teams).to.have.length(1);
-    expect(res.body.teams[0]).to.include({ name: 'Fresh Spring Team' });
-    expect(res.body.roles).to.deep.equal(['admin']);
-    expect(res.body.permissions).to.include('team.manage');
+    expect(res.status, JSON.stringify(res.body)).to.equal(202);
+    expect(res.body).to.deep.equal({ status: 'check-email', message: SIGNUP_ANSWER });
+    await a.get('/api/auth/me').expect(401);
+    const mail = await mailTo(t, 'newcomer@example.test');
+    const token = confirmTokenIn(mail);
+    const done = await a.post('/api/auth/signup/confirm', { token });
+    expect(done.status, JSON.stringify(done.body)).to.equal(201);
+    expect(done.body.user.email).to.equal('newcomer@example.test');
+    expect(done.body.teams).to.have.length(1);
+    expect(done.body.teams[0]).to.include({ name: 'Fresh Spring Team' });
+    expect(done.body.roles).to.deep.equal(['admin']);
+    expect(done.body.permissions).to.include('team.manage');
+    await a.refreshCsrf();
     const me = await a.get('/api/auth/me').expect(200);
     expect(me.body.user.email).to.equal('newcomer@example.test');
+    await (await t.signIn('newcomer@example.test', 'long-enough-pw')).get('/api/auth/me').expect(200);
   });
 
-  it('refuses a second sign-up with the same e-mail (409, names the field)', async () => {
+  it('a registered e-mail gets the same answer; its owner is mailed and nothing changes', async () => {
     const a = await t.anonymous();
     const res = await a.post('/api/auth/signup', { email: 'admin@runnel.test', name: 'X', password: 'long-enough-pw', teamName: 'Y' });
-    expect(res.status).to.equal(409);
-    expect(res.body.error.fields[0].path).to.equal('email');
+    expect(res.status).to.equal(202);
+    expect(res.body).to.deep.equal({ status: 'check-email', message: SIGNUP_ANSWER });
+    const mail = await mailTo(t, 'admin@runnel.test');
+    expect(mail.subject).to.match(/already|your address/i);
+    expect(mail.text).to.include('http://runnel.test/sign-in').and.not.include('/sign-up/confirm');
+    await a.get('/api/auth/me').expect(401);
+    await t.signInAs('admin');
   });
 
   it('signs in, reports me with permissions of the current team, and signs out', async () => {

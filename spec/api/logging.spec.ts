@@ -6,9 +6,10 @@
  */
 import { expect } from 'chai';
 import { sql } from 'drizzle-orm';
+import { sealSignup } from '../../server/auth/signup-token';
 import { REDACTED, safeError, safePath } from '../../server/logging';
 import { DEMO_PASSWORD } from '../../server/seed';
-import { demoEmail, startTestApp, type TestApp } from './test-app';
+import { demoEmail, startTestApp, testConfig, type TestApp } from './test-app';
 
 describe('API: structured logs without secrets', () => {
   let t: TestApp;
@@ -34,16 +35,17 @@ describe('API: structured logs without secrets', () => {
   });
 
   it('a failing query logs its SQL and SQLSTATE, never its parameters or the failing row', async () => {
-    // A constraint the sign-up insert will break: the 500 path with a password hash among the parameters.
+    // A constraint the new account's insert will break: the 500 path with a password hash among the parameters.
     await t.db.execute(sql.raw(`ALTER TABLE users ADD CONSTRAINT log_spec_no_boom CHECK (name <> 'Boom Secretname')`));
     try {
       const a = await t.anonymous();
       const email = 'leaky.address@runnel.test';
-      const password = 'horse-battery-staple-77';
-      const res = await a.post('/api/auth/signup', { email, name: 'Boom Secretname', password, teamName: 'Leak Farm' });
+      const passwordHash = '$2a$04$abcdefghijklmnopqrstuuSecretHashValue0123456789abcde';
+      const token = sealSignup(testConfig('/x').sessionSecret, { email, name: 'Boom Secretname', teamName: 'Leak Farm', passwordHash });
+      const res = await a.post('/api/auth/signup/confirm', { token });
       expect(res.status).to.equal(500);
       const text = lines.join('\n');
-      for (const secret of [email, password, 'Boom Secretname', '$2a$', '$2b$', 'Failing row']) {
+      for (const secret of [email, passwordHash, 'SecretHashValue', 'Boom Secretname', token, 'Failing row']) {
         expect(text, `log holds ${secret}`).to.not.include(secret);
       }
       const error = parsed().find((l) => l.msg === 'unexpected error')!;

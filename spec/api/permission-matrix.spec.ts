@@ -12,6 +12,7 @@ import type { Response } from 'supertest';
 import { walkPoints } from '../../drizzle/schema';
 import { emptyBudget } from '../../engine/budget';
 import { PERMISSION_TABLE, ROLES, type Access, type Role } from '../../server/permissions';
+import { sealSignup } from '../../server/auth/signup-token';
 import { DEMO_PASSWORD } from '../../server/seed';
 import {
   insertFile,
@@ -29,7 +30,7 @@ import {
   SURVEY_CSV,
 } from './fixtures';
 import { insertOption, insertPrice, PRICE_CSV } from './option-fixtures';
-import { demoEmail, startTestApp, type ApiAgent, type TestApp } from './test-app';
+import { demoEmail, startTestApp, testConfig, type ApiAgent, type TestApp } from './test-app';
 
 interface Case {
   method: 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -37,7 +38,7 @@ interface Case {
   path: string;
   /** The access API.md documents for this route. */
   access: Access;
-  success: 200 | 201 | 204;
+  success: 200 | 201 | 202 | 204;
   /** Sends the request; may create the target first. `who` is the signed-in role (null: signed out). */
   call(a: ApiAgent, t: TestApp, who: Role | null): PromiseLike<Response>;
 }
@@ -64,8 +65,18 @@ const CASES: Case[] = [
     method: 'post',
     path: '/auth/signup',
     access: 'public',
-    success: 201,
+    success: 202,
     call: (a) => a.post('/api/auth/signup', { email: `s-${randomUUID()}@example.test`, name: 'S', password: 'long-enough-pw', teamName: 'T' }),
+  },
+  {
+    method: 'post',
+    path: '/auth/signup/confirm',
+    access: 'public',
+    success: 201,
+    call: (a) =>
+      a.post('/api/auth/signup/confirm', {
+        token: sealSignup(testConfig('/x').sessionSecret, { email: `c-${randomUUID()}@example.test`, name: 'C', teamName: 'T', passwordHash: 'x' }),
+      }),
   },
   {
     method: 'post',

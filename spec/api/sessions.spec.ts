@@ -1,12 +1,14 @@
 /**
  * Sessions are stored only when they carry something (issue 13 item 8): a signed-out visitor's
  * CSRF token is a signed double-submit that needs no session row; a signed-in request does not
- * rewrite its session row; the token stays bound to the session once signed in.
+ * rewrite its session row; the token stays bound to the session once signed in. The cookie's
+ * expiry rolls with use (re-sent at most once a minute), so an active user is not signed out.
  */
 import { expect } from 'chai';
-import { count } from 'drizzle-orm';
+import { count, eq } from 'drizzle-orm';
 import supertest from 'supertest';
 import { sessions } from '../../drizzle/schema';
+import { SESSION_MAX_AGE_MS } from '../../server/app';
 import { DEMO_PASSWORD } from '../../server/seed';
 import { demoEmail, startTestApp, type TestApp } from './test-app';
 
@@ -57,6 +59,52 @@ describe('API: sessions stored only when they carry something', () => {
     const first = await expiry();
     for (let i = 0; i < 5; i++) await a.get('/api/auth/me').expect(200);
     expect(await expiry()).to.equal(first);
+  });
+
+  it('the cookie expiry rolls with use: a session used on its 13th day gets a fresh 14 days, re-sent at most once a minute', async () => {
+    const a = await t.signInAs('owner');
+    const sid = decodeURIComponent(a.sessionCookie.split('=')[1]).slice(2).split('.')[0];
+    const row = async () => (await t.db.query.sessions.findFirst({ where: (s, { eq }) => eq(s.sid, sid) }))!;
+    const cookieExpiry = (res: supertest.Response) => {
+      const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith('runnel.sid='));
+      return cookie ? Date.parse(/Expires=([^;]+)/.exec(cookie)![1]) : null;
+    };
+    // As if signed in 13 days ago: the cookie (and the row) expire in one day.
+    const oneDayLeft = new Date(Date.now() + 24 * 3600_000);
+    const stored = await row();
+    const data = stored.data as { cookie: Record<string, unknown> };
+    await t.db
+      .update(sessions)
+      .set({ data: { ...data, cookie: { ...data.cookie, expires: oneDayLeft.toISOString() } }, expires: oneDayLeft })
+      .where(eq(sessions.sid, sid));
+
+    const used = await a.get('/api/auth/me').expect(200);
+    const renewed = cookieExpiry(used);
+    expect(renewed, 'the cookie is sent again').to.not.equal(null);
+    expect(renewed! - Date.now()).to.be.within(SESSION_MAX_AGE_MS - 60_000, SESSION_MAX_AGE_MS + 1000);
+    expect((await row()).expires.getTime()).to.be.closeTo(renewed!, 1000);
+    // Used again within the minute: no new cookie, no write.
+    const again = await a.get('/api/projects').expect(200);
+    expect(cookieExpiry(again)).to.equal(null);
+    expect((await row()).expires.getTime()).to.be.closeTo(renewed!, 1000);
+    // The same cookie still signs in (same session id; only its expiry moved).
+    expect(decodeURIComponent(a.sessionCookie.split('=')[1]).slice(2).split('.')[0]).to.equal(sid);
+  });
+
+  it('a session a minute or more since its cookie was sent is renewed; a fresh one is not', async () => {
+    const a = await t.signInAs('designer');
+    const sid = decodeURIComponent(a.sessionCookie.split('=')[1]).slice(2).split('.')[0];
+    const fresh = await a.get('/api/auth/me').expect(200);
+    expect(String(fresh.headers['set-cookie'] ?? '')).to.not.include('runnel.sid=');
+    const stored = (await t.db.query.sessions.findFirst({ where: (s, { eq }) => eq(s.sid, sid) }))!;
+    const data = stored.data as { cookie: { expires: string } };
+    const minuteAgo = new Date(Date.parse(data.cookie.expires) - 61_000);
+    await t.db
+      .update(sessions)
+      .set({ data: { ...data, cookie: { ...data.cookie, expires: minuteAgo.toISOString() } } })
+      .where(eq(sessions.sid, sid));
+    const later = await a.get('/api/auth/me').expect(200);
+    expect(String(later.headers['set-cookie'] ?? '')).to.include('runnel.sid=');
   });
 
   it('signing out leaves no stored session behind for the visitor', async () => {

@@ -93,6 +93,7 @@ export async function startTestApp(options: Partial<AppOptions> & { dataDir?: st
     log: false,
     // Every test signs in from 127.0.0.1, hundreds of times: the per-IP budget has its own spec.
     passwordBudget: { max: 1_000_000, windowMs: 60_000 },
+    signupLimit: { perIp: 1_000_000, perEmail: 1_000_000, windowMs: 60_000 },
     ...rest,
     database,
   });

@@ -20,6 +20,8 @@ const repoRoot = new URL('../..', import.meta.url).pathname;
 export interface RunningApp {
   baseUrl: string;
   dataDir: string;
+  /** What the server has written to stdout and stderr so far (its JSON log). */
+  output(): string;
   stop(): Promise<void>;
 }
 
@@ -78,6 +80,7 @@ export async function startApp(dataDir?: string): Promise<RunningApp> {
   return {
     baseUrl,
     dataDir: dir,
+    output: () => output,
     async stop() {
       if (child.exitCode === null) {
         child.kill('SIGTERM');

@@ -10,6 +10,12 @@ export const routes: Routes = [
     loadComponent: () => import('./screens/sign-in/sign-in-screen').then((m) => m.SignInScreen),
   },
   {
+    // The mailed link: open to anyone, also when signed in (the screen asks before replacing that sign-in).
+    path: 'sign-up/confirm',
+    title: 'Finish creating your account · Runnel',
+    loadComponent: () => import('./screens/sign-up/sign-up-confirm-screen').then((m) => m.SignUpConfirmScreen),
+  },
+  {
     path: 'sign-up',
     title: 'Create an account · Runnel',
     canActivate: [signedOutGuard],

@@ -99,6 +99,11 @@ export interface SignUpRequest {
   password: string;
   teamName: string;
 }
+/** POST /api/auth/signup answers this whether or not the address is registered. */
+export interface SignUpAnswer {
+  status: 'check-email';
+  message: string;
+}
 
 export interface ProjectCreate {
   name: string;

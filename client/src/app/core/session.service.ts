@@ -1,7 +1,7 @@
 import { HttpClient, HttpContext, HttpErrorResponse } from '@angular/common/http';
 import { Injectable, computed, inject, signal } from '@angular/core';
 import { Observable, catchError, map, of, shareReplay, tap, throwError } from 'rxjs';
-import { Me, SignUpRequest, TeamRef } from './api-types';
+import { Me, SignUpAnswer, SignUpRequest, TeamRef } from './api-types';
 import { CsrfService } from './csrf.service';
 import { SKIP_AUTH_REDIRECT, SKIP_ERROR_SNACKBAR } from './http-context';
 
@@ -55,10 +55,18 @@ export class SessionService {
     return this.http.post<Me>('/api/auth/signin', { email, password }, { context: quiet() }).pipe(tap((me) => this.adopt(me)));
   }
 
-  /** Creates the user and a team of which they are admin. Field errors are left to the caller. */
-  signUp(request: SignUpRequest): Observable<Me> {
+  /**
+   * Asks for an account: the server mails a link to finish it (or a note to the owner of an address
+   * that already has one; the answer is the same either way). Field errors are left to the caller.
+   */
+  signUp(request: SignUpRequest): Observable<SignUpAnswer> {
+    return this.http.post<SignUpAnswer>('/api/auth/signup', request, { context: quiet() });
+  }
+
+  /** Opens the mailed link: creates the user and a team of which they are admin, and signs in. */
+  confirmSignUp(token: string): Observable<Me> {
     this.csrf.reset();
-    return this.http.post<Me>('/api/auth/signup', request, { context: quiet() }).pipe(tap((me) => this.adopt(me)));
+    return this.http.post<Me>('/api/auth/signup/confirm', { token }, { context: quiet() }).pipe(tap((me) => this.adopt(me)));
   }
 
   signOut(): Observable<void> {

@@ -6,11 +6,15 @@ import { MatCardModule } from '@angular/material/card';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { Router, RouterLink } from '@angular/router';
+import { RouterLink } from '@angular/router';
 import { apiErrorMessage } from '../../core/api-errors';
 import { MIN_PASSWORD_LENGTH } from '../../core/api-types';
 import { SessionService } from '../../core/session.service';
 
+/**
+ * Asking for an account: the server mails a link (the answer never says whether the address is
+ * registered); the link opens sign-up-confirm-screen, which creates the account.
+ */
 @Component({
   selector: 'rn-sign-up-screen',
   imports: [ReactiveFormsModule, RouterLink, MatCardModule, MatFormFieldModule, MatInputModule, MatButtonModule, MatProgressBarModule],
@@ -18,7 +22,6 @@ import { SessionService } from '../../core/session.service';
 })
 export class SignUpScreen {
   private readonly session = inject(SessionService);
-  private readonly router = inject(Router);
   private readonly destroyRef = inject(DestroyRef);
 
   protected readonly minPassword = MIN_PASSWORD_LENGTH;
@@ -30,6 +33,8 @@ export class SignUpScreen {
   });
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
+  /** The server's "check your e-mail" answer once the request is sent. */
+  protected readonly sent = signal<string | null>(null);
 
   protected submit(): void {
     if (this.form.invalid) {
@@ -43,7 +48,10 @@ export class SignUpScreen {
       .signUp({ ...value, email: value.email.trim(), name: value.name.trim(), teamName: value.teamName.trim() })
       .pipe(takeUntilDestroyed(this.destroyRef))
       .subscribe({
-        next: () => void this.router.navigate(['/projects']),
+        next: (answer) => {
+          this.busy.set(false);
+          this.sent.set(answer.message);
+        },
         error: (err: unknown) => {
           this.busy.set(false);
           this.error.set(apiErrorMessage(err, { 429: 'Too many attempts. Wait a few minutes, then try again.' }));
