@@ -10,10 +10,12 @@ import type { Mailer } from './mailer';
 export function logTeamlessMail(mailer: Mailer, logger: Logger): Mailer {
   return {
     async send(mail) {
+      // Logged before sending: by the time the mail is in the outbox, its line is in the log.
+      if (!mail.teamId) {
+        const links = mail.text.match(/https?:\/\/\S+/g) ?? [];
+        logger.info({ devMail: { to: mail.to, subject: mail.subject } }, `Development mail to ${mail.to}: "${mail.subject}" ${links.join(' ')}`.trim());
+      }
       await mailer.send(mail);
-      if (mail.teamId) return;
-      const links = mail.text.match(/https?:\/\/\S+/g) ?? [];
-      logger.info({ devMail: { to: mail.to, subject: mail.subject } }, `Development mail to ${mail.to}: "${mail.subject}" ${links.join(' ')}`.trim());
     },
     close: () => mailer.close(),
   };
