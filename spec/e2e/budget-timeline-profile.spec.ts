@@ -24,6 +24,18 @@ async function openDemo(page: Page, baseUrl: string, role: string, tab: string):
   await page.getByTestId(`tab-${tab}`).click();
 }
 
+/**
+ * The use dialog's inputs are in the page before Angular first renders it, and that first render writes
+ * each field's starting value over anything typed sooner (seen under load: a count of 30 saved as 10,
+ * "-3" read as empty). Type only once its title, an interpolation, reads.
+ */
+async function useDialogReady(page: Page): Promise<void> {
+  await page
+    .locator('[mat-dialog-title]')
+    .filter({ hasText: /water use/ })
+    .waitFor({ timeout: 10000 });
+}
+
 /** A chart has drawn when uPlot's canvas is there and it reports its points. */
 async function chartPoints(page: Page, within: string): Promise<number> {
   const chart = page.getByTestId(within).locator('.rn-chart');
@@ -51,10 +63,8 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     const herd = page.getByTestId('use-row').filter({ hasText: 'Suckler herd' });
     const before = await page.getByTestId('budget-outlets').locator('tr', { hasText: 'South trough' }).getByTestId('outlet-flow').textContent();
     await herd.getByTestId('use-edit').click();
-    // type only once the dialog has written its starting value: a value typed earlier was overwritten by
-    // the form's first write (the 10 pairs saved again, seen under load)
-    await page.waitForFunction(() => (document.querySelector('[data-testid=use-amount]') as HTMLInputElement | null)?.value === '10', null, { timeout: 10000 });
-    await page.locator('.mat-mdc-dialog-container.mdc-dialog--open').waitFor({ timeout: 10000 });
+    await useDialogReady(page);
+    expect(await page.getByTestId('use-amount').inputValue()).to.equal('10');
     await page.getByTestId('use-amount').fill('30');
     await page.getByTestId('use-save').click();
     const flowCell = page.getByTestId('budget-outlets').locator('tr', { hasText: 'South trough' }).getByTestId('outlet-flow');
@@ -94,7 +104,7 @@ describe('Water budget, Timeline and Profile (browser)', function () {
 
     // a bad row is refused in the dialog, naming the field
     await page.getByTestId('budget-add-use').click();
-    await page.locator('.mat-mdc-dialog-container.mdc-dialog--open').waitFor({ timeout: 10000 });
+    await useDialogReady(page);
     await page.getByTestId('use-name').fill('Goats');
     await page.getByTestId('use-amount').fill('-3');
     await page.getByTestId('use-save').click();
@@ -103,6 +113,7 @@ describe('Water budget, Timeline and Profile (browser)', function () {
 
     // the farmhouse by its fixtures: the house outlet's flow becomes the fixture-unit peak (not saved: discarded)
     await page.getByTestId('use-row').filter({ hasText: 'Farmhouse' }).getByTestId('use-edit').click();
+    await useDialogReady(page);
     await page.getByTestId('fixture-toilet-tank').fill('1');
     await page.getByTestId('fixture-shower').fill('1');
     await page.getByTestId('fixture-lavatory').fill('1');
