@@ -54,13 +54,11 @@ import { valueOr } from '../../core/resource-state';
     </div>
   `,
   styles: `
+    @use '../../../theme/table-card' as cards;
+
+    /* A phone: one card per entry (when and who, then action, target, detail) instead of five squeezed columns. */
     .rn-audit-card {
-      border: 1px solid var(--mat-sys-outline-variant);
-      border-radius: 12px;
-      overflow-x: auto;
-    }
-    table {
-      width: 100%;
+      @include cards.table-card(auto minmax(0, 1fr), 2px 12px, 10px 16px);
     }
     code {
       font-size: 13px;
@@ -77,35 +75,7 @@ import { valueOr } from '../../core/resource-state';
       padding: 24px 16px;
       color: var(--mat-sys-on-surface-variant);
     }
-    /* A phone: one card per entry (when and who, then action, target, detail) instead of five squeezed columns. */
     @media (max-width: 599.98px) {
-      .rn-audit-card {
-        overflow: hidden;
-      }
-      table,
-      .rn-audit-card ::ng-deep tbody {
-        display: block;
-      }
-      tr.mat-mdc-header-row {
-        display: none;
-      }
-      tr.mat-mdc-row {
-        display: grid;
-        grid-template-columns: auto minmax(0, 1fr);
-        gap: 2px 12px;
-        height: auto;
-        padding: 10px 16px;
-        border-bottom: 1px solid var(--mat-sys-outline-variant);
-      }
-      tr.mat-mdc-row:last-child {
-        border-bottom: 0;
-      }
-      td.mat-mdc-cell {
-        display: block;
-        padding: 0;
-        border: 0;
-        min-width: 0;
-      }
       .mat-column-at {
         font: var(--mat-sys-body-small);
         color: var(--mat-sys-on-surface-variant);
