@@ -18,3 +18,13 @@ export interface ReviewComment {
 export interface ReviewThread extends ReviewComment {
   replies: ReviewComment[];
 }
+
+/** POST /api/projects/:id/comments: a thread (pinned to an element or a plan point) or, with parentId, a reply. */
+export interface NewComment {
+  version: number;
+  body: string;
+  element?: string;
+  x_m?: number;
+  y_m?: number;
+  parentId?: string;
+}

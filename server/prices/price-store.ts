@@ -4,18 +4,9 @@ import { priceItems, users } from '../../drizzle/schema';
 import { audit } from '../audit';
 import type { Db, DbOrTx } from '../db';
 import type { ImportedRow } from './price-import';
+import type { PriceItem } from '../../shared/prices-api';
 
-export interface PriceItemJson {
-  id: string;
-  code: string;
-  description: string;
-  unit: string;
-  price: number | null;
-  updatedAt: string;
-  updatedBy: string | null;
-}
-
-export async function listPrices(db: DbOrTx, teamId: string): Promise<PriceItemJson[]> {
+export async function listPrices(db: DbOrTx, teamId: string): Promise<PriceItem[]> {
   const rows = await db
     .select({ row: priceItems, name: users.name })
     .from(priceItems)

@@ -12,7 +12,7 @@ import { ApiError } from '../errors';
 import { isUuid } from '../ids';
 import { loadVersion } from '../network/versions-store';
 import type { ProjectRow } from '../project-scope';
-import type { ReviewComment, ReviewThread } from '../../shared/review-api';
+import type { NewComment, ReviewComment, ReviewThread } from '../../shared/review-api';
 
 export type CommentJson = ReviewComment;
 export type ThreadJson = ReviewThread;
@@ -49,15 +49,6 @@ export async function listThreads(db: Db, projectId: string, version?: number): 
   const byId = new Map(threads.map((t) => [t.id, t]));
   for (const c of json) if (c.parentId) byId.get(c.parentId)?.replies.push(c);
   return threads;
-}
-
-export interface NewComment {
-  version: number;
-  body: string;
-  element?: string;
-  x_m?: number;
-  y_m?: number;
-  parentId?: string;
 }
 
 /** Adds a thread or a reply; 400 naming the field for an unknown element or parent, 409 on an approved version. */

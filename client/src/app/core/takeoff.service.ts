@@ -2,6 +2,7 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
 import type { DesignSummary, Estimate, OtherItem, Takeoff } from '../../../../engine';
+import type { PriceItem } from '../../../../shared/prices-api';
 
 export interface TakeoffSettingsBody {
   waste_fraction: number;
@@ -36,15 +37,7 @@ export interface TakeoffView {
   note: string;
 }
 
-export interface PriceItem {
-  id: string;
-  code: string;
-  description: string;
-  unit: string;
-  price: number | null;
-  updatedAt: string;
-  updatedBy: string | null;
-}
+export type { PriceItem };
 
 /** Takeoff, estimate, settings, acceptance and exports of a project; the team's price list. */
 @Injectable({ providedIn: 'root' })

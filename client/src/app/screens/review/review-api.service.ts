@@ -1,21 +1,12 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable, catchError, of } from 'rxjs';
-import type { ReviewComment, ReviewThread } from '../../../../../shared/review-api';
+import type { NewComment, ReviewComment, ReviewThread } from '../../../../../shared/review-api';
 import type { StoredVersion, VersionComparison, VersionStatus, VersionSummary } from '../../../../../shared/versions-api';
 import { handleErrorsLocally } from '../../core/http-context';
 
 /** Wire types kept once in shared/ (the server's stores answer these shapes). */
-export type { ReviewComment, ReviewThread, StoredVersion, VersionComparison, VersionStatus, VersionSummary };
-
-export interface NewComment {
-  version: number;
-  body: string;
-  element?: string;
-  x_m?: number;
-  y_m?: number;
-  parentId?: string;
-}
+export type { NewComment, ReviewComment, ReviewThread, StoredVersion, VersionComparison, VersionStatus, VersionSummary };
 
 /** The review's HTTP calls (server/API.md "Versions" and "Review sign-off and comments"). */
 @Injectable({ providedIn: 'root' })
