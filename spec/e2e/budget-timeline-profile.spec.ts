@@ -110,6 +110,8 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     await page.getByTestId('use-save').click();
     expect(await page.getByTestId('use-problems').textContent()).to.match(/count: must be a whole number ≥ 0 \(got -3\)/);
     await page.keyboard.press('Escape');
+    // the next dialog's title must not be this closing one's
+    await page.locator('mat-dialog-container').waitFor({ state: 'detached', timeout: 10000 });
 
     // the farmhouse by its fixtures: the house outlet's flow becomes the fixture-unit peak (not saved: discarded)
     await page.getByTestId('use-row').filter({ hasText: 'Farmhouse' }).getByTestId('use-edit').click();
@@ -119,6 +121,7 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     await page.getByTestId('fixture-lavatory').fill('1');
     await shot(page, 'budget-fixtures-dialog-desktop');
     await page.getByTestId('use-save').click();
+    await page.locator('mat-dialog-container').waitFor({ state: 'detached', timeout: 10000 });
     await page
       .getByTestId('budget-outlets')
       .getByText(/probable peak from 4\.3 fixture units/)

@@ -1,4 +1,4 @@
-import { Component, computed, inject, signal } from '@angular/core';
+import { Component, afterNextRender, computed, inject, signal } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -41,126 +41,129 @@ export interface UseDialogData {
   template: `
     <h2 mat-dialog-title>{{ data.use ? 'Edit water use' : 'Add a water use' }}</h2>
     <mat-dialog-content class="rn-use-form">
-      <mat-form-field>
-        <mat-label>Name</mat-label>
-        <input matInput [(ngModel)]="name" data-testid="use-name" required />
-      </mat-form-field>
-      <div class="rn-row">
+      <!-- the fields appear with the dialog's first render done (see \`ready\`) -->
+      @if (ready()) {
         <mat-form-field>
-          <mat-label>Kind</mat-label>
-          <mat-select [ngModel]="kind()" (ngModelChange)="setKind($event)" data-testid="use-kind">
-            @for (k of kinds; track k) {
-              <mat-option [value]="k">{{ kindLabels[k] }}</mat-option>
-            }
-          </mat-select>
+          <mat-label>Name</mat-label>
+          <input matInput [(ngModel)]="name" data-testid="use-name" required />
         </mat-form-field>
-        <mat-form-field>
-          <mat-label>Figure from</mat-label>
-          <mat-select [(ngModel)]="rateKey" data-testid="use-rate-key">
-            @for (r of rows(); track r.key) {
-              <mat-option [value]="r.key">{{ r.label }}</mat-option>
-            }
-          </mat-select>
-        </mat-form-field>
-      </div>
-      @if (kind() === 'garden' || kind() === 'tunnel') {
-        <mat-checkbox [checked]="dripOn()" (change)="dripOn.set($event.checked)" data-testid="use-drip"
-          >Laid as drip rows: flow from the rows, not area × depth</mat-checkbox
-        >
-        @if (dripOn()) {
-          <div class="rn-row" data-testid="use-drip-rows">
-            <mat-form-field
-              ><mat-label>Rows</mat-label><input matInput type="number" min="1" step="1" [(ngModel)]="drip.rows" data-testid="drip-rows"
-            /></mat-form-field>
-            <mat-form-field
-              ><mat-label>Row length ({{ label('length') }})</mat-label
-              ><input matInput type="number" min="0" [(ngModel)]="drip.length" data-testid="drip-length"
-            /></mat-form-field>
-            <mat-form-field
-              ><mat-label>Emitter spacing ({{ label('length') }})</mat-label
-              ><input matInput type="number" min="0" [(ngModel)]="drip.spacing" data-testid="drip-spacing"
-            /></mat-form-field>
-            <mat-form-field
-              ><mat-label>Emitter flow ({{ label('emitter-flow') }})</mat-label
-              ><input matInput type="number" min="0" [(ngModel)]="drip.flow" data-testid="drip-flow"
-            /></mat-form-field>
-            <mat-form-field
-              ><mat-label>Runs (h a day)</mat-label><input matInput type="number" min="0" max="24" [(ngModel)]="drip.run" data-testid="drip-run"
-            /></mat-form-field>
-            <mat-form-field
-              ><mat-label>Hot months (h a day)</mat-label><input matInput type="number" min="0" max="24" [(ngModel)]="drip.hotRun" data-testid="drip-hot-run"
-            /></mat-form-field>
-          </div>
-        }
-      }
-      @if (kind() === 'household') {
-        <fieldset class="rn-fixtures" data-testid="use-fixtures">
-          <legend>Fixtures, optional: the house's peak flow by fixture units (people still set the daily need)</legend>
-          @for (f of fixtureList; track f.key) {
-            <mat-form-field subscriptSizing="dynamic"
-              ><mat-label>{{ f.label }}</mat-label>
-              <input matInput type="number" min="0" step="1" [(ngModel)]="fixtures[f.key]" [attr.data-testid]="'fixture-' + f.key"
-            /></mat-form-field>
-          }
-        </fieldset>
-      }
-      <div class="rn-row">
-        @if ((kind() === 'garden' || kind() === 'tunnel') && dripOn()) {
-        } @else if (kind() === 'garden' || kind() === 'tunnel') {
-          <mat-form-field>
-            <mat-label>Growing area ({{ label('area') }})</mat-label>
-            <input matInput type="number" min="0" [(ngModel)]="amount" data-testid="use-amount" />
-          </mat-form-field>
-        } @else if (kind() === 'other') {
-          <mat-form-field>
-            <mat-label>Daily volume ({{ label('daily-volume') }})</mat-label>
-            <input matInput type="number" min="0" [(ngModel)]="amount" data-testid="use-amount" />
-          </mat-form-field>
-        } @else {
-          <mat-form-field>
-            <mat-label>{{ kind() === 'livestock' ? 'Head' : kind() === 'orchard' ? 'Trees' : 'People' }}</mat-label>
-            <input matInput type="number" min="0" step="1" [(ngModel)]="amount" data-testid="use-amount" />
-          </mat-form-field>
-        }
-        <mat-form-field>
-          <mat-label>Window (h)</mat-label>
-          <input matInput type="number" min="0.25" max="24" [(ngModel)]="window" data-testid="use-window" />
-          <mat-hint>refill or run time for the day's water</mat-hint>
-        </mat-form-field>
-      </div>
-      @if (kind() !== 'other') {
         <div class="rn-row">
           <mat-form-field>
-            <mat-label>Own figure ({{ rateUnit() }}), optional</mat-label>
-            <input matInput type="number" min="0" [(ngModel)]="rate" data-testid="use-rate" placeholder="from the table" />
+            <mat-label>Kind</mat-label>
+            <mat-select [ngModel]="kind()" (ngModelChange)="setKind($event)" data-testid="use-kind">
+              @for (k of kinds; track k) {
+                <mat-option [value]="k">{{ kindLabels[k] }}</mat-option>
+              }
+            </mat-select>
           </mat-form-field>
           <mat-form-field>
-            <mat-label>Hot weather ({{ rateUnit() }}), optional</mat-label>
-            <input matInput type="number" min="0" [(ngModel)]="hotRate" data-testid="use-hot-rate" />
+            <mat-label>Figure from</mat-label>
+            <mat-select [(ngModel)]="rateKey" data-testid="use-rate-key">
+              @for (r of rows(); track r.key) {
+                <mat-option [value]="r.key">{{ r.label }}</mat-option>
+              }
+            </mat-select>
           </mat-form-field>
         </div>
-      }
-      <fieldset class="rn-months" data-testid="use-months">
-        <legend>Season</legend>
-        @for (m of allMonths; track m) {
-          <mat-checkbox [checked]="months().includes(m)" (change)="toggleMonth(m, $event.checked)">{{ monthNames[m - 1] }}</mat-checkbox>
+        @if (kind() === 'garden' || kind() === 'tunnel') {
+          <mat-checkbox [checked]="dripOn()" (change)="dripOn.set($event.checked)" data-testid="use-drip"
+            >Laid as drip rows: flow from the rows, not area × depth</mat-checkbox
+          >
+          @if (dripOn()) {
+            <div class="rn-row" data-testid="use-drip-rows">
+              <mat-form-field
+                ><mat-label>Rows</mat-label><input matInput type="number" min="1" step="1" [(ngModel)]="drip.rows" data-testid="drip-rows"
+              /></mat-form-field>
+              <mat-form-field
+                ><mat-label>Row length ({{ label('length') }})</mat-label
+                ><input matInput type="number" min="0" [(ngModel)]="drip.length" data-testid="drip-length"
+              /></mat-form-field>
+              <mat-form-field
+                ><mat-label>Emitter spacing ({{ label('length') }})</mat-label
+                ><input matInput type="number" min="0" [(ngModel)]="drip.spacing" data-testid="drip-spacing"
+              /></mat-form-field>
+              <mat-form-field
+                ><mat-label>Emitter flow ({{ label('emitter-flow') }})</mat-label
+                ><input matInput type="number" min="0" [(ngModel)]="drip.flow" data-testid="drip-flow"
+              /></mat-form-field>
+              <mat-form-field
+                ><mat-label>Runs (h a day)</mat-label><input matInput type="number" min="0" max="24" [(ngModel)]="drip.run" data-testid="drip-run"
+              /></mat-form-field>
+              <mat-form-field
+                ><mat-label>Hot months (h a day)</mat-label><input matInput type="number" min="0" max="24" [(ngModel)]="drip.hotRun" data-testid="drip-hot-run"
+              /></mat-form-field>
+            </div>
+          }
         }
-      </fieldset>
-      <mat-form-field class="rn-wide">
-        <mat-label>Served by outlets</mat-label>
-        <mat-select multiple [(ngModel)]="outlets" data-testid="use-outlets">
-          @for (o of data.outlets; track o.id) {
-            <mat-option [value]="o.id">{{ o.name }}</mat-option>
+        @if (kind() === 'household') {
+          <fieldset class="rn-fixtures" data-testid="use-fixtures">
+            <legend>Fixtures, optional: the house's peak flow by fixture units (people still set the daily need)</legend>
+            @for (f of fixtureList; track f.key) {
+              <mat-form-field subscriptSizing="dynamic"
+                ><mat-label>{{ f.label }}</mat-label>
+                <input matInput type="number" min="0" step="1" [(ngModel)]="fixtures[f.key]" [attr.data-testid]="'fixture-' + f.key"
+              /></mat-form-field>
+            }
+          </fieldset>
+        }
+        <div class="rn-row">
+          @if ((kind() === 'garden' || kind() === 'tunnel') && dripOn()) {
+          } @else if (kind() === 'garden' || kind() === 'tunnel') {
+            <mat-form-field>
+              <mat-label>Growing area ({{ label('area') }})</mat-label>
+              <input matInput type="number" min="0" [(ngModel)]="amount" data-testid="use-amount" />
+            </mat-form-field>
+          } @else if (kind() === 'other') {
+            <mat-form-field>
+              <mat-label>Daily volume ({{ label('daily-volume') }})</mat-label>
+              <input matInput type="number" min="0" [(ngModel)]="amount" data-testid="use-amount" />
+            </mat-form-field>
+          } @else {
+            <mat-form-field>
+              <mat-label>{{ kind() === 'livestock' ? 'Head' : kind() === 'orchard' ? 'Trees' : 'People' }}</mat-label>
+              <input matInput type="number" min="0" step="1" [(ngModel)]="amount" data-testid="use-amount" />
+            </mat-form-field>
           }
-        </mat-select>
-        <mat-hint>their design flows follow this use</mat-hint>
-      </mat-form-field>
-      @if (problems().length) {
-        <ul class="rn-problems" role="alert" data-testid="use-problems">
-          @for (p of problems(); track p) {
-            <li>{{ p }}</li>
+          <mat-form-field>
+            <mat-label>Window (h)</mat-label>
+            <input matInput type="number" min="0.25" max="24" [(ngModel)]="window" data-testid="use-window" />
+            <mat-hint>refill or run time for the day's water</mat-hint>
+          </mat-form-field>
+        </div>
+        @if (kind() !== 'other') {
+          <div class="rn-row">
+            <mat-form-field>
+              <mat-label>Own figure ({{ rateUnit() }}), optional</mat-label>
+              <input matInput type="number" min="0" [(ngModel)]="rate" data-testid="use-rate" placeholder="from the table" />
+            </mat-form-field>
+            <mat-form-field>
+              <mat-label>Hot weather ({{ rateUnit() }}), optional</mat-label>
+              <input matInput type="number" min="0" [(ngModel)]="hotRate" data-testid="use-hot-rate" />
+            </mat-form-field>
+          </div>
+        }
+        <fieldset class="rn-months" data-testid="use-months">
+          <legend>Season</legend>
+          @for (m of allMonths; track m) {
+            <mat-checkbox [checked]="months().includes(m)" (change)="toggleMonth(m, $event.checked)">{{ monthNames[m - 1] }}</mat-checkbox>
           }
-        </ul>
+        </fieldset>
+        <mat-form-field class="rn-wide">
+          <mat-label>Served by outlets</mat-label>
+          <mat-select multiple [(ngModel)]="outlets" data-testid="use-outlets">
+            @for (o of data.outlets; track o.id) {
+              <mat-option [value]="o.id">{{ o.name }}</mat-option>
+            }
+          </mat-select>
+          <mat-hint>their design flows follow this use</mat-hint>
+        </mat-form-field>
+        @if (problems().length) {
+          <ul class="rn-problems" role="alert" data-testid="use-problems">
+            @for (p of problems(); track p) {
+              <li>{{ p }}</li>
+            }
+          </ul>
+        }
       }
     </mat-dialog-content>
     <mat-dialog-actions align="end">
@@ -234,6 +237,16 @@ export class UseDialog {
   protected readonly kind = signal<UseKind>(this.start?.kind ?? 'livestock');
   protected readonly months = signal<number[]>([...(this.start?.months ?? ALL_MONTHS)]);
   protected readonly problems = signal<string[]>([]);
+  /**
+   * The dialog's view is created before its first change detection (zoneless, attached by the
+   * overlay); an input in the page before its form binding has written would lose what is typed
+   * into it (the first write puts the starting value over it). The fields are shown from the second render,
+   * when creating and binding them happen in one pass.
+   */
+  protected readonly ready = signal(false);
+  constructor() {
+    afterNextRender(() => this.ready.set(true));
+  }
   protected name = this.start?.name ?? '';
   protected rateKey = this.start?.rate_key ?? DEFAULT_KEY_BY_KIND[this.kind()];
   protected amount: number | null = this.initialAmount();
