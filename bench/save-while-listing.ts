@@ -10,9 +10,9 @@
  */
 import { spawn } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { freePort, percentile } from './server-helpers';
 import { loopedGrid } from './looped-grid';
 
 const repoRoot = new URL('..', import.meta.url).pathname;
@@ -53,22 +53,6 @@ class Client {
     this.token = JSON.parse((await this.request('GET', '/api/csrf')).text).token;
   }
 }
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const a = probe.address();
-      probe.close(() => resolve(typeof a === 'object' && a ? a.port : 0));
-    });
-  });
-}
-
-const pct = (xs: number[], p: number): number => {
-  const s = [...xs].sort((a, b) => a - b);
-  return s[Math.min(s.length - 1, Math.floor(p * s.length))];
-};
 
 async function main(): Promise<void> {
   const dir = mkdtempSync(join(tmpdir(), 'runnel-bench-'));
@@ -134,13 +118,13 @@ async function main(): Promise<void> {
     await lister;
 
     const f = (x: number): string => `${x.toFixed(1)} ms`;
-    console.log(`list projects, no save running: median ${f(pct(quiet, 0.5))}, p95 ${f(pct(quiet, 0.95))} (${quiet.length} lists)`);
+    console.log(`list projects, no save running: median ${f(percentile(quiet, 0.5))}, p95 ${f(percentile(quiet, 0.95))} (${quiet.length} lists)`);
     console.log(
-      `list projects during saves:     median ${f(pct(during, 0.5))}, p95 ${f(pct(during, 0.95))}, max ${f(pct(during, 1))} (${during.length} lists) — target median < 50 ms`,
+      `list projects during saves:     median ${f(percentile(during, 0.5))}, p95 ${f(percentile(during, 0.95))}, max ${f(percentile(during, 1))} (${during.length} lists) — target median < 50 ms`,
     );
     console.log(
       `save (PUT network, 10,000 tees): median ${f(
-        pct(
+        percentile(
           saves.map((s) => s.ms),
           0.5,
         ),

@@ -18,9 +18,9 @@
 import { spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { freePort, percentile } from './server-helpers';
 import autocannon from 'autocannon';
 
 const repoRoot = new URL('..', import.meta.url).pathname;
@@ -33,22 +33,6 @@ interface LogLine {
   responseTime?: number;
 }
 
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const a = probe.address();
-      probe.close(() => resolve(typeof a === 'object' && a ? a.port : 0));
-    });
-  });
-}
-
-const pct = (xs: number[], p: number): number => {
-  if (!xs.length) return NaN;
-  const s = [...xs].sort((a, b) => a - b);
-  return s[Math.min(s.length - 1, Math.floor(p * s.length))];
-};
 const f = (x: number): string => `${x.toFixed(1)} ms`;
 
 /** Cookie jar + CSRF token over fetch, for setting up (sign in, create projects). */
@@ -127,10 +111,10 @@ function serverTimes(lines: LogLine[], from: number, match: (l: LogLine) => bool
 
 function report(label: string, server: number[], client: number[], statuses: Map<number, number>, goal?: number): string {
   const codes = [...statuses].map(([s, n]) => `${n}×${s}`).join(', ');
-  const verdict = goal === undefined ? '' : pct(server, 0.99) <= goal ? ` (goal p99 ≤ ${goal} ms: met)` : ` (goal p99 ≤ ${goal} ms: MISSED)`;
+  const verdict = goal === undefined ? '' : percentile(server, 0.99) <= goal ? ` (goal p99 ≤ ${goal} ms: met)` : ` (goal p99 ≤ ${goal} ms: MISSED)`;
   return (
-    `${label}: server median ${f(pct(server, 0.5))}, p99 ${f(pct(server, 0.99))}${verdict}; ` +
-    `client median ${f(pct(client, 0.5))}, p99 ${f(pct(client, 0.99))}; ${server.length} requests (${codes})`
+    `${label}: server median ${f(percentile(server, 0.5))}, p99 ${f(percentile(server, 0.99))}${verdict}; ` +
+    `client median ${f(percentile(client, 0.5))}, p99 ${f(percentile(client, 0.99))}; ${server.length} requests (${codes})`
   );
 }
 
@@ -206,7 +190,7 @@ async function main(): Promise<void> {
     console.log(report('GET at 200/s (list + network)', serverTimes(lines, from, getLines), gets.ms, gets.statuses, 15));
     for (const path of getPaths) {
       const times = serverTimes(lines, from, (l) => l.req?.method === 'GET' && l.req.path === path);
-      console.log(`  ${path.includes('network') ? 'network' : 'project list'}: server median ${f(pct(times, 0.5))}, p99 ${f(pct(times, 0.99))}`);
+      console.log(`  ${path.includes('network') ? 'network' : 'project list'}: server median ${f(percentile(times, 0.5))}, p99 ${f(percentile(times, 0.99))}`);
     }
 
     // 2. Saves of the demo network at 100/s, over a pool of projects (one save in flight per project).
