@@ -4,8 +4,6 @@ import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angula
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
 import { MatChipsModule } from '@angular/material/chips';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 import { Observable } from 'rxjs';
@@ -13,12 +11,13 @@ import { apiErrorMessage } from '../../core/api-errors';
 import { loadErrorText } from '../../core/resource-state';
 import { MIN_PASSWORD_LENGTH, Me } from '../../core/api-types';
 import { SessionService } from '../../core/session.service';
+import { NameField, PasswordField } from '../../shared/account-fields';
 import { TeamService } from '../../core/team.service';
 
 /** Accepting an invitation link (/join/:token): a new user picks a name and password; a signed-in user just joins. */
 @Component({
   selector: 'rn-join-screen',
-  imports: [ReactiveFormsModule, RouterLink, MatCardModule, MatChipsModule, MatFormFieldModule, MatInputModule, MatButtonModule, MatProgressBarModule],
+  imports: [ReactiveFormsModule, RouterLink, NameField, PasswordField, MatCardModule, MatChipsModule, MatButtonModule, MatProgressBarModule],
   templateUrl: './join-screen.html',
   styleUrl: './join-screen.scss',
 })
@@ -30,7 +29,6 @@ export class JoinScreen {
 
   readonly token = input.required<string>();
 
-  protected readonly minPassword = MIN_PASSWORD_LENGTH;
   protected readonly invitation = rxResource({
     params: () => this.token(),
     stream: ({ params }) => this.team.previewInvitation(params),

@@ -3,17 +3,16 @@ import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 import { apiErrorMessage } from '../../core/api-errors';
 import { SessionService } from '../../core/session.service';
+import { EmailField, PasswordField } from '../../shared/account-fields';
 import { safeReturnUrl } from '../../shared/return-url';
 
 @Component({
   selector: 'rn-sign-in-screen',
-  imports: [ReactiveFormsModule, RouterLink, MatCardModule, MatFormFieldModule, MatInputModule, MatButtonModule, MatProgressBarModule],
+  imports: [ReactiveFormsModule, RouterLink, EmailField, PasswordField, MatCardModule, MatButtonModule, MatProgressBarModule],
   templateUrl: './sign-in-screen.html',
 })
 export class SignInScreen {

@@ -10,6 +10,7 @@ import { RouterLink } from '@angular/router';
 import { apiErrorMessage } from '../../core/api-errors';
 import { MIN_PASSWORD_LENGTH } from '../../core/api-types';
 import { SessionService } from '../../core/session.service';
+import { EmailField, NameField, PasswordField } from '../../shared/account-fields';
 
 /**
  * Asking for an account: the server mails a link (the answer never says whether the address is
@@ -17,14 +18,24 @@ import { SessionService } from '../../core/session.service';
  */
 @Component({
   selector: 'rn-sign-up-screen',
-  imports: [ReactiveFormsModule, RouterLink, MatCardModule, MatFormFieldModule, MatInputModule, MatButtonModule, MatProgressBarModule],
+  imports: [
+    ReactiveFormsModule,
+    RouterLink,
+    EmailField,
+    NameField,
+    PasswordField,
+    MatCardModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+    MatProgressBarModule,
+  ],
   templateUrl: './sign-up-screen.html',
 })
 export class SignUpScreen {
   private readonly session = inject(SessionService);
   private readonly destroyRef = inject(DestroyRef);
 
-  protected readonly minPassword = MIN_PASSWORD_LENGTH;
   protected readonly form = inject(NonNullableFormBuilder).group({
     name: ['', [Validators.required, Validators.maxLength(120)]],
     email: ['', [Validators.required, Validators.email]],
