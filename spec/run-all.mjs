@@ -31,7 +31,7 @@ const files = [...specFiles(clientRoot), ...specFiles(specRoot)].sort((a, b) => 
 
 if (process.env.RUNNEL_SKIP_BUILD !== '1') {
   console.log('Building the client for the browser tests…');
-  execSync('npx ng build --configuration production', { cwd: root, stdio: 'inherit' });
+  execSync('node scripts/build-client.mjs', { cwd: root, stdio: 'inherit' });
 }
 
 register();
