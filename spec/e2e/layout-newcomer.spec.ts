@@ -152,6 +152,8 @@ describe("Layout screen: a newcomer's first network (Chromium, real server)", fu
     expect(await page.getByTestId('project-form-name-error').textContent()).to.match(/Give the project a name/);
     expect(posts, 'nothing sent to the server').to.equal(0);
     await page.keyboard.press('Escape');
+    // the next dialog's field must not be this closing one's (two in the page for a moment)
+    await page.locator('mat-dialog-container').waitFor({ state: 'detached', timeout: 10000 });
 
     // A server's refusal shows in the snack bar, and is cleared on leaving the page (here the
     // server is made to refuse the next new project, the way it refused a name of spaces before).
