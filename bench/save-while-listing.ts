@@ -9,10 +9,10 @@
  * server/engine-pool, not on the request thread).
  */
 import { spawn } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { freePort, percentile } from './server-helpers';
+import { freePort, percentile, stopServer } from './server-helpers';
 import { loopedGrid } from './looped-grid';
 
 const repoRoot = new URL('..', import.meta.url).pathname;
@@ -131,12 +131,7 @@ async function main(): Promise<void> {
       )} over ${saves.length} saves; answer ${saves[0].bytes} bytes`,
     );
   } finally {
-    child.kill('SIGTERM');
-    await new Promise((r) => {
-      child.once('exit', r);
-      setTimeout(r, 5000).unref();
-    });
-    rmSync(dir, { recursive: true, force: true });
+    await stopServer(child, dir);
   }
 }
 

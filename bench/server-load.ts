@@ -17,10 +17,10 @@
  */
 import { spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { freePort, percentile } from './server-helpers';
+import { freePort, percentile, stopServer } from './server-helpers';
 import autocannon from 'autocannon';
 
 const repoRoot = new URL('..', import.meta.url).pathname;
@@ -270,12 +270,7 @@ async function main(): Promise<void> {
         .join(' ')}`,
     );
   } finally {
-    child.kill('SIGTERM');
-    await new Promise((r) => {
-      child.once('exit', r);
-      setTimeout(r, 5000).unref();
-    });
-    rmSync(dir, { recursive: true, force: true });
+    await stopServer(child, dir);
   }
 }
 
