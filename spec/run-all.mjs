@@ -67,6 +67,15 @@ function postgresPass() {
 }
 
 const runner = mocha.run();
+// the failures again just above the summary, so a log that keeps only its tail still names them
+const failed = [];
+runner.on('fail', (test, err) =>
+  failed.push(
+    `${test.fullTitle()}: ${String(err?.message ?? err)
+      .split('\n')[0]
+      .slice(0, 300)}`,
+  ),
+);
 runner.on('end', async () => {
   let { passes, failures, pending } = runner.stats;
   if (process.env['RUNNEL_SKIP_POSTGRES'] === '1') {
@@ -81,6 +90,7 @@ runner.on('end', async () => {
     console.log('\nPostgreSQL is not installed (apt-get install -y postgresql): the API suite ran on PGlite only.');
   }
   const code = failures > 0 || passes === 0 ? 1 : 0;
+  if (failed.length > 0) console.log(`\nFailed in the main pass:\n${failed.map((f) => `  - ${f}`).join('\n')}`);
   console.log(`\n${passes} passed, ${failures} failed${pending ? `, ${pending} skipped` : ''}`);
   // Close any handles (database, SMTP sink) a suite left open.
   setTimeout(() => process.exit(code), 200).unref();

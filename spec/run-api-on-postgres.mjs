@@ -16,8 +16,17 @@ for (const name of readdirSync(apiRoot)
   mocha.addFile(join(apiRoot, name));
 await mocha.loadFilesAsync();
 const runner = mocha.run();
+const failed = [];
+runner.on('fail', (test, err) =>
+  failed.push(
+    `${test.fullTitle()}: ${String(err?.message ?? err)
+      .split('\n')[0]
+      .slice(0, 300)}`,
+  ),
+);
 runner.on('end', () => {
   const { passes, failures } = runner.stats;
+  if (failed.length > 0) console.log(`\nFailed on PostgreSQL:\n${failed.map((f) => `  - ${f}`).join('\n')}`);
   console.log(`\npostgres pass: ${passes} passed, ${failures} failed`);
   // Pools and sinks a suite left open must not keep the pass alive.
   setTimeout(() => process.exit(failures > 0 ? 1 : 0), 200).unref();
