@@ -7,7 +7,7 @@ import tseslint from 'typescript-eslint';
 import angular from 'angular-eslint';
 
 export default tseslint.config(
-  { ignores: ['node_modules/', 'dist/', 'out-tsc/', '.angular/', '.data/', 'spec/.tmp/', 'drizzle/migrations/'] },
+  { ignores: ['node_modules/', 'dist/', 'out-tsc/', '.angular/', '.data/', 'spec/.tmp/', 'drizzle/migrations/', 'engine/wasm/assembly/'] },
   {
     files: ['**/*.ts'],
     extends: [js.configs.recommended, ...tseslint.configs.recommended],

@@ -1,4 +1,5 @@
 import type { SparseLdl } from './sparse-ldl';
+import { WasmSupernodal, type KernelStructure } from './wasm/supernodal-kernel';
 
 /**
  * Supernodal left-looking sparse Cholesky factorisation A = L·Lᵀ for large symmetric
@@ -7,7 +8,9 @@ import type { SparseLdl } from './sparse-ldl';
  * Cholesky algorithms on advanced uniprocessor computers", SIAM J. Sci. Comput. 14:1034–1056;
  * the descendant linked lists as in Chen, Davis, Hager & Rajamanickam 2008, CHOLMOD, ACM TOMS 35(3)).
  * It reuses the pattern, fill-reducing ordering and elimination tree of a SparseLdl (./sparse-ldl),
- * whose `values` it reads; the symbolic work is done once in the constructor.
+ * whose `values` it reads; the symbolic work is done once in the constructor. The numeric work
+ * runs in the WebAssembly kernel of ./wasm where it is available (same algorithm, two doubles per
+ * instruction, fast from its first call), else in the JavaScript below.
  *
  * @example
  * const pattern = new SparseLdl(n, pairs);      // fill pattern.values
@@ -42,6 +45,12 @@ export class SupernodalCholesky {
   /** Where each lower-triangle entry of A goes: values[scatterFrom[e]] adds to block[scatterTo[e]]. */
   private readonly scatterFrom: Int32Array;
   private readonly scatterTo: Int32Array;
+  /** What the WebAssembly kernel reads (one object per structure, shared like the structure). */
+  private readonly kernelStructure: KernelStructure;
+  /** The WebAssembly kernel (null: not available; undefined: not tried yet). */
+  private wasm: WasmSupernodal | null | undefined;
+  /** Whether the current factor is in the kernel (else in `block`). */
+  private factoredInWasm = false;
 
   /**
    * @param pattern the simplicial factorisation whose pattern, ordering and values are used
@@ -68,6 +77,7 @@ export class SupernodalCholesky {
       this.work = new Float64Array(n);
       this.scatterFrom = structureOf.scatterFrom;
       this.scatterTo = structureOf.scatterTo;
+      this.kernelStructure = structureOf.kernelStructure;
       return;
     }
     const { parent, lp, colPtr, rowIdx, perm, pinv } = pattern;
@@ -177,6 +187,20 @@ export class SupernodalCholesky {
     this.update = new Float64Array(2 * Math.max(maxUpdate, 1)); // two columns (subtractProductsPair)
     this.map = new Int32Array(this.update.length >> 1);
     this.work = new Float64Array(n);
+    this.kernelStructure = {
+      n,
+      supernodes: ns,
+      first: this.first,
+      rowPtr: this.rowPtr,
+      rows: this.rows,
+      blockPtr: this.blockPtr,
+      superOf: this.superOf,
+      scatterFrom: this.scatterFrom,
+      scatterTo: this.scatterTo,
+      perm: pattern.perm,
+      valueCount: pattern.values.length,
+      updateLength: this.update.length,
+    };
   }
 
   /** Stored entries of L (dense blocks, including the diagonal). */
@@ -186,6 +210,17 @@ export class SupernodalCholesky {
 
   /** Numeric factorisation from pattern.values; returns n on success or the failing column. */
   factor(): number {
+    if (this.wasm === undefined)
+      this.wasm = WasmSupernodal.create(this.kernelStructure, (block) => {
+        this.block = block;
+        this.factoredInWasm = false;
+      });
+    if (this.wasm) {
+      const result = this.wasm.factor(this.pattern.values);
+      this.factoredInWasm = result >= 0;
+      if (result >= 0) return result;
+    }
+    this.factoredInWasm = false;
     if (this.block.length !== this.blockPtr[this.supernodes]) this.block = new Float64Array(this.blockPtr[this.supernodes]);
     const { n, block, head } = this;
     const { values } = this.pattern;
@@ -307,6 +342,7 @@ export class SupernodalCholesky {
 
   /** Solve A·x = b with the current factorisation (b and x may be the same array). */
   solve(b: ArrayLike<number>, x: Float64Array): void {
+    if (this.factoredInWasm && this.wasm?.solve(b, x)) return;
     const { n, first, rowPtr, rows, blockPtr, block, work } = this;
     // rows below a supernode's columns are gathered into (and scattered from) a dense buffer once
     // per supernode instead of being addressed through `rows` once per column

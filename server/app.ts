@@ -134,7 +134,8 @@ export async function createApp(options: AppOptions): Promise<RunnelApp> {
       contentSecurityPolicy: {
         directives: {
           defaultSrc: ["'self'"],
-          scriptSrc: ["'self'"],
+          // wasm-unsafe-eval lets the engine compile its own WebAssembly kernel (no eval of text)
+          scriptSrc: ["'self'", "'wasm-unsafe-eval'"],
           scriptSrcAttr: ["'unsafe-hashes'", ANGULAR_STYLESHEET_ONLOAD],
           styleSrc: ["'self'", "'unsafe-inline'"],
           imgSrc: ["'self'", 'data:', 'blob:'],

@@ -195,10 +195,12 @@ describe('API: auth, CSRF, errors', () => {
     expect(ok.body.currentTeamId).to.equal(t.seeded!.demoTeamId);
   });
 
-  it('sends security headers with a CSP that allows the app (self scripts, blob workers, data/blob images)', async () => {
+  it('sends security headers with a CSP that allows the app (self scripts, the engine’s WebAssembly, blob workers, data/blob images)', async () => {
     const res = await supertest(t.app).get('/api/csrf');
     const csp = String(res.headers['content-security-policy']);
-    expect(csp).to.include("script-src 'self'").and.include("worker-src 'self' blob:").and.include("img-src 'self' data: blob:");
+    // WebAssembly compiles only under 'wasm-unsafe-eval'; text eval ('unsafe-eval') stays refused
+    expect(csp).to.include("script-src 'self' 'wasm-unsafe-eval';").and.include("worker-src 'self' blob:").and.include("img-src 'self' data: blob:");
+    expect(csp).not.to.include("'unsafe-eval'");
     expect(res.headers['x-powered-by']).to.equal(undefined);
   });
 });
