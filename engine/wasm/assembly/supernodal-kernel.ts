@@ -123,6 +123,44 @@ function subtractProductsPair(start: i32, stride: i32, width: i32, j: i32, rows:
   let a = start;
   const po0 = out + ((<usize>o0) << 3);
   const po1 = out + ((<usize>o1) << 3);
+  // four source columns per pass: each pair of target entries loaded and stored once per four
+  for (; k + 4 <= width; k += 4, a += 4 * stride) {
+    const a1 = a + stride;
+    const a2 = a1 + stride;
+    const a3 = a2 + stride;
+    const l0 = f64x2.splat(rf(pBlock, a + j));
+    const l1 = f64x2.splat(rf(pBlock, a1 + j));
+    const l2 = f64x2.splat(rf(pBlock, a2 + j));
+    const l3 = f64x2.splat(rf(pBlock, a3 + j));
+    const u0 = f64x2.splat(rf(pBlock, a + j1));
+    const u1 = f64x2.splat(rf(pBlock, a1 + j1));
+    const u2 = f64x2.splat(rf(pBlock, a2 + j1));
+    const u3 = f64x2.splat(rf(pBlock, a3 + j1));
+    const pa = pBlock + ((<usize>a) << 3);
+    const pa1 = pBlock + ((<usize>a1) << 3);
+    const pa2 = pBlock + ((<usize>a2) << 3);
+    const pa3 = pBlock + ((<usize>a3) << 3);
+    let i = j;
+    for (; i + 2 <= rows; i += 2) {
+      const off = (<usize>i) << 3;
+      const x0 = v128.load(pa + off);
+      const x1 = v128.load(pa1 + off);
+      const x2 = v128.load(pa2 + off);
+      const x3 = v128.load(pa3 + off);
+      const s0 = f64x2.add(f64x2.add(f64x2.mul(x0, l0), f64x2.mul(x1, l1)), f64x2.add(f64x2.mul(x2, l2), f64x2.mul(x3, l3)));
+      const s1 = f64x2.add(f64x2.add(f64x2.mul(x0, u0), f64x2.mul(x1, u1)), f64x2.add(f64x2.mul(x2, u2), f64x2.mul(x3, u3)));
+      v128.store(po0 + off, f64x2.sub(v128.load(po0 + off), s0));
+      v128.store(po1 + off, f64x2.sub(v128.load(po1 + off), s1));
+    }
+    if (i < rows) {
+      const x0 = rf(pBlock, a + i);
+      const x1 = rf(pBlock, a1 + i);
+      const x2 = rf(pBlock, a2 + i);
+      const x3 = rf(pBlock, a3 + i);
+      wf(out, o0 + i, rf(out, o0 + i) - (x0 * rf(pBlock, a + j) + x1 * rf(pBlock, a1 + j) + (x2 * rf(pBlock, a2 + j) + x3 * rf(pBlock, a3 + j))));
+      wf(out, o1 + i, rf(out, o1 + i) - (x0 * rf(pBlock, a + j1) + x1 * rf(pBlock, a1 + j1) + (x2 * rf(pBlock, a2 + j1) + x3 * rf(pBlock, a3 + j1))));
+    }
+  }
   for (; k + 2 <= width; k += 2, a += 2 * stride) {
     const a1 = a + stride;
     const l0 = f64x2.splat(rf(pBlock, a + j));
