@@ -1,5 +1,6 @@
 // Over 400 lines: one Newton loop and the arrays it iterates; its other jobs live in gradient-solver-*.ts.
 import { HW_FLOW_EXPONENT as HW_FLOW_EXPONENT_, hazenWilliamsSecant as hazenWilliamsSecant_ } from './hazen-williams';
+import { chordStep, factorStillServes } from './gradient-solver-chord';
 import * as laws from './gradient-solver-laws';
 import { firstViolation as firstViolation_, type Tolerances } from './gradient-solver-residuals';
 import * as statuses from './gradient-solver-status';
@@ -42,6 +43,9 @@ const { DEMAND_EMITTER, DEMAND_FIXED, LINK_CHECK, LINK_FLOAT, LINK_PIPE, LINK_PR
  * - A Newton step that makes the laws worse (measured as Σ|h(Q) − ΔH|·|Q| over links and
  *   outlets, in watts per unit weight) is halved until it does not: the barriers of outlets
  *   otherwise let a step freeze an outlet at full demand far below its required pressure.
+ * - On large networks an iteration whose matrix is within 1 % of the last factorised one (scaled
+ *   by the diagonal) takes a chord step with that factorisation instead of a new one
+ *   (./gradient-solver-chord): the last iteration or two of a cold solve, many of a warm one.
  * - Converged only when every equation holds (see the stopping rule); otherwise converged:false
  *   with the first equation that does not hold as the reason.
  *
@@ -176,6 +180,10 @@ export class GradientSolver {
   private initialised = false;
   /** Σ|Q| of the last assembly or flow update (a second return value of those methods). */
   private stepScale = 0;
+  /** The matrix of the last factorisation (large networks; null before the first or after a failed one). */
+  private factoredValues: Float64Array | null = null;
+  /** b − A·H of a chord step. */
+  private readonly chordResidual: Float64Array;
   /** r·|Q|^0.852 per Hazen-Williams pipe at the current flows (hazenWilliamsSlopes). */
   private readonly secant: Float64Array;
   /** Largest CHECK_MARGIN·Δ²/|Q| of the last update over the flow tolerance (links and outlets; ≤ 1: worth checking). */
@@ -231,6 +239,7 @@ export class GradientSolver {
     this.gradientPrev = new Float64Array(m);
     this.collapsing = new Uint8Array(m);
     this.secant = new Float64Array(m);
+    this.chordResidual = new Float64Array(nu);
     this.flowPrev = new Float64Array(m);
     this.headPrev = new Float64Array(n);
     this.virtualPrev = new Float64Array(n);
@@ -437,14 +446,20 @@ export class GradientSolver {
       flowPrev.set(flow);
       headPrev.set(head);
       virtualPrev.set(virtualFlow);
-      const factorisation = this.chol ?? ldl;
-      if (factorisation.factor() !== ldl.n) {
-        singular = true;
-        reason = 'singular system (a part of the network has no head to hold it)';
-        break;
+      if (this.chol && this.factoredValues && factorStillServes(this.factoredValues, ldl, this.posDiag))
+        chordStep(ldl, this.chol, rhs, this.chordResidual, x, head, this.unknownNode);
+      else {
+        const factorisation = this.chol ?? ldl;
+        if (factorisation.factor() !== ldl.n) {
+          singular = true;
+          this.factoredValues = null;
+          reason = 'singular system (a part of the network has no head to hold it)';
+          break;
+        }
+        if (this.chol) (this.factoredValues ??= new Float64Array(values.length)).set(values);
+        factorisation.solve(rhs, x);
+        for (let u = 0; u < this.unknownNode.length; u++) head[this.unknownNode[u]] = x[u];
       }
-      factorisation.solve(rhs, x);
-      for (let u = 0; u < this.unknownNode.length; u++) head[this.unknownNode[u]] = x[u];
 
       // flow update
       let sumDQ = this.updateFlows();
