@@ -1,3 +1,4 @@
+import { HW_FLOW_EXPONENT as HW_FLOW_EXPONENT_ } from './hazen-williams';
 import * as laws from './gradient-solver-laws';
 import * as statuses from './gradient-solver-status';
 import type { StatusArrays } from './gradient-solver-status';
@@ -16,6 +17,7 @@ import * as kinds from './network-model';
 // module-local copies of imported bindings read per element (see ./gradient-solver)
 const { LINK_FLOAT, LINK_PIPE, LINK_PRV, LINK_PUMP_FLOW, LINK_SHUTOFF, NODE_JUNCTION, NODE_TANK } = kinds;
 const { linkLaw, outletLawResidual } = laws;
+const HW_FLOW_EXPONENT = HW_FLOW_EXPONENT_;
 const { isShut, nextStatus, prvHead, STATUS_ACTIVE, STATUS_OPEN } = statuses;
 /** Per-node scratch of the check, kept between calls. */
 const buffers: Float64Array[] = [];
@@ -37,6 +39,9 @@ export interface SolutionArrays extends StatusArrays {
   /** Zero-flow span and chord slope per link (./gradient-solver-laws). */
   readonly delta: Float64Array;
   readonly chord: Float64Array;
+  /** Hazen-Williams secant r·|Q|^0.852 per pipe, valid where secantFlow equals the pipe's |Q|. */
+  readonly secant: Float64Array;
+  readonly secantFlow: Float64Array;
 }
 
 /** Inputs of the state being solved (see SolverState in ./gradient-solver). */
@@ -109,6 +114,12 @@ export function firstViolation(s: SolutionArrays, state: StateView, tol: Toleran
     if (Math.abs(q) < d) {
       h = s.chord[k] * q;
       g = s.chord[k];
+    } else if (kind === LINK_PIPE && s.secantFlow[k] === Math.abs(q) && model.headloss !== 'darcy-weisbach') {
+      // the law of ./gradient-solver-laws with the power the solver has just taken
+      const a = Math.abs(q);
+      const sec = s.secant[k];
+      h = (sec + model.minor[k] * a) * q;
+      g = HW_FLOW_EXPONENT * sec + 2 * model.minor[k] * a;
     } else {
       linkLaw(model, k, q, state.pumpFactor[k], scratch);
       h = scratch[0];

@@ -184,8 +184,10 @@ export class GradientSolver {
   private factoredValues: Float64Array | null = null;
   /** b − A·H of a chord step. */
   private readonly chordResidual: Float64Array;
-  /** r·|Q|^0.852 per Hazen-Williams pipe at the current flows (hazenWilliamsSlopes). */
-  private readonly secant: Float64Array;
+  /** r·|Q|^0.852 per Hazen-Williams pipe (hazenWilliamsSlopes), at the flow magnitude in secantFlow. */
+  readonly secant: Float64Array;
+  /** |Q| each `secant` was taken at (the check and the assembly use it only while the flow is unchanged). */
+  readonly secantFlow: Float64Array;
   /** Largest CHECK_MARGIN·Δ²/|Q| of the last update over the flow tolerance (links and outlets; ≤ 1: worth checking). */
   private stepExcess = 0;
   private tolerances: Tolerances = { head_m: ENERGY_TOLERANCE_M, flow_m3s: BALANCE_TOLERANCE_M3S, relativeFlow: RELATIVE_FLOW_TOLERANCE };
@@ -239,6 +241,7 @@ export class GradientSolver {
     this.gradientPrev = new Float64Array(m);
     this.collapsing = new Uint8Array(m);
     this.secant = new Float64Array(m);
+    this.secantFlow = new Float64Array(m).fill(Number.NaN);
     this.chordResidual = new Float64Array(nu);
     this.flowPrev = new Float64Array(m);
     this.headPrev = new Float64Array(n);
@@ -417,6 +420,7 @@ export class GradientSolver {
       for (let i = 0; i < n; i++)
         this.demand[i] = model.nodeKind[i] !== NODE_JUNCTION || !active[i] ? 0 : virtualFull[i] > 0 ? virtualFlow[i] : this.requested[i] || 0;
       for (let k = 0; k < m; k++) if (isShut(status[k]) || !active[linkFrom[k]] || !active[linkTo[k]]) flow[k] = 0;
+      if (hazenWilliams) this.hazenWilliamsSlopes();
       verified = firstViolation(this, state, tol, netOut, this.scratch) === null;
     }
     while (!verified && iterations < maxIterations) {
@@ -484,6 +488,7 @@ export class GradientSolver {
       }
       if ((relative < 1e-3 && this.stepExcess <= 1) || iterations - checkedAt >= 8 || iterations === maxIterations) {
         checkedAt = iterations;
+        if (hazenWilliams) this.hazenWilliamsSlopes();
         reason = firstViolation(this, state, tol, netOut, this.scratch);
         if (reason === null) {
           verified = true;
@@ -502,7 +507,10 @@ export class GradientSolver {
       }
       if (virtualFull[i] > 0) this.demand[i] = Math.min(Math.max(virtualFlow[i], 0), virtualFull[i]);
     }
-    if (!singular && !verified && reason === null) reason = firstViolation(this, state, tol, netOut, this.scratch);
+    if (!singular && !verified && reason === null) {
+      if (hazenWilliams) this.hazenWilliamsSlopes();
+      reason = firstViolation(this, state, tol, netOut, this.scratch);
+    }
     return { converged: reason === null, iterations, singular, reason };
   }
 
@@ -608,15 +616,20 @@ export class GradientSolver {
   /**
    * r·|Q|^0.852 of every pipe into `secant`, in a loop of its own: inside the assembly loop the
    * power's two library calls run one after another (their latency, about 45 ns a pipe on the
-   * 10,000-tee grid), here the processor overlaps them from pipe to pipe (about 20 ns).
+   * 10,000-tee grid), here the processor overlaps them from pipe to pipe (about 20 ns). Pipes
+   * whose flow has not changed since keep theirs: the check after an update and the next
+   * iteration's assembly share one pass.
    */
   private hazenWilliamsSlopes(): void {
-    const { flow, secant } = this;
+    const { flow, secant, secantFlow } = this;
     const { resistance, linkKind } = this.model;
     for (let k = 0; k < secant.length; k++) {
       if (linkKind[k] !== LINK_PIPE) continue;
       const q = flow[k];
-      secant[k] = hazenWilliamsSecant(resistance[k], q < 0 ? -q : q);
+      const a = q < 0 ? -q : q;
+      if (secantFlow[k] === a) continue;
+      secant[k] = hazenWilliamsSecant(resistance[k], a);
+      secantFlow[k] = a;
     }
   }
 
