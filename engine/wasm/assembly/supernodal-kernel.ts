@@ -195,6 +195,31 @@ function subtractProductsPair(start: i32, stride: i32, width: i32, j: i32, rows:
   }
 }
 
+/** block[col + i] *= factor for rows i = from … to−1, two at a time. */
+function scale(col: i32, from: i32, to: i32, factor: f64): void {
+  const v = f64x2.splat(factor);
+  const pc = pBlock + ((<usize>col) << 3);
+  let i = from;
+  for (; i + 2 <= to; i += 2) {
+    const off = (<usize>i) << 3;
+    v128.store(pc + off, f64x2.mul(v128.load(pc + off), v));
+  }
+  if (i < to) wf(pBlock, col + i, rf(pBlock, col + i) * factor);
+}
+
+/** block[target + i] −= block[source + i]·factor for rows i = from … to−1, two at a time. */
+function subtractMultiple(target: i32, source: i32, from: i32, to: i32, factor: f64): void {
+  const v = f64x2.splat(factor);
+  const pt = pBlock + ((<usize>target) << 3);
+  const ps = pBlock + ((<usize>source) << 3);
+  let i = from;
+  for (; i + 2 <= to; i += 2) {
+    const off = (<usize>i) << 3;
+    v128.store(pt + off, f64x2.sub(v128.load(pt + off), f64x2.mul(v128.load(ps + off), v)));
+  }
+  if (i < to) wf(pBlock, target + i, rf(pBlock, target + i) - rf(pBlock, source + i) * factor);
+}
+
 function factorSupernode(s: i32): i32 {
   const f = ri(pFirst, s);
   const wdt = ri(pFirst, s + 1) - f;
@@ -225,10 +250,8 @@ function factorSupernode(s: i32): i32 {
       const base1 = b0 + (ri(pRows, dr0 + p1 + jj + 1) - f) * m;
       if (contiguous) subtractProductsPair(c0, dm, dw, jj, um, pBlock, base + rel0, base1 + rel0);
       else {
-        for (let ii = jj; ii < um; ii++) {
-          wf(pUpdate, ii, 0);
-          wf(pUpdate, half + ii, 0);
-        }
+        memory.fill(pUpdate + ((<usize>jj) << 3), 0, (<usize>(um - jj)) << 3);
+        memory.fill(pUpdate + ((<usize>(half + jj)) << 3), 0, (<usize>(um - jj)) << 3);
         subtractProductsPair(c0, dm, dw, jj, um, pUpdate, 0, half);
         for (let ii = jj; ii < um; ii++) {
           const t = base + ri(pMap, ii);
@@ -244,7 +267,7 @@ function factorSupernode(s: i32): i32 {
       const base = b0 + (ri(pRows, dr0 + p1 + jj) - f) * m;
       if (contiguous) subtractProducts(c0, dm, dw, jj, um, pBlock, base + rel0);
       else {
-        for (let ii = jj; ii < um; ii++) wf(pUpdate, ii, 0);
+        memory.fill(pUpdate + ((<usize>jj) << 3), 0, (<usize>(um - jj)) << 3);
         subtractProducts(c0, dm, dw, jj, um, pUpdate, 0);
         for (let ii = jj; ii < um; ii++) {
           const t = base + ri(pMap, ii);
@@ -273,16 +296,16 @@ function factorSupernode(s: i32): i32 {
     const lcc = Math.sqrt(diag);
     wf(pBlock, cb + c, lcc);
     const inv = 1 / lcc;
-    for (let i = c + 1; i < m; i++) wf(pBlock, cb + i, rf(pBlock, cb + i) * inv);
+    scale(cb, c + 1, m, inv);
     if (!pair) break;
     const l = rf(pBlock, cb + c + 1);
-    for (let i = c + 1; i < m; i++) wf(pBlock, cb1 + i, rf(pBlock, cb1 + i) - rf(pBlock, cb + i) * l);
+    subtractMultiple(cb1, cb, c + 1, m, l);
     const diag1 = rf(pBlock, cb1 + c + 1);
     if (!(diag1 > 0) || !isFinite(diag1)) return f + c + 1;
     const l11 = Math.sqrt(diag1);
     wf(pBlock, cb1 + c + 1, l11);
     const inv1 = 1 / l11;
-    for (let i = c + 2; i < m; i++) wf(pBlock, cb1 + i, rf(pBlock, cb1 + i) * inv1);
+    scale(cb1, c + 2, m, inv1);
   }
   if (wdt < m) {
     wi(pPosition, s, wdt);
