@@ -306,6 +306,9 @@ export class GradientSolver {
 
   private initialise(state: SolverState): void {
     const model = this.model;
+    // a cold start owes nothing to earlier solves: same state, same answer to the bit
+    this.factoredValues = null;
+    this.secantFlow.fill(Number.NaN);
     let hmax = -Infinity;
     for (let i = 0; i < model.nodeCount; i++) if (model.nodeKind[i] !== NODE_JUNCTION) hmax = Math.max(hmax, state.fixedHead[i]);
     for (let i = 0; i < model.nodeCount; i++) {
