@@ -6,6 +6,7 @@ import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { register } from 'tsx/esm/api';
 import Mocha from 'mocha';
+import { failedTests } from './failed-tests.mjs';
 
 const root = new URL('..', import.meta.url).pathname;
 const specRoot = join(root, 'spec');
@@ -67,15 +68,7 @@ function postgresPass() {
 }
 
 const runner = mocha.run();
-// the failures again just above the summary, so a log that keeps only its tail still names them
-const failed = [];
-runner.on('fail', (test, err) =>
-  failed.push(
-    `${test.fullTitle()}: ${String(err?.message ?? err)
-      .split('\n')[0]
-      .slice(0, 300)}`,
-  ),
-);
+const failed = failedTests(runner);
 runner.on('end', async () => {
   let { passes, failures, pending } = runner.stats;
   if (process.env['RUNNEL_SKIP_POSTGRES'] === '1') {
@@ -90,7 +83,8 @@ runner.on('end', async () => {
     console.log('\nPostgreSQL is not installed (apt-get install -y postgresql): the API suite ran on PGlite only.');
   }
   const code = failures > 0 || passes === 0 ? 1 : 0;
-  if (failed.length > 0) console.log(`\nFailed in the main pass:\n${failed.map((f) => `  - ${f}`).join('\n')}`);
+  const failedList = failed.list('Failed in the main pass:');
+  if (failedList) console.log(failedList);
   console.log(`\n${passes} passed, ${failures} failed${pending ? `, ${pending} skipped` : ''}`);
   // Close any handles (database, SMTP sink) a suite left open.
   setTimeout(() => process.exit(code), 200).unref();

@@ -5,6 +5,7 @@ import { readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { register } from 'tsx/esm/api';
 import Mocha from 'mocha';
+import { failedTests } from './failed-tests.mjs';
 
 const apiRoot = new URL('api', import.meta.url).pathname;
 process.env['RUNNEL_TEST_STORE'] = 'postgres';
@@ -16,17 +17,11 @@ for (const name of readdirSync(apiRoot)
   mocha.addFile(join(apiRoot, name));
 await mocha.loadFilesAsync();
 const runner = mocha.run();
-const failed = [];
-runner.on('fail', (test, err) =>
-  failed.push(
-    `${test.fullTitle()}: ${String(err?.message ?? err)
-      .split('\n')[0]
-      .slice(0, 300)}`,
-  ),
-);
+const failed = failedTests(runner);
 runner.on('end', () => {
   const { passes, failures } = runner.stats;
-  if (failed.length > 0) console.log(`\nFailed on PostgreSQL:\n${failed.map((f) => `  - ${f}`).join('\n')}`);
+  const failedList = failed.list('Failed on PostgreSQL:');
+  if (failedList) console.log(failedList);
   console.log(`\npostgres pass: ${passes} passed, ${failures} failed`);
   // Pools and sinks a suite left open must not keep the pass alive.
   setTimeout(() => process.exit(failures > 0 ? 1 : 0), 200).unref();
