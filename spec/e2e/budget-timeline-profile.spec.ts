@@ -176,7 +176,10 @@ describe('Water budget, Timeline and Profile (browser)', function () {
     await page.reload();
     await page.getByTestId('profile-cover-hint').filter({ hasText: 'saved for this project' }).waitFor();
     expect(await page.getByTestId('profile-cover').inputValue()).to.equal('1.2');
+    expect((await page.getByTestId('project-units').textContent())?.trim()).to.equal('SI (metric) units');
     await page.getByTestId('unit-switch-us').click();
+    // the header says the project is kept in SI while the screens show US customary
+    await page.getByTestId('project-units').filter({ hasText: 'SI (metric) project, shown in US customary' }).waitFor();
     // the margin is worked out again in the new units: wait for it rather than read the interim text
     await page
       .getByTestId('profile-margin')
