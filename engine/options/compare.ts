@@ -21,7 +21,8 @@ export interface DesignSummary {
   lowestOutlet: { id: string; pressure_m: number; required_m: number; margin_m: number } | null;
   worstVelocity: { pipe: string; velocity_ms: number } | null;
   worstRating: { pipe: string; static_m: number; rating_m: number; share: number } | null;
-  failingChecks: number;
+  /** Review checks that fail (../review); null when they could not be run for this design. */
+  failingChecks: number | null;
   /** Usable storage ÷ daily need in the peak month, days; null without a water budget. */
   storageDays: number | null;
   pipeCost: number;
@@ -55,11 +56,11 @@ export function evaluateDesign(drawn: NetworkDocument, inputs: SummaryInputs): D
     (m, o) => (!m || o.margin_m < m.margin_m ? { id: o.id, pressure_m: o.pressure_m, required_m: o.required_m, margin_m: o.margin_m } : m),
     null,
   );
-  let failing = 0;
+  let failing: number | null;
   try {
     failing = failingCheckCount(doc, { cover_m: inputs.cover_m });
   } catch {
-    failing = Number.NaN;
+    failing = null;
   }
   let storageDays: number | null = null;
   if (inputs.budget) {

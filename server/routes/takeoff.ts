@@ -249,7 +249,8 @@ export function takeoffRoutes(api: ApiRoutes, ctx: AppContext): void {
     ];
     const failures = evaluation.summary;
     const cautions = [...CAUTIONS];
-    if (failures.failingChecks > 0)
+    if (failures.failingChecks === null) cautions.unshift('The review checks could not be run for this design: see the Review tab before building.');
+    else if (failures.failingChecks > 0)
       cautions.unshift(
         `${failures.failingChecks} review check${failures.failingChecks === 1 ? '' : 's'} fail for this design: see the Review tab before building.`,
       );
