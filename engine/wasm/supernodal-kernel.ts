@@ -106,7 +106,14 @@ function layoutOf(s: KernelStructure): Layout {
 }
 
 class Slot {
-  user: WasmSupernodal | null = null;
+  get user(): WasmSupernodal | null {
+    return this.owner?.deref() ?? null;
+  }
+  set user(user: WasmSupernodal | null) {
+    this.owner = user ? new WeakRef(user) : null;
+  }
+  /** The factorisation whose factor is in memory, held weakly: a slot never keeps a dead solver alive. */
+  private owner: WeakRef<WasmSupernodal> | null = null;
   /** The structure whose arrays are in memory (shared structures are not copied again). */
   structure: KernelStructure | null = null;
   layout: Layout | null = null;
@@ -216,6 +223,7 @@ function acquire(user: WasmSupernodal): Slot | null {
     if (slot) slots.push(slot);
   }
   if (!slot) {
+    if (slots.length === 0) return null; // not even one memory could be had: JavaScript it is
     slot = slots.reduce((a, b) => (a.lastUse <= b.lastUse ? a : b));
     slot.user?.evicted(slot);
   }
@@ -246,7 +254,17 @@ export class WasmSupernodal {
     const slot = this.slot;
     if (!slot) return -1;
     slot.lastUse = ++clock;
-    const layout = slot.load(this);
+    let layout: Layout;
+    try {
+      layout = slot.load(this);
+    } catch {
+      // the memory could not grow to this structure: give the slot back, factor in JavaScript
+      slot.user = null;
+      slot.structure = null;
+      slot.layout = null;
+      this.slot = null;
+      return -1;
+    }
     new Float64Array(slot.memory.buffer, layout.values, values.length).set(values);
     return slot.kernel.factor();
   }
