@@ -24,6 +24,16 @@ export interface BenchResult {
   target_ms?: number;
 }
 
+/**
+ * The p-quantile (p from 0 to 1) of the samples by nearest rank (the ⌈p·n⌉-th smallest); NaN
+ * without samples. @example percentile([3, 1, 2], 0.5) // 2
+ */
+export function percentile(xs: readonly number[], p: number): number {
+  if (!xs.length) return NaN;
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.min(s.length - 1, Math.max(0, Math.ceil(p * s.length) - 1))];
+}
+
 /** Time one case. @example const r = measure(demoSteady); */
 export function measure(c: BenchCase): BenchResult {
   let out: unknown;

@@ -8,14 +8,10 @@
  * median < 50 ms during saves (the save-time check and solve run in the engine pool,
  * server/engine-pool, not on the request thread).
  */
-import { spawn } from 'node:child_process';
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { freePort, percentile, stopServer } from './server-helpers';
+import { startServerProcess } from '../spec/server-process';
+import { percentile } from './harness';
 import { loopedGrid } from './looped-grid';
 
-const repoRoot = new URL('..', import.meta.url).pathname;
 const SAVES = Number(process.env.SAVES ?? 12);
 const LIST_EVERY_MS = 25;
 
@@ -55,24 +51,9 @@ class Client {
 }
 
 async function main(): Promise<void> {
-  const dir = mkdtempSync(join(tmpdir(), 'runnel-bench-'));
-  const port = await freePort();
-  const base = `http://127.0.0.1:${port}`;
-  const child = spawn(process.execPath, [...(process.env.SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean), '--import', 'tsx', 'server/main.ts'], {
-    cwd: repoRoot,
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', RUNNEL_DATA_DIR: dir, NODE_ENV: 'test', PUBLIC_URL: base },
-    stdio: ['ignore', 'ignore', 'inherit'],
-  });
+  const server = await startServerProcess({ nodeArgs: (process.env.SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean) });
+  const base = server.baseUrl;
   try {
-    for (let i = 0; ; i++) {
-      try {
-        if ((await fetch(`${base}/api/csrf`)).ok) break;
-      } catch {
-        /* not up yet */
-      }
-      if (i > 400) throw new Error('server did not start');
-      await new Promise((r) => setTimeout(r, 250));
-    }
     const designer = new Client(base);
     const reader = new Client(base);
     await designer.signIn('designer@runnel.test');
@@ -131,7 +112,7 @@ async function main(): Promise<void> {
       )} over ${saves.length} saves; answer ${saves[0].bytes} bytes`,
     );
   } finally {
-    await stopServer(child, dir);
+    await server.stop();
   }
 }
 

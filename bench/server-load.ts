@@ -15,15 +15,12 @@
  * started at staggered phases to spread them. Goals: GET p99 ≤ 15 ms, save p99 ≤ 50 ms.
  * Run alone: `npx tsx bench/server-load.ts` (about 1.5 minutes; SECONDS=n per case).
  */
-import { spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
-import { mkdtempSync } from 'node:fs';
-import { loadavg, tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { freePort, percentile, stopServer } from './server-helpers';
+import { loadavg } from 'node:os';
+import { startServerProcess } from '../spec/server-process';
+import { percentile } from './harness';
 import autocannon from 'autocannon';
 
-const repoRoot = new URL('..', import.meta.url).pathname;
 const SECONDS = Number(process.env.SECONDS ?? 15);
 const PASSWORD = 'runnel-demo-2026';
 
@@ -119,49 +116,25 @@ function report(label: string, server: number[], client: number[], statuses: Map
 }
 
 async function main(): Promise<void> {
-  const dir = mkdtempSync(join(tmpdir(), 'runnel-load-'));
-  const port = await freePort();
-  const base = `http://127.0.0.1:${port}`;
   const lines: LogLine[] = [];
-  let partial = '';
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
-    cwd: repoRoot,
+  const server = await startServerProcess({
     env: {
-      ...process.env,
-      PORT: String(port),
-      HOST: '127.0.0.1',
-      RUNNEL_DATA_DIR: dir,
       NODE_ENV: 'production',
       COOKIE_SECURE: 'false',
-      PUBLIC_URL: base,
       LOG_LEVEL: 'info',
       // The flood comes from one address here; a budget this high stands for an attacker with many addresses.
       PASSWORD_CHECKS_PER_IP: '1000000',
     },
-    stdio: ['ignore', 'pipe', 'inherit'],
-  });
-  child.stdout!.on('data', (chunk: Buffer) => {
-    const text = partial + chunk.toString('utf8');
-    const parts = text.split('\n');
-    partial = parts.pop()!;
-    for (const p of parts) {
+    onLine(line) {
       try {
-        lines.push(JSON.parse(p) as LogLine);
+        lines.push(JSON.parse(line) as LogLine);
       } catch {
         /* not a log line */
       }
-    }
+    },
   });
+  const base = server.baseUrl;
   try {
-    for (let i = 0; ; i++) {
-      try {
-        if ((await fetch(`${base}/api/csrf`)).ok) break;
-      } catch {
-        /* not up yet */
-      }
-      if (i > 400) throw new Error('server did not start');
-      await new Promise((r) => setTimeout(r, 250));
-    }
     console.log(
       `load average at start: ${loadavg()
         .map((x) => x.toFixed(2))
@@ -270,7 +243,7 @@ async function main(): Promise<void> {
         .join(' ')}`,
     );
   } finally {
-    await stopServer(child, dir);
+    await server.stop();
   }
 }
 

@@ -4,12 +4,10 @@
  * `useBrowserApp()` registers a spec file's hooks (one server and browser per file, a fresh
  * context and page per test).
  */
-import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
-import { tmpdir } from 'node:os';
+import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { startServerProcess, type ServerProcess } from '../server-process';
 
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 export const DEMO_PASSWORD = 'runnel-demo-2026';
@@ -17,81 +15,15 @@ export const demoEmail = (role: string) => `${role}@runnel.test`;
 
 const repoRoot = new URL('../..', import.meta.url).pathname;
 
-export interface RunningApp {
-  baseUrl: string;
-  dataDir: string;
-  /** What the server has written to stdout and stderr so far (its JSON log). */
-  output(): string;
-  stop(): Promise<void>;
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const address = probe.address();
-      const port = typeof address === 'object' && address ? address.port : 0;
-      probe.close(() => resolve(port));
-    });
-  });
-}
-
-async function waitForServer(baseUrl: string, child: ChildProcess, log: () => string): Promise<void> {
-  for (let attempt = 0; attempt < 240; attempt++) {
-    if (child.exitCode !== null) throw new Error(`server exited early:\n${log()}`);
-    try {
-      const res = await fetch(`${baseUrl}/api/csrf`);
-      if (res.ok) return;
-    } catch {
-      // not listening yet
-    }
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  throw new Error(`server did not answer within 60 s:\n${log()}`);
-}
+export type RunningApp = ServerProcess;
 
 /** Starts `tsx server/main.ts` with a throw-away data folder (or the given one, to test restarts). */
 export async function startApp(dataDir?: string): Promise<RunningApp> {
   if (!existsSync(join(repoRoot, 'dist/client/browser/index.html'))) {
     throw new Error('dist/client is missing: run `npx ng build` (npm test does it first)');
   }
-  const dir = dataDir ?? mkdtempSync(join(tmpdir(), 'runnel-e2e-'));
-  const port = await freePort();
-  const baseUrl = `http://127.0.0.1:${port}`;
-  let output = '';
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
-    cwd: repoRoot,
-    env: {
-      ...process.env,
-      PORT: String(port),
-      HOST: '127.0.0.1',
-      RUNNEL_DATA_DIR: dir,
-      NODE_ENV: 'test',
-      PUBLIC_URL: baseUrl,
-      // Every browser test signs in from 127.0.0.1; the per-IP budget has its own API spec.
-      PASSWORD_CHECKS_PER_IP: '100000',
-    },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  child.stdout?.on('data', (d) => (output += d));
-  child.stderr?.on('data', (d) => (output += d));
-  await waitForServer(baseUrl, child, () => output);
-  return {
-    baseUrl,
-    dataDir: dir,
-    output: () => output,
-    async stop() {
-      if (child.exitCode === null) {
-        child.kill('SIGTERM');
-        await new Promise((r) => {
-          child.once('exit', r);
-          setTimeout(r, 5000).unref();
-        });
-      }
-      if (!dataDir) rmSync(dir, { recursive: true, force: true });
-    },
-  };
+  // Every browser test signs in from 127.0.0.1; the per-IP budget has its own API spec.
+  return startServerProcess({ dataDir, env: { PASSWORD_CHECKS_PER_IP: '100000' } });
 }
 
 export async function launchBrowser(): Promise<Browser> {

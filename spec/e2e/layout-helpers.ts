@@ -240,13 +240,6 @@ export async function snackText(page: Page, timeout = 10000): Promise<string> {
   return ((await bar.textContent()) ?? '').trim();
 }
 
-export function percentile(values: number[], p: number): number {
-  const s = [...values].sort((a, b) => a - b);
-  if (!s.length) return NaN;
-  const i = Math.min(s.length - 1, Math.max(0, Math.ceil((p / 100) * s.length) - 1));
-  return s[i];
-}
-
 /**
  * The same designer with the project's Layout open in two windows: `pageA` is the suite's page
  * (already signed in), `pageB` a second signed-in context the harness closes after the test.
