@@ -1,8 +1,8 @@
 /**
- * The sign-up confirmation token: the pending account (e-mail, name, team name, bcrypt hash,
- * expiry) sealed with AES-256-GCM under a key derived from the session secret, so nothing is
- * stored until the owner of the address clicks the link, and the link reveals nothing (not even
- * the hash) to whoever sees it. It is single-use in effect: confirming creates the account, and a
+ * The sign-up confirmation token: the pending account (e-mail, name, team name, expiry) sealed
+ * with AES-256-GCM under a key derived from the session secret, so nothing is stored until the
+ * owner of the address opens the link (and chooses the password there), and the link reveals
+ * nothing to whoever sees it. It is single-use in effect: confirming creates the account, and a
  * second confirm finds the address taken.
  */
 import { createCipheriv, createDecipheriv, hkdfSync, randomBytes } from 'node:crypto';
@@ -14,13 +14,15 @@ const pendingSchema = z.object({
   email: z.string(),
   name: z.string(),
   teamName: z.string(),
-  passwordHash: z.string(),
   expires: z.number(),
 });
-export type PendingSignup = z.infer<typeof pendingSchema>;
+type PendingSignup = z.infer<typeof pendingSchema>;
 
+/** The sealing key of the last secret seen (one per server: derived once, not per link). */
+let cachedKey: { secret: string; key: Buffer } | null = null;
 function keyOf(secret: string): Buffer {
-  return Buffer.from(hkdfSync('sha256', secret, 'runnel', 'sign-up confirmation token', 32));
+  if (cachedKey?.secret !== secret) cachedKey = { secret, key: Buffer.from(hkdfSync('sha256', secret, 'runnel', 'sign-up confirmation token', 32)) };
+  return cachedKey.key;
 }
 
 export function sealSignup(secret: string, pending: Omit<PendingSignup, 'expires'>, now = Date.now()): string {

@@ -1,8 +1,10 @@
 /**
  * /api/auth/signup: creating an account without telling anyone whether an address is registered.
- * Both cases answer the same 202 after the same bcrypt work, and both send one mail after the
- * answer: a new address gets a link that finishes the sign-up (server/auth/signup-token.ts), an
- * existing one a note to its owner. Limited per IP and per e-mail (no mail-bombing an address).
+ * Both cases answer the same 202 after the same lookup, and both send one mail after the answer:
+ * a new address gets a link that finishes the sign-up (server/auth/signup-token.ts), an existing
+ * one a note to its owner. The password is chosen when the link is opened, not asked for here: a
+ * link mailed to someone else's address must never carry a password its sender knows (pressing
+ * the button would hand them the account). Limited per IP and per e-mail (no mail-bombing an address).
  * Without SMTP_HOST the mail lands in the capture sink: in development the link is also logged
  * (server/mail/dev-mail-log.ts); in production sign-up is closed (503) rather than mailing no one.
  */
@@ -23,8 +25,11 @@ import type { OutgoingMail } from '../mail/mailer';
 import { ApiError, parseBody } from '../errors';
 import { emailField, nameField, passwordField, signIn } from './auth';
 
-const signupBody = z.object({ email: emailField, name: nameField, password: passwordField, teamName: nameField });
-const confirmBody = z.object({ token: z.string({ error: 'must be a text' }).min(1, 'is required').max(2000, 'is not a valid link') });
+const signupBody = z.object({ email: emailField, name: nameField, teamName: nameField });
+const confirmBody = z.object({
+  token: z.string({ error: 'must be a text' }).min(1, 'is required').max(2000, 'is not a valid link'),
+  password: passwordField,
+});
 
 /** Sign-up requests allowed per window: per client IP, and per e-mail address. */
 export interface SignupLimit {
@@ -34,7 +39,7 @@ export interface SignupLimit {
 }
 export const DEFAULT_SIGNUP_LIMIT: SignupLimit = { perIp: 10, perEmail: 3, windowMs: 60 * 60 * 1000 };
 
-export const SIGNUP_CLOSED = 'Sign-up is closed on this server: it has no outgoing mail to send the confirmation link. Ask its operator for an invitation.';
+const SIGNUP_CLOSED = 'Sign-up is closed on this server: it has no outgoing mail to send the confirmation link. Ask its operator for an invitation.';
 export const SIGNUP_ANSWER = 'Check your e-mail: we sent a message to finish creating your account. It may take a few minutes.';
 
 function limiter(
@@ -59,15 +64,15 @@ function limiter(
 }
 
 /** Where the mailed link leads: the token rides in the fragment, which browsers never send to a server or a proxy's log. */
-export const confirmLink = (publicUrl: string, token: string) => `${publicUrl}/sign-up/confirm#${token}`;
+const confirmLink = (publicUrl: string, token: string) => `${publicUrl}/sign-up/confirm#${token}`;
 
-function confirmationMail(ctx: AppContext, email: string, name: string, teamName: string, passwordHash: string): OutgoingMail {
-  const token = sealSignup(ctx.config.sessionSecret, { email, name, teamName, passwordHash });
+function confirmationMail(ctx: AppContext, email: string, name: string, teamName: string): OutgoingMail {
+  const token = sealSignup(ctx.config.sessionSecret, { email, name, teamName });
   return {
     to: email,
     subject: 'Finish creating your Runnel account',
     text:
-      `Hello,\n\nTo finish creating your Runnel account and your team, open this link within 24 hours:\n\n` +
+      `Hello,\n\nTo choose your password and finish creating your Runnel account and your team, open this link within 24 hours:\n\n` +
       `${confirmLink(ctx.config.publicUrl, token)}\n\n` +
       `If you did not ask for an account, ignore this message: nothing is created until the link is opened.\n`,
   };
@@ -103,22 +108,19 @@ export function signupRoutes(api: ApiRoutes, ctx: AppContext, limit: SignupLimit
       next();
     },
     perEmail,
-    ctx.passwordBudget,
     async (req, res) => {
       const body = parseBody(signupBody, req.body);
       const email = normaliseEmail(body.email);
-      // Hashed either way, so a registered address answers no sooner than a new one.
-      const passwordHash = await hashPassword(body.password, ctx.bcryptCost, ctx.passwords);
       const [existing] = await db.select({ name: users.name }).from(users).where(eq(users.email, email));
       res.status(202).json({ status: 'check-email', message: SIGNUP_ANSWER });
-      const mail = existing ? ownerNote(ctx, email, existing.name) : confirmationMail(ctx, email, body.name, body.teamName, passwordHash);
+      const mail = existing ? ownerNote(ctx, email, existing.name) : confirmationMail(ctx, email, body.name, body.teamName);
       // After the answer in both cases: how long a mail server takes must not tell the two apart.
       ctx.mailer.send(mail).catch((err: unknown) => ctx.log(`sign-up mail failed: ${err instanceof Error ? err.message : String(err)}`));
     },
   );
 
-  api.post('/auth/signup/confirm', 'public', async (req, res) => {
-    const { token } = parseBody(confirmBody, req.body);
+  api.post('/auth/signup/confirm', 'public', ctx.passwordBudget, async (req, res) => {
+    const { token, password } = parseBody(confirmBody, req.body);
     const pending = openSignup(ctx.config.sessionSecret, token);
     if (pending === null)
       throw new ApiError('validation', 'This sign-up link is not valid; copy the whole link from the e-mail', {
@@ -126,13 +128,12 @@ export function signupRoutes(api: ApiRoutes, ctx: AppContext, limit: SignupLimit
       });
     if (pending === 'expired')
       throw new ApiError('validation', 'This sign-up link has expired; sign up again', { fields: [{ path: 'token', message: 'has expired' }] });
+    const passwordHash = await hashPassword(password, ctx.bcryptCost, ctx.passwords);
     const created = await db.transaction(async (tx) => {
-      const [taken] = await tx.select({ id: users.id }).from(users).where(eq(users.email, pending.email));
-      if (taken) throw new ApiError('conflict', 'This account already exists; sign in instead');
-      // Two clicks at once: the second insert finds the address taken (409), not a unique-key 500.
+      // Used already, or two clicks at once: the insert finds the address taken (409), not a unique-key 500.
       const [user] = await tx
         .insert(users)
-        .values({ email: pending.email, name: pending.name, passwordHash: pending.passwordHash })
+        .values({ email: pending.email, name: pending.name, passwordHash })
         .onConflictDoNothing({ target: users.email })
         .returning({ id: users.id, email: users.email, name: users.name });
       if (!user) throw new ApiError('conflict', 'This account already exists; sign in instead');

@@ -21,7 +21,6 @@ describe('API: auth, CSRF, errors', () => {
     const res = await a.post('/api/auth/signup', {
       email: 'Newcomer@Example.test',
       name: 'New Comer',
-      password: 'long-enough-pw',
       teamName: 'Fresh Spring Team',
     });
     expect(res.status, JSON.stringify(res.body)).to.equal(202);
@@ -29,7 +28,8 @@ describe('API: auth, CSRF, errors', () => {
     await a.get('/api/auth/me').expect(401);
     const mail = await mailTo(t, 'newcomer@example.test');
     const token = confirmTokenIn(mail);
-    const done = await a.post('/api/auth/signup/confirm', { token });
+    // the password is chosen on the page the link opens
+    const done = await a.post('/api/auth/signup/confirm', { token, password: 'long-enough-pw' });
     expect(done.status, JSON.stringify(done.body)).to.equal(201);
     expect(done.body.user.email).to.equal('newcomer@example.test');
     expect(done.body.teams).to.have.length(1);
@@ -44,7 +44,7 @@ describe('API: auth, CSRF, errors', () => {
 
   it('a registered e-mail gets the same answer; its owner is mailed and nothing changes', async () => {
     const a = await t.anonymous();
-    const res = await a.post('/api/auth/signup', { email: 'admin@runnel.test', name: 'X', password: 'long-enough-pw', teamName: 'Y' });
+    const res = await a.post('/api/auth/signup', { email: 'admin@runnel.test', name: 'X', teamName: 'Y' });
     expect(res.status).to.equal(202);
     expect(res.body).to.deep.equal({ status: 'check-email', message: SIGNUP_ANSWER });
     const mail = await mailTo(t, 'admin@runnel.test');
@@ -141,12 +141,15 @@ describe('API: auth, CSRF, errors', () => {
 
   it('validation → 400 listing the field paths', async () => {
     const a = await t.anonymous();
-    const res = await a.post('/api/auth/signup', { email: 'not-an-email', name: '', password: 'short', teamName: 'T' });
+    const res = await a.post('/api/auth/signup', { email: 'not-an-email', name: '', teamName: 'T' });
     expect(res.status).to.equal(400);
     expect(res.body.error.code).to.equal('validation');
-    const paths = res.body.error.fields.map((f: { path: string }) => f.path);
+    // the password is chosen where the mailed link leads
+    const confirm = await a.post('/api/auth/signup/confirm', { token: 'x', password: 'short' });
+    expect(confirm.status).to.equal(400);
+    const paths = [...res.body.error.fields, ...confirm.body.error.fields].map((f: { path: string }) => f.path);
     expect(paths).to.include.members(['email', 'name', 'password']);
-    expect(res.body.error.fields.find((f: { path: string }) => f.path === 'password').message).to.match(/at least 10/);
+    expect(confirm.body.error.fields.find((f: { path: string }) => f.path === 'password').message).to.match(/at least 10/);
   });
 
   it('malformed JSON → 400 validation, not a stack trace', async () => {

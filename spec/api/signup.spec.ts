@@ -14,7 +14,9 @@ import { confirmTokenIn, mailsTo, mailTo } from './mail-helpers';
 import { startTestApp, testConfig, type TestApp } from './test-app';
 
 const SECRET = testConfig('/x').sessionSecret;
-const form = (email: string) => ({ email, name: 'Curious Person', password: 'long-enough-pw', teamName: 'Any Team' });
+const form = (email: string) => ({ email, name: 'Curious Person', teamName: 'Any Team' });
+/** The password chosen on the page the mailed link opens. */
+const PASSWORD = 'long-enough-pw';
 /** What a client can see of an answer, minus what differs on every response. */
 const visible = (res: Response) => {
   const headers = { ...res.headers };
@@ -47,31 +49,51 @@ describe('API: sign-up without revealing who is registered', () => {
     const token = confirmTokenIn(await mailTo(t, 'once.only@example.test'));
     expect(token).to.not.include('once.only'); // sealed, not just signed
     const a = await t.anonymous();
-    await a.post('/api/auth/signup/confirm', { token }).expect(201);
-    const again = await (await t.anonymous()).post('/api/auth/signup/confirm', { token });
+    await a.post('/api/auth/signup/confirm', { token, password: PASSWORD }).expect(201);
+    const again = await (await t.anonymous()).post('/api/auth/signup/confirm', { token, password: PASSWORD });
     expect(again.status).to.equal(409);
     for (const bad of [
       token.slice(0, -4),
       // one character changed (to one it is not: the token is random, and 1 run in 64 it held an 'A' there)
       token.slice(0, 20) + (token[20] === 'A' ? 'B' : 'A') + token.slice(21),
-      sealSignup('another-secret-0123456789', { email: 'x@example.test', name: 'X', teamName: 'T', passwordHash: 'h' }),
+      sealSignup('another-secret-0123456789', { email: 'x@example.test', name: 'X', teamName: 'T' }),
     ]) {
-      const res = await (await t.anonymous()).post('/api/auth/signup/confirm', { token: bad });
+      const res = await (await t.anonymous()).post('/api/auth/signup/confirm', { token: bad, password: PASSWORD });
       expect(res.status, bad).to.equal(400);
       expect(res.body.error.fields[0].path).to.equal('token');
     }
-    const old = sealSignup(SECRET, { email: 'late@example.test', name: 'L', teamName: 'T', passwordHash: 'h' }, Date.now() - SIGNUP_TOKEN_TTL_MS - 1000);
+    const old = sealSignup(SECRET, { email: 'late@example.test', name: 'L', teamName: 'T' }, Date.now() - SIGNUP_TOKEN_TTL_MS - 1000);
     expect(openSignup(SECRET, old)).to.equal('expired');
-    const late = await (await t.anonymous()).post('/api/auth/signup/confirm', { token: old });
+    const late = await (await t.anonymous()).post('/api/auth/signup/confirm', { token: old, password: PASSWORD });
     expect(late.status).to.equal(400);
     expect(late.body.error.message).to.match(/expired/);
+  });
+
+  it('the link carries no password: the account gets the one chosen when the link is opened (a stranger who asks for your address cannot know it)', async () => {
+    // the request has no password field at all (one sent is ignored, not sealed into the link)
+    await (await t.anonymous()).post('/api/auth/signup', { ...form('not.theirs@example.test'), password: 'strangers-password' }).expect(202);
+    const token = confirmTokenIn(await mailTo(t, 'not.theirs@example.test'));
+    const pending = openSignup(SECRET, token);
+    expect(pending).to.be.an('object');
+    expect(JSON.stringify(pending)).to.not.match(/password|\$2[aby]\$/i);
+    // too short a password is a 400 naming it, and creates nothing
+    const short = await (await t.anonymous()).post('/api/auth/signup/confirm', { token, password: 'short' });
+    expect(short.status).to.equal(400);
+    expect(short.body.error.fields[0].path).to.equal('password');
+    expect((await t.db.select({ n: count() }).from(users).where(eq(users.email, 'not.theirs@example.test')))[0].n).to.equal(0);
+    await (await t.anonymous()).post('/api/auth/signup/confirm', { token, password: 'owners-own-password' }).expect(201);
+    await (await t.signIn('not.theirs@example.test', 'owners-own-password')).get('/api/auth/me').expect(200);
+    const stranger = await (await t.anonymous()).post('/api/auth/signin', { email: 'not.theirs@example.test', password: 'strangers-password' });
+    expect(stranger.status).to.equal(401);
   });
 
   it('two clicks on one link at once: one account, the other click a 409 (not a 500)', async () => {
     await (await t.anonymous()).post('/api/auth/signup', form('double.click@example.test')).expect(202);
     const token = confirmTokenIn(await mailTo(t, 'double.click@example.test'));
     const [a, b] = [await t.anonymous(), await t.anonymous()];
-    const statuses = (await Promise.all([a.post('/api/auth/signup/confirm', { token }), b.post('/api/auth/signup/confirm', { token })])).map((r) => r.status);
+    const statuses = (
+      await Promise.all([a.post('/api/auth/signup/confirm', { token, password: PASSWORD }), b.post('/api/auth/signup/confirm', { token, password: PASSWORD })])
+    ).map((r) => r.status);
     expect(statuses.sort()).to.deep.equal([201, 409]);
     expect((await t.db.select({ n: count() }).from(users).where(eq(users.email, 'double.click@example.test')))[0].n).to.equal(1);
   });
@@ -81,7 +103,7 @@ describe('API: sign-up without revealing who is registered', () => {
     const token = confirmTokenIn(await mailTo(t, 'second.account@example.test'));
     const a = await t.signInAs('estimator');
     const oldSid = decodeURIComponent(a.sessionCookie.split('=')[1]).slice(2).split('.')[0];
-    const done = await a.post('/api/auth/signup/confirm', { token });
+    const done = await a.post('/api/auth/signup/confirm', { token, password: PASSWORD });
     expect(done.status, JSON.stringify(done.body)).to.equal(201);
     expect(done.body.user.email).to.equal('second.account@example.test');
     expect(await t.db.select().from(sessions).where(eq(sessions.sid, oldSid))).to.have.length(0);

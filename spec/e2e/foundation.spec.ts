@@ -2,12 +2,11 @@ import { expect } from 'chai';
 import type { Page } from 'playwright-core';
 import { signIn, useBrowserApp, type RunningApp } from './harness';
 
-/** Fills the sign-up form and waits for the "check your e-mail" answer. */
+/** Fills the sign-up form (no password: that is chosen where the link leads) and waits for the "check your e-mail" answer. */
 async function askForAccount(page: Page, baseUrl: string, email: string, teamName: string): Promise<void> {
   await page.goto(`${baseUrl}/sign-up`);
   await page.getByTestId('signup-name').fill('Newcomer Person');
   await page.getByTestId('signup-email').fill(email);
-  await page.getByTestId('signup-password').fill('long-enough-pw');
   await page.getByTestId('signup-team').fill(teamName);
   await page.getByTestId('signup-submit').click();
   await page.getByTestId('signup-sent').waitFor();
@@ -64,11 +63,12 @@ describe('foundation in a real browser (Chromium, real server, PGlite on disk)',
     await page.waitForURL(/\/sign-in/);
   });
 
-  it('a newcomer signs up: the form answers "check your e-mail", the mailed link (logged in development) creates the account and its team', async () => {
+  it('a newcomer signs up: the form answers "check your e-mail", the mailed link (logged in development) asks for the password and creates the account and its team', async () => {
     const { app, page } = ui;
     await askForAccount(page, app.baseUrl, 'first.comer@example.test', 'Spring Gully Water');
     const link = await loggedLink(app, 'first.comer@example.test');
     await page.goto(link);
+    await page.getByTestId('signup-confirm-password').fill('long-enough-pw');
     await page.getByTestId('signup-confirm-submit').click();
     await page.waitForURL(/\/projects$/);
     const me = (await (await page.request.get(`${app.baseUrl}/api/auth/me`)).json()) as { user: { email: string }; teams: { name: string }[] };
@@ -87,12 +87,14 @@ describe('foundation in a real browser (Chromium, real server, PGlite on disk)',
     await page.getByTestId('signup-confirm-keep').click();
     await page.waitForURL(/\/projects$/);
     await page.goto(link);
+    await page.getByTestId('signup-confirm-password').fill('long-enough-pw');
     await page.getByTestId('signup-confirm-submit').click();
     await page.waitForURL(/\/projects$/);
     const me = (await (await page.request.get(`${app.baseUrl}/api/auth/me`)).json()) as { user: { email: string } };
     expect(me.user.email).to.equal('second.comer@example.test');
     // The link is spent: opening it again says the account exists and points to sign-in.
     await page.goto(link);
+    await page.getByTestId('signup-confirm-password').fill('long-enough-pw');
     await page.getByTestId('signup-confirm-submit').click();
     await page.getByTestId('signup-confirm-sign-in').waitFor();
   });

@@ -96,7 +96,6 @@ export interface AuditEntry {
 export interface SignUpRequest {
   email: string;
   name: string;
-  password: string;
   teamName: string;
 }
 /** POST /api/auth/signup answers this whether or not the address is registered. */

@@ -63,10 +63,10 @@ export class SessionService {
     return this.http.post<SignUpAnswer>('/api/auth/signup', request, { context: quiet() });
   }
 
-  /** Opens the mailed link: creates the user and a team of which they are admin, and signs in. */
-  confirmSignUp(token: string): Observable<Me> {
+  /** Finishes from the mailed link with the password chosen there: creates the user and a team of which they are admin, and signs in. */
+  confirmSignUp(token: string, password: string): Observable<Me> {
     this.csrf.reset();
-    return this.http.post<Me>('/api/auth/signup/confirm', { token }, { context: quiet() }).pipe(tap((me) => this.adopt(me)));
+    return this.http.post<Me>('/api/auth/signup/confirm', { token, password }, { context: quiet() }).pipe(tap((me) => this.adopt(me)));
   }
 
   signOut(): Observable<void> {

@@ -1,13 +1,20 @@
 import { Component, booleanAttribute, input } from '@angular/core';
-import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MIN_PASSWORD_LENGTH } from '../core/api-types';
 
 /**
- * The account fields the sign-in, sign-up and join forms share, with their wording written once:
- * each binds a control of the screen's form and keeps the screen's data-testid on its input.
+ * The account fields the sign-in, sign-up and join forms share, with their wording and rules
+ * written once: each binds a control of the screen's form (built with the validators below) and
+ * keeps the screen's data-testid on its input.
  */
+
+/** A person's or team's name (the server's limit is 120 characters). */
+export const NAME_VALIDATORS = [Validators.required, Validators.maxLength(120)];
+/** A password being chosen. */
+export const NEW_PASSWORD_VALIDATORS = [Validators.required, Validators.minLength(MIN_PASSWORD_LENGTH)];
+
 @Component({
   selector: 'rn-name-field',
   imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule],
@@ -17,6 +24,8 @@ import { MIN_PASSWORD_LENGTH } from '../core/api-types';
       <input matInput [formControl]="control()" autocomplete="name" required [attr.data-testid]="testId()" />
       @if (control().hasError('required')) {
         <mat-error>Enter your name.</mat-error>
+      } @else if (control().hasError('maxlength')) {
+        <mat-error>Use at most 120 characters.</mat-error>
       }
     </mat-form-field>
   `,

@@ -1,6 +1,6 @@
 import { Component, DestroyRef, computed, inject, input, signal } from '@angular/core';
 import { rxResource, takeUntilDestroyed } from '@angular/core/rxjs-interop';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
 import { MatChipsModule } from '@angular/material/chips';
@@ -9,9 +9,9 @@ import { Router, RouterLink } from '@angular/router';
 import { Observable } from 'rxjs';
 import { apiErrorMessage } from '../../core/api-errors';
 import { loadErrorText } from '../../core/resource-state';
-import { MIN_PASSWORD_LENGTH, Me } from '../../core/api-types';
+import { Me } from '../../core/api-types';
 import { SessionService } from '../../core/session.service';
-import { NameField, PasswordField } from '../../shared/account-fields';
+import { NAME_VALIDATORS, NameField, NEW_PASSWORD_VALIDATORS, PasswordField } from '../../shared/account-fields';
 import { TeamService } from '../../core/team.service';
 
 /** Accepting an invitation link (/join/:token): a new user picks a name and password; a signed-in user just joins. */
@@ -40,8 +40,8 @@ export class JoinScreen {
   protected readonly returnUrl = computed(() => `/join/${this.token()}`);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
-    name: ['', [Validators.required, Validators.maxLength(120)]],
-    password: ['', [Validators.required, Validators.minLength(MIN_PASSWORD_LENGTH)]],
+    name: ['', NAME_VALIDATORS],
+    password: ['', NEW_PASSWORD_VALIDATORS],
   });
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);

@@ -8,28 +8,17 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import { apiErrorMessage } from '../../core/api-errors';
-import { MIN_PASSWORD_LENGTH } from '../../core/api-types';
 import { SessionService } from '../../core/session.service';
-import { EmailField, NameField, PasswordField } from '../../shared/account-fields';
+import { EmailField, NAME_VALIDATORS, NameField } from '../../shared/account-fields';
 
 /**
  * Asking for an account: the server mails a link (the answer never says whether the address is
- * registered); the link opens sign-up-confirm-screen, which creates the account.
+ * registered); the link opens sign-up-confirm-screen, where the password is chosen and the account
+ * created (a password typed here could be someone else's, asking for your address).
  */
 @Component({
   selector: 'rn-sign-up-screen',
-  imports: [
-    ReactiveFormsModule,
-    RouterLink,
-    EmailField,
-    NameField,
-    PasswordField,
-    MatCardModule,
-    MatFormFieldModule,
-    MatInputModule,
-    MatButtonModule,
-    MatProgressBarModule,
-  ],
+  imports: [ReactiveFormsModule, RouterLink, EmailField, NameField, MatCardModule, MatFormFieldModule, MatInputModule, MatButtonModule, MatProgressBarModule],
   templateUrl: './sign-up-screen.html',
 })
 export class SignUpScreen {
@@ -37,10 +26,9 @@ export class SignUpScreen {
   private readonly destroyRef = inject(DestroyRef);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
-    name: ['', [Validators.required, Validators.maxLength(120)]],
+    name: ['', NAME_VALIDATORS],
     email: ['', [Validators.required, Validators.email]],
-    password: ['', [Validators.required, Validators.minLength(MIN_PASSWORD_LENGTH)]],
-    teamName: ['', [Validators.required, Validators.maxLength(120)]],
+    teamName: ['', NAME_VALIDATORS],
   });
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
@@ -65,7 +53,8 @@ export class SignUpScreen {
         },
         error: (err: unknown) => {
           this.busy.set(false);
-          this.error.set(apiErrorMessage(err, { 429: 'Too many attempts. Wait a few minutes, then try again.' }));
+          // the server's 429 says how long to wait
+          this.error.set(apiErrorMessage(err));
         },
       });
   }
