@@ -130,6 +130,8 @@ export class LayoutScreen {
   readonly markers = new PlanMarkers();
   private view: CanvasView | null = null;
   private readonly solver = new SolverClient();
+  /** The project whose answers the solver worker starts from. */
+  private solvedProject: string | null = null;
 
   /** The earlier version shown read-only (review link), or null for the current network. */
   readonly shownVersion = signal<number | null>(null);
@@ -277,7 +279,11 @@ export class LayoutScreen {
     effect(() => {
       const id = this.projectId();
       this.wantedVersion(); // a review link's version change reloads, then the review shows that version
-      untracked(() => this.sync.load(id));
+      untracked(() => {
+        if (id !== this.solvedProject) this.solver.forget();
+        this.solvedProject = id;
+        this.sync.load(id);
+      });
     });
     effect(() => {
       const ro = !this.canEdit();

@@ -46,6 +46,11 @@ export class SolverClient {
     this.scheduler.request(doc, quick ? SolverClient.QUICK_MS : undefined);
   }
 
+  /** Another project is open: its first solve starts cold, not from the last project's answer. */
+  forget(): void {
+    this.worker?.postMessage({ forget: true });
+  }
+
   dispose(): void {
     this.scheduler.dispose();
     this.worker?.terminate();
