@@ -154,6 +154,12 @@ export class ApiAgent {
   token = '';
   /** `runnel.sid=…` as set at the last sign-in, to replay the session from another client. */
   sessionCookie = '';
+  /** The session id inside the signed cookie (`s:<sid>.<signature>`), as stored in the sessions table. */
+  get sid(): string {
+    return decodeURIComponent(this.sessionCookie.split('=')[1] ?? '')
+      .slice(2)
+      .split('.')[0];
+  }
 
   private constructor(readonly agent: ReturnType<typeof supertest.agent>) {}
 
